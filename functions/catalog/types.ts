@@ -1,0 +1,63 @@
+// The shape of one cell function, declared once. The HyperFormula plugin, the in-app help,
+// docs/functions.md and the example tests are all generated from these entries.
+
+export type Scalar = number | string | boolean;
+export type Table = Scalar[][];
+export type FunctionResult = Scalar | Table;
+
+/** How a parameter arrives in the implementation. `range` gives a Table (a range, an inline array or a spilled result). */
+export type ParamType = 'number' | 'integer' | 'string' | 'boolean' | 'range' | 'any';
+
+export interface ParamSpec {
+  name: string;
+  type: ParamType;
+  description: string;
+  unit?: string;
+  optional?: boolean;
+  default?: Scalar;
+  /** Allowed text values (case-insensitive), listed in the help. */
+  choices?: string[];
+}
+
+export interface Example {
+  formula: string;
+  /** Expected value; a Table for spilled results. */
+  expected: FunctionResult;
+  /** Absolute tolerance for numbers (default 1e-9). */
+  tolerance?: number;
+  /** Where the expected value comes from, if not self-evident. */
+  note?: string;
+}
+
+/** What the plugin knows about an argument before evaluation, to fix a spill size from the formula text. */
+export type SpillArg =
+  | { kind: 'literal'; value: Scalar }
+  | { kind: 'range'; rows: number; cols: number }
+  | { kind: 'other' };
+
+export type Family = 'Diatomic' | 'LCAO' | 'Units' | 'Hückel';
+
+export interface CatalogEntry {
+  name: string;
+  family: Family;
+  summary: string;
+  params: ParamSpec[];
+  returns: { description: string; unit?: string; kind: 'number' | 'text' | 'boolean' | 'array' };
+  examples: Example[];
+  /** The published method and its source. */
+  source: string;
+  /** For spilling functions: the result size, fixed from the formula text alone. */
+  spill?: (args: SpillArg[]) => { rows: number; cols: number };
+  /** Pure implementation. Throw ChemError for bad input; never return NaN or Infinity. */
+  implementation: (...args: any[]) => FunctionResult;
+}
+
+export type ErrorKind = 'VALUE' | 'NUM' | 'NA' | 'DIV_BY_ZERO' | 'REF';
+
+/** A domain error that becomes a spreadsheet error with this message (e.g. #VALUE! "unknown element 'Xq'"). */
+export class ChemError extends Error {
+  constructor(message: string, readonly kind: ErrorKind = 'VALUE') {
+    super(message);
+    this.name = 'ChemError';
+  }
+}

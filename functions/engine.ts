@@ -1,0 +1,29 @@
+import { HyperFormula, type ConfigParams } from 'hyperformula';
+import { registerOrbitabPlugin } from './plugin.js';
+
+export type SheetInput = (string | number | boolean | null)[][];
+
+/** The settings every Orbitab engine shares (client, server, CLI). */
+export const engineConfig: Partial<ConfigParams> = {
+  licenseKey: 'gpl-v3',
+  // HyperFormula's default limit is 40,000 rows; screening sheets can be longer.
+  maxRows: 1_000_000,
+  maxColumns: 2_000,
+  useArrayArithmetic: true,
+  precisionRounding: 12,
+  smartRounding: true,
+};
+
+export function createEngine(sheets: Record<string, SheetInput>, options: Partial<ConfigParams> = {}): HyperFormula {
+  registerOrbitabPlugin();
+  return HyperFormula.buildFromSheets(sheets, { ...engineConfig, ...options });
+}
+
+/** Evaluates stand-alone formulas (the CLI's `eval`) in a scratch engine. */
+export function evaluateFormulas(formulas: string[]) {
+  const engine = createEngine({ Sheet1: formulas.map((f) => [f]) });
+  const sheetId = engine.getSheetId('Sheet1')!;
+  const values = formulas.map((_, row) => engine.getCellValue({ sheet: sheetId, row, col: 0 }));
+  engine.destroy();
+  return values;
+}

@@ -1,0 +1,142 @@
+// Turns the catalog into one HyperFormula FunctionPlugin. Errors are values: a ChemError (or anything
+// unexpected) becomes a CellError with its message, never an exception out of the engine.
+import {
+  ArraySize,
+  CellError,
+  ErrorType,
+  FunctionArgumentType,
+  FunctionPlugin,
+  HyperFormula,
+  SimpleRangeValue,
+  type FunctionArgument,
+  type ImplementedFunctions,
+} from 'hyperformula';
+import { catalog } from './catalog/index.js';
+import { ChemError, type CatalogEntry, type FunctionResult, type ParamSpec, type Scalar, type SpillArg } from './catalog/types.js';
+
+const argumentType: Record<ParamSpec['type'], FunctionArgumentType> = {
+  number: FunctionArgumentType.NUMBER,
+  integer: FunctionArgumentType.INTEGER,
+  string: FunctionArgumentType.STRING,
+  boolean: FunctionArgumentType.BOOLEAN,
+  range: FunctionArgumentType.RANGE,
+  any: FunctionArgumentType.SCALAR,
+};
+
+const errorType: Record<ChemError['kind'], ErrorType> = {
+  VALUE: ErrorType.VALUE,
+  NUM: ErrorType.NUM,
+  NA: ErrorType.NA,
+  DIV_BY_ZERO: ErrorType.DIV_BY_ZERO,
+  REF: ErrorType.REF,
+};
+
+function toArgument(p: ParamSpec): FunctionArgument {
+  const arg: FunctionArgument = { argumentType: argumentType[p.type] };
+  if (p.optional) {
+    arg.optionalArg = true;
+    if (p.default !== undefined) arg.defaultValue = p.default;
+  }
+  return arg;
+}
+
+function rangeToTable(value: unknown): Scalar[][] {
+  if (value instanceof SimpleRangeValue) {
+    return value.rawData().map((row) =>
+      row.map((cell) => {
+        if (cell instanceof CellError) throw new ChemError(`the range holds an error (${cell.type}${cell.message ? ': ' + cell.message : ''})`);
+        if (cell === null || cell === undefined || typeof cell === 'symbol') return '';
+        if (typeof cell === 'object') return Number(cell as unknown as number);
+        return cell as Scalar;
+      }),
+    );
+  }
+  return [[value as Scalar]];
+}
+
+function toCellValue(result: FunctionResult, entry: CatalogEntry): unknown {
+  if (Array.isArray(result)) {
+    for (const row of result) for (const v of row) if (typeof v === 'number' && !Number.isFinite(v)) return new CellError(ErrorType.NUM, `${entry.name} gave a number out of range`);
+    return SimpleRangeValue.onlyValues(result as any);
+  }
+  if (typeof result === 'number' && !Number.isFinite(result)) return new CellError(ErrorType.NUM, `${entry.name} gave a number out of range`);
+  return result;
+}
+
+function spillArgs(ast: any): SpillArg[] {
+  return (ast.args ?? []).map((a: any): SpillArg => {
+    switch (a?.type) {
+      case 'NUMBER':
+        return { kind: 'literal', value: a.value };
+      case 'STRING':
+        return { kind: 'literal', value: a.value };
+      case 'CELL_RANGE':
+      case 'COLUMN_RANGE':
+      case 'ROW_RANGE':
+        return {
+          kind: 'range',
+          rows: Math.abs(a.end.row - a.start.row) + 1,
+          cols: Math.abs(a.end.col - a.start.col) + 1,
+        };
+      default:
+        return { kind: 'other' };
+    }
+  });
+}
+
+/** Runs one catalog implementation with errors turned into values. Exported for tests and the CLI. */
+export function callEntry(entry: CatalogEntry, args: unknown[]): unknown {
+  try {
+    const prepared = args.map((a, i) => (entry.params[i]?.type === 'range' ? rangeToTable(a) : a));
+    return toCellValue(entry.implementation(...prepared), entry);
+  } catch (e) {
+    if (e instanceof ChemError) return new CellError(errorType[e.kind], e.message);
+    return new CellError(ErrorType.VALUE, `${entry.name} failed: ${e instanceof Error ? e.message : String(e)}`);
+  }
+}
+
+function methodName(entry: CatalogEntry) {
+  return `orbitab_${entry.name}`;
+}
+
+export class OrbitabPlugin extends FunctionPlugin {
+  static implementedFunctions: ImplementedFunctions = {};
+}
+
+for (const entry of catalog) {
+  const method = methodName(entry);
+  const metadata: ImplementedFunctions[string] = {
+    method,
+    parameters: entry.params.map(toArgument),
+  };
+  if (entry.params.some((p) => p.type === 'range')) metadata.vectorizationForbidden = true;
+  if (entry.spill) metadata.sizeOfResultArrayMethod = `${method}_size`;
+  OrbitabPlugin.implementedFunctions[entry.name] = metadata;
+  (OrbitabPlugin.prototype as any)[method] = function (this: FunctionPlugin, ast: any, state: any) {
+    return this.runFunction(ast.args, state, this.metadata(entry.name), (...args: unknown[]) => callEntry(entry, args) as any);
+  };
+  if (entry.spill) {
+    const spill = entry.spill;
+    (OrbitabPlugin.prototype as any)[`${method}_size`] = function (ast: any) {
+      try {
+        const { rows, cols } = spill(spillArgs(ast));
+        return new ArraySize(cols, rows);
+      } catch {
+        return ArraySize.error();
+      }
+    };
+  }
+}
+
+const translations = {
+  enGB: Object.fromEntries(catalog.map((e) => [e.name, e.name])),
+  enUS: Object.fromEntries(catalog.map((e) => [e.name, e.name])),
+};
+
+let registered = false;
+/** Registers the plugin in HyperFormula's global registry. Must run before any engine is built. */
+export function registerOrbitabPlugin() {
+  if (registered) return;
+  HyperFormula.registerFunctionPlugin(OrbitabPlugin, translations);
+  registered = true;
+}

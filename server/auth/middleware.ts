@@ -1,0 +1,85 @@
+import type { Request, RequestHandler, Response } from 'express';
+import type { Session, User } from 'lucia';
+import { verifyRequestOrigin } from 'lucia';
+import { forbidden, HttpError, unauthorized } from '../errors.js';
+import type { OrbitabLucia } from './lucia.js';
+
+export type SessionUser = User;
+
+export function setSessionCookie(req: Request, res: Response, lucia: OrbitabLucia, cookie: ReturnType<OrbitabLucia['createSessionCookie']>) {
+  const a = cookie.attributes;
+  res.cookie(cookie.name, cookie.value, {
+    httpOnly: true,
+    sameSite: 'lax',
+    secure: req.secure,
+    path: a.path ?? '/',
+    ...(a.maxAge !== undefined ? { maxAge: a.maxAge * 1000 } : {}),
+    ...(a.expires ? { expires: a.expires } : {}),
+  });
+  void lucia;
+}
+
+/** Reads the session cookie, validates it, refreshes it when lucia says so, and puts the user on res.locals. */
+export function loadSession(lucia: OrbitabLucia): RequestHandler {
+  return async (req, res, next) => {
+    try {
+      const id = lucia.readSessionCookie(req.headers.cookie ?? '');
+      res.locals.user = null;
+      res.locals.session = null;
+      if (!id) return next();
+      const { session, user } = await lucia.validateSession(id);
+      if (!session) {
+        setSessionCookie(req, res, lucia, lucia.createBlankSessionCookie());
+        return next();
+      }
+      if (user.disabled) {
+        await lucia.invalidateUserSessions(user.id);
+        setSessionCookie(req, res, lucia, lucia.createBlankSessionCookie());
+        return next();
+      }
+      if (session.fresh) setSessionCookie(req, res, lucia, lucia.createSessionCookie(session.id));
+      res.locals.user = user;
+      res.locals.session = session;
+      next();
+    } catch (e) {
+      next(e);
+    }
+  };
+}
+
+/** Refuses state-changing requests whose Origin is not this server's (CSRF). */
+export function checkOrigin(configuredOrigin?: string): RequestHandler {
+  return (req, _res, next) => {
+    if (req.method === 'GET' || req.method === 'HEAD' || req.method === 'OPTIONS') return next();
+    const origin = req.get('origin');
+    const host = configuredOrigin ? new URL(configuredOrigin).host : req.get('host');
+    if (!origin || !host || !verifyRequestOrigin(origin, [host])) {
+      return next(new HttpError(403, 'bad_origin', origin ? `request origin ${origin} is not this server's` : 'request has no Origin header; state-changing requests must come from the app'));
+    }
+    next();
+  };
+}
+
+export function currentUser(res: Response): SessionUser {
+  const user = res.locals.user as SessionUser | null;
+  if (!user) throw unauthorized();
+  return user;
+}
+
+export function currentSession(res: Response): Session {
+  const session = res.locals.session as Session | null;
+  if (!session) throw unauthorized();
+  return session;
+}
+
+export const requireUser: RequestHandler = (_req, res, next) => {
+  if (!res.locals.user) return next(unauthorized());
+  next();
+};
+
+export const requireAdmin: RequestHandler = (_req, res, next) => {
+  const user = res.locals.user as SessionUser | null;
+  if (!user) return next(unauthorized());
+  if (user.siteRole !== 'admin') return next(forbidden('site admins only'));
+  next();
+};

@@ -1,0 +1,44 @@
+import path from 'node:path';
+import { z } from 'zod';
+
+const envSchema = z.object({
+  PORT: z.coerce.number().int().min(0).max(65535).default(3000),
+  DATABASE_PATH: z.string().min(1).default('data/orbitab.sqlite'),
+  SMTP_URL: z.string().url().optional(),
+  ORBITAB_SEED: z.enum(['0', '1']).default('1'),
+  ORBITAB_ADMIN_EMAIL: z.string().email().optional(),
+  /** The public origin, when the server sits behind a proxy; otherwise taken from each request's Host. */
+  ORBITAB_ORIGIN: z.string().url().optional(),
+  NODE_ENV: z.string().default('development'),
+});
+
+export interface AppConfig {
+  port: number;
+  databasePath: string;
+  smtpUrl?: string;
+  seed: boolean;
+  adminEmail?: string;
+  origin?: string;
+  production: boolean;
+  /** Where the built client lives (served in production). */
+  clientDir: string;
+}
+
+export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
+  const parsed = envSchema.safeParse(env);
+  if (!parsed.success) {
+    const issue = parsed.error.issues[0];
+    throw new Error(`configuration: ${issue.path.join('.')}: ${issue.message}`);
+  }
+  const e = parsed.data;
+  return {
+    port: e.PORT,
+    databasePath: e.DATABASE_PATH,
+    smtpUrl: e.SMTP_URL,
+    seed: e.ORBITAB_SEED === '1',
+    adminEmail: e.ORBITAB_ADMIN_EMAIL?.toLowerCase(),
+    origin: e.ORBITAB_ORIGIN,
+    production: e.NODE_ENV === 'production',
+    clientDir: path.resolve('dist'),
+  };
+}

@@ -1,0 +1,142 @@
+// The whole data model in one file; `npm run db:generate` writes the SQL migrations into drizzle/.
+import { sql } from 'drizzle-orm';
+import { index, integer, primaryKey, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
+
+const now = sql`(unixepoch('subsec') * 1000)`;
+
+export const users = sqliteTable('users', {
+  id: text('id').primaryKey(),
+  email: text('email').notNull().unique(),
+  name: text('name').notNull(),
+  passwordHash: text('password_hash').notNull(),
+  siteRole: text('site_role', { enum: ['admin', 'member'] }).notNull().default('member'),
+  disabled: integer('disabled', { mode: 'boolean' }).notNull().default(false),
+  createdAt: integer('created_at').notNull().default(now),
+});
+
+// lucia's session table: expires_at in seconds since the epoch, as @lucia-auth/adapter-drizzle expects.
+export const sessions = sqliteTable('sessions', {
+  id: text('id').primaryKey(),
+  userId: text('user_id').notNull().references(() => users.id, { onDelete: 'cascade' }),
+  expiresAt: integer('expires_at').notNull(),
+});
+
+export const workbooks = sqliteTable('workbooks', {
+  id: text('id').primaryKey(),
+  title: text('title').notNull(),
+  ownerId: text('owner_id').notNull().references(() => users.id),
+  revision: integer('revision').notNull().default(0),
+  createdAt: integer('created_at').notNull().default(now),
+  updatedAt: integer('updated_at').notNull().default(now),
+});
+
+export const workbookMembers = sqliteTable(
+  'workbook_members',
+  {
+    workbookId: text('workbook_id').notNull().references(() => workbooks.id, { onDelete: 'cascade' }),
+    userId: text('user_id').notNull().references(() => users.id, { onDelete: 'cascade' }),
+    role: text('role', { enum: ['owner', 'editor', 'viewer'] }).notNull(),
+    createdAt: integer('created_at').notNull().default(now),
+  },
+  (t) => [primaryKey({ columns: [t.workbookId, t.userId] }), index('members_user_idx').on(t.userId)],
+);
+
+export const sheets = sqliteTable(
+  'sheets',
+  {
+    id: text('id').primaryKey(),
+    workbookId: text('workbook_id').notNull().references(() => workbooks.id, { onDelete: 'cascade' }),
+    name: text('name').notNull(),
+    position: integer('position').notNull(),
+    createdBy: text('created_by').references(() => users.id),
+    /** Display settings (column widths, frozen rows, precision) as JSON. */
+    settings: text('settings').notNull().default('{}'),
+  },
+  (t) => [uniqueIndex('sheets_name_idx').on(t.workbookId, t.name), index('sheets_workbook_idx').on(t.workbookId)],
+);
+
+// Sparse: only non-empty cells have a row. `revision` is the workbook revision that last wrote the cell
+// (also kept when a cell is cleared, as an empty input, so conflicts on cleared cells are seen).
+export const cells = sqliteTable(
+  'cells',
+  {
+    sheetId: text('sheet_id').notNull().references(() => sheets.id, { onDelete: 'cascade' }),
+    row: integer('row').notNull(),
+    col: integer('col').notNull(),
+    input: text('input').notNull(),
+    revision: integer('revision').notNull(),
+  },
+  (t) => [primaryKey({ columns: [t.sheetId, t.row, t.col] })],
+);
+
+export const revisions = sqliteTable(
+  'revisions',
+  {
+    workbookId: text('workbook_id').notNull().references(() => workbooks.id, { onDelete: 'cascade' }),
+    number: integer('number').notNull(),
+    authorId: text('author_id').references(() => users.id),
+    kind: text('kind').notNull().default('edit'),
+    /** JSON: the changes of this revision, each with the input before and after. */
+    patch: text('patch').notNull(),
+    createdAt: integer('created_at').notNull().default(now),
+  },
+  (t) => [primaryKey({ columns: [t.workbookId, t.number] })],
+);
+
+export const sheetLocks = sqliteTable('sheet_locks', {
+  sheetId: text('sheet_id').primaryKey().references(() => sheets.id, { onDelete: 'cascade' }),
+  lockedBy: text('locked_by').notNull().references(() => users.id),
+  reason: text('reason').notNull(),
+  /** JSON array of user ids who may still edit the sheet (the locker is always one). */
+  editors: text('editors').notNull().default('[]'),
+  createdAt: integer('created_at').notNull().default(now),
+});
+
+export const protectedRanges = sqliteTable(
+  'protected_ranges',
+  {
+    id: text('id').primaryKey(),
+    sheetId: text('sheet_id').notNull().references(() => sheets.id, { onDelete: 'cascade' }),
+    range: text('range').notNull(),
+    editors: text('editors').notNull().default('[]'),
+    createdBy: text('created_by').notNull().references(() => users.id),
+    createdAt: integer('created_at').notNull().default(now),
+  },
+  (t) => [index('protected_sheet_idx').on(t.sheetId)],
+);
+
+export const invitations = sqliteTable('invitations', {
+  id: text('id').primaryKey(),
+  workbookId: text('workbook_id').notNull().references(() => workbooks.id, { onDelete: 'cascade' }),
+  email: text('email').notNull(),
+  role: text('role', { enum: ['editor', 'viewer'] }).notNull(),
+  tokenHash: text('token_hash').notNull().unique(),
+  invitedBy: text('invited_by').notNull().references(() => users.id),
+  expiresAt: integer('expires_at').notNull(),
+  acceptedAt: integer('accepted_at'),
+  revokedAt: integer('revoked_at'),
+  createdAt: integer('created_at').notNull().default(now),
+});
+
+/** Messages received by the built-in fake SMTP server (the dev inbox). */
+export const mailMessages = sqliteTable('mail_messages', {
+  id: integer('id').primaryKey({ autoIncrement: true }),
+  from: text('from').notNull(),
+  to: text('to').notNull(),
+  subject: text('subject').notNull(),
+  text: text('text').notNull(),
+  receivedAt: integer('received_at').notNull().default(now),
+});
+
+export const auditLog = sqliteTable(
+  'audit_log',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    workbookId: text('workbook_id'),
+    actorId: text('actor_id'),
+    action: text('action').notNull(),
+    details: text('details').notNull().default('{}'),
+    createdAt: integer('created_at').notNull().default(now),
+  },
+  (t) => [index('audit_workbook_idx').on(t.workbookId)],
+);

@@ -1,0 +1,15 @@
+// `npm run dev`: the API and Vite's dev server (with hot reload) on one port.
+import express from 'express';
+import { createServer as createViteServer } from 'vite';
+import { createApp } from './app.js';
+import { loadConfig } from './config.js';
+import { openDatabase } from './db/index.js';
+
+const config = { ...loadConfig(), production: false };
+const db = openDatabase(config.databasePath);
+const { app: api } = createApp({ db, config });
+const vite = await createViteServer({ server: { middlewareMode: true }, appType: 'spa' });
+const app = express();
+app.use(api);
+app.use(vite.middlewares);
+app.listen(config.port, () => console.log(`Orbitab (dev) on http://localhost:${config.port}`));

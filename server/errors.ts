@@ -1,0 +1,55 @@
+import type { ErrorRequestHandler, RequestHandler } from 'express';
+import { z } from 'zod';
+
+/** One error shape for the whole API: { error: { code, message, details? } }. */
+export class HttpError extends Error {
+  constructor(
+    readonly status: number,
+    readonly code: string,
+    message: string,
+    readonly details?: unknown,
+  ) {
+    super(message);
+  }
+}
+
+export const badRequest = (message: string, details?: unknown) => new HttpError(400, 'bad_request', message, details);
+export const unauthorized = (message = 'sign in first') => new HttpError(401, 'unauthorized', message);
+export const forbidden = (message: string) => new HttpError(403, 'forbidden', message);
+export const notFound = (what: string) => new HttpError(404, 'not_found', `${what} not found`);
+export const conflict = (message: string, details?: unknown) => new HttpError(409, 'conflict', message, details);
+
+/** Parses with zod; a failure becomes a 400 whose message names the field. */
+export function parse<S extends z.ZodType>(schema: S, value: unknown, where = 'body'): z.infer<S> {
+  const result = schema.safeParse(value);
+  if (result.success) return result.data;
+  const issues = result.error.issues.map((i) => ({ field: i.path.join('.') || where, message: i.message }));
+  const first = issues[0];
+  throw new HttpError(400, 'invalid_input', `${first.field}: ${first.message}`, { issues });
+}
+
+export const notFoundApi: RequestHandler = (req, _res, next) => next(new HttpError(404, 'not_found', `no API route ${req.method} ${req.path}`));
+
+export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
+  if (err instanceof HttpError) {
+    res.status(err.status).json({ error: { code: err.code, message: err.message, ...(err.details !== undefined ? { details: err.details } : {}) } });
+    return;
+  }
+  // body-parser errors: malformed JSON, too large
+  const status = typeof err?.status === 'number' ? err.status : typeof err?.statusCode === 'number' ? err.statusCode : 500;
+  if (status === 400 && err?.type === 'entity.parse.failed') {
+    res.status(400).json({ error: { code: 'invalid_json', message: 'body: not valid JSON' } });
+    return;
+  }
+  if (status === 413) {
+    res.status(413).json({ error: { code: 'too_large', message: `body: larger than the limit${err.limit ? ` of ${err.limit} bytes` : ''}` } });
+    return;
+  }
+  if (status >= 400 && status < 500) {
+    res.status(status).json({ error: { code: 'bad_request', message: String(err?.message ?? 'bad request') } });
+    return;
+  }
+  (req as any).log?.error({ err }, 'unhandled error');
+  if (!(req as any).log) console.error(err);
+  res.status(500).json({ error: { code: 'internal', message: 'internal error; it has been logged' } });
+};
