@@ -1,5 +1,6 @@
 import path from 'node:path';
 import { z } from 'zod';
+import { resolveLogLevel, type LogLevel } from './logging.js';
 
 const envSchema = z.object({
   PORT: z.coerce.number().int().min(0).max(65535).default(3000),
@@ -22,6 +23,8 @@ export interface AppConfig {
   production: boolean;
   /** Where the built client lives (served in production). */
   clientDir: string;
+  /** From LOG_LEVEL (default 'info'); 'silent' under test. Left out, createApp decides from process.env. */
+  logLevel?: LogLevel;
 }
 
 export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
@@ -39,6 +42,8 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
     adminEmail: e.ORBITAB_ADMIN_EMAIL?.toLowerCase(),
     origin: e.ORBITAB_ORIGIN,
     production: e.NODE_ENV === 'production',
-    clientDir: path.resolve('dist'),
+    // Beside the repository root, not the working directory, so `tsx server/main.ts` works from anywhere.
+    clientDir: path.resolve(import.meta.dirname, '../dist'),
+    logLevel: resolveLogLevel(env),
   };
 }

@@ -1,10 +1,18 @@
 import type { AppConfig } from './config.js';
 import type { Db } from './db/index.js';
 import type { OrbitabLucia } from './auth/lucia.js';
+import type { SignInLimits } from './auth/rateLimit.js';
+import type { Logger } from 'pino';
+import type { EventHub } from './services/events.js';
 
 /** What every route module gets: built once per app, so tests can mount many apps side by side. */
 export interface AppContext {
   db: Db;
   config: AppConfig;
   lucia: OrbitabLucia;
+  /** Sign-in attempt counters (in memory, per app). */
+  signInLimits: SignInLimits;
+  logger: Logger;
+  /** Workbook events (revisions, renames, deletions), published after each commit. */
+  events: EventHub;
 }

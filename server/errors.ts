@@ -8,6 +8,8 @@ export class HttpError extends Error {
     readonly code: string,
     message: string,
     readonly details?: unknown,
+    /** Extra response headers, such as Retry-After on a 429. */
+    readonly headers?: Record<string, string>,
   ) {
     super(message);
   }
@@ -32,6 +34,7 @@ export const notFoundApi: RequestHandler = (req, _res, next) => next(new HttpErr
 
 export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   if (err instanceof HttpError) {
+    if (err.headers) res.set(err.headers);
     res.status(err.status).json({ error: { code: err.code, message: err.message, ...(err.details !== undefined ? { details: err.details } : {}) } });
     return;
   }

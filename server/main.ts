@@ -1,21 +1,50 @@
+// `npm start` (after `vite build`): migrate the database, serve the built client and /api on one port,
+// and close cleanly on SIGTERM/SIGINT.
+import fs from 'node:fs';
+import type { AddressInfo } from 'node:net';
 import { createApp } from './app.js';
 import { loadConfig } from './config.js';
 import { openDatabase } from './db/index.js';
 
 const config = { ...loadConfig(), production: true };
-const db = openDatabase(config.databasePath);
-const { app } = createApp({ db, config });
-const server = app.listen(config.port, () => {
-  console.log(`Orbitab is serving on http://localhost:${config.port}`);
+const db = openDatabase(config.databasePath); // applies any pending migrations before we listen
+const { app, ctx } = createApp({ db, config });
+const log = ctx.logger;
+
+if (!fs.existsSync(config.clientDir)) {
+  log.warn({ clientDir: config.clientDir }, 'no built client; run `vite build` (npm start does) — serving the API only');
+}
+
+const server = app.listen(config.port);
+server.on('listening', () => {
+  const { port } = server.address() as AddressInfo;
+  log.info({ port, databasePath: config.databasePath }, 'listening');
+  // Plain line for the person who ran `npm start` (and for scripts that start us on PORT=0).
+  console.log(`Orbitab is serving on http://localhost:${port}`);
+});
+server.on('error', (err: NodeJS.ErrnoException) => {
+  const reason = err.code === 'EADDRINUSE' ? `port ${config.port} is already in use; set PORT to another` : err.message;
+  console.error(`Orbitab could not start: ${reason}`);
+  db.$client.close();
+  process.exit(1);
 });
 
-function shutdown(signal: string) {
-  console.log(`${signal}: closing`);
+// Graceful: stop taking connections, let requests in flight finish, then close the database (which
+// checkpoints the WAL). Long-lived connections (Server-Sent Events) are cut after a grace period.
+const graceMs = 10_000;
+let stopping = false;
+function shutdown(signal: NodeJS.Signals) {
+  if (stopping) return;
+  stopping = true;
+  log.info({ signal }, 'shutting down');
   server.close(() => {
     db.$client.close();
+    log.info('closed');
     process.exit(0);
   });
-  setTimeout(() => process.exit(1), 10_000).unref();
+  server.closeIdleConnections();
+  setTimeout(() => server.closeAllConnections(), graceMs).unref();
+  setTimeout(() => process.exit(1), graceMs + 5_000).unref();
 }
 process.on('SIGTERM', () => shutdown('SIGTERM'));
 process.on('SIGINT', () => shutdown('SIGINT'));

@@ -1,19 +1,22 @@
 import { DrizzleSQLiteAdapter } from '@lucia-auth/adapter-drizzle';
 import { Lucia, TimeSpan } from 'lucia';
+import type { SiteRole } from '../../shared/auth.js';
 import type { Db } from '../db/index.js';
 import { sessions, users } from '../db/schema.js';
 
 export function createLucia(db: Db) {
   const adapter = new DrizzleSQLiteAdapter(db, sessions, users);
   return new Lucia(adapter, {
-    // Sessions last 14 days and lucia extends them (session.fresh) once half of that has passed.
+    // Sessions last 14 days; lucia extends one (session.fresh) once half of that has passed, and
+    // loadSession then sends the cookie again with the new expiry.
     sessionExpiresIn: new TimeSpan(14, 'd'),
     sessionCookie: {
       name: 'orbitab_session',
-      // `secure` is set per request in the middleware (true when served over https).
+      // `secure` is decided per request in setSessionCookie (true when served over https).
       attributes: { sameSite: 'lax', secure: false },
     },
-    getUserAttributes: (a) => ({ email: a.email, name: a.name, siteRole: a.site_role ?? a.siteRole, disabled: Boolean(a.disabled) }),
+    // The adapter selects the Drizzle columns, so attributes arrive with the schema's property names.
+    getUserAttributes: (a) => ({ email: a.email, name: a.name, siteRole: a.siteRole, disabled: Boolean(a.disabled) }),
   });
 }
 
@@ -22,6 +25,6 @@ export type OrbitabLucia = ReturnType<typeof createLucia>;
 declare module 'lucia' {
   interface Register {
     Lucia: OrbitabLucia;
-    DatabaseUserAttributes: { email: string; name: string; siteRole: 'admin' | 'member'; site_role?: 'admin' | 'member'; disabled: boolean | number };
+    DatabaseUserAttributes: { email: string; name: string; siteRole: SiteRole; disabled: boolean };
   }
 }

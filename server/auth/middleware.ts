@@ -1,12 +1,16 @@
 import type { Request, RequestHandler, Response } from 'express';
-import type { Session, User } from 'lucia';
+import type { Cookie, Session, User } from 'lucia';
 import { verifyRequestOrigin } from 'lucia';
 import { forbidden, HttpError, unauthorized } from '../errors.js';
 import type { OrbitabLucia } from './lucia.js';
 
 export type SessionUser = User;
 
-export function setSessionCookie(req: Request, res: Response, lucia: OrbitabLucia, cookie: ReturnType<OrbitabLucia['createSessionCookie']>) {
+/**
+ * Writes lucia's session cookie through Express: httpOnly, SameSite=Lax, and Secure exactly when the
+ * request came over https (req.secure, which trusts X-Forwarded-Proto only from a loopback proxy).
+ */
+export function setSessionCookie(req: Request, res: Response, cookie: Cookie) {
   const a = cookie.attributes;
   res.cookie(cookie.name, cookie.value, {
     httpOnly: true,
@@ -14,9 +18,7 @@ export function setSessionCookie(req: Request, res: Response, lucia: OrbitabLuci
     secure: req.secure,
     path: a.path ?? '/',
     ...(a.maxAge !== undefined ? { maxAge: a.maxAge * 1000 } : {}),
-    ...(a.expires ? { expires: a.expires } : {}),
   });
-  void lucia;
 }
 
 /** Reads the session cookie, validates it, refreshes it when lucia says so, and puts the user on res.locals. */
@@ -29,15 +31,15 @@ export function loadSession(lucia: OrbitabLucia): RequestHandler {
       if (!id) return next();
       const { session, user } = await lucia.validateSession(id);
       if (!session) {
-        setSessionCookie(req, res, lucia, lucia.createBlankSessionCookie());
+        setSessionCookie(req, res, lucia.createBlankSessionCookie());
         return next();
       }
       if (user.disabled) {
         await lucia.invalidateUserSessions(user.id);
-        setSessionCookie(req, res, lucia, lucia.createBlankSessionCookie());
+        setSessionCookie(req, res, lucia.createBlankSessionCookie());
         return next();
       }
-      if (session.fresh) setSessionCookie(req, res, lucia, lucia.createSessionCookie(session.id));
+      if (session.fresh) setSessionCookie(req, res, lucia.createSessionCookie(session.id));
       res.locals.user = user;
       res.locals.session = session;
       next();
