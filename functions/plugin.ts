@@ -109,7 +109,8 @@ for (const entry of catalog) {
     method,
     parameters: entry.params.map(toArgument),
   };
-  if (entry.params.some((p) => p.type === 'range')) metadata.vectorizationForbidden = true;
+  // A spilling function must not be vectorized: HyperFormula throws "Function returning array cannot be vectorized" out of the engine.
+  if (entry.spill || entry.params.some((p) => p.type === 'range')) metadata.vectorizationForbidden = true;
   if (entry.spill) metadata.sizeOfResultArrayMethod = `${method}_size`;
   OrbitabPlugin.implementedFunctions[entry.name] = metadata;
   (OrbitabPlugin.prototype as any)[method] = function (this: FunctionPlugin, ast: any, state: any) {
