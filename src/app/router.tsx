@@ -1,0 +1,48 @@
+// Every route of the app, in React Router's data mode. Pages that pull in heavy code (the grid with
+// its formula engine, the function reference with the catalog) load on first visit.
+import { createBrowserRouter } from 'react-router';
+import { AdminUsersPage } from '../features/admin/AdminUsersPage.js';
+import { SignInPage } from '../features/auth/SignInPage.js';
+import { SignUpPage } from '../features/auth/SignUpPage.js';
+import { WorkbookListPage } from '../features/workbooks/WorkbookListPage.js';
+import { redirectIfSignedIn, requireSignedIn, signInPath } from './guards.js';
+import { AppLayout } from './layout/AppLayout.js';
+import { onSessionLost } from './queryClient.js';
+import { NotFoundPage, RouteError } from './RouteError.js';
+
+export const router = createBrowserRouter([
+  {
+    // Shown while the first guard asks the server who is signed in.
+    HydrateFallback: () => <div className="h-screen bg-canvas" aria-busy="true" />,
+    ErrorBoundary: RouteError,
+    children: [
+      { path: '/sign-in', loader: redirectIfSignedIn, Component: SignInPage },
+      { path: '/sign-up', loader: redirectIfSignedIn, Component: SignUpPage },
+      {
+        loader: requireSignedIn,
+        Component: AppLayout,
+        ErrorBoundary: RouteError,
+        children: [
+          { index: true, Component: WorkbookListPage },
+          {
+            path: 'workbooks/:id',
+            lazy: async () => ({ Component: (await import('../features/grid/WorkbookPage.js')).WorkbookPage }),
+          },
+          {
+            path: 'functions',
+            lazy: async () => ({ Component: (await import('../features/reference/FunctionReferencePage.js')).FunctionReferencePage }),
+          },
+          { path: 'admin', Component: AdminUsersPage },
+          { path: '*', Component: NotFoundPage },
+        ],
+      },
+    ],
+  },
+]);
+
+// When the server says the session is gone (401 on any call), go to sign-in and come back after.
+onSessionLost(() => {
+  const { pathname, search } = router.state.location;
+  if (pathname === '/sign-in' || pathname === '/sign-up') return;
+  void router.navigate(signInPath(pathname, search), { replace: true });
+});

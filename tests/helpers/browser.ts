@@ -1,0 +1,84 @@
+// Headless Debian Chromium through playwright-core, for browser tests.
+//
+// Usage:
+//   const browser = await launchBrowser();             // { context, page, errors, close() }
+//   await browser.page.goto(server.url);
+//   await screenshot(browser.page, 'sign-in-light');    // tests/artifacts/sign-in-light.png
+//   expect(browser.errors).toEqual([]);                 // no uncaught errors in the page
+//   await browser.close();                              // also deletes the temporary profile
+//
+// A persistent context on a fresh temporary profile (not the user's), with the flags that keep
+// Chromium from reaching the network on its own (updates, sync, field trials) in CI containers.
+import fs from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import { chromium, type BrowserContext, type Page } from 'playwright-core';
+
+export const chromiumPath = '/usr/bin/chromium';
+export const artifactsDir = path.resolve(import.meta.dirname, '../artifacts');
+
+export interface LaunchOptions {
+  /** Window size; a desktop tool is designed for at least 1280×800. */
+  viewport?: { width: number; height: number };
+  /** What prefers-color-scheme reports to the page (default light). */
+  colorScheme?: 'light' | 'dark';
+}
+
+export interface TestBrowser {
+  context: BrowserContext;
+  /** The context's first tab. */
+  page: Page;
+  /** Uncaught exceptions and console.error messages from every page, as text (failed HTTP requests excluded: they are often expected, like a 401 before sign-in). */
+  errors: string[];
+  close(): Promise<void>;
+}
+
+export async function launchBrowser(options: LaunchOptions = {}): Promise<TestBrowser> {
+  if (!fs.existsSync(chromiumPath)) {
+    throw new Error(`${chromiumPath} is missing: install Debian's Chromium (apt-get update && apt-get install -y chromium)`);
+  }
+  const profileDir = fs.mkdtempSync(path.join(os.tmpdir(), 'orbitab-chromium-'));
+  let context: BrowserContext;
+  try {
+    context = await chromium.launchPersistentContext(profileDir, {
+      executablePath: chromiumPath,
+      headless: true,
+      args: ['--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
+      viewport: options.viewport ?? { width: 1280, height: 800 },
+      colorScheme: options.colorScheme ?? 'light',
+    });
+  } catch (e) {
+    fs.rmSync(profileDir, { recursive: true, force: true });
+    throw e;
+  }
+
+  const errors: string[] = [];
+  const watch = (page: Page) => {
+    page.on('pageerror', (err) => errors.push(`uncaught: ${err.message}`));
+    page.on('console', (msg) => {
+      if (msg.type() === 'error' && !msg.text().startsWith('Failed to load resource')) errors.push(`console.error: ${msg.text()}`);
+    });
+  };
+  context.pages().forEach(watch);
+  context.on('page', watch);
+  const page = context.pages()[0] ?? (await context.newPage());
+
+  return {
+    context,
+    page,
+    errors,
+    async close() {
+      await context.close().catch(() => undefined);
+      fs.rmSync(profileDir, { recursive: true, force: true });
+    },
+  };
+}
+
+/** Saves a screenshot of the viewport as tests/artifacts/<name>.png and returns its path. */
+export async function screenshot(page: Page, name: string): Promise<string> {
+  if (!/^[\w.-]+$/.test(name)) throw new Error(`screenshot name '${name}' must be letters, digits, '.', '-' or '_'`);
+  fs.mkdirSync(artifactsDir, { recursive: true });
+  const file = path.join(artifactsDir, `${name}.png`);
+  await page.screenshot({ path: file });
+  return file;
+}
