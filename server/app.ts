@@ -8,6 +8,16 @@ import { createLucia } from './auth/lucia.js';
 import { checkOrigin, loadSession } from './auth/middleware.js';
 import type { AppContext } from './context.js';
 import { errorHandler, notFoundApi } from './errors.js';
+import { createSignInLimits } from './auth/rateLimit.js';
+import { createHttpLogger, createLogger, resolveLogLevel } from './logging.js';
+import { authRouter } from './routes/auth.js';
+import { adminUsersRouter } from './routes/admin.js';
+import { workbooksRouter } from './routes/workbooks.js';
+import { createEventHub } from './services/events.js';
+import { createMailer } from './mail/mailer.js';
+import { teamRouter } from './routes/team.js';
+import { invitationLinksRouter } from './routes/invitations.js';
+import { adminMailRouter } from './routes/mail.js';
 
 export interface CreateAppOptions {
   db: Db;
@@ -15,10 +25,12 @@ export interface CreateAppOptions {
 }
 
 export function createApp({ db, config }: CreateAppOptions): { app: Express; ctx: AppContext } {
-  const ctx: AppContext = { db, config, lucia: createLucia(db) };
+  const logger = createLogger(config.logLevel ?? resolveLogLevel(process.env));
+  const ctx: AppContext = { db, config, lucia: createLucia(db), signInLimits: createSignInLimits(), logger, events: createEventHub((err) => logger.error({ err }, 'workbook event listener failed')), mail: createMailer({ db, smtpUrl: config.smtpUrl, from: config.mailFrom, logger }) };
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');
+  app.use(createHttpLogger(logger));
 
   const api = express.Router();
   api.use(express.json({ limit: '2mb' }));
@@ -35,10 +47,16 @@ export function createApp({ db, config }: CreateAppOptions): { app: Express; ctx
       database = `error: ${(e as Error).message}`;
     }
     const ok = database === 'ok' && (migrations as { current?: boolean })?.current === true;
-    res.status(ok ? 200 : 503).json({ status: ok ? 'ok' : 'degraded', database, migrations });
+    res.status(ok ? 200 : 503).json({ status: ok ? 'ok' : 'degraded', database, migrations, mail: ctx.mail.status() });
   });
 
   // Feature routers mount here.
+  api.use('/auth', authRouter(ctx));
+  api.use('/admin', adminUsersRouter(ctx));
+  api.use('/workbooks', workbooksRouter(ctx));
+  api.use('/workbooks', teamRouter(ctx));
+  api.use('/invitations', invitationLinksRouter(ctx));
+  api.use('/admin', adminMailRouter(ctx));
 
   api.use(notFoundApi);
   api.use(errorHandler);

@@ -4,6 +4,7 @@ import type { OrbitabLucia } from './auth/lucia.js';
 import type { SignInLimits } from './auth/rateLimit.js';
 import type { Logger } from 'pino';
 import type { EventHub } from './services/events.js';
+import type { Mailer } from './mail/mailer.js';
 
 /** What every route module gets: built once per app, so tests can mount many apps side by side. */
 export interface AppContext {
@@ -15,4 +16,6 @@ export interface AppContext {
   logger: Logger;
   /** Workbook events (revisions, renames, deletions), published after each commit. */
   events: EventHub;
+  /** Outgoing e-mail (SMTP_URL, or the built-in fake SMTP server); stop() it when the app stops. */
+  mail: Mailer;
 }

@@ -1,0 +1,115 @@
+// /api/workbooks: workbooks, tabs, patches, history and computed values. Every route validates its
+// params and body with zod and asks services/access.ts before touching anything.
+import { Router, type Request, type Response } from 'express';
+import { z } from 'zod';
+import {
+  createSheetSchema,
+  createWorkbookSchema,
+  idSchema,
+  patchSchema,
+  renameWorkbookSchema,
+  revisionListQuerySchema,
+  updateSheetSchema,
+} from '../../shared/workbooks.js';
+import type { WorkbookAction } from '../../shared/permissions.js';
+import { currentUser, requireUser } from '../auth/middleware.js';
+import type { AppContext } from '../context.js';
+import { parse } from '../errors.js';
+import { listVisibleWorkbooks, requireWorkbook } from '../services/access.js';
+import { applyPatch } from '../services/patches.js';
+import { restoreRevision } from '../services/restore.js';
+import { getRevision, listRevisions } from '../services/revisionLog.js';
+import { addSheet, deleteSheet, updateSheet } from '../services/sheetStore.js';
+import { computeValues } from '../services/values.js';
+import { createWorkbook, deleteWorkbook, loadWorkbook, renameWorkbook, summarizeWorkbook } from '../services/workbookStore.js';
+
+const workbookParams = z.object({ id: idSchema });
+const sheetParams = z.object({ id: idSchema, sheetId: idSchema });
+const revisionParams = z.object({ id: idSchema, n: z.coerce.number().int('must be a whole number').min(0, 'must be 0 or more') });
+
+export function workbooksRouter(ctx: AppContext): Router {
+  const router = Router();
+  router.use(requireUser);
+
+  /** Validates :id and checks that the signed-in user may do `action` on that workbook. */
+  const access = (req: Request, res: Response, action: WorkbookAction) => {
+    const { id } = parse(workbookParams, req.params, 'params');
+    return requireWorkbook(ctx, currentUser(res), id, action);
+  };
+
+  router.get('/', (_req, res) => {
+    res.json({ workbooks: listVisibleWorkbooks(ctx, currentUser(res)) });
+  });
+
+  router.post('/', (req, res) => {
+    const { title } = parse(createWorkbookSchema, req.body);
+    const user = currentUser(res);
+    const id = createWorkbook(ctx, user, title);
+    res.status(201).json({ workbook: summarizeWorkbook(ctx, requireWorkbook(ctx, user, id, 'view')) });
+  });
+
+  router.get('/:id', (req, res) => {
+    res.json(loadWorkbook(ctx, access(req, res, 'view')));
+  });
+
+  router.patch('/:id', (req, res) => {
+    const a = access(req, res, 'rename');
+    const { title } = parse(renameWorkbookSchema, req.body);
+    renameWorkbook(ctx, a.workbook.id, title);
+    res.json({ workbook: summarizeWorkbook(ctx, a) });
+  });
+
+  router.delete('/:id', (req, res) => {
+    deleteWorkbook(ctx, access(req, res, 'delete').workbook.id);
+    res.status(204).end();
+  });
+
+  router.post('/:id/sheets', (req, res) => {
+    const a = access(req, res, 'editSheets');
+    const body = parse(createSheetSchema, req.body ?? {});
+    res.status(201).json(addSheet(ctx, a.workbook.id, currentUser(res).id, body));
+  });
+
+  router.patch('/:id/sheets/:sheetId', (req, res) => {
+    const a = access(req, res, 'editSheets');
+    const { sheetId } = parse(sheetParams, req.params, 'params');
+    const body = parse(updateSheetSchema, req.body);
+    res.json(updateSheet(ctx, a.workbook.id, sheetId, currentUser(res).id, body));
+  });
+
+  router.delete('/:id/sheets/:sheetId', (req, res) => {
+    const a = access(req, res, 'editSheets');
+    const { sheetId } = parse(sheetParams, req.params, 'params');
+    res.json(deleteSheet(ctx, a.workbook.id, sheetId, currentUser(res).id));
+  });
+
+  router.post('/:id/patches', (req, res) => {
+    const a = access(req, res, 'editCells');
+    const patch = parse(patchSchema, req.body);
+    res.json(applyPatch(ctx, a.workbook.id, currentUser(res).id, patch));
+  });
+
+  router.get('/:id/revisions', (req, res) => {
+    const a = access(req, res, 'viewHistory');
+    const query = parse(revisionListQuerySchema, req.query, 'query');
+    res.json({ revision: a.workbook.revision, revisions: listRevisions(ctx.db, a.workbook.id, query) });
+  });
+
+  router.get('/:id/revisions/:n', (req, res) => {
+    const a = access(req, res, 'viewHistory');
+    const { n } = parse(revisionParams, req.params, 'params');
+    res.json(getRevision(ctx.db, a.workbook.id, n));
+  });
+
+  router.post('/:id/revisions/:n/restore', (req, res) => {
+    const a = access(req, res, 'restore');
+    const { n } = parse(revisionParams, req.params, 'params');
+    res.json(restoreRevision(ctx, a.workbook.id, currentUser(res).id, n));
+  });
+
+  router.get('/:id/values', (req, res) => {
+    res.json(computeValues(loadWorkbook(ctx, access(req, res, 'view'))));
+  });
+
+  return router;
+}

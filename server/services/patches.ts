@@ -1,0 +1,60 @@
+// Applying a client's patch: all of it in one transaction or none of it. A cell that another revision
+// wrote after the client's baseRevision, to something other than what the client sends, is a
+// conflict; every conflict is reported (409) and nothing is written.
+import type { CellChangeRecord, CellConflict, PatchInput, PatchResult, RevisionPatch } from '../../shared/workbooks.js';
+import type { AppContext } from '../context.js';
+import { badRequest, conflict, HttpError } from '../errors.js';
+import { cellAddress } from './a1.js';
+import { readCell, writeCell } from './cellStore.js';
+import { currentRevision, nextRevision, recordRevision } from './revisionLog.js';
+import { assertMayEditCells } from './protection.js';
+import { workbookSheets } from './sheetOps.js';
+
+/** How many conflicting cells the 409 message names before "and n more" (details list them all). */
+const namedInMessage = 5;
+
+export function applyPatch(ctx: AppContext, workbookId: string, authorId: string, input: PatchInput): PatchResult {
+  const result = ctx.db.transaction(
+    (tx) => {
+      const current = currentRevision(tx, workbookId);
+      if (input.baseRevision > current) {
+        throw badRequest(`baseRevision: ${input.baseRevision} is ahead of the workbook (revision ${current}); reload it`);
+      }
+      const sheetNames = new Map(workbookSheets(tx, workbookId).map((s) => [s.id, s.name]));
+      input.changes.forEach((c, i) => {
+        // Another workbook's sheet is as unknown as a deleted one: no reach across workbooks.
+        if (!sheetNames.has(c.sheetId)) throw new HttpError(404, 'not_found', `changes.${i}.sheetId: sheet ${c.sheetId} not found in this workbook`);
+      });
+      // Locks and protected ranges, read in this transaction: refused before any conflict is looked at.
+      assertMayEditCells(tx, workbookId, authorId, input.changes, sheetNames);
+
+      const conflicts: CellConflict[] = [];
+      const writes: CellChangeRecord[] = [];
+      for (const c of input.changes) {
+        const stored = readCell(ctx.db, c.sheetId, c.row, c.col);
+        const before = stored?.input ?? '';
+        if (before === c.input) continue; // already so: nothing to write, nothing to fight over
+        if (stored && stored.revision > input.baseRevision) {
+          conflicts.push({ sheetId: c.sheetId, row: c.row, col: c.col, theirs: before, mine: c.input, revision: stored.revision });
+        } else {
+          writes.push({ sheetId: c.sheetId, row: c.row, col: c.col, before, after: c.input });
+        }
+      }
+      if (conflicts.length > 0) {
+        const named = conflicts.slice(0, namedInMessage).map((k) => `${cellAddress(sheetNames.get(k.sheetId)!, k.row, k.col)} (revision ${k.revision})`);
+        const more = conflicts.length > namedInMessage ? ` and ${conflicts.length - namedInMessage} more` : '';
+        throw conflict(`changed by someone else after revision ${input.baseRevision}: ${named.join(', ')}${more}; nothing was saved`, { conflicts });
+      }
+      if (writes.length === 0) return { revision: current, applied: 0, patch: null };
+
+      const revision = nextRevision(tx, workbookId);
+      for (const w of writes) writeCell(ctx.db, w.sheetId, w.row, w.col, w.after, revision);
+      const patch: RevisionPatch = { sheetOps: [], changes: writes };
+      recordRevision(tx, workbookId, revision, authorId, 'edit', patch);
+      return { revision, applied: writes.length, patch };
+    },
+    { behavior: 'immediate' },
+  );
+  if (result.patch) ctx.events.publish(workbookId, { type: 'revision', workbookId, revision: result.revision, kind: 'edit', authorId, patch: result.patch });
+  return { revision: result.revision, applied: result.applied };
+}

@@ -1,0 +1,139 @@
+// Restoring revision n: the workbook is brought back to how it was right after revision n, as a NEW
+// revision (kind 'restore'), so the restore itself can be viewed and undone like any other.
+//
+// How: starting from the current state in memory, every later revision is undone newest first (cell
+// changes back to their `before`, sheet operations inverted). The inverted sheet operations are then
+// replayed on the database in the same order (so deleted tabs come back with their ids and names,
+// added ones go), and finally every cell that differs from the computed state is written.
+import type { CellChangeRecord, RevisionPatch, SheetOp, SheetSettings } from '../../shared/workbooks.js';
+import type { AppContext } from '../context.js';
+import { badRequest, notFound } from '../errors.js';
+import { sheetCells, writeCell, type Tx } from './cellStore.js';
+import { currentRevision, nextRevision, patchesAfter, recordRevision } from './revisionLog.js';
+import { recordAudit } from './audit.js';
+import { assertMayChangeSheet, assertMayEditCells } from './protection.js';
+import { applySheetOp, invertSheetOp, parseSettings, workbookSheets } from './sheetOps.js';
+
+export interface ModelSheet {
+  id: string;
+  name: string;
+  settings: SheetSettings;
+  /** "row,col" → non-empty input */
+  cells: Map<string, string>;
+}
+
+/** The workbook's content in memory: tabs in order with their cells. */
+export interface Model {
+  order: string[];
+  sheets: Map<string, ModelSheet>;
+}
+
+const key = (row: number, col: number) => `${row},${col}`;
+
+export function loadModel(tx: Tx, workbookId: string): Model {
+  const tabs = workbookSheets(tx, workbookId);
+  const sheets = new Map<string, ModelSheet>();
+  for (const s of tabs) {
+    sheets.set(s.id, { id: s.id, name: s.name, settings: parseSettings(s.settings), cells: new Map(sheetCells(tx, s.id).map(([r, c, input]) => [key(r, c), input])) });
+  }
+  return { order: tabs.map((s) => s.id), sheets };
+}
+
+function modelSheet(model: Model, sheetId: string): ModelSheet {
+  const sheet = model.sheets.get(sheetId);
+  // The history and the tables disagree: refuse rather than restore something half-right.
+  if (!sheet) throw new Error(`history refers to sheet ${sheetId}, which did not exist at that point`);
+  return sheet;
+}
+
+function setModelCell(model: Model, sheetId: string, row: number, col: number, input: string) {
+  const cells = modelSheet(model, sheetId).cells;
+  if (input === '') cells.delete(key(row, col));
+  else cells.set(key(row, col), input);
+}
+
+function applyToModel(model: Model, op: SheetOp) {
+  switch (op.op) {
+    case 'add':
+      model.order.splice(op.position, 0, op.sheetId);
+      model.sheets.set(op.sheetId, { id: op.sheetId, name: op.name, settings: op.settings, cells: new Map(op.cells.map(([r, c, input]) => [key(r, c), input])) });
+      return;
+    case 'delete':
+      model.order.splice(model.order.indexOf(op.sheetId), 1);
+      model.sheets.delete(op.sheetId);
+      return;
+    case 'rename':
+      modelSheet(model, op.sheetId).name = op.after;
+      return;
+    case 'move':
+      model.order.splice(op.from, 1);
+      model.order.splice(op.to, 0, op.sheetId);
+      return;
+    case 'settings':
+      modelSheet(model, op.sheetId).settings = op.after;
+      return;
+  }
+}
+
+/** Undoes every revision after `target` in memory; returns the sheet operations that did it, in order. */
+export function undoLaterRevisions(tx: Tx, workbookId: string, model: Model, target: number): SheetOp[] {
+  const undoOps: SheetOp[] = [];
+  for (const { patch } of patchesAfter(tx, workbookId, target)) {
+    for (const c of [...patch.changes].reverse()) setModelCell(model, c.sheetId, c.row, c.col, c.before);
+    for (const op of [...patch.sheetOps].reverse()) {
+      const inverse = invertSheetOp(op);
+      applyToModel(model, inverse);
+      undoOps.push(inverse);
+    }
+  }
+  return undoOps;
+}
+
+/** The cell writes that turn the database's sheet into the model's. */
+function cellDifferences(tx: Tx, sheet: ModelSheet): CellChangeRecord[] {
+  const stored = new Map(sheetCells(tx, sheet.id).map(([r, c, input]) => [key(r, c), input]));
+  const keys = new Set([...stored.keys(), ...sheet.cells.keys()]);
+  const changes: CellChangeRecord[] = [];
+  for (const k of keys) {
+    const before = stored.get(k) ?? '';
+    const after = sheet.cells.get(k) ?? '';
+    if (before === after) continue;
+    const [row, col] = k.split(',').map(Number);
+    changes.push({ sheetId: sheet.id, row, col, before, after });
+  }
+  return changes.sort((a, b) => a.row - b.row || a.col - b.col);
+}
+
+export function restoreRevision(ctx: AppContext, workbookId: string, authorId: string, target: number): { revision: number; changeCount: number } {
+  const result = ctx.db.transaction(
+    (tx) => {
+      const current = currentRevision(tx, workbookId);
+      if (target > current) throw notFound(`revision ${target}`);
+      if (target === current) throw badRequest(`revision ${target} is the current revision; there is nothing to restore`);
+
+      const model = loadModel(tx, workbookId);
+      const undoOps = undoLaterRevisions(tx, workbookId, model, target);
+      // A restore is an edit like any other: sheet locks and protected ranges hold against it too.
+      const namesNow = new Map(workbookSheets(tx, workbookId).map((s) => [s.id, s.name]));
+      for (const op of undoOps) {
+        if (op.op !== 'add' && namesNow.has(op.sheetId)) assertMayChangeSheet(tx, workbookId, authorId, op.sheetId, namesNow.get(op.sheetId)!, { deleting: op.op === 'delete' });
+      }
+
+      const revision = nextRevision(tx, workbookId);
+      // Tabs first, in the order history undid them (each step was once a valid state, so names
+      // never collide on the way); a re-created tab starts empty and gets its cells below.
+      const sheetOps = undoOps.map((op) => applySheetOp(tx, workbookId, op.op === 'add' ? { ...op, cells: [] } : op, revision, authorId));
+      const changes = model.order.flatMap((id) => cellDifferences(tx, model.sheets.get(id)!));
+      assertMayEditCells(tx, workbookId, authorId, changes, new Map(workbookSheets(tx, workbookId).map((s) => [s.id, s.name])));
+      for (const c of changes) writeCell(ctx.db, c.sheetId, c.row, c.col, c.after, revision);
+
+      const patch: RevisionPatch = { sheetOps, changes, restoredFrom: target };
+      recordRevision(tx, workbookId, revision, authorId, 'restore', patch);
+      recordAudit(tx, workbookId, authorId, 'revision.restored', { restoredFrom: target, revision, changeCount: changes.length + sheetOps.length });
+      return { revision, patch };
+    },
+    { behavior: 'immediate' },
+  );
+  ctx.events.publish(workbookId, { type: 'revision', workbookId, revision: result.revision, kind: 'restore', authorId, patch: result.patch });
+  return { revision: result.revision, changeCount: result.patch.changes.length + result.patch.sheetOps.length };
+}

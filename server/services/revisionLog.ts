@@ -1,0 +1,89 @@
+// The revision counter and the history table: every change to a workbook's content is one numbered
+// revision holding what it changed (before and after), so any revision can be viewed and undone.
+import { and, desc, eq, gt, lt, sql } from 'drizzle-orm';
+import type { RevisionDetail, RevisionKind, RevisionPatch, RevisionSummary } from '../../shared/workbooks.js';
+import type { Db } from '../db/index.js';
+import { revisions, users, workbooks } from '../db/schema.js';
+import { notFound } from '../errors.js';
+import type { Tx } from './cellStore.js';
+
+export function currentRevision(tx: Tx, workbookId: string): number {
+  const row = tx.select({ revision: workbooks.revision }).from(workbooks).where(eq(workbooks.id, workbookId)).get();
+  if (!row) throw notFound('workbook');
+  return row.revision;
+}
+
+/** Bumps the workbook's revision by one and returns the new number. */
+export function nextRevision(tx: Tx, workbookId: string): number {
+  const row = tx
+    .update(workbooks)
+    .set({ revision: sql`${workbooks.revision} + 1`, updatedAt: Date.now() })
+    .where(eq(workbooks.id, workbookId))
+    .returning({ revision: workbooks.revision })
+    .get();
+  if (!row) throw notFound('workbook');
+  return row.revision;
+}
+
+export function recordRevision(tx: Tx, workbookId: string, number: number, authorId: string, kind: RevisionKind, patch: RevisionPatch): void {
+  tx.insert(revisions).values({ workbookId, number, authorId, kind, patch: JSON.stringify(patch) }).run();
+}
+
+const summaryColumns = {
+  number: revisions.number,
+  kind: revisions.kind,
+  createdAt: revisions.createdAt,
+  authorId: revisions.authorId,
+  authorName: users.name,
+  authorEmail: users.email,
+  // Counted in SQLite so a long history lists without parsing every patch.
+  changeCount: sql<number>`json_array_length(${revisions.patch}, '$.changes') + json_array_length(${revisions.patch}, '$.sheetOps')`,
+};
+
+type SummaryRow = { number: number; kind: string; createdAt: number; authorId: string | null; authorName: string | null; authorEmail: string | null; changeCount: number };
+
+function toSummary(r: SummaryRow): RevisionSummary {
+  return {
+    number: r.number,
+    kind: r.kind as RevisionKind,
+    author: r.authorId ? { id: r.authorId, name: r.authorName ?? '', email: r.authorEmail ?? '' } : null,
+    createdAt: r.createdAt,
+    changeCount: r.changeCount,
+  };
+}
+
+/** Newest first; `before` pages backwards. */
+export function listRevisions(db: Db, workbookId: string, opts: { before?: number; limit: number }): RevisionSummary[] {
+  const where = opts.before !== undefined ? and(eq(revisions.workbookId, workbookId), lt(revisions.number, opts.before)) : eq(revisions.workbookId, workbookId);
+  return db
+    .select(summaryColumns)
+    .from(revisions)
+    .leftJoin(users, eq(users.id, revisions.authorId))
+    .where(where)
+    .orderBy(desc(revisions.number))
+    .limit(opts.limit)
+    .all()
+    .map(toSummary);
+}
+
+export function getRevision(db: Db, workbookId: string, number: number): RevisionDetail {
+  const row = db
+    .select({ ...summaryColumns, patch: revisions.patch })
+    .from(revisions)
+    .leftJoin(users, eq(users.id, revisions.authorId))
+    .where(and(eq(revisions.workbookId, workbookId), eq(revisions.number, number)))
+    .get();
+  if (!row) throw notFound(`revision ${number}`);
+  return { ...toSummary(row), patch: JSON.parse(row.patch) as RevisionPatch };
+}
+
+/** The patches of every revision after `number`, newest first (what a restore undoes). */
+export function patchesAfter(tx: Tx, workbookId: string, number: number): { number: number; patch: RevisionPatch }[] {
+  return tx
+    .select({ number: revisions.number, patch: revisions.patch })
+    .from(revisions)
+    .where(and(eq(revisions.workbookId, workbookId), gt(revisions.number, number)))
+    .orderBy(desc(revisions.number))
+    .all()
+    .map((r) => ({ number: r.number, patch: JSON.parse(r.patch) as RevisionPatch }));
+}

@@ -1,0 +1,71 @@
+// Workbooks as wholes: create (with one empty "Sheet1"), load everything the client's engine needs,
+// rename, delete. Access is decided before these are called (services/access.ts).
+import { randomUUID } from 'node:crypto';
+import { and, asc, eq, ne } from 'drizzle-orm';
+import type { User } from 'lucia';
+import type { CellEntry, WorkbookPayload, WorkbookSummary } from '../../shared/workbooks.js';
+import type { AppContext } from '../context.js';
+import { cells, sheets, users, workbookMembers, workbooks } from '../db/schema.js';
+import type { WorkbookAccess } from './access.js';
+import { loadProtection } from './protection.js';
+import { parseSettings, workbookSheets } from './sheetOps.js';
+
+export function createWorkbook(ctx: AppContext, user: Pick<User, 'id'>, title: string): string {
+  const id = randomUUID();
+  ctx.db.transaction((tx) => {
+    tx.insert(workbooks).values({ id, title, ownerId: user.id }).run();
+    // The creator's owner row is what access checks read; ownerId alone grants nothing.
+    tx.insert(workbookMembers).values({ workbookId: id, userId: user.id, role: 'owner' }).run();
+    tx.insert(sheets).values({ id: randomUUID(), workbookId: id, name: 'Sheet1', position: 0, createdBy: user.id }).run();
+  });
+  return id;
+}
+
+export function loadWorkbook(ctx: AppContext, access: WorkbookAccess): WorkbookPayload {
+  const { workbook } = access;
+  // One read transaction, so sheets, cells and revision are one consistent snapshot.
+  return ctx.db.transaction((tx) => {
+    const revision = tx.select({ revision: workbooks.revision }).from(workbooks).where(eq(workbooks.id, workbook.id)).get()?.revision ?? workbook.revision;
+    const tabs = workbookSheets(tx, workbook.id);
+    const bySheet = new Map<string, CellEntry[]>(tabs.map((s) => [s.id, []]));
+    const rows = tx
+      .select({ sheetId: cells.sheetId, row: cells.row, col: cells.col, input: cells.input })
+      .from(cells)
+      .innerJoin(sheets, eq(sheets.id, cells.sheetId))
+      .where(and(eq(sheets.workbookId, workbook.id), ne(cells.input, '')))
+      .orderBy(asc(cells.sheetId), asc(cells.row), asc(cells.col))
+      .all();
+    for (const c of rows) bySheet.get(c.sheetId)?.push([c.row, c.col, c.input]);
+    return {
+      id: workbook.id,
+      title: workbook.title,
+      revision,
+      role: access.role,
+      sheets: tabs.map((s) => ({ id: s.id, name: s.name, position: s.position, settings: parseSettings(s.settings), cells: bySheet.get(s.id) ?? [] })),
+      ...loadProtection(tx, workbook.id),
+    };
+  });
+}
+
+/** The list entry for one workbook, as the acting user sees it. */
+export function summarizeWorkbook(ctx: AppContext, access: WorkbookAccess): WorkbookSummary {
+  const w = ctx.db
+    .select({ id: workbooks.id, title: workbooks.title, revision: workbooks.revision, ownerId: workbooks.ownerId, ownerName: users.name, createdAt: workbooks.createdAt, updatedAt: workbooks.updatedAt })
+    .from(workbooks)
+    .innerJoin(users, eq(users.id, workbooks.ownerId))
+    .where(eq(workbooks.id, access.workbook.id))
+    .get()!;
+  return { id: w.id, title: w.title, revision: w.revision, role: access.role, owner: { id: w.ownerId, name: w.ownerName }, createdAt: w.createdAt, updatedAt: w.updatedAt };
+}
+
+/** A new title is not a content change: the revision stays as it is. */
+export function renameWorkbook(ctx: AppContext, workbookId: string, title: string): void {
+  ctx.db.update(workbooks).set({ title, updatedAt: Date.now() }).where(eq(workbooks.id, workbookId)).run();
+  ctx.events.publish(workbookId, { type: 'renamed', workbookId, title });
+}
+
+/** Deletes the workbook with its sheets, cells, members and history (foreign keys cascade). */
+export function deleteWorkbook(ctx: AppContext, workbookId: string): void {
+  ctx.db.delete(workbooks).where(eq(workbooks.id, workbookId)).run();
+  ctx.events.publish(workbookId, { type: 'deleted', workbookId });
+}

@@ -1,0 +1,64 @@
+// Who may do what to a workbook, as plain data. The server checks every request against this table
+// (server/services/access.ts is the only caller there); the client reads it to show or hide controls.
+// Widening access (sharing, locks) means editing this table, not scattering role checks in routes.
+import type { SiteRole } from './auth.js';
+
+export const workbookRoles = ['owner', 'editor', 'viewer'] as const;
+export type WorkbookRole = (typeof workbookRoles)[number];
+
+/**
+ * The role a request acts with: a member's role, or 'site-admin' for a site admin who is not a
+ * member (site admins may look at every workbook, without editing it).
+ */
+export type AccessRole = WorkbookRole | 'site-admin';
+
+/** Every action on a workbook, with the words a refusal uses ("… cannot edit cells"). */
+export const workbookActions = {
+  view: 'open this workbook',
+  viewHistory: 'see the revision history',
+  export: 'export this workbook',
+  editCells: 'edit cells',
+  editSheets: 'add, rename, move or delete sheets',
+  restore: 'restore an earlier revision',
+  rename: 'rename this workbook',
+  delete: 'delete this workbook',
+  manageMembers: 'share this workbook or change its members',
+  transferOwnership: 'transfer ownership',
+  /** Sheet locks and protected ranges on any sheet. */
+  lockAnySheet: 'lock sheets or protect ranges',
+  /** Sheet locks and protected ranges on a sheet the user created. */
+  lockOwnSheet: 'lock their own sheets or protect ranges on them',
+  viewAudit: 'see the audit log',
+} as const;
+export type WorkbookAction = keyof typeof workbookActions;
+
+const readOnly: readonly WorkbookAction[] = ['view', 'viewHistory', 'export'];
+
+export const permissionTable: Record<AccessRole, readonly WorkbookAction[]> = {
+  owner: Object.keys(workbookActions) as WorkbookAction[],
+  editor: [...readOnly, 'editCells', 'editSheets', 'restore', 'lockOwnSheet'],
+  viewer: readOnly,
+  'site-admin': [...readOnly, 'viewAudit'],
+};
+
+export function can(role: AccessRole | null | undefined, action: WorkbookAction): boolean {
+  return role != null && permissionTable[role].includes(action);
+}
+
+/** The roles a user acts with: a site admin who is also a member keeps both sets of rights. */
+export function accessRoles(memberRole: WorkbookRole | null, siteRole: SiteRole): AccessRole[] {
+  const roles: AccessRole[] = memberRole ? [memberRole] : [];
+  if (siteRole === 'admin') roles.push('site-admin');
+  return roles;
+}
+
+export function canAny(roles: readonly AccessRole[], action: WorkbookAction): boolean {
+  return roles.some((r) => can(r, action));
+}
+
+const roleNames: Record<AccessRole, string> = { owner: 'an owner', editor: 'an editor', viewer: 'a viewer', 'site-admin': 'a site admin' };
+
+/** The reason a 403 gives: "as a viewer you cannot edit cells". */
+export function refusalReason(role: AccessRole, action: WorkbookAction): string {
+  return `as ${roleNames[role]} you cannot ${workbookActions[action]}`;
+}

@@ -1,0 +1,232 @@
+// Workbooks, sheets, patches and revisions: the request bodies the server validates (and the client
+// reuses) and the payloads the API returns. Paths are in ARCHITECTURE.md.
+import { z } from 'zod';
+import type { AccessRole } from './permissions.js';
+import type { ProtectedRange, SheetLock, TeamEvent } from './team.js';
+
+/** Rows 1..1,000,000 and columns A..BXX (2,000), the engine's limits (functions/engine.ts). */
+export const maxRowIndex = 999_999;
+export const maxColIndex = 1_999;
+/** One cell's input; longer text is almost certainly a paste gone wrong. */
+export const maxInputLength = 32_768;
+export const maxCellsPerPatch = 10_000;
+/** The JSON body limit of the whole API (server/app.ts); a larger body is refused with 413. */
+export const maxBodyBytes = 2 * 1024 * 1024;
+export const maxSheetNameLength = 100;
+/** Column widths, frozen rows, number precision… kept small so a sheet row stays cheap to load. */
+export const maxSheetSettingsBytes = 16_384;
+
+const required = (kind: string) => (issue: { input: unknown }) => (issue.input === undefined ? 'required' : `must be ${kind}`);
+const wholeNumber = () => z.int({ error: required('a whole number') });
+
+export const idSchema = z.string({ error: required('an id') }).regex(/^[A-Za-z0-9_-]{1,64}$/, 'not a valid id');
+
+export const titleSchema = z
+  .string({ error: required('text') })
+  .trim()
+  .min(1, 'required')
+  .max(200, 'at most 200 characters');
+
+/**
+ * Sheet names follow the usual spreadsheet rules (common practice), so formulas can name them and
+ * exports open elsewhere: no [ ] * ? / \ : characters, no quote at either end, no control characters.
+ */
+export const sheetNameSchema = z
+  .string({ error: required('text') })
+  .trim()
+  .min(1, 'required')
+  .max(maxSheetNameLength, `at most ${maxSheetNameLength} characters`)
+  .refine((s) => !/[[\]*?/\\:]/.test(s), 'may not contain any of [ ] * ? / \\ :')
+  .refine((s) => !s.startsWith("'") && !s.endsWith("'"), 'may not begin or end with an apostrophe')
+  .refine((s) => !/[\u0000-\u001f\u007f]/.test(s), 'may not contain control characters');
+
+export const sheetSettingsSchema = z
+  .record(z.string(), z.json())
+  .refine((s) => JSON.stringify(s).length <= maxSheetSettingsBytes, `at most ${maxSheetSettingsBytes} bytes of JSON`);
+export type SheetSettings = z.infer<typeof sheetSettingsSchema>;
+
+export const createWorkbookSchema = z.object({ title: titleSchema });
+export type CreateWorkbookInput = z.infer<typeof createWorkbookSchema>;
+
+export const renameWorkbookSchema = z.object({ title: titleSchema });
+export type RenameWorkbookInput = z.infer<typeof renameWorkbookSchema>;
+
+/** A new sheet: without a name it is called "Sheet<n>"; without a position it goes last. */
+export const createSheetSchema = z.object({
+  name: sheetNameSchema.optional(),
+  position: wholeNumber().min(0, 'must be 0 or more').optional(),
+});
+export type CreateSheetInput = z.infer<typeof createSheetSchema>;
+
+/** Rename, move (position counts from 0, the first tab) and/or change display settings. */
+export const updateSheetSchema = z
+  .object({
+    name: sheetNameSchema.optional(),
+    position: wholeNumber().min(0, 'must be 0 or more').optional(),
+    settings: sheetSettingsSchema.optional(),
+  })
+  .refine((b) => b.name !== undefined || b.position !== undefined || b.settings !== undefined, 'give at least one of name, position, settings');
+export type UpdateSheetInput = z.infer<typeof updateSheetSchema>;
+
+export const cellChangeSchema = z.object({
+  sheetId: idSchema,
+  row: wholeNumber().min(0, 'must be 0 or more').max(maxRowIndex, `must be at most ${maxRowIndex} (the last row)`),
+  col: wholeNumber().min(0, 'must be 0 or more').max(maxColIndex, `must be at most ${maxColIndex} (the last column)`),
+  /** What the user typed: a value or a formula. '' clears the cell. */
+  input: z.string({ error: required('text') }).max(maxInputLength, `at most ${maxInputLength} characters`),
+});
+export type CellChange = z.infer<typeof cellChangeSchema>;
+
+export const patchSchema = z
+  .object({
+    /** The workbook revision the client's view was based on; cells changed after it are conflicts. */
+    baseRevision: wholeNumber().min(0, 'must be 0 or more'),
+    changes: z
+      .array(cellChangeSchema, { error: required('a list of changes') })
+      .min(1, 'must hold at least one change')
+      .max(maxCellsPerPatch, `a patch may change at most ${maxCellsPerPatch} cells; send the rest in another patch`),
+  })
+  .superRefine((patch, ctx) => {
+    // Two inputs for one cell in one patch would make the result depend on order: refuse it.
+    const seen = new Map<string, number>();
+    patch.changes.forEach((c, i) => {
+      const key = `${c.sheetId}\u0000${c.row}\u0000${c.col}`;
+      const first = seen.get(key);
+      if (first !== undefined) ctx.addIssue({ code: 'custom', path: ['changes', i], message: `the same cell as changes.${first}; send one input per cell` });
+      else seen.set(key, i);
+    });
+  });
+export type PatchInput = z.infer<typeof patchSchema>;
+
+export const revisionListQuerySchema = z.object({
+  /** Only revisions numbered below this (paging backwards). */
+  before: z.coerce.number().int('must be a whole number').min(1, 'must be 1 or more').optional(),
+  limit: z.coerce.number().int('must be a whole number').min(1, 'must be 1 or more').max(500, 'at most 500').default(100),
+});
+
+// ---- payloads ----
+
+/** One non-empty cell: [row, col, input], rows and columns counted from 0. */
+export type CellEntry = [row: number, col: number, input: string];
+
+export interface SheetPayload {
+  id: string;
+  name: string;
+  position: number;
+  settings: SheetSettings;
+  cells: CellEntry[];
+}
+
+export interface WorkbookSummary {
+  id: string;
+  title: string;
+  revision: number;
+  role: AccessRole;
+  owner: { id: string; name: string };
+  createdAt: number;
+  updatedAt: number;
+}
+
+/** GET /api/workbooks/:id — everything the client needs to build its engine. */
+export interface WorkbookPayload {
+  id: string;
+  title: string;
+  revision: number;
+  role: AccessRole;
+  sheets: SheetPayload[];
+  /** Sheet locks and protected ranges (shared/team.ts); the server always sends both lists. */
+  locks?: SheetLock[];
+  protectedRanges?: ProtectedRange[];
+}
+
+export interface SheetMutationResult {
+  revision: number;
+  sheet: Omit<SheetPayload, 'cells'>;
+}
+
+export interface PatchResult {
+  /** The workbook revision after the patch (unchanged when every change matched what was stored). */
+  revision: number;
+  /** How many cells actually changed. */
+  applied: number;
+}
+
+/** One refused cell of a 409: what is stored now and which revision wrote it. */
+export interface CellConflict {
+  sheetId: string;
+  row: number;
+  col: number;
+  /** The input stored now ('' when someone cleared it). */
+  theirs: string;
+  /** The input this patch wanted. */
+  mine: string;
+  /** The revision that last wrote the cell. */
+  revision: number;
+}
+export interface ConflictDetails {
+  conflicts: CellConflict[];
+}
+
+// ---- revisions ----
+
+export type RevisionKind = 'edit' | 'sheet' | 'restore';
+
+export interface CellChangeRecord {
+  sheetId: string;
+  row: number;
+  col: number;
+  before: string;
+  after: string;
+}
+
+/**
+ * A change to the tabs, recorded so that it can be undone exactly: 'add' and 'delete' carry the
+ * sheet's cells, positions count from 0 and stay dense.
+ */
+export type SheetOp =
+  | { op: 'add'; sheetId: string; name: string; position: number; settings: SheetSettings; cells: CellEntry[] }
+  | { op: 'delete'; sheetId: string; name: string; position: number; settings: SheetSettings; cells: CellEntry[] }
+  | { op: 'rename'; sheetId: string; before: string; after: string }
+  | { op: 'move'; sheetId: string; from: number; to: number }
+  | { op: 'settings'; sheetId: string; before: SheetSettings; after: SheetSettings };
+
+/** What a revision did: first the sheet operations in order, then the cell changes. */
+export interface RevisionPatch {
+  sheetOps: SheetOp[];
+  changes: CellChangeRecord[];
+  /** For a restore: the revision whose state it brought back. */
+  restoredFrom?: number;
+}
+
+export interface RevisionSummary {
+  number: number;
+  kind: RevisionKind;
+  author: { id: string; name: string; email: string } | null;
+  /** Milliseconds since the epoch. */
+  createdAt: number;
+  /** Cell changes plus sheet operations. */
+  changeCount: number;
+}
+
+export interface RevisionDetail extends RevisionSummary {
+  patch: RevisionPatch;
+}
+
+// ---- computed values ----
+
+export type ComputedValue = number | string | boolean | { error: string; message: string };
+export type ValueEntry = [row: number, col: number, value: ComputedValue];
+
+/** GET /api/workbooks/:id/values — every non-empty computed value, per sheet. */
+export interface ValuesPayload {
+  revision: number;
+  sheets: { id: string; name: string; values: ValueEntry[] }[];
+}
+
+// ---- live updates (published in-process; the live-updates issue sends them over SSE) ----
+
+export type WorkbookEvent =
+  | { type: 'revision'; workbookId: string; revision: number; kind: RevisionKind; authorId: string; patch: RevisionPatch }
+  | { type: 'renamed'; workbookId: string; title: string }
+  | { type: 'deleted'; workbookId: string }
+  | TeamEvent;
