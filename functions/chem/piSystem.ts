@@ -1,0 +1,192 @@
+// From a SMILES string to the π system of simple Hückel theory: which atoms carry a p orbital in the
+// conjugated framework, how many π electrons each gives, and which centres are bonded.
+//
+// openchemlib parses the SMILES (and kekulizes aromatic input); the π system is found here from
+// bonding, not from the library's aromaticity flag:
+// - every atom in a double or triple bond is a π centre (one p orbital: the in-plane π bond of a
+//   triple bond is orthogonal to the conjugated system and left out — common practice);
+// - an atom without a multiple bond joins when it is bonded to such an atom and has a p orbital to
+//   offer: carbocations, carbanions and carbon radicals with three σ bonds, and lone-pair donors
+//   (pyrrole/amine N, ether/hydroxyl O, halogens, thioether S, trivalent B with an empty p orbital).
+// π electrons per centre follow from counting valence electrons: an atom with σ bonds and formal
+// charge q keeps its remaining in-plane orbitals as lone pairs, so
+//   planar (sp2-like) centre:  e = V − q + σ − 6     (V valence electrons, σ number of σ bonds)
+//   linear (sp) centre:        e = V − q + σ − 5     (one electron sits in the orthogonal π bond)
+// which gives 1 for C in C=C, 0 for a carbocation, 2 for a carbanion, 1 for pyridine N, 2 for
+// pyrrole N, 1 for carbonyl O, 2 for ether O and 2 for a halogen (common practice, e.g. Streitwieser
+// 1961, ch. 5).
+import { Molecule } from 'openchemlib';
+import { ChemError } from '../catalog/types.js';
+import type { CentreType } from './huckelParams.js';
+
+export interface PiCentre {
+  /** 1-based atom number: heavy atoms in the order the SMILES writes them. */
+  atom: number;
+  element: string;
+  formalCharge: number;
+  /** π electrons this atom gives to the system. */
+  electrons: number;
+  /** Parameter type, or undefined when no published parameter covers this centre (e.g. O⁻). */
+  type: CentreType | undefined;
+  /** Human label for messages, e.g. "O⁻ with 2 π electrons". */
+  label: string;
+}
+
+export interface PiBond {
+  /** Indices into PiSystem.centres. */
+  a: number;
+  b: number;
+  /** Formal bond order in the Kekulé structure openchemlib assigned (1, 2 or 3). */
+  order: number;
+}
+
+export interface PiSystem {
+  smiles: string;
+  centres: PiCentre[];
+  bonds: PiBond[];
+  electrons: number;
+  /** Number of heavy atoms (the range of valid atom numbers). */
+  atomCount: number;
+  /** Element symbol of each heavy atom (index = atom number − 1). */
+  atomElements: string[];
+  /** Centre index of each atom number, for atoms in the π system. */
+  centreOfAtom: Map<number, number>;
+  /** False when the SMILES writes hydrogens as atoms ([H]): the parser then renumbers heavy atoms. */
+  numberingFollowsSmiles: boolean;
+  /** Small rings (as openchemlib perceives them) made only of π centres, as centre indices. */
+  rings: number[][];
+}
+
+const VALENCE_ELECTRONS: Record<string, number> = { B: 3, C: 4, Si: 4, N: 5, P: 5, O: 6, S: 6, Se: 6, F: 7, Cl: 7, Br: 7, I: 7 };
+
+/** Parses SMILES with openchemlib; a parse failure or an empty string becomes a ChemError. */
+export function parseSmiles(smiles: string): Molecule {
+  const text = smiles.trim();
+  if (text === '') throw new ChemError('empty structure: give a SMILES string or a square range holding the Hückel matrix');
+  let molecule: Molecule;
+  try {
+    molecule = Molecule.fromSmiles(text, { noCoordinates: true, noStereo: true });
+  } catch (e) {
+    const raw = e instanceof Error ? e.message : String(e);
+    const reason = raw.replace(/^.*?SmilesParser:\s*/, '').replace(/^Class\$\S+:\s*/, '');
+    throw new ChemError(`cannot read SMILES '${text}': ${reason}`);
+  }
+  if (molecule.getAllAtoms() === 0) throw new ChemError(`cannot read SMILES '${text}': no atoms`);
+  molecule.ensureHelperArrays(Molecule.cHelperRings);
+  return molecule;
+}
+
+function chargeSuffix(q: number) {
+  return q === 0 ? '' : q > 0 ? (q === 1 ? '⁺' : `${q}⁺`) : q === -1 ? '⁻' : `${-q}⁻`;
+}
+
+function centreType(element: string, electrons: number, charge: number): CentreType | undefined {
+  const key = `${element}:${electrons}:${charge}`;
+  const types: Record<string, CentreType> = {
+    'B:0:0': 'B',
+    'N:1:0': 'N1',
+    'N:2:0': 'N2',
+    'N:1:1': 'N+',
+    'O:1:0': 'O1',
+    'O:2:0': 'O2',
+    'O:1:1': 'O+',
+    'S:1:0': 'S1',
+    'S:2:0': 'S2',
+    'P:1:0': 'P1',
+    'P:2:0': 'P2',
+    'F:2:0': 'F',
+    'Cl:2:0': 'Cl',
+    'Br:2:0': 'Br',
+  };
+  if (element === 'C') return 'C';
+  return types[key];
+}
+
+interface Candidate {
+  index: number;
+  element: string;
+  charge: number;
+  electrons: number;
+  inMultipleBond: boolean;
+}
+
+/** Classifies one heavy atom: a π-centre candidate, or undefined when it has no p orbital to give. */
+function classifyAtom(molecule: Molecule, index: number): Candidate | undefined {
+  const element = molecule.getAtomLabel(index);
+  const charge = molecule.getAtomCharge(index);
+  const sigma = molecule.getConnAtoms(index) + molecule.getAllHydrogens(index);
+  const piBonds = molecule.getAtomPi(index);
+  const valence = VALENCE_ELECTRONS[element];
+  const where = `atom ${index + 1} (${element})`;
+  if (piBonds > 0) {
+    if (valence === undefined) throw new ChemError(`${where} is in a multiple bond, but simple Hückel theory here covers only B, C, N, O, F, Si, P, S, Cl, Se, Br and I`);
+    let doubleBonds = 0;
+    let tripleBonds = 0;
+    for (let i = 0; i < molecule.getConnAtoms(index); i++) {
+      const order = molecule.getConnBondOrder(index, i);
+      if (order === 2) doubleBonds++;
+      if (order === 3) tripleBonds++;
+    }
+    if (doubleBonds >= 2)
+      throw new ChemError(`${where} has two cumulated double bonds (allene-type): their π bonds are orthogonal, so it has no single p orbital for simple Hückel theory`);
+    const electrons = valence - charge + sigma - (tripleBonds > 0 ? 5 : 6);
+    if (electrons < 0 || electrons > 2)
+      throw new ChemError(`${where} has ${sigma} σ bonds and a multiple bond (hypervalent); simple Hückel theory needs planar centres with at most three σ bonds`);
+    return { index, element, charge, electrons, inMultipleBond: true };
+  }
+  if (valence === undefined || sigma > 3 || sigma === 0) return undefined;
+  const electrons = valence - charge + sigma - 6;
+  if (electrons < 0 || electrons > 2) return undefined;
+  return { index, element, charge, electrons, inMultipleBond: false };
+}
+
+/** Finds the π system of a parsed molecule (see the rules at the top of this file). */
+export function findPiSystem(smiles: string, molecule: Molecule = parseSmiles(smiles)): PiSystem {
+  const atomCount = molecule.getAtoms();
+  const candidates = new Map<number, Candidate>();
+  for (let i = 0; i < atomCount; i++) {
+    const c = classifyAtom(molecule, i);
+    if (c) candidates.set(i, c);
+  }
+  const bondedToMultiple = (i: number) => {
+    for (let n = 0; n < molecule.getConnAtoms(i); n++) if (candidates.get(molecule.getConnAtom(i, n))?.inMultipleBond) return true;
+    return false;
+  };
+  const centres: PiCentre[] = [];
+  const centreOfAtom = new Map<number, number>();
+  for (const c of candidates.values()) {
+    if (!c.inMultipleBond && !bondedToMultiple(c.index)) continue;
+    centreOfAtom.set(c.index + 1, centres.length);
+    const type = centreType(c.element, c.electrons, c.charge);
+    const label = `${c.element}${chargeSuffix(c.charge)} with ${c.electrons} π electron${c.electrons === 1 ? '' : 's'}`;
+    centres.push({ atom: c.index + 1, element: c.element, formalCharge: c.charge, electrons: c.electrons, type, label });
+  }
+  if (centres.length === 0)
+    throw new ChemError(`no π system in '${smiles.trim()}': no atom is in a double or triple bond (a saturated molecule has no Hückel π levels)`);
+
+  const bonds: PiBond[] = [];
+  for (let b = 0; b < molecule.getBonds(); b++) {
+    const ca = centreOfAtom.get(molecule.getBondAtom(0, b) + 1);
+    const cb = centreOfAtom.get(molecule.getBondAtom(1, b) + 1);
+    if (ca !== undefined && cb !== undefined) bonds.push({ a: ca, b: cb, order: molecule.getBondOrder(b) });
+  }
+
+  const ringSet = molecule.getRingSet();
+  const rings: number[][] = [];
+  for (let r = 0; r < ringSet.getSize(); r++) {
+    const members = ringSet.getRingAtoms(r).map((a) => centreOfAtom.get(a + 1));
+    if (members.every((m) => m !== undefined)) rings.push(members as number[]);
+  }
+
+  return {
+    smiles: smiles.trim(),
+    centres,
+    bonds,
+    electrons: centres.reduce((sum, c) => sum + c.electrons, 0),
+    atomCount,
+    atomElements: Array.from({ length: atomCount }, (_, i) => molecule.getAtomLabel(i)),
+    centreOfAtom,
+    numberingFollowsSmiles: molecule.getAllAtoms() === atomCount,
+    rings,
+  };
+}
