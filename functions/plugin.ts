@@ -35,7 +35,11 @@ function toArgument(p: ParamSpec): FunctionArgument {
   const arg: FunctionArgument = { argumentType: argumentType[p.type] };
   if (p.optional) {
     arg.optionalArg = true;
-    if (p.default !== undefined) arg.defaultValue = p.default;
+    if (p.default !== undefined) {
+      arg.defaultValue = p.default;
+      // An empty middle argument, e.g. ABSORPTION(s,,,"van-catledge"), takes the default rather than 0.
+      arg.emptyAsDefault = true;
+    }
   }
   return arg;
 }
