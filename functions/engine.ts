@@ -18,12 +18,3 @@ export function createEngine(sheets: Record<string, SheetInput>, options: Partia
   registerOrbitabPlugin();
   return HyperFormula.buildFromSheets(sheets, { ...engineConfig, ...options });
 }
-
-/** Evaluates stand-alone formulas (the CLI's `eval`) in a scratch engine. */
-export function evaluateFormulas(formulas: string[]) {
-  const engine = createEngine({ Sheet1: formulas.map((f) => [f]) });
-  const sheetId = engine.getSheetId('Sheet1')!;
-  const values = formulas.map((_, row) => engine.getCellValue({ sheet: sheetId, row, col: 0 }));
-  engine.destroy();
-  return values;
-}

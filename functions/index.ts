@@ -1,4 +1,4 @@
 export { catalog, catalogByName } from './catalog/index.js';
 export * from './catalog/types.js';
-export { createEngine, evaluateFormulas, engineConfig, type SheetInput } from './engine.js';
+export { createEngine, engineConfig, type SheetInput } from './engine.js';
 export { registerOrbitabPlugin, callEntry } from './plugin.js';

@@ -15,8 +15,9 @@ import { catalog } from './catalog/index.js';
 import { ChemError, type CatalogEntry, type FunctionResult, type ParamSpec, type Scalar, type SpillArg } from './catalog/types.js';
 
 const argumentType: Record<ParamSpec['type'], FunctionArgumentType> = {
-  number: FunctionArgumentType.NUMBER,
-  integer: FunctionArgumentType.INTEGER,
+  // Numbers arrive as scalars and are coerced in toNumber(), so a bad one gets a message naming the parameter.
+  number: FunctionArgumentType.SCALAR,
+  integer: FunctionArgumentType.SCALAR,
   string: FunctionArgumentType.STRING,
   boolean: FunctionArgumentType.BOOLEAN,
   range: FunctionArgumentType.RANGE,
@@ -88,10 +89,36 @@ function spillArgs(ast: any): SpillArg[] {
   });
 }
 
+/** Spreadsheet coercion of one number argument (text that reads as a number, TRUE/FALSE, an empty cell as 0). */
+function toNumber(value: unknown, param: ParamSpec, entry: CatalogEntry): number | undefined {
+  if (value === undefined) return undefined;
+  let n: number;
+  if (typeof value === 'number') n = value;
+  else if (typeof value === 'boolean') n = value ? 1 : 0;
+  else if (value === null || typeof value === 'symbol') n = 0;
+  else if (typeof value === 'object' && 'val' in (value as object)) n = Number((value as { val: unknown }).val); // dates, percents
+  else {
+    const text = String(value).trim();
+    n = text === '' ? NaN : Number(text);
+    if (!Number.isFinite(n)) throw new ChemError(`${entry.name}: ${param.name} must be a number, not "${String(value).slice(0, 40)}"`);
+  }
+  if (param.type === 'integer' && !Number.isInteger(n)) throw new ChemError(`${entry.name}: ${param.name} must be a whole number, not ${n}`, 'NUM');
+  return n;
+}
+
 /** Runs one catalog implementation with errors turned into values. Exported for tests and the CLI. */
 export function callEntry(entry: CatalogEntry, args: unknown[]): unknown {
   try {
-    const prepared = args.map((a, i) => (entry.params[i]?.type === 'range' ? rangeToTable(a) : a));
+    for (let i = 0; i < args.length; i++) {
+      const t = entry.params[i]?.type;
+      if ((t === 'number' || t === 'integer') && args[i] instanceof CellError) return args[i];
+    }
+    const prepared = args.map((a, i) => {
+      const param = entry.params[i];
+      if (param?.type === 'range') return rangeToTable(a);
+      if (param?.type === 'number' || param?.type === 'integer') return toNumber(a, param, entry);
+      return a;
+    });
     return toCellValue(entry.implementation(...prepared), entry);
   } catch (e) {
     if (e instanceof ChemError) return new CellError(errorType[e.kind], e.message);

@@ -1,6 +1,15 @@
 import type { CatalogEntry } from './types.js';
+import { diatomicFunctions } from './diatomic.js';
+import { lcaoFunctions } from './lcao.js';
+import { unitFunctions } from './units.js';
+import { huckelEntries } from './huckel.js';
 
 // Each family file exports an array of entries; add new families here.
-export const catalog: CatalogEntry[] = [];
+export const catalog: CatalogEntry[] = [
+  ...diatomicFunctions,
+  ...lcaoFunctions,
+  ...unitFunctions,
+  ...huckelEntries,
+];
 
 export const catalogByName = new Map(catalog.map((e) => [e.name, e]));
