@@ -17,7 +17,8 @@ import { createEventHub } from './services/events.js';
 import { createMailer } from './mail/mailer.js';
 import { teamRouter } from './routes/team.js';
 import { invitationLinksRouter } from './routes/invitations.js';
-import { adminMailRouter } from './routes/mail.js';
+import { adminTeamRouter } from './routes/adminTeam.js';
+import { ioRouter } from './routes/io.js';
 
 export interface CreateAppOptions {
   db: Db;
@@ -56,7 +57,8 @@ export function createApp({ db, config }: CreateAppOptions): { app: Express; ctx
   api.use('/workbooks', workbooksRouter(ctx));
   api.use('/workbooks', teamRouter(ctx));
   api.use('/invitations', invitationLinksRouter(ctx));
-  api.use('/admin', adminMailRouter(ctx));
+  api.use('/admin', adminTeamRouter(ctx));
+  api.use(ioRouter(ctx));
 
   api.use(notFoundApi);
   api.use(errorHandler);

@@ -6,6 +6,8 @@ const envSchema = z.object({
   PORT: z.coerce.number().int().min(0).max(65535).default(3000),
   DATABASE_PATH: z.string().min(1).default('data/orbitab.sqlite'),
   SMTP_URL: z.string().url().optional(),
+  /** The From of Orbitab's e-mail; a real relay usually accepts only its own domain's addresses. */
+  MAIL_FROM: z.string().min(3).optional(),
   ORBITAB_SEED: z.enum(['0', '1']).default('1'),
   ORBITAB_ADMIN_EMAIL: z.string().email().optional(),
   /** The public origin, when the server sits behind a proxy; otherwise taken from each request's Host. */
@@ -17,6 +19,7 @@ export interface AppConfig {
   port: number;
   databasePath: string;
   smtpUrl?: string;
+  mailFrom?: string;
   seed: boolean;
   adminEmail?: string;
   origin?: string;
@@ -38,6 +41,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
     port: e.PORT,
     databasePath: e.DATABASE_PATH,
     smtpUrl: e.SMTP_URL,
+    mailFrom: e.MAIL_FROM,
     seed: e.ORBITAB_SEED === '1',
     adminEmail: e.ORBITAB_ADMIN_EMAIL?.toLowerCase(),
     origin: e.ORBITAB_ORIGIN,

@@ -7,7 +7,8 @@ import { openDatabase } from './db/index.js';
 
 const config = { ...loadConfig(), production: false };
 const db = openDatabase(config.databasePath);
-const { app: api } = createApp({ db, config });
+const { app: api, ctx } = createApp({ db, config });
+ctx.mail.start().catch((err) => ctx.logger.error({ err }, 'mail transport did not start'));
 const vite = await createViteServer({ server: { middlewareMode: true }, appType: 'spa' });
 const app = express();
 app.use(api);

@@ -10,6 +10,8 @@ const config = { ...loadConfig(), production: true };
 const db = openDatabase(config.databasePath); // applies any pending migrations before we listen
 const { app, ctx } = createApp({ db, config });
 const log = ctx.logger;
+// The built-in fake SMTP server (when SMTP_URL is unset) starts now, so /api/health names its port.
+ctx.mail.start().catch((err) => log.error({ err }, 'mail transport did not start; invitations cannot be e-mailed until it does'));
 
 if (!fs.existsSync(config.clientDir)) {
   log.warn({ clientDir: config.clientDir }, 'no built client; run `vite build` (npm start does) — serving the API only');
@@ -37,6 +39,7 @@ function shutdown(signal: NodeJS.Signals) {
   if (stopping) return;
   stopping = true;
   log.info({ signal }, 'shutting down');
+  void ctx.mail.stop();
   server.close(() => {
     db.$client.close();
     log.info('closed');

@@ -1,0 +1,260 @@
+// Working as a team: members and roles, invitations by e-mail, sheet locks and protected ranges,
+// live updates (Server-Sent Events) and presence, the audit log and the dev inbox. The request
+// bodies the server validates (and the client's forms reuse) and the payloads the API returns.
+import { z } from 'zod';
+import { emailSchema } from './auth.js';
+import { boundsContain, formatCellRange, parseCellRange, type CellBounds } from './cellRange.js';
+import { workbookRoles, type AccessRole, type WorkbookRole } from './permissions.js';
+import { idSchema, maxColIndex, maxRowIndex, type RevisionKind, type SheetPayload, type WorkbookSummary } from './workbooks.js';
+
+// ---- requests ----
+
+/** Roles that can be given by adding or inviting; ownership moves only by transfer (PATCH role 'owner'). */
+export const grantableRoles = ['editor', 'viewer'] as const;
+export type GrantableRole = (typeof grantableRoles)[number];
+export const grantableRoleSchema = z.enum(grantableRoles, { error: 'must be "editor" or "viewer"' });
+export const memberRoleSchema = z.enum(workbookRoles, { error: 'must be "owner", "editor" or "viewer"' });
+
+/** POST /api/workbooks/:id/members: an existing account joins at once (201), anyone else is invited (202). */
+export const addMemberSchema = z.object({ email: emailSchema, role: grantableRoleSchema });
+export type AddMemberInput = z.infer<typeof addMemberSchema>;
+
+/** POST /api/workbooks/:id/invitations: always an invitation by e-mail. */
+export const createInvitationSchema = addMemberSchema;
+export type CreateInvitationInput = AddMemberInput;
+
+/** PATCH /api/workbooks/:id/members/:userId. Role 'owner' transfers ownership (see MemberRoleResult). */
+export const changeMemberRoleSchema = z.object({ role: memberRoleSchema });
+export type ChangeMemberRoleInput = z.infer<typeof changeMemberRoleSchema>;
+
+const editorsSchema = z.array(idSchema, { error: 'must be a list of user ids' }).max(100, 'at most 100 people').default([]);
+
+/** PUT /api/workbooks/:id/sheets/:sheetId/lock. The locker may always edit; `editors` may too. */
+export const sheetLockSchema = z.object({
+  reason: z.string({ error: (i) => (i.input === undefined ? 'required' : 'must be text') }).trim().min(1, 'required: say why the sheet is locked').max(500, 'at most 500 characters'),
+  editors: editorsSchema,
+});
+export type SheetLockInput = z.input<typeof sheetLockSchema>;
+
+/** POST /api/workbooks/:id/sheets/:sheetId/protected-ranges. Its creator may always edit it. */
+export const protectedRangeSchema = z.object({
+  range: z
+    .string({ error: (i) => (i.input === undefined ? 'required' : 'must be text') })
+    .trim()
+    .max(40, 'at most 40 characters')
+    .refine((r) => parseCellRange(r) !== null, { error: (i) => `"${String(i.input)}" is not a range in A1 notation on the grid (like B2, A1:C3, A:C or 2:5)` })
+    .transform((r) => formatCellRange(parseCellRange(r)!)),
+  editors: editorsSchema,
+});
+export type ProtectedRangeInput = z.input<typeof protectedRangeSchema>;
+
+/** POST /api/workbooks/:id/presence: where the caller's cursor is. */
+export const presenceSchema = z.object({
+  sheetId: idSchema,
+  row: z.int('must be a whole number').min(0, 'must be 0 or more').max(maxRowIndex, `must be at most ${maxRowIndex}`),
+  col: z.int('must be a whole number').min(0, 'must be 0 or more').max(maxColIndex, `must be at most ${maxColIndex}`),
+});
+export type PresenceInput = z.infer<typeof presenceSchema>;
+
+export const auditQuerySchema = z.object({
+  /** Only entries with a smaller id (paging backwards). */
+  before: z.coerce.number({ error: 'must be a whole number' }).int('must be a whole number').min(1, 'must be 1 or more').optional(),
+  limit: z.coerce.number({ error: 'must be a whole number' }).int('must be a whole number').min(1, 'must be 1 or more').max(500, 'at most 500').default(100),
+});
+
+// ---- payloads ----
+
+export interface UserRef {
+  id: string;
+  name: string;
+}
+
+export interface Member {
+  user: UserRef & { email: string };
+  role: WorkbookRole;
+  /** When they joined (ms since the epoch). */
+  since: number;
+}
+/** GET /api/workbooks/:id/members (any member or a site admin). */
+export interface MembersResponse {
+  members: Member[];
+}
+
+export type InvitationStatus = 'pending' | 'accepted' | 'revoked' | 'expired';
+export interface Invitation {
+  id: string;
+  email: string;
+  role: GrantableRole;
+  invitedBy: UserRef;
+  createdAt: number;
+  expiresAt: number;
+  status: InvitationStatus;
+}
+/** POST …/members answers 201 `{ member }` for an existing account, 202 `{ invitation }` otherwise; POST …/invitations answers 201 `{ invitation }`. */
+export type AddMemberResponse = { member: Member } | { invitation: Invitation };
+/** GET /api/workbooks/:id/invitations: pending ones only (owners). */
+export interface InvitationsResponse {
+  invitations: Invitation[];
+}
+/** GET /api/invitations/:token: what the link offers, shown before accepting (no sign-in needed). */
+export interface InvitationPreview {
+  workbook: { id: string; title: string };
+  email: string;
+  role: GrantableRole;
+  invitedBy: UserRef;
+  expiresAt: number;
+  status: InvitationStatus;
+}
+/** POST /api/invitations/:token/accept. */
+export interface AcceptInvitationResponse {
+  workbookId: string;
+  role: WorkbookRole;
+}
+/** PATCH …/members/:userId. After a transfer `previousOwner` is the caller, now an editor. */
+export interface MemberRoleResult {
+  member: Member;
+  previousOwner?: Member;
+}
+
+export interface SheetLock {
+  sheetId: string;
+  lockedBy: UserRef;
+  reason: string;
+  /** Who may still change the sheet; always includes the locker. */
+  editors: UserRef[];
+  createdAt: number;
+}
+export interface ProtectedRange {
+  id: string;
+  sheetId: string;
+  /** Canonical A1 text: "B2", "A1:C3", "A:C", "2:5". */
+  range: string;
+  bounds: CellBounds;
+  /** Who may edit inside it; always includes its creator. */
+  editors: UserRef[];
+  createdBy: UserRef;
+  createdAt: number;
+}
+/** Part of GET /api/workbooks/:id, of the `protection` live event, and of lock/range responses. */
+export interface Protection {
+  locks: SheetLock[];
+  protectedRanges: ProtectedRange[];
+}
+
+export type EditBlock = { kind: 'lock'; lock: SheetLock } | { kind: 'range'; range: ProtectedRange };
+
+/**
+ * Why `userId` may not change this cell, or null when nothing stops them (roles aside). The server's
+ * patch check and the grid's greyed cells both call this, so they cannot disagree.
+ */
+export function editBlock(protection: Protection, userId: string, sheetId: string, row: number, col: number): EditBlock | null {
+  const lock = protection.locks.find((l) => l.sheetId === sheetId);
+  if (lock && !lock.editors.some((e) => e.id === userId)) return { kind: 'lock', lock };
+  const range = protection.protectedRanges.find((r) => r.sheetId === sheetId && boundsContain(r.bounds, row, col) && !r.editors.some((e) => e.id === userId));
+  return range ? { kind: 'range', range } : null;
+}
+
+/** Whether the sheet itself (name, position, settings, deletion) is locked against `userId`. */
+export function sheetLockedAgainst(protection: Protection, userId: string, sheetId: string): SheetLock | null {
+  const lock = protection.locks.find((l) => l.sheetId === sheetId);
+  return lock && !lock.editors.some((e) => e.id === userId) ? lock : null;
+}
+
+export type AuditAction =
+  | 'member.added'
+  | 'member.role_changed'
+  | 'member.removed'
+  | 'ownership.transferred'
+  | 'invitation.created'
+  | 'invitation.revoked'
+  | 'invitation.accepted'
+  | 'sheet.locked'
+  | 'sheet.unlocked'
+  | 'range.protected'
+  | 'range.unprotected'
+  | 'revision.restored';
+export interface AuditEntry {
+  id: number;
+  action: AuditAction;
+  actor: (UserRef & { email: string }) | null;
+  details: Record<string, unknown>;
+  createdAt: number;
+}
+/** GET /api/workbooks/:id/audit (owners and site admins), newest first. */
+export interface AuditResponse {
+  entries: AuditEntry[];
+}
+
+/** GET /api/workbooks/:id/revisions/:n/snapshot: the cell inputs right after revision n. */
+export interface RevisionSnapshot {
+  revision: number;
+  sheets: SheetPayload[];
+}
+
+/** GET /api/admin/mail: what the built-in fake SMTP server received, newest first. */
+export interface MailMessage {
+  id: number;
+  from: string;
+  to: string;
+  subject: string;
+  text: string;
+  receivedAt: number;
+}
+export interface MailOutboxResponse {
+  messages: MailMessage[];
+}
+
+/** GET /api/admin/workbooks: every workbook on the site, most recently changed first (role 'site-admin'). */
+export interface AdminWorkbooksResponse {
+  workbooks: (WorkbookSummary & { memberCount: number })[];
+}
+
+// ---- live updates: GET /api/workbooks/:id/events (text/event-stream) ----
+
+export interface PresenceUser {
+  userId: string;
+  name: string;
+  cell: PresenceInput | null;
+}
+
+/** The `data:` JSON of each named event. Revision events carry `id: <revision>` for Last-Event-ID. */
+export interface LiveEvents {
+  /** First event on every connection. */
+  ready: { revision: number; role: AccessRole };
+  revision: { revision: number; kind: RevisionKind; authorId: string; changes: { sheetId: string; row: number; col: number; before: string; after: string }[]; sheetOps: unknown[]; restoredFrom?: number };
+  presence: { users: PresenceUser[] };
+  protection: Protection;
+  /** The caller's role changed (the stream stays open). */
+  role: { role: AccessRole };
+  renamed: { title: string };
+  /** More revisions were missed than the server replays: load the workbook again. */
+  reload: { revision: number };
+  /** The workbook was deleted or the caller lost access; the server closes the stream after this. */
+  closed: { reason: 'deleted' | 'access_removed' };
+}
+export type LiveEventName = keyof LiveEvents;
+
+/** Events the server's in-process hub carries besides revisions (server/services/events.ts). */
+export type TeamEvent = { type: 'protection'; workbookId: string; protection: Protection } | { type: 'members'; workbookId: string };
+
+/** Every event name the stream sends, for EventSource.addEventListener. */
+export const liveEventNames = ['ready', 'revision', 'presence', 'protection', 'role', 'renamed', 'reload', 'closed'] as const satisfies readonly LiveEventName[];
+
+/** Paths for the client's api() wrapper (which adds the /api prefix); `eventsUrl` is whole, for EventSource. */
+export const teamPaths = {
+  members: (workbookId: string) => `/workbooks/${workbookId}/members`,
+  member: (workbookId: string, userId: string) => `/workbooks/${workbookId}/members/${userId}`,
+  invitations: (workbookId: string) => `/workbooks/${workbookId}/invitations`,
+  invitation: (workbookId: string, invitationId: string) => `/workbooks/${workbookId}/invitations/${invitationId}`,
+  invitationLink: (token: string) => `/invitations/${token}`,
+  acceptInvitation: (token: string) => `/invitations/${token}/accept`,
+  lock: (workbookId: string, sheetId: string) => `/workbooks/${workbookId}/sheets/${sheetId}/lock`,
+  protectedRanges: (workbookId: string, sheetId: string) => `/workbooks/${workbookId}/sheets/${sheetId}/protected-ranges`,
+  protectedRange: (workbookId: string, sheetId: string, rangeId: string) => `/workbooks/${workbookId}/sheets/${sheetId}/protected-ranges/${rangeId}`,
+  presence: (workbookId: string) => `/workbooks/${workbookId}/presence`,
+  snapshot: (workbookId: string, revision: number) => `/workbooks/${workbookId}/revisions/${revision}/snapshot`,
+  audit: (workbookId: string) => `/workbooks/${workbookId}/audit`,
+  eventsUrl: (workbookId: string) => `/api/workbooks/${workbookId}/events`,
+  adminMail: '/admin/mail',
+  adminWorkbooks: '/admin/workbooks',
+} as const;

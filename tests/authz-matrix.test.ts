@@ -1,0 +1,227 @@
+// The authorization matrix: every route under /api/workbooks/:id, asked by each kind of caller, with
+// the status the API must answer. Non-members get 404 (a workbook's existence is not revealed);
+// members and site admins who may see it but not do this get 403 with the reason; signed-out 401.
+// Site admins read every workbook (and its audit log) but change nothing unless made members.
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Express } from 'express';
+import { listen, openEventStream } from './helpers/eventStream.js';
+import { makeTeam, sharedWorkbook, type Person, type Team } from './helpers/team.js';
+
+const callers = ['owner', 'editor', 'viewer', 'outsider', 'admin', 'signedOut'] as const;
+type Caller = (typeof callers)[number];
+type Method = 'get' | 'post' | 'put' | 'patch' | 'delete';
+
+/** The ids a request path may name; `{id}` is the workbook. */
+interface Fixture {
+  id: string;
+  sheet1: string;
+  /** Locked by the owner, with a protected range on it. */
+  lockedSheet: string;
+  rangeId: string;
+  invitationId: string;
+  viewerId: string;
+  editorId: string;
+  editor2Id: string;
+  revision: number;
+  /** An earlier revision to read, view and restore. */
+  n: number;
+}
+
+type Body = object | 'patch' | 'cursor' | 'stream' | 'import' | undefined;
+type Row = [what: string, method: Method, path: string, body: Body, expected: Record<Caller, number>];
+const row = (what: string, method: Method, path: string, body: Body, ...codes: number[]): Row => [
+  what,
+  method,
+  path,
+  body,
+  Object.fromEntries(callers.map((c, i) => [c, codes[i]])) as Record<Caller, number>,
+];
+
+//                                                                                                       owner editor viewer outsider admin signedOut
+const table: Row[] = [
+  row('open', 'get', '/api/workbooks/{id}', undefined,                                                     200, 200, 200, 404, 200, 401),
+  row('rename', 'patch', '/api/workbooks/{id}', { title: 'Renamed' },                                      200, 403, 403, 404, 403, 401),
+  row('delete', 'delete', '/api/workbooks/{id}', undefined,                                                204, 403, 403, 404, 403, 401),
+  row('add a sheet', 'post', '/api/workbooks/{id}/sheets', {},                                             201, 201, 403, 404, 403, 401),
+  row('rename a sheet', 'patch', '/api/workbooks/{id}/sheets/{sheet1}', { name: 'Ions' },                  200, 200, 403, 404, 403, 401),
+  row('delete a sheet', 'delete', '/api/workbooks/{id}/sheets/{sheet1}', undefined,                        200, 200, 403, 404, 403, 401),
+  row('edit cells', 'post', '/api/workbooks/{id}/patches', 'patch',                                        200, 200, 403, 404, 403, 401),
+  row('list revisions', 'get', '/api/workbooks/{id}/revisions', undefined,                                 200, 200, 200, 404, 200, 401),
+  row('read a revision', 'get', '/api/workbooks/{id}/revisions/{n}', undefined,                              200, 200, 200, 404, 200, 401),
+  row('view as of a revision', 'get', '/api/workbooks/{id}/revisions/{n}/snapshot', undefined,               200, 200, 200, 404, 200, 401),
+  row('restore a revision', 'post', '/api/workbooks/{id}/revisions/{n}/restore', undefined,                  200, 200, 403, 404, 403, 401),
+  row('computed values', 'get', '/api/workbooks/{id}/values', undefined,                                   200, 200, 200, 404, 200, 401),
+  row('export', 'get', '/api/workbooks/{id}/export?format=xlsx', undefined,                                200, 200, 200, 404, 200, 401),
+  row('import into it', 'post', '/api/imports', 'import',                                                  201, 201, 403, 404, 403, 401),
+  row('list members', 'get', '/api/workbooks/{id}/members', undefined,                                     200, 200, 200, 404, 200, 401),
+  row('add a member', 'post', '/api/workbooks/{id}/members', { email: 'olga@elsewhere.test', role: 'viewer' }, 201, 403, 403, 404, 403, 401),
+  row('change a role', 'patch', '/api/workbooks/{id}/members/{viewerId}', { role: 'editor' },              200, 403, 403, 404, 403, 401),
+  row('transfer ownership', 'patch', '/api/workbooks/{id}/members/{editor2Id}', { role: 'owner' },         200, 403, 403, 404, 403, 401),
+  row('remove a member', 'delete', '/api/workbooks/{id}/members/{editor2Id}', undefined,                   204, 403, 403, 404, 403, 401),
+  row('list invitations', 'get', '/api/workbooks/{id}/invitations', undefined,                             200, 403, 403, 404, 403, 401),
+  row('invite by e-mail', 'post', '/api/workbooks/{id}/invitations', { email: 'new@lab.test', role: 'editor' }, 201, 403, 403, 404, 403, 401),
+  row('revoke an invitation', 'delete', '/api/workbooks/{id}/invitations/{invitationId}', undefined,       204, 403, 403, 404, 403, 401),
+  row('lock a sheet', 'put', '/api/workbooks/{id}/sheets/{sheet1}/lock', { reason: 'final' },              200, 403, 403, 404, 403, 401),
+  row('unlock a sheet', 'delete', '/api/workbooks/{id}/sheets/{lockedSheet}/lock', undefined,              204, 403, 403, 404, 403, 401),
+  row('protect a range', 'post', '/api/workbooks/{id}/sheets/{sheet1}/protected-ranges', { range: 'B2' },  201, 403, 403, 404, 403, 401),
+  row('unprotect a range', 'delete', '/api/workbooks/{id}/sheets/{lockedSheet}/protected-ranges/{rangeId}', undefined, 204, 403, 403, 404, 403, 401),
+  row('live events', 'get', '/api/workbooks/{id}/events', 'stream',                                        200, 200, 200, 404, 200, 401),
+  row('move my cursor', 'post', '/api/workbooks/{id}/presence', 'cursor',                                  204, 204, 204, 404, 204, 401),
+  row('audit log', 'get', '/api/workbooks/{id}/audit', undefined,                                          200, 403, 403, 404, 200, 401),
+];
+
+/** Express route patterns of everything mounted under /api/workbooks/:id, read from the app itself. */
+function workbookRoutes(app: Express): string[] {
+  const found: string[] = [];
+  const walk = (stack: any[], prefix: string) => {
+    for (const layer of stack) {
+      const here = typeof layer.rawPath === 'string' && layer.rawPath !== '/' ? prefix + layer.rawPath : prefix;
+      if (layer.route) {
+        for (const m of Object.keys(layer.route.methods)) if (m !== '_all') found.push(`${m.toUpperCase()} ${prefix}${layer.route.path}`);
+      } else if (layer.handle?.stack) {
+        walk(layer.handle.stack, here);
+      }
+    }
+  };
+  walk((app as any).router.stack, '');
+  return [...new Set(found.filter((r) => r.includes('/api/workbooks/:id')))].sort();
+}
+
+describe('authorization matrix', () => {
+  let t: Team;
+  let server: Awaited<ReturnType<typeof listen>>;
+  beforeAll(async () => {
+    t = await makeTeam();
+    server = await listen(t.app);
+  });
+  afterAll(async () => {
+    await server.close();
+    await t.ctx.mail.stop();
+  });
+
+  /** A workbook shared with the team, with a second sheet that is locked and holds a protected range. */
+  async function fixture(): Promise<Fixture> {
+    const wb = await sharedWorkbook(t, 'Matrix');
+    const a = t.owner.agent;
+    const lockedSheet = (await a.post(`/api/workbooks/${wb.id}/sheets`).send({ name: 'Settled' }).expect(201)).body.sheet.id;
+    await a.put(`/api/workbooks/${wb.id}/sheets/${lockedSheet}/lock`).send({ reason: 'settled' }).expect(200);
+    const rangeId = (await a.post(`/api/workbooks/${wb.id}/sheets/${lockedSheet}/protected-ranges`).send({ range: 'Z100' }).expect(201)).body.protectedRange.id;
+    const edit = await a.post(`/api/workbooks/${wb.id}/patches`).send({ baseRevision: 1, changes: [{ sheetId: wb.sheets[0].id, row: 0, col: 0, input: 'O2' }] }).expect(200);
+    const invitationId = (await a.post(`/api/workbooks/${wb.id}/invitations`).send({ email: 'pending@lab.test', role: 'viewer' }).expect(201)).body.invitation.id;
+    return { id: wb.id, sheet1: wb.sheets[0].id, lockedSheet, rangeId, invitationId, viewerId: t.viewer.user.id, editorId: t.editor.user.id, editor2Id: t.editor2.user.id, revision: edit.body.revision, n: 1 };
+  }
+
+  /** Bodies that depend on the fixture are named; 'stream' opens the path as an event stream. */
+  function bodyFor(body: Body, f: Fixture): object | undefined {
+    if (body === 'patch') return { baseRevision: f.revision, changes: [{ sheetId: f.sheet1, row: 1, col: 1, input: 'N2' }] };
+    if (body === 'cursor') return { sheetId: f.sheet1, row: 0, col: 0 };
+    return body === 'stream' || body === 'import' ? undefined : body;
+  }
+
+  async function ask(caller: Caller, method: Method, path: string, body: Body, f?: Fixture): Promise<number> {
+    const person: Person | null = caller === 'signedOut' ? null : t[caller];
+    if (body === 'stream') {
+      const s = await openEventStream(server.url + path, person ? { Cookie: person.cookie } : {});
+      s.close();
+      return s.status;
+    }
+    const agent = person ? person.agent : t.agent();
+    if (body === 'import') {
+      // A CSV upload into this workbook (multipart, as the browser sends it).
+      return (await agent.post(path).field('workbookId', f!.id).attach('file', Buffer.from('species,unpaired\nO2,2\n'), 'radicals.csv')).status;
+    }
+    return (await agent[method](path).send(f ? bodyFor(body, f) : (body as object | undefined))).status;
+  }
+
+  it('covers every route the app serves under /api/workbooks/:id', () => {
+    // Parameter names differ ({sheet1} here, :sheetId there); compare the shapes.
+    const covered = new Set(table.map(([, m, p]) => `${m.toUpperCase()} ${p.split('?')[0].replace(/\{\w+\}/g, ':_')}`));
+    const routes = workbookRoutes(t.app);
+    expect(routes).toContain('GET /api/workbooks/:id/events'); // the walk reaches nested routers
+    expect(routes.filter((r) => !covered.has(r.replace(/:\w+/g, ':_')))).toEqual([]);
+  });
+
+  it.each(table)('%s: %s %s', async (_what, method, path, body, expected) => {
+    const actual = {} as Record<Caller, number>;
+    // Reads and refusals share one workbook (a refusal must change nothing anyway); each change
+    // expected to succeed gets a fresh one, so one caller's success cannot alter the next answer.
+    const shared = await fixture();
+    for (const caller of callers) {
+      const f = method !== 'get' && expected[caller] < 300 ? await fixture() : shared;
+      const url = path.replace(/\{(\w+)\}/g, (_m, key: keyof Fixture) => String(f[key]));
+      actual[caller] = await ask(caller, method, url, body, f);
+    }
+    expect(actual).toEqual(expected);
+  });
+
+  it('answers the routes outside one workbook as expected for each caller', async () => {
+    const list = {} as Record<Caller, number[]>;
+    for (const caller of callers) {
+      list[caller] = await Promise.all(['/api/workbooks', '/api/admin/mail', '/api/admin/workbooks'].map((p) => ask(caller, 'get', p, undefined)));
+    }
+    //                         my list, dev inbox, every workbook
+    expect(list).toEqual({ owner: [200, 403, 403], editor: [200, 403, 403], viewer: [200, 403, 403], outsider: [200, 403, 403], admin: [200, 200, 200], signedOut: [401, 401, 401] });
+  });
+
+  it('lists every workbook on the site to a site admin, who belongs to none of them', async () => {
+    const f = await fixture();
+    const all = (await t.admin.agent.get('/api/admin/workbooks').expect(200)).body.workbooks as { id: string; role: string; memberCount: number; owner: { name: string } }[];
+    expect(all.find((w) => w.id === f.id)).toMatchObject({ role: 'site-admin', memberCount: 4, owner: { name: 'Ann Analyst' } });
+    expect((await t.admin.agent.get('/api/workbooks')).body.workbooks).toEqual([]);
+  });
+});
+
+describe('no reach from one workbook into another', () => {
+  // Ann owns both workbooks, so every refusal below comes from the ids not belonging together,
+  // not from a missing right.
+  let t: Team;
+  beforeAll(async () => {
+    t = await makeTeam();
+  });
+  afterAll(() => t.ctx.mail.stop());
+
+  it('finds no sheet, cell, revision, member, invitation, lock or range of workbook A through workbook B', async () => {
+    const a = await sharedWorkbook(t, 'A');
+    const b = (await t.owner.agent.post('/api/workbooks').send({ title: 'B' }).expect(201)).body.workbook.id as string;
+    const bSheet = (await t.owner.agent.get(`/api/workbooks/${b}`)).body.sheets[0].id as string;
+    const ann = t.owner.agent;
+    const aSheet = a.sheets[0].id;
+    for (const input of ['N2', 'O2', 'F2']) {
+      const rev = (await ann.get(`/api/workbooks/${a.id}`)).body.revision;
+      await ann.post(`/api/workbooks/${a.id}/patches`).send({ baseRevision: rev, changes: [{ sheetId: aSheet, row: 0, col: 0, input }] }).expect(200);
+    }
+    await ann.put(`/api/workbooks/${a.id}/sheets/${aSheet}/lock`).send({ reason: 'A is settled', editors: [t.editor.user.id] }).expect(200);
+    const rangeId = (await ann.post(`/api/workbooks/${a.id}/sheets/${aSheet}/protected-ranges`).send({ range: 'A1:B2' }).expect(201)).body.protectedRange.id;
+    const invitationId = (await ann.post(`/api/workbooks/${a.id}/invitations`).send({ email: 'later@lab.test', role: 'viewer' }).expect(201)).body.invitation.id;
+    const aBefore = (await ann.get(`/api/workbooks/${a.id}`)).body;
+
+    const attempts: [Method, string, object?][] = [
+      ['patch', `/api/workbooks/${b}/sheets/${aSheet}`, { name: 'Taken' }],
+      ['delete', `/api/workbooks/${b}/sheets/${aSheet}`],
+      ['post', `/api/workbooks/${b}/patches`, { baseRevision: 0, changes: [{ sheetId: aSheet, row: 0, col: 0, input: 'Cl2' }] }],
+      ['get', `/api/workbooks/${b}/revisions/3`],
+      ['get', `/api/workbooks/${b}/revisions/3/snapshot`],
+      ['post', `/api/workbooks/${b}/revisions/2/restore`],
+      ['patch', `/api/workbooks/${b}/members/${t.viewer.user.id}`, { role: 'editor' }],
+      ['delete', `/api/workbooks/${b}/members/${t.viewer.user.id}`],
+      ['delete', `/api/workbooks/${b}/invitations/${invitationId}`],
+      ['put', `/api/workbooks/${b}/sheets/${aSheet}/lock`, { reason: 'hijack' }],
+      ['delete', `/api/workbooks/${b}/sheets/${aSheet}/lock`],
+      ['post', `/api/workbooks/${b}/sheets/${aSheet}/protected-ranges`, { range: 'C3' }],
+      ['delete', `/api/workbooks/${b}/sheets/${aSheet}/protected-ranges/${rangeId}`],
+      ['delete', `/api/workbooks/${b}/sheets/${bSheet}/protected-ranges/${rangeId}`],
+      ['post', `/api/workbooks/${b}/presence`, { sheetId: aSheet, row: 0, col: 0 }],
+    ];
+    for (const [method, path, body] of attempts) {
+      const res = await ann[method](path).send(body);
+      expect(res.status, `${method.toUpperCase()} ${path}`).toBe(404);
+    }
+
+    const aAfter = (await ann.get(`/api/workbooks/${a.id}`)).body;
+    expect(aAfter).toEqual(aBefore);
+    const pending = (await ann.get(`/api/workbooks/${a.id}/invitations`)).body.invitations.map((i: { id: string }) => i.id);
+    expect(pending).toContain(invitationId);
+    const bAfter = (await ann.get(`/api/workbooks/${b}`)).body;
+    expect(bAfter).toMatchObject({ revision: 0, locks: [], protectedRanges: [], sheets: [{ id: bSheet, name: 'Sheet1', cells: [] }] });
+  });
+});
