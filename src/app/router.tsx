@@ -2,8 +2,10 @@
 // its formula engine, the function reference with the catalog) load on first visit.
 import { createBrowserRouter } from 'react-router';
 import { AdminUsersPage } from '../features/admin/AdminUsersPage.js';
+import { MailOutbox } from '../features/admin/MailOutbox.js';
 import { SignInPage } from '../features/auth/SignInPage.js';
 import { SignUpPage } from '../features/auth/SignUpPage.js';
+import { InvitationPage } from '../features/sharing/InvitationPage.js';
 import { WorkbookListPage } from '../features/workbooks/WorkbookListPage.js';
 import { redirectIfSignedIn, requireSignedIn, signInPath } from './guards.js';
 import { AppLayout } from './layout/AppLayout.js';
@@ -18,6 +20,8 @@ export const router = createBrowserRouter([
     children: [
       { path: '/sign-in', loader: redirectIfSignedIn, Component: SignInPage },
       { path: '/sign-up', loader: redirectIfSignedIn, Component: SignUpPage },
+      // Open signed out too: an invitee reads who invited them before signing up or in.
+      { path: '/invitations/:token', Component: InvitationPage },
       {
         loader: requireSignedIn,
         Component: AppLayout,
@@ -33,6 +37,7 @@ export const router = createBrowserRouter([
             lazy: async () => ({ Component: (await import('../features/reference/FunctionReferencePage.js')).FunctionReferencePage }),
           },
           { path: 'admin', Component: AdminUsersPage },
+          { path: 'admin/mail', Component: MailOutbox },
           { path: '*', Component: NotFoundPage },
         ],
       },

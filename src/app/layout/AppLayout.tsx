@@ -28,8 +28,13 @@ export function AppLayout() {
             Functions
           </NavLink>
           {user?.siteRole === 'admin' && (
-            <NavLink to="/admin" className={navClass}>
+            <NavLink to="/admin" end className={navClass}>
               Users
+            </NavLink>
+          )}
+          {user?.siteRole === 'admin' && (
+            <NavLink to="/admin/mail" className={navClass}>
+              Mail
             </NavLink>
           )}
         </nav>

@@ -1,6 +1,7 @@
 // Site administration: the account list and changes to one account.
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { AdminUser, AdminUserPatch, AdminUsersResponse } from '../../../shared/admin.js';
+import type { MailOutboxResponse } from '../../../shared/team.js';
 import { api, queryKeys } from '../../lib/api.js';
 
 export const adminUsersQueryOptions = queryOptions({
@@ -24,4 +25,15 @@ export function useUpdateAdminUser() {
       if (me?.id === user.id) void queryClient.invalidateQueries({ queryKey: queryKeys.me });
     },
   });
+}
+
+/** The built-in fake SMTP server's inbox (newest first): what Orbitab e-mailed, invitation links included. */
+export const adminMailQueryOptions = queryOptions({
+  queryKey: queryKeys.adminMail,
+  queryFn: ({ signal }) => api<MailOutboxResponse>('/admin/mail', { signal }).then((r) => r.messages),
+  staleTime: 0,
+});
+
+export function useAdminMail() {
+  return useQuery(adminMailQueryOptions);
 }

@@ -1,0 +1,51 @@
+// The workbook as it was right after a revision, computed for reading: its inputs go into a scratch
+// engine (the same createEngine the grid and server use), the values come out as the grid would show
+// them, and the engine is thrown away. Nothing here can be edited or sent.
+import { createEngine } from '../../../functions/engine.js';
+import type { RevisionSnapshot } from '../../../shared/team.js';
+import { cellView, type CellView } from '../grid/model/cellView.js';
+import { readDisplaySettings } from '../grid/model/displaySettings.js';
+import { SheetInputs } from '../grid/model/sheetInputs.js';
+
+export interface SnapshotSheet {
+  id: string;
+  name: string;
+  /** rows × cols of what each cell shows; undefined for an empty cell. */
+  cells: (CellView | undefined)[][];
+  /** How many rows and columns the sheet really uses (the table may show fewer). */
+  usedRows: number;
+  usedCols: number;
+}
+
+/** A read-only view is for looking, not scrolling a million rows: the first block is shown (common practice). */
+export const snapshotMaxRows = 300;
+export const snapshotMaxCols = 40;
+
+export function snapshotSheets(snapshot: RevisionSnapshot, maxRows = snapshotMaxRows, maxCols = snapshotMaxCols): SnapshotSheet[] {
+  const ordered = [...snapshot.sheets].sort((a, b) => a.position - b.position);
+  const inputs = ordered.map((s) => SheetInputs.from(s.cells));
+  const engine = createEngine(Object.fromEntries(ordered.map((s, i) => [s.name, inputs[i].toTable()])), { undoLimit: 0 });
+  try {
+    return ordered.map((s, i) => {
+      const sheetInputs = inputs[i];
+      const { rows: usedRows, cols: usedCols } = sheetInputs.extent();
+      const engineId = engine.getSheetId(s.name)!;
+      const values = engine.getSheetValues(engineId);
+      const precision = readDisplaySettings(s.settings).precision;
+      // Array formulas can spill past the last typed cell; a reduce, not a spread, for long sheets.
+      const valueCols = values.reduce((m, r) => Math.max(m, r.length), 0);
+      const rowCount = Math.min(maxRows, Math.max(usedRows, values.length));
+      const colCount = Math.min(maxCols, Math.max(usedCols, valueCols));
+      const cells = Array.from({ length: rowCount }, (_, r) =>
+        Array.from({ length: colCount }, (_, c) => {
+          const input = sheetInputs.get(r, c);
+          const value = values[r]?.[c] ?? null;
+          return cellView(input, value, precision, input === '' && value !== null);
+        }),
+      );
+      return { id: s.id, name: s.name, cells, usedRows: Math.max(usedRows, values.length), usedCols: Math.max(usedCols, valueCols) };
+    });
+  } finally {
+    engine.destroy();
+  }
+}

@@ -1,0 +1,64 @@
+// The team controls of an open workbook, in its title bar: who else is here, and Share, Protect,
+// History and Audit (each shown only to roles that can use it; the API checks again).
+import { useNavigate } from 'react-router';
+import { can } from '../../../shared/permissions.js';
+import { Button } from '../../components/ui/Button.js';
+import { AuditDialog } from '../audit/AuditDialog.js';
+import type { WorkbookModel } from '../grid/model/workbookModel.js';
+import { HistoryDialog } from '../history/HistoryDialog.js';
+import { ProtectDialog } from '../locks/ProtectDialog.js';
+import { ShareDialog } from '../sharing/ShareDialog.js';
+import { PresenceChips } from './PresenceChips.js';
+import type { WorkbookTeam } from './useWorkbookTeam.js';
+
+export function TeamToolbar({ team, model, activeSheet, selectionRange }: { team: WorkbookTeam; model: WorkbookModel; activeSheet: { id: string; name: string }; selectionRange?: string }) {
+  const navigate = useNavigate();
+  const { role, dialog, openDialog } = team;
+  const close = () => openDialog(null);
+  const isMember = role !== 'site-admin';
+  return (
+    <div className="flex items-center gap-1.5" data-grid-shield="">
+      <PresenceChips
+        users={team.live.presence}
+        myId={team.myId}
+        connection={team.live.connection}
+        activeSheetId={activeSheet.id}
+        sheetName={(id) => (model.hasSheet(id) ? model.sheet(id).name : null)}
+      />
+      <span aria-hidden="true" className="mx-1 h-4 w-px bg-line" />
+      {isMember && (
+        <Button variant={can(role, 'manageMembers') ? 'primary' : 'secondary'} onClick={() => openDialog('share')}>
+          Share
+        </Button>
+      )}
+      <Button variant="ghost" onClick={() => openDialog('protect')}>
+        Protect
+      </Button>
+      {can(role, 'viewHistory') && (
+        <Button variant="ghost" onClick={() => openDialog('history')}>
+          History
+        </Button>
+      )}
+      {can(role, 'viewAudit') && (
+        <Button variant="ghost" onClick={() => openDialog('audit')}>
+          Audit
+        </Button>
+      )}
+      {isMember && (
+        <ShareDialog open={dialog === 'share'} onClose={close} workbookId={model.id} title={model.title} role={role} myId={team.myId} onLeft={() => navigate('/', { replace: true })} />
+      )}
+      <ProtectDialog
+        open={dialog === 'protect'}
+        onClose={close}
+        workbookId={model.id}
+        sheet={activeSheet}
+        protection={team.protection}
+        role={role}
+        myId={team.myId}
+        suggestedRange={selectionRange}
+      />
+      {can(role, 'viewHistory') && <HistoryDialog open={dialog === 'history'} onClose={close} workbookId={model.id} role={role} />}
+      {can(role, 'viewAudit') && <AuditDialog open={dialog === 'audit'} onClose={close} workbookId={model.id} />}
+    </div>
+  );
+}

@@ -1,0 +1,104 @@
+// Everything about the other people on an open workbook, in one hook the workspace calls once:
+// the live stream, my role as it changes, the sheet locks and protected ranges (pushed into the grid
+// model as its edit rule, so locked cells grey out and refuse edits), presence and my cursor, and
+// the inputs of mine that were set aside.
+import { useMutation, useQuery } from '@tanstack/react-query';
+import { useCallback, useEffect, useRef, useState } from 'react';
+import type { AccessRole } from '../../../shared/permissions.js';
+import type { PresenceInput, Protection } from '../../../shared/team.js';
+import { api } from '../../lib/api.js';
+import { useMe } from '../auth/api.js';
+import type { KeyValueStorage } from '../grid/save/pendingStore.js';
+import { workbookQueryOptions, type WorkbookSession } from '../grid/session/useWorkbookSession.js';
+import { protectionOf, useProtection } from '../locks/api.js';
+import { editRuleFor } from '../locks/editability.js';
+import type { SetAsideInput } from './conflictResolution.js';
+import { LatestThrottle } from './presenceThrottle.js';
+import { addSetAside, loadSetAside, saveSetAside } from './setAside.js';
+import { useLiveUpdates, type LiveState } from './useLiveUpdates.js';
+
+export type TeamDialog = 'share' | 'protect' | 'history' | 'audit' | null;
+
+export interface WorkbookTeam {
+  myId: string;
+  role: AccessRole;
+  protection: Protection;
+  live: LiveState;
+  setAside: SetAsideInput[];
+  addSetAside: (inputs: SetAsideInput[]) => void;
+  dismissSetAside: () => void;
+  /** Which team dialog is open (the toolbar and the protection banner both open them). */
+  dialog: TeamDialog;
+  openDialog: (dialog: TeamDialog) => void;
+}
+
+function browserStorage(): KeyValueStorage | null {
+  try {
+    return window.localStorage;
+  } catch {
+    return null;
+  }
+}
+
+const sameCell = (a: PresenceInput, b: PresenceInput) => a.sheetId === b.sheetId && a.row === b.row && a.col === b.col;
+
+export function useWorkbookTeam(session: WorkbookSession, cursor: PresenceInput | null): WorkbookTeam {
+  const { model } = session;
+  const workbookId = model.id;
+  const myId = useMe().data?.id ?? '';
+  // The same cached load the session was built from (never refetched while open).
+  const payload = useQuery(workbookQueryOptions(workbookId)).data;
+  const protection = useProtection(workbookId, payload ? protectionOf(payload) : undefined);
+  const [role, setRole] = useState<AccessRole>(model.role);
+  const [dialog, openDialog] = useState<TeamDialog>(null);
+
+  const [setAside, setSetAside] = useState(() => loadSetAside(browserStorage(), workbookId));
+  const addToSetAside = useCallback(
+    (inputs: SetAsideInput[]) =>
+      setSetAside((old) => {
+        const next = addSetAside(old, inputs);
+        saveSetAside(browserStorage(), workbookId, next);
+        return next;
+      }),
+    [workbookId],
+  );
+  const dismissSetAside = useCallback(() => {
+    saveSetAside(browserStorage(), workbookId, []);
+    setSetAside([]);
+  }, [workbookId]);
+
+  const live = useLiveUpdates(session, {
+    loadedRevision: payload?.revision ?? session.queue.baseRevision,
+    onRole: (next) => {
+      model.role = next;
+      model.invalidateViews(); // greys or un-greys every cell for the new role
+      setRole(next);
+    },
+    onOrphaned: addToSetAside,
+  });
+
+  useEffect(() => {
+    model.setEditRule(editRuleFor(protection, myId));
+  }, [model, protection, myId]);
+
+  // Where my cursor is, for everyone else's chips: throttled, and sent again after each reconnect
+  // (the server forgets a cursor when its stream closes).
+  const presence = useMutation({
+    mutationFn: (cell: PresenceInput) => api<void>(`/workbooks/${encodeURIComponent(workbookId)}/presence`, { method: 'POST', body: cell }),
+  });
+  const send = useRef(presence.mutate);
+  send.current = presence.mutate;
+  const throttle = useRef<LatestThrottle<PresenceInput> | null>(null);
+  throttle.current ??= new LatestThrottle<PresenceInput>((cell) => send.current(cell), undefined, sameCell);
+  useEffect(() => () => throttle.current?.dispose(), []);
+  useEffect(() => {
+    throttle.current?.reset();
+  }, [live.connects]);
+  const { sheetId, row, col } = cursor ?? {};
+  useEffect(() => {
+    if (live.connection !== 'live' || sheetId === undefined || row === undefined || col === undefined) return;
+    throttle.current?.push({ sheetId, row, col });
+  }, [sheetId, row, col, live.connection, live.connects]);
+
+  return { myId, role, protection, live, setAside, addSetAside: addToSetAside, dismissSetAside, dialog, openDialog };
+}

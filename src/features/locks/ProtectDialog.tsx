@@ -1,0 +1,57 @@
+// The "Protect" dialog of one sheet: its lock and its protected ranges.
+import { can, type AccessRole } from '../../../shared/permissions.js';
+import type { Protection } from '../../../shared/team.js';
+import { Button } from '../../components/ui/Button.js';
+import { Dialog } from '../../components/ui/Dialog.js';
+import { Notice } from '../../components/ui/Notice.js';
+import { sentence } from '../../lib/fieldErrors.js';
+import { useMembers } from '../sharing/api.js';
+import { ProtectedRangesSection } from './ProtectedRangesSection.js';
+import { SheetLockSection } from './SheetLockSection.js';
+
+export function ProtectDialog({
+  open,
+  onClose,
+  workbookId,
+  sheet,
+  protection,
+  role,
+  myId,
+  suggestedRange,
+}: {
+  open: boolean;
+  onClose: () => void;
+  workbookId: string;
+  sheet: { id: string; name: string };
+  protection: Protection;
+  role: AccessRole;
+  myId: string;
+  suggestedRange?: string;
+}) {
+  const members = useMembers(workbookId, open);
+  // Owners on any sheet, editors on sheets they created: the server knows who created which, so an
+  // editor is offered the forms and told the server's reason if the sheet is not theirs.
+  const canLock = can(role, 'lockAnySheet') || can(role, 'lockOwnSheet');
+  const lock = protection.locks.find((l) => l.sheetId === sheet.id);
+  const ranges = protection.protectedRanges.filter((r) => r.sheetId === sheet.id);
+  return (
+    <Dialog open={open} onClose={onClose} title={`Protect “${sheet.name}”`} width="w-[34rem]" footer={<Button onClick={onClose}>Done</Button>}>
+      {members.isError ? (
+        <Notice tone="error">{sentence(members.error.message)}</Notice>
+      ) : (
+        <div className="max-h-[min(36rem,calc(100vh-10rem))] overflow-y-auto">
+          <SheetLockSection workbookId={workbookId} sheetId={sheet.id} lock={lock} members={members.data ?? []} myId={myId} canLock={canLock} />
+          <ProtectedRangesSection
+            workbookId={workbookId}
+            sheetId={sheet.id}
+            ranges={ranges}
+            members={members.data ?? []}
+            myId={myId}
+            canProtect={canLock}
+            suggestedRange={suggestedRange}
+          />
+        </div>
+      )}
+    </Dialog>
+  );
+}

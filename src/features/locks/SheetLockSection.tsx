@@ -1,0 +1,70 @@
+// Locking one sheet: while locked only the people named on the lock may change it; everyone else
+// sees who locked it, when and why.
+import { useState, type FormEvent } from 'react';
+import { sheetLockSchema, type Member, type SheetLock } from '../../../shared/team.js';
+import { Button } from '../../components/ui/Button.js';
+import { TextField } from '../../components/ui/TextField.js';
+import { checkForm, errorsFromApi, sentence, type FormErrors } from '../../lib/fieldErrors.js';
+import { useLockSheet, useUnlockSheet } from './api.js';
+import { EditorPicker } from './EditorPicker.js';
+
+const when = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
+
+export function lockSummary(lock: SheetLock): string {
+  return `Locked by ${lock.lockedBy.name} on ${when.format(new Date(lock.createdAt))}: “${lock.reason}”. Only ${lock.editors.map((e) => e.name).join(', ')} may change it.`;
+}
+
+export function SheetLockSection({ workbookId, sheetId, lock, members, myId, canLock }: { workbookId: string; sheetId: string; lock: SheetLock | undefined; members: Member[]; myId: string; canLock: boolean }) {
+  const lockSheet = useLockSheet(workbookId);
+  const unlock = useUnlockSheet(workbookId);
+  const [editors, setEditors] = useState<string[]>([]);
+  const [errors, setErrors] = useState<FormErrors>({ fields: {} });
+
+  function submit(event: FormEvent<HTMLFormElement>) {
+    event.preventDefault();
+    const checked = checkForm(sheetLockSchema, { reason: new FormData(event.currentTarget).get('reason'), editors });
+    if ('errors' in checked) return setErrors(checked.errors);
+    setErrors({ fields: {} });
+    lockSheet.mutate({ sheetId, ...checked.data }, { onError: (e) => setErrors(errorsFromApi(e, ['reason', 'editors'])) });
+  }
+
+  return (
+    <section aria-labelledby="lock-heading">
+      <h3 id="lock-heading" className="mb-1.5 text-caption font-semibold tracking-wide text-ink-3 uppercase">
+        Sheet lock
+      </h3>
+      {lock ? (
+        <div className="flex items-start gap-3 rounded-ctl border border-caution-line bg-caution-soft px-3 py-2 text-ink">
+          <p className="flex-1">{lockSummary(lock)}</p>
+          {canLock && (
+            <Button busy={unlock.isPending} onClick={() => unlock.mutate(sheetId)}>
+              Unlock
+            </Button>
+          )}
+        </div>
+      ) : canLock ? (
+        <form noValidate onSubmit={submit} className="flex flex-col gap-2.5">
+          <TextField label="Why lock it?" name="reason" maxLength={500} placeholder="Values checked against the reference tables" error={errors.fields.reason} />
+          <EditorPicker legend="Who else may still change it" members={members} myId={myId} selected={editors} onChange={setEditors} />
+          {errors.form && (
+            <p role="alert" className="text-caption text-danger">
+              {errors.form}
+            </p>
+          )}
+          <div>
+            <Button type="submit" variant="primary" busy={lockSheet.isPending}>
+              Lock sheet
+            </Button>
+          </div>
+        </form>
+      ) : (
+        <p className="text-ink-3">Not locked. Owners lock any sheet; editors lock sheets they created.</p>
+      )}
+      {unlock.isError && (
+        <p role="alert" className="mt-1.5 text-caption text-danger">
+          {sentence(unlock.error.message)}
+        </p>
+      )}
+    </section>
+  );
+}

@@ -1,0 +1,95 @@
+// Members, roles and invitations of one workbook, and the invitation link page. Each call is a
+// queryOptions or a mutation here; components use the thin hooks.
+import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import type {
+  AcceptInvitationResponse,
+  AddMemberInput,
+  AddMemberResponse,
+  InvitationPreview,
+  InvitationsResponse,
+  MemberRoleResult,
+  MembersResponse,
+} from '../../../shared/team.js';
+import type { WorkbookRole } from '../../../shared/permissions.js';
+import { api, queryKeys } from '../../lib/api.js';
+
+const base = (id: string) => `/workbooks/${encodeURIComponent(id)}`;
+
+export const membersQueryOptions = (workbookId: string) =>
+  queryOptions({
+    queryKey: queryKeys.members(workbookId),
+    queryFn: ({ signal }) => api<MembersResponse>(`${base(workbookId)}/members`, { signal }).then((r) => r.members),
+  });
+
+export const invitationsQueryOptions = (workbookId: string) =>
+  queryOptions({
+    queryKey: queryKeys.invitations(workbookId),
+    queryFn: ({ signal }) => api<InvitationsResponse>(`${base(workbookId)}/invitations`, { signal }).then((r) => r.invitations),
+  });
+
+export const invitationLinkQueryOptions = (token: string) =>
+  queryOptions({
+    queryKey: queryKeys.invitationLink(token),
+    queryFn: ({ signal }) => api<InvitationPreview>(`/invitations/${encodeURIComponent(token)}`, { signal }),
+    staleTime: 0,
+  });
+
+export const useMembers = (workbookId: string, enabled = true) => useQuery({ ...membersQueryOptions(workbookId), enabled });
+export const useInvitations = (workbookId: string, enabled: boolean) => useQuery({ ...invitationsQueryOptions(workbookId), enabled });
+export const useInvitationLink = (token: string) => useQuery(invitationLinkQueryOptions(token));
+
+/** After any change to who belongs: the member list, pending invitations, the audit log and my list of workbooks. */
+function useRefreshSharing(workbookId: string) {
+  const queryClient = useQueryClient();
+  return () => {
+    void queryClient.invalidateQueries({ queryKey: queryKeys.members(workbookId) });
+    void queryClient.invalidateQueries({ queryKey: queryKeys.invitations(workbookId) });
+    void queryClient.invalidateQueries({ queryKey: queryKeys.audit(workbookId) });
+    // Exact: ['workbooks'] is also the prefix of the open workbook, which must not be reloaded under the grid.
+    void queryClient.invalidateQueries({ queryKey: queryKeys.workbooks, exact: true });
+  };
+}
+
+export function useAddMember(workbookId: string) {
+  const refresh = useRefreshSharing(workbookId);
+  return useMutation({
+    mutationFn: (input: AddMemberInput) => api<AddMemberResponse>(`${base(workbookId)}/members`, { method: 'POST', body: input }),
+    onSuccess: refresh,
+  });
+}
+
+export function useChangeMemberRole(workbookId: string) {
+  const refresh = useRefreshSharing(workbookId);
+  return useMutation({
+    mutationFn: ({ userId, role }: { userId: string; role: WorkbookRole }) =>
+      api<MemberRoleResult>(`${base(workbookId)}/members/${encodeURIComponent(userId)}`, { method: 'PATCH', body: { role } }),
+    onSuccess: refresh,
+  });
+}
+
+export function useRemoveMember(workbookId: string) {
+  const refresh = useRefreshSharing(workbookId);
+  return useMutation({
+    mutationFn: (userId: string) => api<void>(`${base(workbookId)}/members/${encodeURIComponent(userId)}`, { method: 'DELETE' }),
+    onSuccess: refresh,
+  });
+}
+
+export function useRevokeInvitation(workbookId: string) {
+  const refresh = useRefreshSharing(workbookId);
+  return useMutation({
+    mutationFn: (invitationId: string) => api<void>(`${base(workbookId)}/invitations/${encodeURIComponent(invitationId)}`, { method: 'DELETE' }),
+    onSuccess: refresh,
+  });
+}
+
+export function useAcceptInvitation(token: string) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: () => api<AcceptInvitationResponse>(`/invitations/${encodeURIComponent(token)}/accept`, { method: 'POST' }),
+    onSuccess: () => {
+      void queryClient.invalidateQueries({ queryKey: queryKeys.workbooks, exact: true });
+      void queryClient.invalidateQueries({ queryKey: queryKeys.invitationLink(token) });
+    },
+  });
+}

@@ -1,0 +1,115 @@
+// Settling a conflict without losing either input, the inputs set aside, the read-only view of an
+// old revision computed from its inputs, and the sentences of the audit log and addresses.
+import { afterEach, describe, expect, it, vi } from 'vitest';
+import type { AuditEntry } from '../shared/team.js';
+import type { CellConflict } from '../shared/workbooks.js';
+import type { PatchTransport } from '../src/features/grid/save/patchQueue.js';
+import type { CellInput } from '../src/features/grid/save/pendingStore.js';
+import { ApiError } from '../src/lib/api.js';
+import { resolveConflicts } from '../src/features/live/conflictResolution.js';
+import { settleConflicts } from '../src/features/live/settleConflicts.js';
+import { addSetAside, loadSetAside, maxSetAside, saveSetAside } from '../src/features/live/setAside.js';
+import { cellAddressOf } from '../src/features/live/cellAddress.js';
+import { snapshotSheets } from '../src/features/history/snapshotValues.js';
+import { describeAudit } from '../src/features/audit/describeAudit.js';
+import { memoryStorage, session } from './helpers/workbookSession.js';
+
+const ada = { id: 'u-ada', name: 'Ada Okafor' };
+const ben = { id: 'u-ben', name: 'Ben Laszlo' };
+
+afterEach(() => vi.useRealTimers());
+
+describe('settling a conflict', () => {
+  const conflict = (row: number, theirs: string, mine: string, revision = 6): CellConflict => ({ sheetId: 's1', row, col: 0, theirs, mine, revision });
+
+  it('keeps mine by sending it again, and takes theirs by showing it and setting mine aside', () => {
+    const r = resolveConflicts([conflict(0, 'O2', 'CO'), conflict(1, 'N2', 'NO')], (c) => (c.row === 0 ? 'mine' : 'theirs'), [], 1000);
+    expect(r.resend).toEqual([{ sheetId: 's1', row: 0, col: 0, input: 'CO' }]);
+    expect(r.applyLocally).toEqual([{ sheetId: 's1', row: 1, col: 0, input: 'N2' }]);
+    expect(r.setAside).toEqual([{ sheetId: 's1', row: 1, col: 0, input: 'NO', replacedBy: 'N2', at: 1000 }]);
+  });
+
+  it('uses what I typed while deciding, not the input the server refused', () => {
+    const r = resolveConflicts([conflict(0, 'O2', 'CO')], 'mine', [{ sheetId: 's1', row: 0, col: 0, input: 'CO+' }]);
+    expect(r.resend).toEqual([{ sheetId: 's1', row: 0, col: 0, input: 'CO+' }]);
+  });
+
+  it('resends mine on top of the revision that beat it, and shows theirs where I took theirs', async () => {
+    vi.useFakeTimers();
+    try {
+      const sent: { baseRevision: number; changes: CellInput[] }[] = [];
+      const transport: PatchTransport = {
+        send: async (p) => {
+          sent.push(structuredClone(p));
+          if (sent.length === 1) throw new ApiError(409, 'conflict', 'changed by someone else', { conflicts: [conflict(0, 'O2', 'CO', 6), conflict(1, 'N2', 'NO', 7)] });
+          return { revision: 8 };
+        },
+      };
+      const { model, queue } = session([[0, 0, 'N2'], [1, 0, 'O2']], transport);
+      model.edit([
+        { sheetId: 's1', row: 0, col: 0, input: 'CO' },
+        { sheetId: 's1', row: 1, col: 0, input: 'NO' },
+      ]);
+      await vi.advanceTimersByTimeAsync(400);
+      expect(queue.status.kind).toBe('conflict');
+      const setAside = settleConflicts({ model, queue }, (queue.status as { conflicts: CellConflict[] }).conflicts, (c) => (c.row === 0 ? 'mine' : 'theirs'));
+      await vi.advanceTimersByTimeAsync(400);
+      expect(sent[1]).toEqual({ baseRevision: 7, changes: [{ sheetId: 's1', row: 0, col: 0, input: 'CO' }] });
+      expect(model.input('s1', 1, 0)).toBe('N2');
+      expect(setAside.map((c) => [c.input, c.replacedBy])).toEqual([['NO', 'N2']]);
+      expect(queue.status).toEqual({ kind: 'saved' });
+    } finally {
+      vi.useRealTimers();
+    }
+  });
+
+  it('keeps set-aside inputs in local storage, newest last and bounded', () => {
+    const storage = memoryStorage();
+    const entry = (i: number) => ({ sheetId: 's1', row: i, col: 0, input: `v${i}`, replacedBy: '', at: i });
+    const many = addSetAside([], Array.from({ length: maxSetAside + 5 }, (_, i) => entry(i)));
+    expect(many).toHaveLength(maxSetAside);
+    expect(many[0].input).toBe('v5');
+    saveSetAside(storage, 'wb', many);
+    expect(loadSetAside(storage, 'wb')).toEqual(many);
+    storage.setItem('orbitab.setAside.wb', '{not json');
+    expect(loadSetAside(storage, 'wb')).toEqual([]);
+  });
+});
+
+describe('the workbook as of a revision', () => {
+  it('computes the values of that revision’s inputs, read-only, across sheets (O2 has two unpaired electrons: Atkins & de Paula, Physical Chemistry, MO theory of O2; from memory)', () => {
+    const [first, second] = snapshotSheets({
+      revision: 3,
+      sheets: [
+        { id: 's2', name: 'Notes', position: 1, settings: {}, cells: [[0, 0, '=Sheet1!B1*10']] },
+        { id: 's1', name: 'Sheet1', position: 0, settings: {}, cells: [[0, 0, 'O2'], [0, 1, '=UNPAIRED(A1)']] },
+      ],
+    });
+    expect(first.name).toBe('Sheet1');
+    expect(first.cells[0][1]?.display).toBe('2');
+    expect(second.cells[0][0]?.display).toBe('20');
+  });
+
+  it('shows only the first block of a long sheet and says how much there is', () => {
+    const cells: [number, number, string][] = Array.from({ length: 500 }, (_, i) => [i, 0, String(i)]);
+    const [sheet] = snapshotSheets({ revision: 1, sheets: [{ id: 's1', name: 'Long', position: 0, settings: {}, cells }] }, 300, 40);
+    expect(sheet.cells).toHaveLength(300);
+    expect(sheet.usedRows).toBe(500);
+  });
+});
+
+describe('words on screen', () => {
+  it('quotes sheet names that formulas would quote (common practice)', () => {
+    expect(cellAddressOf('Sheet1', 1, 1)).toBe('Sheet1!B2');
+    expect(cellAddressOf("Ada's ions", 0, 27)).toBe("'Ada''s ions'!AB1");
+  });
+
+  it('tells the audit log in sentences, naming people who are still members', () => {
+    const entry = (action: AuditEntry['action'], details: Record<string, unknown>): AuditEntry => ({ id: 1, action, actor: { ...ada, email: 'ada@lab.example' }, details, createdAt: 0 });
+    const names = (id: string) => (id === ben.id ? ben.name : undefined);
+    expect(describeAudit(entry('member.role_changed', { userId: ben.id, from: 'viewer', to: 'editor' }), names)).toBe('changed Ben Laszlo from viewer to editor');
+    expect(describeAudit(entry('member.removed', { userId: 'gone', email: 'x@lab.example', role: 'viewer', left: false }), names)).toBe('removed x@lab.example (was a viewer)');
+    expect(describeAudit(entry('sheet.locked', { sheetName: 'Reference', reason: 'checked', replaced: false }), names)).toBe('locked sheet “Reference”: “checked”');
+    expect(describeAudit(entry('revision.restored', { restoredFrom: 3, revision: 9 }), names)).toBe('restored revision #3 as revision #9');
+  });
+});
