@@ -5,11 +5,16 @@ import type { AddressInfo } from 'node:net';
 import { createApp } from './app.js';
 import { loadConfig } from './config.js';
 import { openDatabase } from './db/index.js';
+import { seedBanner, seedOnFirstStart } from './seed/index.js';
 
 const config = { ...loadConfig(), production: true };
 const db = openDatabase(config.databasePath); // applies any pending migrations before we listen
 const { app, ctx } = createApp({ db, config });
 const log = ctx.logger;
+// Demo team and workbooks on a database with no accounts yet (ORBITAB_SEED=0 turns it off); the
+// banner with the demo passwords is printed this once.
+const seedReport = config.seed ? seedBanner(await seedOnFirstStart(ctx)) : null;
+if (seedReport) console.log(seedReport);
 // The built-in fake SMTP server (when SMTP_URL is unset) starts now, so /api/health names its port.
 ctx.mail.start().catch((err) => log.error({ err }, 'mail transport did not start; invitations cannot be e-mailed until it does'));
 

@@ -3,6 +3,7 @@
 import { z } from 'zod';
 import type { AccessRole } from './permissions.js';
 import type { ProtectedRange, SheetLock, TeamEvent } from './team.js';
+import { cellInputProblem } from './cellInput.js';
 
 /** Rows 1..1,000,000 and columns A..BXX (2,000), the engine's limits (functions/engine.ts). */
 export const maxRowIndex = 999_999;
@@ -73,7 +74,13 @@ export const cellChangeSchema = z.object({
   row: wholeNumber().min(0, 'must be 0 or more').max(maxRowIndex, `must be at most ${maxRowIndex} (the last row)`),
   col: wholeNumber().min(0, 'must be 0 or more').max(maxColIndex, `must be at most ${maxColIndex} (the last column)`),
   /** What the user typed: a value or a formula. '' clears the cell. */
-  input: z.string({ error: required('text') }).max(maxInputLength, `at most ${maxInputLength} characters`),
+  input: z
+    .string({ error: required('text') })
+    .max(maxInputLength, `at most ${maxInputLength} characters`)
+    .superRefine((input, ctx) => {
+      const problem = cellInputProblem(input);
+      if (problem) ctx.addIssue({ code: 'custom', message: problem });
+    }),
 });
 export type CellChange = z.infer<typeof cellChangeSchema>;
 

@@ -1,6 +1,7 @@
 import { useDeferredValue, useMemo, useState } from 'react';
 import { SearchIcon } from '../../components/ui/icons.js';
 import { Notice } from '../../components/ui/Notice.js';
+import { cautionText, cautionTitle } from '../../../shared/cautions.js';
 import { FunctionEntry } from './FunctionEntry.js';
 import { allFunctions, groupByFamily, searchFunctions } from './referenceData.js';
 
@@ -35,9 +36,8 @@ export function FunctionReferencePage() {
         <h1 className="text-heading font-semibold tracking-tight">Functions</h1>
         <p className="mt-0.5 mb-3 text-ink-3">Chemistry functions for cells, with their parameters, units, worked examples and the published method behind each.</p>
 
-        <Notice tone="caution" title="Model estimates, not measurements" className="mb-4">
-          These functions apply simple published models (LCAO, filling rules, Hückel theory) and can be wrong for real species. Do not base safety
-          decisions on them: for hazardous species, defer to safety data sheets, local regulations and qualified review.
+        <Notice tone="caution" title={cautionTitle} className="mb-4">
+          {cautionText}
         </Notice>
 
         <div className="mb-3 flex items-center gap-3">

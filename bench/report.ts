@@ -1,0 +1,183 @@
+// Turns the outcomes of every benchmark into bench/report.md: one summary table with the ratios and
+// targets each issue set, a section per benchmark, and the machine it ran on. Pure: run-all.ts runs
+// the benchmarks; tests/bench-report.test.ts checks the wording from made-up outcomes.
+
+export type BenchKey = 'functions' | 'huckel' | 'open' | 'patches' | 'io';
+
+export interface BenchOutcome {
+  key: BenchKey;
+  title: string;
+  /** missing: its file or function does not exist yet; failed: it threw. */
+  status: 'ok' | 'missing' | 'failed';
+  seconds?: number;
+  error?: string;
+  result?: unknown;
+}
+
+export interface MachineInfo {
+  os: string;
+  cpuModel: string;
+  cpuCount: number;
+  memoryGb: number;
+  node: string;
+  /** 1-minute load averages; on a shared machine a high value makes every timing noisy. */
+  loadAverageAtStart: number;
+  loadAverageAtEnd: number;
+}
+
+export interface BenchReport {
+  startedAt: string;
+  finishedAt: string;
+  command: string;
+  machine: MachineInfo;
+  outcomes: BenchOutcome[];
+}
+
+export interface SummaryRow {
+  bench: string;
+  measure: string;
+  value: string;
+  target: string;
+  /** null: reported, no target. */
+  met: boolean | null;
+}
+
+// The result shapes belong to each benchmark's own file; read them loosely so a renamed field
+// shows up as "not reported" in the table instead of crashing the report.
+type Loose = Record<string, any>;
+const num = (v: unknown, digits = 2) => (typeof v === 'number' && Number.isFinite(v) ? Number(v.toFixed(digits)).toLocaleString('en') : 'not reported');
+const ms = (v: unknown) => (typeof v === 'number' && Number.isFinite(v) ? `${num(v, 0)} ms` : 'not reported');
+/** "1.24× (1,240 ms vs 1,000 ms)", or "not reported" when the ratio is missing. */
+const ratioText = (ratio: unknown, a: unknown, b: unknown) => (typeof ratio === 'number' ? `${num(ratio)}× (${ms(a)} vs ${ms(b)})` : 'not reported');
+
+function functionsRows(r: Loose): SummaryRow[] {
+  return [
+    {
+      bench: 'Cell functions',
+      measure: `ours / built-in, build + evaluate ${num(r.formulasPerSheet, 0)} formulas`,
+      value: ratioText(r.ratio, r.oursMs, r.builtInMs),
+      target: '≤ 1.5×',
+      met: typeof r.ratio === 'number' ? r.ratio <= 1.5 && r.errorCells === 0 : null,
+    },
+  ];
+}
+
+function huckelRows(r: Loose): SummaryRow[] {
+  const saved = typeof r.uncachedMs === 'number' && typeof r.cachedMs === 'number' ? r.uncachedMs - r.cachedMs : undefined;
+  return [
+    {
+      bench: 'Hückel',
+      measure: `structure cache saving, ${num(r.formulas, 0)} formulas over ${num(r.distinctMolecules, 0)} molecules`,
+      value: `${num(r.cacheSpeedup)}× faster (${ms(r.cachedMs)} vs ${ms(r.uncachedMs)}; ${ms(saved)} saved)`,
+      target: 'cache on faster than off',
+      met: typeof r.cacheSpeedup === 'number' ? r.cacheSpeedup > 1 && r.errorCells === 0 : null,
+    },
+    {
+      bench: 'Hückel',
+      measure: 'ours (cache on) / built-in LEN on the same sheet',
+      value: typeof r.cachedMs === 'number' && typeof r.builtInMs === 'number' ? `${num(r.cachedMs / r.builtInMs)}×` : 'not reported',
+      target: '—',
+      met: null,
+    },
+  ];
+}
+
+function openRows(r: Loose): SummaryRow[] {
+  return [
+    {
+      bench: 'Browser open',
+      measure: `${num(r.rows, 0)} × ${num(r.cols, 0)} workbook, chemistry / plain numbers, first computed rows (median)`,
+      value: ratioText(r.ratio, r.chemistry?.medianMs, r.numbers?.medianMs),
+      target: '≤ 2×',
+      met: typeof r.ratio === 'number' ? r.ratio <= 2 : null,
+    },
+    {
+      bench: 'Browser open',
+      measure: 'whole workbook editable, chemistry (median)',
+      value: ms(r.chemistry?.readyMedianMs),
+      target: '—',
+      met: null,
+    },
+  ];
+}
+
+function patchRows(r: Loose): SummaryRow[] {
+  const v = (r.verification ?? {}) as Loose;
+  return [
+    { bench: 'Patch load', measure: `throughput, ${num(r.connections, 0)} connections for ${num(r.durationSeconds, 0)} s`, value: `${num(r.requestsPerSecond, 1)} req/s`, target: '—', met: null },
+    { bench: 'Patch load', measure: 'latency p95 (p50, p99)', value: `${ms(r.latencyMs?.p95)} (${ms(r.latencyMs?.p50)}, ${ms(r.latencyMs?.p99)})`, target: '—', met: null },
+    {
+      bench: 'Patch load',
+      measure: 'acknowledged changes found in the database afterwards',
+      value: `${num(v.foundInDatabase, 0)} of ${num(v.acknowledgedChanges, 0)}`,
+      target: 'all',
+      met: Array.isArray(v.missing) ? v.missing.length === 0 && v.distinctRevisions === true : null,
+    },
+  ];
+}
+
+function ioRows(r: Loose): SummaryRow[] {
+  const part = (name: 'export' | 'import'): SummaryRow[] => {
+    const p = (r[name] ?? {}) as Loose;
+    return [
+      {
+        bench: 'Import/export',
+        measure: `${name} of ${num(r.cells, 0)} cells, ours / exceljs alone`,
+        value: ratioText(p.ratio, p.oursMs, p.bareMs),
+        target: '≤ 1.5×',
+        met: typeof p.ratio === 'number' ? p.ratio <= 1.5 : null,
+      },
+      { bench: 'Import/export', measure: `${name} peak memory (RSS), ours / exceljs alone`, value: `${num(p.peakRssMb, 0)} MB / ${num(p.bareRssMb, 0)} MB`, target: '—', met: null },
+    ];
+  };
+  return [...part('export'), ...part('import')];
+}
+
+const rowsFor: Record<BenchKey, (r: Loose) => SummaryRow[]> = { functions: functionsRows, huckel: huckelRows, open: openRows, patches: patchRows, io: ioRows };
+
+export function summaryRows(report: BenchReport): SummaryRow[] {
+  return report.outcomes.flatMap((o): SummaryRow[] => {
+    if (o.status !== 'ok') return [{ bench: o.title, measure: o.status === 'missing' ? 'not run: the benchmark does not exist yet' : 'not run: it failed', value: o.error ?? '', target: '—', met: false }];
+    try {
+      return rowsFor[o.key]((o.result ?? {}) as Loose);
+    } catch (error) {
+      return [{ bench: o.title, measure: 'result not understood', value: (error as Error).message, target: '—', met: null }];
+    }
+  });
+}
+
+const cell = (s: string) => s.replace(/\|/g, '\\|').replace(/\n/g, ' ');
+const verdict = (met: boolean | null) => (met === null ? '' : met ? 'met' : '**not met**');
+
+export function renderReport(report: BenchReport): string {
+  const m = report.machine;
+  const rows = summaryRows(report);
+  const lines = [
+    '# Orbitab benchmark report',
+    '',
+    `Made by \`${report.command}\` from ${report.startedAt} to ${report.finishedAt}. Numbers quoted elsewhere must come from this command; rerun it to refresh them.`,
+    '',
+    '## Machine',
+    '',
+    `- CPU: ${m.cpuModel}, ${m.cpuCount} logical cores`,
+    `- Memory: ${m.memoryGb} GB`,
+    `- OS: ${m.os}`,
+    `- Node: ${m.node}`,
+    `- Load average (1 min): ${m.loadAverageAtStart} at the start, ${m.loadAverageAtEnd} at the end${m.loadAverageAtStart > m.cpuCount ? ' — the machine was busy with other work, so timings are slower and noisier than on an idle machine' : ''}`,
+    '',
+    '## Summary',
+    '',
+    '| Benchmark | Measure | Result | Target | |',
+    '|---|---|---|---|---|',
+    ...rows.map((r) => `| ${cell(r.bench)} | ${cell(r.measure)} | ${cell(r.value)} | ${cell(r.target)} | ${verdict(r.met)} |`),
+    '',
+    '## Each benchmark',
+    '',
+  ];
+  for (const o of report.outcomes) {
+    lines.push(`### ${o.title}`, '');
+    if (o.status === 'ok') lines.push(`Ran in ${num(o.seconds, 1)} s.`, '', '```json', JSON.stringify(o.result, null, 2), '```', '');
+    else lines.push(`${o.status === 'missing' ? 'Not run: the benchmark does not exist yet' : 'Not run: it failed'} — ${o.error ?? 'no message'}`, '');
+  }
+  return `${lines.join('\n')}\n`;
+}

@@ -1,0 +1,76 @@
+// bench/report.md from the outcomes of `npm run bench`: targets judged from the numbers, missing and
+// failed benchmarks named rather than dropped, and the machine stated. Outcomes here are made up.
+import { describe, expect, it } from 'vitest';
+import { renderReport, summaryRows, type BenchOutcome, type BenchReport } from '../bench/report.js';
+
+const machine = { os: 'Linux 6.1 (x64)', cpuModel: 'Test CPU 3000', cpuCount: 2, memoryGb: 7.8, node: 'v20.20.2', loadAverageAtStart: 0.4, loadAverageAtEnd: 1.1 };
+const report = (outcomes: BenchOutcome[], load = 0.4): BenchReport => ({
+  startedAt: '2025-01-31T10:00:00.000Z',
+  finishedAt: '2025-01-31T10:20:00.000Z',
+  command: 'npm run bench',
+  machine: { ...machine, loadAverageAtStart: load },
+  outcomes,
+});
+const ok = (key: BenchOutcome['key'], result: unknown): BenchOutcome => ({ key, title: key, status: 'ok', seconds: 12.3, result });
+
+describe('the benchmark report', () => {
+  it('meets the functions target at 1.24× and misses it at 1.6× or with error cells', () => {
+    const at = (ratio: number, errorCells = 0) => summaryRows(report([ok('functions', { ratio, oursMs: 1240, builtInMs: 1000, formulasPerSheet: 800_000, errorCells })]))[0];
+    expect(at(1.24)).toMatchObject({ value: '1.24× (1,240 ms vs 1,000 ms)', target: '≤ 1.5×', met: true });
+    expect(at(1.6).met).toBe(false);
+    expect(at(1.24, 3).met).toBe(false);
+  });
+
+  it('judges the browser-open ratio against 2× and the import/export ratios against 1.5×, with peak memory', () => {
+    const rows = summaryRows(
+      report([
+        ok('open', { rows: 10_000, cols: 10, ratio: 1.32, chemistry: { medianMs: 5613, readyMedianMs: 6568 }, numbers: { medianMs: 4248 } }),
+        ok('io', { cells: 100_000, export: { ratio: 2.21, oursMs: 7037, bareMs: 3178, peakRssMb: 581, bareRssMb: 531 }, import: { ratio: 1.2, oursMs: 3500, bareMs: 2931, peakRssMb: 751, bareRssMb: 776 } }),
+      ]),
+    );
+    expect(rows.find((r) => r.bench === 'Browser open' && r.target === '≤ 2×')).toMatchObject({ value: '1.32× (5,613 ms vs 4,248 ms)', met: true });
+    expect(rows.filter((r) => r.bench === 'Import/export' && r.target === '≤ 1.5×').map((r) => r.met)).toEqual([false, true]);
+    expect(rows.find((r) => r.measure.startsWith('export peak memory'))?.value).toBe('581 MB / 531 MB');
+  });
+
+  it('counts the patch run good only when every acknowledged change was found, each with its own revision', () => {
+    const patch = (missing: unknown[], distinctRevisions = true) =>
+      summaryRows(report([ok('patches', { connections: 20, durationSeconds: 10, requestsPerSecond: 69.7, latencyMs: { p50: 218, p95: 510, p99: 2610 }, verification: { acknowledgedChanges: 710, foundInDatabase: 710 - missing.length, missing, distinctRevisions } })]));
+    const rows = patch([]);
+    expect(rows.map((r) => r.value)).toEqual(['69.7 req/s', '510 ms (218 ms, 2,610 ms)', '710 of 710']);
+    expect(rows[2].met).toBe(true);
+    expect(patch([{ row: 1, col: 1, expected: 'O2', found: null }])[2]).toMatchObject({ value: '709 of 710', met: false });
+    expect(patch([], false)[2].met).toBe(false);
+  });
+
+  it('reports the Hückel cache saving in time and as a factor', () => {
+    const [saving] = summaryRows(report([ok('huckel', { formulas: 40_000, distinctMolecules: 645, cachedMs: 1640, uncachedMs: 19991, cacheSpeedup: 12.19, builtInMs: 1351, errorCells: 0 })]));
+    expect(saving).toMatchObject({ value: '12.19× faster (1,640 ms vs 19,991 ms; 18,351 ms saved)', met: true });
+  });
+
+  it('names a missing or failed benchmark as not met instead of leaving it out', () => {
+    const text = renderReport(
+      report([
+        { key: 'open', title: 'Opening a large workbook in the browser', status: 'failed', error: 'dist/index.html is missing: build the client first' },
+        { key: 'io', title: 'Import and export against exceljs alone', status: 'missing', error: 'bench/io.ts does not exist' },
+      ]),
+    );
+    expect(text).toContain('| Opening a large workbook in the browser | not run: it failed | dist/index.html is missing: build the client first | — | **not met** |');
+    expect(text).toContain('Not run: the benchmark does not exist yet — bench/io.ts does not exist');
+  });
+
+  it('says "not reported" for a field a benchmark no longer gives, rather than failing', () => {
+    const [row] = summaryRows(report([ok('functions', { speedRatio: 1.1 })]));
+    expect(row).toMatchObject({ value: 'not reported', met: null });
+  });
+
+  it('states the machine, the command and a warning when the machine was busier than its cores', () => {
+    const quiet = renderReport(report([]));
+    expect(quiet).toContain('- CPU: Test CPU 3000, 2 logical cores');
+    expect(quiet).toContain('- Memory: 7.8 GB');
+    expect(quiet).toContain('- Node: v20.20.2');
+    expect(quiet).toContain('Made by `npm run bench`');
+    expect(quiet).not.toContain('machine was busy');
+    expect(renderReport(report([], 6.5))).toContain('the machine was busy with other work');
+  });
+});
