@@ -1,0 +1,242 @@
+// Benchmark of workbook import and export: `npm run bench:io`.
+//
+// One run, one process, the same 100,000-cell workbook (bench/ioWorkload.ts: 10,000 rows × 10
+// columns, 40% formulas, two of them chemistry functions):
+//   export ours   what GET …/export?format=xlsx does: in a warm worker, compute every value with the
+//                 engine and stream the .xlsx (front sheet, cached values, layout) back;
+//   export bare   exceljs's streaming writer writing the same cells and cached values (computed
+//                 beforehand, untimed), same writer options;
+//   writer only   our writer given those same computed values (in process), to separate what the
+//                 file costs from what the engine's recalculation costs (engineMs);
+//   import ours   what POST /api/imports does: guard and read the file in a warm worker, then write
+//                 every cell into SQLite as one revision;
+//   import bare   exceljs reading that same file: `workbook.xlsx.load(buffer)`.
+// Each is run BENCH_REPEATS times (default 3), alternating, and the fastest counts. Peak memory is
+// the process's resident set (worker threads included) sampled every 10 ms during each phase.
+// Target: ours/bare ≤ 1.5. Results go to bench/results/io.json.
+import { mkdirSync, writeFileSync } from 'node:fs';
+import { cpus, loadavg } from 'node:os';
+import { dirname, resolve } from 'node:path';
+import { PassThrough, type Writable } from 'node:stream';
+import { fileURLToPath, pathToFileURL } from 'node:url';
+import ExcelJS from 'exceljs';
+import { createApp } from '../server/app.js';
+import { loadConfig } from '../server/config.js';
+import { openDatabase } from '../server/db/index.js';
+import { users } from '../server/db/schema.js';
+import { workbookSheets } from '../server/services/sheetOps.js';
+import { createWorkbook } from '../server/services/workbookStore.js';
+import { computeWorkbook, type ComputedWorkbook } from '../server/xlsx/engineValues.js';
+import { exportInWorker } from '../server/xlsx/exportInWorker.js';
+import { importSheets } from '../server/xlsx/importStore.js';
+import { closeParsePool, parseInWorker, warmParsePool } from '../server/xlsx/parseInWorker.js';
+import { readSpreadsheet } from '../server/xlsx/read.js';
+import { writeComputedXlsx } from '../server/xlsx/writeXlsx.js';
+import { xlsxScalar } from '../server/xlsx/xlsxValues.js';
+import { benchWorkbook } from './ioWorkload.js';
+
+export const TARGET_RATIO = 1.5;
+const RESULTS_PATH = resolve(dirname(fileURLToPath(import.meta.url)), 'results/io.json');
+
+export interface IoBenchResult {
+  date: string;
+  node: string;
+  cpu: string;
+  /** 1-minute load average at the start; on a shared machine a high value makes timings noisy. */
+  loadAverage: number;
+  repeats: number;
+  cells: number;
+  fileBytes: number;
+  export: {
+    oursMs: number;
+    bareMs: number;
+    ratio: number;
+    /** Inside the worker, in the fastest run: recalculation, then writing the file. */
+    workerEngineMs: number;
+    workerWriteMs: number;
+    /** In this process: the engine alone, and our writer alone given the computed values. */
+    engineMs: number;
+    writerOnlyMs: number;
+    writerOnlyRatio: number;
+    peakRssMb: number;
+    bareRssMb: number;
+  };
+  import: { oursMs: number; bareMs: number; ratio: number; parseMs: number; readOnlyRatio: number; storeMs: number; inProcessParseMs: number; peakRssMb: number; bareRssMb: number; workerHeapMb: number };
+  targetRatio: number;
+  withinTarget: { export: boolean; import: boolean };
+}
+
+const MB = 1024 * 1024;
+
+/** Runs `work`, sampling the resident set every 10 ms; returns its time and the peak. */
+async function measured<T>(work: () => Promise<T>): Promise<{ value: T; ms: number; peakRssMb: number }> {
+  let peak = process.memoryUsage().rss;
+  const timer = setInterval(() => (peak = Math.max(peak, process.memoryUsage().rss)), 10);
+  const started = performance.now();
+  try {
+    const value = await work();
+    peak = Math.max(peak, process.memoryUsage().rss);
+    return { value, ms: performance.now() - started, peakRssMb: peak / MB };
+  } finally {
+    clearInterval(timer);
+  }
+}
+
+function sink(): { stream: Writable; bytes: () => Buffer } {
+  const stream = new PassThrough();
+  const chunks: Buffer[] = [];
+  stream.on('data', (c: Buffer) => chunks.push(c));
+  return { stream, bytes: () => Buffer.concat(chunks) };
+}
+
+/** exceljs alone: the same cells, values and writer options as our export, nothing else. */
+async function bareWrite(computed: ComputedWorkbook, name: string): Promise<Buffer> {
+  const out = sink();
+  const wb = new ExcelJS.stream.xlsx.WorkbookWriter({ stream: out.stream, useStyles: true, useSharedStrings: true } as Partial<ExcelJS.stream.xlsx.WorkbookWriterOptions>);
+  const ws = wb.addWorksheet(name);
+  let row: ExcelJS.Row | null = null;
+  let current = -1;
+  for (const cell of computed.sheets[0].cells) {
+    if (cell.row !== current) {
+      row?.commit();
+      current = cell.row;
+      row = ws.getRow(cell.row + 1);
+    }
+    const { value, numFmt } = xlsxScalar(cell);
+    const target = row!.getCell(cell.col + 1);
+    target.value = cell.input?.startsWith('=') ? ({ formula: cell.input.slice(1), result: value ?? undefined } as ExcelJS.CellValue) : (value as ExcelJS.CellValue);
+    if (numFmt) target.numFmt = numFmt;
+  }
+  row?.commit();
+  await ws.commit();
+  await wb.commit();
+  return out.bytes();
+}
+
+export async function runIoBench(options: { rows?: number; repeats?: number } = {}): Promise<IoBenchResult> {
+  const rows = options.rows ?? 10_000;
+  const repeats = options.repeats ?? Number(process.env.BENCH_REPEATS ?? 3);
+  const loadAverage = loadavg()[0];
+  const workbook = benchWorkbook(rows);
+  const cells = workbook.sheets[0].cells.length;
+
+  const db = openDatabase(':memory:');
+  const { ctx } = createApp({ db, config: { ...loadConfig({ NODE_ENV: 'production', LOG_LEVEL: 'silent' }), seed: false } });
+  db.insert(users).values({ id: 'bench-user', email: 'bench@example.com', name: 'Bench', passwordHash: 'x' }).run();
+
+  warmParsePool();
+  // Untimed warm-up, twice: the worker starts, both sides JIT-compile (a fresh worker runs the engine
+  // several times slower on its first passes), and we get the file both sides read.
+  const computed = computeWorkbook(workbook.sheets);
+  let file: Buffer = Buffer.alloc(0);
+  for (let w = 0; w < 2; w++) {
+    const first = sink();
+    await exportInWorker(first.stream, workbook, { kind: 'xlsx', mode: 'formulas' });
+    file = first.bytes();
+    await bareWrite(computed, 'Screening');
+    await writeComputedXlsx(sink().stream, workbook, computed, { mode: 'formulas' });
+    await parseInWorker(file, 'bench.xlsx');
+    await new ExcelJS.Workbook().xlsx.load(file as unknown as ArrayBuffer);
+  }
+
+  const best = { exportOurs: Infinity, exportBare: Infinity, writerOnly: Infinity, engine: Infinity, importOurs: Infinity, parse: Infinity, store: Infinity, importBare: Infinity, parseInProcess: Infinity };
+  const rss = { exportOurs: 0, exportBare: 0, importOurs: 0, importBare: 0 };
+  let workerHeapMb = 0;
+  let workerSplit = { engineMs: 0, writeMs: 0 };
+  for (let i = 0; i < repeats; i++) {
+    const ours = await measured(() => exportInWorker(sink().stream, workbook, { kind: 'xlsx', mode: 'formulas' }));
+    if (ours.ms < best.exportOurs) workerSplit = { engineMs: ours.value.engineMs, writeMs: ours.value.writeMs };
+    best.exportOurs = Math.min(best.exportOurs, ours.ms);
+    rss.exportOurs = Math.max(rss.exportOurs, ours.peakRssMb);
+
+    const bare = await measured(() => bareWrite(computed, 'Screening'));
+    best.exportBare = Math.min(best.exportBare, bare.ms);
+    rss.exportBare = Math.max(rss.exportBare, bare.peakRssMb);
+
+    const engineStart = performance.now();
+    computeWorkbook(workbook.sheets);
+    best.engine = Math.min(best.engine, performance.now() - engineStart);
+
+    const writerStart = performance.now();
+    await writeComputedXlsx(sink().stream, workbook, computed, { mode: 'formulas' });
+    best.writerOnly = Math.min(best.writerOnly, performance.now() - writerStart);
+
+    const imported = await measured(async () => {
+      const parseStart = performance.now();
+      const parsed = await parseInWorker(file, 'bench.xlsx');
+      const parseMs = performance.now() - parseStart;
+      const storeStart = performance.now();
+      const id = createWorkbook(ctx, { id: 'bench-user' }, `Import ${i}`);
+      importSheets(ctx, id, 'bench-user', parsed, { replaceSheetId: workbookSheets(db, id)[0].id });
+      return { parseMs, storeMs: performance.now() - storeStart, heap: parsed.stats.workerHeapUsedBytes };
+    });
+    best.importOurs = Math.min(best.importOurs, imported.ms);
+    best.parse = Math.min(best.parse, imported.value.parseMs);
+    best.store = Math.min(best.store, imported.value.storeMs);
+    rss.importOurs = Math.max(rss.importOurs, imported.peakRssMb);
+    workerHeapMb = Math.max(workerHeapMb, imported.value.heap / MB);
+
+    const bareRead = await measured(() => new ExcelJS.Workbook().xlsx.load(file as unknown as ArrayBuffer));
+    best.importBare = Math.min(best.importBare, bareRead.ms);
+    rss.importBare = Math.max(rss.importBare, bareRead.peakRssMb);
+
+    const parseInProcessStart = performance.now();
+    await readSpreadsheet(file, 'bench.xlsx');
+    best.parseInProcess = Math.min(best.parseInProcess, performance.now() - parseInProcessStart);
+  }
+  await closeParsePool();
+  db.$client.close();
+
+  const round = (n: number) => Math.round(n * 10) / 10;
+  const exportRatio = best.exportOurs / best.exportBare;
+  const importRatio = best.importOurs / best.importBare;
+  return {
+    date: new Date().toISOString(),
+    node: process.version,
+    cpu: `${cpus().length} × ${cpus()[0]?.model ?? 'unknown'}`,
+    loadAverage: round(loadAverage),
+    repeats,
+    cells,
+    fileBytes: file.length,
+    export: {
+      oursMs: round(best.exportOurs),
+      bareMs: round(best.exportBare),
+      ratio: Math.round(exportRatio * 100) / 100,
+      workerEngineMs: round(workerSplit.engineMs),
+      workerWriteMs: round(workerSplit.writeMs),
+      engineMs: round(best.engine),
+      writerOnlyMs: round(best.writerOnly),
+      writerOnlyRatio: Math.round((best.writerOnly / best.exportBare) * 100) / 100,
+      peakRssMb: round(rss.exportOurs),
+      bareRssMb: round(rss.exportBare),
+    },
+    import: {
+      oursMs: round(best.importOurs),
+      bareMs: round(best.importBare),
+      ratio: Math.round(importRatio * 100) / 100,
+      parseMs: round(best.parse),
+      readOnlyRatio: Math.round((best.parse / best.importBare) * 100) / 100,
+      storeMs: round(best.store),
+      inProcessParseMs: round(best.parseInProcess),
+      peakRssMb: round(rss.importOurs),
+      bareRssMb: round(rss.importBare),
+      workerHeapMb: round(workerHeapMb),
+    },
+    targetRatio: TARGET_RATIO,
+    withinTarget: { export: exportRatio <= TARGET_RATIO, import: importRatio <= TARGET_RATIO },
+  };
+}
+
+if (process.argv[1] && import.meta.url === pathToFileURL(resolve(process.argv[1])).href) {
+  const result = await runIoBench();
+  mkdirSync(dirname(RESULTS_PATH), { recursive: true });
+  writeFileSync(RESULTS_PATH, `${JSON.stringify(result, null, 2)}\n`);
+  const e = result.export;
+  const i = result.import;
+  console.log(`io bench: ${result.cells.toLocaleString('en')} cells, file ${(result.fileBytes / MB).toFixed(2)} MB, load average ${result.loadAverage}`);
+  console.log(`  export  ours ${e.oursMs} ms  exceljs bare ${e.bareMs} ms  ratio ${e.ratio} (target ≤ ${TARGET_RATIO})  peak RSS ${e.peakRssMb} MB (bare ${e.bareRssMb} MB)`);
+  console.log(`          in the worker: recalculation ${e.workerEngineMs} ms, writing ${e.workerWriteMs} ms; in process: engine ${e.engineMs} ms, our writer alone ${e.writerOnlyMs} ms (ratio ${e.writerOnlyRatio})`);
+  console.log(`  import  ours ${i.oursMs} ms  exceljs bare ${i.bareMs} ms  ratio ${i.ratio} (target ≤ ${TARGET_RATIO})  peak RSS ${i.peakRssMb} MB (bare ${i.bareRssMb} MB), worker heap ${i.workerHeapMb} MB`);
+  console.log(`          of which reading in the worker ${i.parseMs} ms (ratio ${i.readOnlyRatio}) and storing ${i.storeMs} ms`);
+  console.log(`  results → ${RESULTS_PATH}`);
+}

@@ -1,0 +1,123 @@
+// Computes a workbook once with the shared engine (functions/engine.ts), for export and `cli recalc`:
+// each input cell's value, the cells array formulas spill into, and which chemistry functions are used.
+import { CellType, DenseSparseChooseBasedOnThreshold, DetailedCellError, type CellValue, type HyperFormula } from 'hyperformula';
+import { createEngine } from '../../functions/engine.js';
+import { catalogByName } from '../../functions/index.js';
+import { denseSheet } from '../services/values.js';
+import type { CellTriple } from './types.js';
+
+export interface ComputedCell {
+  row: number;
+  col: number;
+  /** The stored input; absent for a cell an array formula spilled into. */
+  input?: string;
+  value: CellValue;
+  /** The engine marked the number as a date, a time or both (typed as e.g. 31/12/2024). */
+  dateKind?: 'date' | 'time' | 'datetime';
+  /** For an array formula's anchor: the spilled area in rows × columns. */
+  spill?: { rows: number; cols: number };
+}
+
+export interface ComputedSheet {
+  name: string;
+  cells: ComputedCell[];
+}
+
+export interface FunctionUse {
+  name: string;
+  family: string;
+  source: string;
+  cells: number;
+}
+
+export interface ComputedWorkbook {
+  sheets: ComputedSheet[];
+  functionsUsed: FunctionUse[];
+}
+
+const FUNCTION_CALL = /([A-Za-z_][A-Za-z0-9_.]*)\s*\(/g;
+
+/** Names of catalog functions called in a formula (text in string literals is ignored). */
+export function catalogFunctionsIn(formula: string): string[] {
+  const code = formula.replace(/"(?:[^"]|"")*"/g, '""');
+  const found = new Set<string>();
+  for (const m of code.matchAll(FUNCTION_CALL)) {
+    const name = m[1].toUpperCase();
+    if (catalogByName.has(name)) found.add(name);
+  }
+  return [...found];
+}
+
+function dateKindOf(engine: HyperFormula, address: { sheet: number; row: number; col: number }): ComputedCell['dateKind'] {
+  switch (engine.getCellValueDetailedType(address)) {
+    case 'NUMBER_DATE':
+      return 'date';
+    case 'NUMBER_TIME':
+      return 'time';
+    case 'NUMBER_DATETIME':
+      return 'datetime';
+    default:
+      return undefined;
+  }
+}
+
+function computeSheet(engine: HyperFormula, sheet: number, name: string, cells: CellTriple[]): ComputedSheet {
+  const out: ComputedCell[] = [];
+  // Numeric keys: a row never has more than the engine's 2,000 columns (functions/engine.ts).
+  const key = (row: number, col: number) => row * 4096 + col;
+  const inputAt = new Set(cells.map(([r, c]) => key(r, c)));
+  const isSpilled = (row: number, col: number) => !inputAt.has(key(row, col)) && engine.getCellType({ sheet, row, col }) === CellType.ARRAY;
+  const read = (row: number, col: number, input?: string): ComputedCell => {
+    const address = { sheet, row, col };
+    const value = engine.getCellValue(address);
+    const cell: ComputedCell = { row, col, value };
+    if (input !== undefined) cell.input = input;
+    if (typeof value === 'number') {
+      const kind = dateKindOf(engine, address);
+      if (kind) cell.dateKind = kind;
+    }
+    return cell;
+  };
+  const inOrder = cells.every((c, i) => i === 0 || c[0] > cells[i - 1][0] || (c[0] === cells[i - 1][0] && c[1] > cells[i - 1][1]));
+  const sorted = inOrder ? cells : [...cells].sort((a, b) => a[0] - b[0] || a[1] - b[1]);
+  let spilled = false;
+  for (const [row, col, input] of sorted) {
+    const cell = read(row, col, input);
+    out.push(cell);
+    if (!input.startsWith('=') || engine.getCellType({ sheet, row, col }) !== CellType.ARRAYFORMULA) continue;
+    let cols = 1;
+    while (isSpilled(row, col + cols)) cols++;
+    let rows = 1;
+    while (isSpilled(row + rows, col)) rows++;
+    cell.spill = { rows, cols };
+    for (let r = row; r < row + rows; r++) for (let c = col; c < col + cols; c++) if (r !== row || c !== col) out.push(read(r, c));
+    spilled ||= rows > 1 || cols > 1;
+  }
+  if (spilled) out.sort((a, b) => a.row - b.row || a.col - b.col);
+  return { name, cells: out };
+}
+
+export function computeWorkbook(sheets: { name: string; cells: CellTriple[] }[]): ComputedWorkbook {
+  // Sparse sheets (less than a tenth filled) get the engine's sparse address map, as in services/values.ts.
+  const engine = createEngine(Object.fromEntries(sheets.map((s) => [s.name, denseSheet(s.cells)])), {
+    chooseAddressMappingPolicy: new DenseSparseChooseBasedOnThreshold(0.1),
+  });
+  try {
+    const computed = sheets.map((s) => computeSheet(engine, engine.getSheetId(s.name)!, s.name, s.cells));
+    const uses = new Map<string, number>();
+    for (const s of sheets) for (const [, , input] of s.cells) if (input.startsWith('=')) for (const name of catalogFunctionsIn(input)) uses.set(name, (uses.get(name) ?? 0) + 1);
+    const functionsUsed = [...uses.entries()]
+      .sort((a, b) => a[0].localeCompare(b[0]))
+      .map(([name, count]) => {
+        const entry = catalogByName.get(name)!;
+        return { name, family: entry.family, source: entry.source, cells: count };
+      });
+    return { sheets: computed, functionsUsed };
+  } finally {
+    engine.destroy();
+  }
+}
+
+export function isEngineError(value: CellValue): value is DetailedCellError {
+  return value instanceof DetailedCellError;
+}

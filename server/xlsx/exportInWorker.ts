@@ -1,0 +1,42 @@
+// Computing and writing an export in a worker of the shared pool, streaming its bytes to `output`
+// as they come: the engine's recalculation of a large workbook (a second or more for 100,000 cells)
+// then never holds the server's event loop.
+import type { Writable } from 'node:stream';
+import { defaultWorkerLimits, type WorkerLimits } from './limits.js';
+import type { ExportMode, ExportWorkbook } from './types.js';
+import { ioPool } from './workerPool.js';
+
+export type ExportFormat = { kind: 'xlsx'; mode: ExportMode } | { kind: 'csv'; sheetIndex: number };
+
+export interface ExportStats {
+  bytes: number;
+  elapsedMs: number;
+  /** Inside the worker: the engine's recalculation, then writing the file. */
+  engineMs: number;
+  writeMs: number;
+  workerHeapUsedBytes: number;
+}
+
+/**
+ * Streams the file into `output` and ends it. `onFirstByte` runs before the first write, so a
+ * caller can still answer with a JSON error when the export fails before any byte is sent.
+ */
+export async function exportInWorker(output: Writable, workbook: ExportWorkbook, format: ExportFormat, options: { workerLimits?: WorkerLimits; onFirstByte?: () => void } = {}): Promise<ExportStats> {
+  let bytes = 0;
+  const job = format.kind === 'xlsx' ? { kind: 'xlsx', workbook, mode: format.mode } : { kind: 'csv', workbook, sheetIndex: format.sheetIndex };
+  const outcome = await ioPool.run<{ engineMs: number; writeMs: number }>(job, [], {
+    limits: options.workerLimits ?? { ...defaultWorkerLimits, timeoutMs: 120_000 },
+    doing: 'writing the export',
+    onProgress: (m) => {
+      const chunk = (m as { chunk?: Uint8Array }).chunk;
+      if (!chunk || output.destroyed) return;
+      if (bytes === 0) options.onFirstByte?.();
+      bytes += chunk.byteLength;
+      // No backpressure to the worker: an export is bounded by its compressed size (a few MB for
+      // 100,000 cells), which the response buffers when the network is slower than the writer.
+      output.write(chunk);
+    },
+  });
+  await new Promise<void>((resolve) => (output.destroyed ? resolve() : output.end(resolve)));
+  return { bytes, elapsedMs: outcome.elapsedMs, ...outcome.result, workerHeapUsedBytes: outcome.workerHeapUsedBytes };
+}

@@ -1,0 +1,30 @@
+// Gathers what an export needs from the database: the workbook's sheets and cells (one consistent
+// snapshot), their locks and protected ranges with people's names, and who is exporting.
+import type { User } from 'lucia';
+import type { AppContext } from '../context.js';
+import type { WorkbookAccess } from '../services/access.js';
+import { loadProtection } from '../services/protection.js';
+import { loadWorkbook } from '../services/workbookStore.js';
+import type { ExportWorkbook } from './types.js';
+
+export function exportSource(ctx: AppContext, access: WorkbookAccess, user: Pick<User, 'name' | 'email'>, now = new Date()): ExportWorkbook & { sheetIds: string[] } {
+  const workbook = loadWorkbook(ctx, access);
+  const protection = loadProtection(ctx.db, workbook.id);
+  return {
+    title: workbook.title,
+    revision: workbook.revision,
+    exportedBy: `${user.name} <${user.email}>`,
+    exportedAt: now,
+    sheetIds: workbook.sheets.map((s) => s.id),
+    sheets: workbook.sheets.map((s) => {
+      const lock = protection.locks.find((l) => l.sheetId === s.id);
+      return {
+        name: s.name,
+        cells: s.cells,
+        settings: s.settings,
+        lock: lock ? { lockedByName: lock.lockedBy.name, reason: lock.reason, editorNames: lock.editors.map((e) => e.name) } : null,
+        protectedRanges: protection.protectedRanges.filter((r) => r.sheetId === s.id).map((r) => ({ range: r.range, editorNames: r.editors.map((e) => e.name) })),
+      };
+    }),
+  };
+}

@@ -1,0 +1,97 @@
+// Writes an imported workbook into the database: every sheet added in one transaction as one
+// revision of kind 'import', recorded as sheet operations so history can show and undo it. Not pure:
+// this is the one file of the import that touches the database.
+import { randomUUID } from 'node:crypto';
+import { maxInputLength, maxSheetNameLength, type RevisionKind, type RevisionPatch, type SheetOp } from '../../shared/workbooks.js';
+import type { AppContext } from '../context.js';
+import { addressOf } from './a1.js';
+import { applySheetOp, workbookSheets } from '../services/sheetOps.js';
+import { nextRevision, recordRevision } from '../services/revisionLog.js';
+import { settingsFromParsed } from './sheetSettings.js';
+import type { ImportSummary, ParsedWorkbook } from './types.js';
+
+export interface ImportOutcome {
+  revision: number;
+  sheets: { id: string; name: string }[];
+  summary: ImportSummary;
+}
+
+/** A sheet name the API would accept (shared/workbooks.ts sheetNameSchema), unique in the workbook ignoring case. */
+export function importedSheetName(name: string, taken: Set<string>): string {
+  // eslint-disable-next-line no-control-regex
+  let base = name.replace(/[[\]*?/\\:\u0000-\u001f\u007f]/g, '_').replace(/^'+|'+$/g, '').trim().slice(0, maxSheetNameLength - 5) || 'Sheet';
+  base = base.replace(/^'+|'+$/g, '') || 'Sheet';
+  let candidate = base;
+  for (let n = 2; taken.has(candidate.toLowerCase()); n++) candidate = `${base} (${n})`;
+  taken.add(candidate.toLowerCase());
+  return candidate;
+}
+
+const ROWS_PER_STATEMENT = 200;
+
+/** Inserts a sheet's cells, many rows per statement (SQLite's per-statement cost dominates otherwise). */
+function cellInserter(ctx: AppContext) {
+  const sql = (n: number) => `insert into cells (sheet_id, row, col, input, revision) values ${Array.from({ length: n }, () => '(?, ?, ?, ?, ?)').join(', ')}`;
+  const full = ctx.db.$client.prepare(sql(ROWS_PER_STATEMENT));
+  return (sheetId: string, cells: [number, number, string][], revision: number) => {
+    for (let i = 0; i < cells.length; i += ROWS_PER_STATEMENT) {
+      const batch = cells.slice(i, i + ROWS_PER_STATEMENT);
+      const params = batch.flatMap(([row, col, input]) => [sheetId, row, col, input, revision]);
+      (batch.length === ROWS_PER_STATEMENT ? full : ctx.db.$client.prepare(sql(batch.length))).run(params);
+    }
+  };
+}
+
+/**
+ * Adds the parsed sheets after the workbook's existing ones. With `replaceSheetId` (a new workbook's
+ * empty first sheet), that sheet is removed in the same revision so the import's own names are free.
+ */
+export function importSheets(ctx: AppContext, workbookId: string, userId: string, parsed: ParsedWorkbook, opts: { replaceSheetId?: string } = {}): ImportOutcome {
+  const summary: ImportSummary = { ...parsed.summary, skipped: [...parsed.summary.skipped], notes: [...parsed.summary.notes] };
+  const insertCells = cellInserter(ctx);
+
+  const outcome = ctx.db.transaction(
+    (tx) => {
+      const existing = workbookSheets(tx, workbookId);
+      const kept = existing.filter((s) => s.id !== opts.replaceSheetId);
+      const taken = new Set(kept.map((s) => s.name.toLowerCase()));
+      const ops: SheetOp[] = [];
+      const replaced = existing.find((s) => s.id === opts.replaceSheetId);
+      if (replaced) ops.push({ op: 'delete', sheetId: replaced.id, name: replaced.name, position: replaced.position, settings: {}, cells: [] });
+
+      const added: { id: string; name: string }[] = [];
+      parsed.sheets.forEach((sheet, i) => {
+        const name = importedSheetName(sheet.name, taken);
+        if (name !== sheet.name) summary.notes.push(`sheet "${sheet.name}" was imported as "${name}" (the workbook already has that name, or it has characters sheet names cannot hold)`);
+        const cells = sheet.cells.filter(([row, col, input]) => {
+          if (input.length <= maxInputLength) return true;
+          summary.skipped.push({ sheet: name, address: addressOf(row, col), reason: `longer than ${maxInputLength.toLocaleString('en')} characters` });
+          return false;
+        });
+        const id = randomUUID();
+        added.push({ id, name });
+        ops.push({ op: 'add', sheetId: id, name, position: kept.length + i, settings: settingsFromParsed(sheet, summary.notes), cells });
+      });
+      const imported = ops.flatMap((op) => (op.op === 'add' ? op.cells : []));
+      summary.cells = imported.length;
+      summary.formulas = imported.filter(([, , input]) => input.startsWith('=')).length;
+
+      const revision = nextRevision(tx, workbookId);
+      const recorded = ops.map((op) => {
+        if (op.op !== 'add') return applySheetOp(tx, workbookId, op, revision, userId);
+        // The sheet row through the shared path; its cells in one prepared statement (a workbook of
+        // 100,000 cells would otherwise pay the query builder per cell).
+        applySheetOp(tx, workbookId, { ...op, cells: [] }, revision, userId);
+        insertCells(op.sheetId, op.cells, revision);
+        return op;
+      });
+      const patch: RevisionPatch = { sheetOps: recorded, changes: [] };
+      // 'import' is stored as its own kind so history can name it (shared RevisionKind lists the others).
+      recordRevision(tx, workbookId, revision, userId, 'import' as RevisionKind, patch);
+      return { revision, sheets: added, patch };
+    },
+    { behavior: 'immediate' },
+  );
+  ctx.events.publish(workbookId, { type: 'revision', workbookId, revision: outcome.revision, kind: 'import' as RevisionKind, authorId: userId, patch: outcome.patch });
+  return { revision: outcome.revision, sheets: outcome.sheets, summary: { ...summary, sheets: outcome.sheets.length } };
+}

@@ -1,0 +1,65 @@
+// Runs inside a worker thread of workerPool.ts: reads one upload, or computes and writes one export
+// and streams its bytes back. Any failure is answered as a refusal; the parent enforces the limits.
+import { Writable } from 'node:stream';
+import { parentPort } from 'node:worker_threads';
+import { computeWorkbook } from './engineValues.js';
+import { SpreadsheetError, type ImportLimits } from './limits.js';
+import { readSpreadsheet } from './read.js';
+import type { ExportMode, ExportWorkbook } from './types.js';
+import { writeSheetCsv } from './writeCsv.js';
+import { writeComputedXlsx } from './writeXlsx.js';
+
+export type IoJob =
+  | { kind: 'parse'; buffer: Uint8Array; filename: string; limits: ImportLimits }
+  | { kind: 'xlsx'; workbook: ExportWorkbook; mode: ExportMode }
+  | { kind: 'csv'; workbook: ExportWorkbook; sheetIndex: number };
+
+/** Bytes for the parent, moved rather than copied; the parent writes them to the response. */
+function chunkPoster(): Writable {
+  return new Writable({
+    write(chunk: Buffer, _encoding, done) {
+      const bytes = new Uint8Array(chunk.byteLength);
+      bytes.set(chunk);
+      parentPort!.postMessage({ chunk: bytes }, [bytes.buffer]);
+      done();
+    },
+  });
+}
+
+async function run(job: IoJob): Promise<unknown> {
+  switch (job.kind) {
+    case 'parse':
+      return readSpreadsheet(Buffer.from(job.buffer.buffer, job.buffer.byteOffset, job.buffer.byteLength), job.filename, job.limits);
+    case 'xlsx': {
+      const started = performance.now();
+      const computed = computeWorkbook(job.workbook.sheets.map((s) => ({ name: s.name, cells: s.cells })));
+      const computedAt = performance.now();
+      const out = chunkPoster();
+      await writeComputedXlsx(out, job.workbook, computed, { mode: job.mode });
+      await new Promise<void>((resolve) => (out.writableFinished ? resolve() : out.once('finish', resolve)));
+      return { engineMs: computedAt - started, writeMs: performance.now() - computedAt };
+    }
+    case 'csv': {
+      const started = performance.now();
+      const computed = computeWorkbook(job.workbook.sheets.map((s) => ({ name: s.name, cells: s.cells })));
+      const computedAt = performance.now();
+      await writeSheetCsv(chunkPoster(), computed.sheets[job.sheetIndex].cells);
+      return { engineMs: computedAt - started, writeMs: performance.now() - computedAt };
+    }
+  }
+}
+
+parentPort!.on('message', async (job: IoJob) => {
+  try {
+    const result = await run(job);
+    parentPort!.postMessage({ done: true, ok: true, result, heapUsedBytes: process.memoryUsage().heapUsed });
+  } catch (e) {
+    const error =
+      e instanceof SpreadsheetError
+        ? { code: e.code, message: e.message }
+        : // Only the file varies between jobs, so an exception in the reader or writer is the file's doing.
+          { code: 'damaged_file', message: `the file could not be ${job.kind === 'parse' ? 'read' : 'written'} (${e instanceof Error ? e.message : String(e)})` };
+    parentPort!.postMessage({ done: true, ok: false, error, heapUsedBytes: process.memoryUsage().heapUsed });
+  }
+});
+parentPort!.postMessage({ ready: true });

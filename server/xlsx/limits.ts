@@ -1,0 +1,91 @@
+// Upload limits and the one error type the reader throws. Every limit is named in the message a user
+// sees, so a refused file says what to change.
+import { maxUploadBytes } from '../../shared/io.js';
+
+export interface ImportLimits {
+  /** The upload itself. */
+  maxFileBytes: number;
+  /** Parts in the zip (an .xlsx is a zip of XML parts). */
+  maxZipEntries: number;
+  /** Sum of the uncompressed sizes of all parts: what exceljs would hold in memory as text. */
+  maxUncompressedBytes: number;
+  /** Uncompressed ÷ compressed for one part larger than `ratioCheckFromBytes`. */
+  maxCompressionRatio: number;
+  ratioCheckFromBytes: number;
+  /** Cells holding a value or formula, over all sheets. */
+  maxCells: number;
+  /** Cells merged ranges may cover in all: exceljs fills every cell of a merge one by one. */
+  maxMergedCells: number;
+}
+
+const MiB = 1024 * 1024;
+
+export const defaultImportLimits: ImportLimits = {
+  maxFileBytes: maxUploadBytes,
+  maxZipEntries: 5_000,
+  maxUncompressedBytes: 300 * MiB,
+  // Spreadsheet XML compresses about 5–20× (measured on exceljs and LibreOffice output); 200× leaves room
+  // for sheets of repeated empty styled cells while a bomb built from one repeated byte runs near 1000×.
+  maxCompressionRatio: 200,
+  ratioCheckFromBytes: 1 * MiB,
+  maxCells: 500_000,
+  maxMergedCells: 2_000_000,
+};
+
+export interface WorkerLimits {
+  /** V8 old-generation heap for the parse worker. */
+  maxOldGenerationSizeMb: number;
+  maxYoungGenerationSizeMb: number;
+  /** Wall-clock time before the worker is terminated. */
+  timeoutMs: number;
+}
+
+export const defaultWorkerLimits: WorkerLimits = {
+  maxOldGenerationSizeMb: 1536,
+  maxYoungGenerationSizeMb: 64,
+  timeoutMs: 60_000,
+};
+
+export type SpreadsheetErrorCode =
+  | 'not_a_spreadsheet'
+  | 'damaged_file'
+  | 'encrypted_or_legacy'
+  | 'file_too_large'
+  | 'decompression_bomb'
+  | 'too_many_cells'
+  | 'too_complex'
+  | 'parse_timeout'
+  | 'parse_out_of_memory'
+  | 'busy';
+
+const statusOf: Record<SpreadsheetErrorCode, 400 | 413 | 503> = {
+  not_a_spreadsheet: 400,
+  damaged_file: 400,
+  encrypted_or_legacy: 400,
+  file_too_large: 413,
+  decompression_bomb: 413,
+  too_many_cells: 413,
+  too_complex: 413,
+  parse_timeout: 413,
+  parse_out_of_memory: 413,
+  busy: 503,
+};
+
+/** A refusal of the uploaded file; routes turn it into `{ error: { code, message } }` with its status. */
+export class SpreadsheetError extends Error {
+  readonly status: 400 | 413 | 503;
+  constructor(
+    readonly code: SpreadsheetErrorCode,
+    message: string,
+  ) {
+    super(message);
+    this.name = 'SpreadsheetError';
+    this.status = statusOf[code];
+  }
+}
+
+export function formatBytes(bytes: number): string {
+  if (bytes >= MiB) return `${+(bytes / MiB).toFixed(1)} MB`;
+  if (bytes >= 1024) return `${+(bytes / 1024).toFixed(1)} KB`;
+  return `${bytes} bytes`;
+}

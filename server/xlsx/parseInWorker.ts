@@ -1,0 +1,36 @@
+// readSpreadsheet in a worker of the shared pool (workerPool.ts), under its memory and time limits.
+// Cheap refusals (size, magic bytes) happen here first, so an obviously wrong upload costs no worker.
+import { defaultImportLimits, defaultWorkerLimits, type ImportLimits, type WorkerLimits } from './limits.js';
+import { sniffSpreadsheet } from './sniff.js';
+import type { ParsedWorkbook } from './types.js';
+import { ioPool } from './workerPool.js';
+
+export interface ParseResult extends ParsedWorkbook {
+  stats: { elapsedMs: number; workerHeapUsedBytes: number };
+}
+
+export async function parseInWorker(
+  buffer: Uint8Array,
+  filename: string,
+  options: { limits?: ImportLimits; workerLimits?: WorkerLimits } = {},
+): Promise<ParseResult> {
+  const limits = options.limits ?? defaultImportLimits;
+  sniffSpreadsheet(buffer, filename, limits);
+  // A private copy, moved (not copied again) into the worker.
+  const copy = new Uint8Array(buffer);
+  const outcome = await ioPool.run<ParsedWorkbook>({ kind: 'parse', buffer: copy, filename, limits }, [copy.buffer], {
+    limits: options.workerLimits ?? defaultWorkerLimits,
+    doing: 'reading the file',
+  });
+  return { ...outcome.result, stats: { elapsedMs: outcome.elapsedMs, workerHeapUsedBytes: outcome.workerHeapUsedBytes } };
+}
+
+/** Stops the idle workers (tests, shutdown). */
+export function closeParsePool(): Promise<void> {
+  return ioPool.close();
+}
+
+/** Starts a worker now rather than at the first upload (server start, benchmarks). */
+export function warmParsePool(): void {
+  ioPool.warm();
+}

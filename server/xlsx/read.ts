@@ -1,0 +1,18 @@
+// readSpreadsheet: the one entry point for an uploaded file. Pure (no Express, no database); the
+// routes run it inside a worker thread (parseInWorker.ts), the CLI and tests call it directly.
+import { defaultImportLimits, SpreadsheetError, type ImportLimits } from './limits.js';
+import { readCsv } from './readCsv.js';
+import { readXlsx } from './readXlsx.js';
+import { sniffSpreadsheet } from './sniff.js';
+import type { ParsedWorkbook } from './types.js';
+
+export async function readSpreadsheet(buffer: Buffer, filename: string, limits: ImportLimits = defaultImportLimits): Promise<ParsedWorkbook> {
+  const kind = sniffSpreadsheet(buffer, filename, limits);
+  try {
+    return await (kind === 'xlsx' ? readXlsx(buffer, limits) : readCsv(buffer, filename, limits));
+  } catch (e) {
+    if (e instanceof SpreadsheetError) throw e;
+    // Only the file varies between calls, so an exception deep in a reader is the file's doing.
+    throw new SpreadsheetError('damaged_file', `the file could not be read (${e instanceof Error ? e.message : String(e)})`);
+  }
+}
