@@ -176,7 +176,7 @@ export interface ConflictDetails {
 
 // ---- revisions ----
 
-export type RevisionKind = 'edit' | 'sheet' | 'restore';
+export type RevisionKind = 'edit' | 'sheet' | 'restore' | 'import';
 
 export interface CellChangeRecord {
   sheetId: string;

@@ -181,6 +181,19 @@ describe('POST /api/imports and GET /api/workbooks/:id/export', async () => {
     expect(await values(copyId)).toEqual(await values(workbookId));
   });
 
+  it('skips, and names, imported inputs that a typed patch would refuse (a number past 1.8e308, a formula nested 70 deep)', async () => {
+    const id = createWorkbook(t.ctx, owner.user, 'Checked import');
+    const [first] = workbookSheets(t.db, id);
+    const deep = '=' + '('.repeat(70) + '1' + ')'.repeat(70);
+    const sheet = { name: 'In', cells: [[0, 0, 'O2'], [1, 0, '1e400'], [2, 0, deep]] as [number, number, string][], columnWidths: {}, frozenRows: 0, frozenCols: 0, merged: [] };
+    const outcome = importSheets(t.ctx, id, owner.user.id, { sheets: [sheet], summary: { sheets: 1, cells: 3, formulas: 1, skipped: [], notes: [] } }, { replaceSheetId: first.id });
+    expect(outcome.summary.cells).toBe(1);
+    expect(outcome.summary.skipped.map((s) => [s.address, s.reason])).toEqual([
+      ['A2', expect.stringContaining('beyond the largest a cell can hold')],
+      ['A3', expect.stringContaining('nests 70 levels')],
+    ]);
+  });
+
   it('streams a 100,000-cell export from a worker while the server keeps answering', async () => {
     const cells = benchWorkbook(10_000).sheets[0].cells;
     const bigId = createWorkbook(t.ctx, owner.user, 'Big screening');

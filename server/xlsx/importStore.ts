@@ -2,6 +2,7 @@
 // revision of kind 'import', recorded as sheet operations so history can show and undo it. Not pure:
 // this is the one file of the import that touches the database.
 import { randomUUID } from 'node:crypto';
+import { cellInputProblem } from '../../shared/cellInput.js';
 import { maxInputLength, maxSheetNameLength, type RevisionKind, type RevisionPatch, type SheetOp } from '../../shared/workbooks.js';
 import type { AppContext } from '../context.js';
 import { addressOf } from './a1.js';
@@ -64,8 +65,10 @@ export function importSheets(ctx: AppContext, workbookId: string, userId: string
         const name = importedSheetName(sheet.name, taken);
         if (name !== sheet.name) summary.notes.push(`sheet "${sheet.name}" was imported as "${name}" (the workbook already has that name, or it has characters sheet names cannot hold)`);
         const cells = sheet.cells.filter(([row, col, input]) => {
-          if (input.length <= maxInputLength) return true;
-          summary.skipped.push({ sheet: name, address: addressOf(row, col), reason: `longer than ${maxInputLength.toLocaleString('en')} characters` });
+          // The same checks a typed input meets in the patch schema: nothing is stored altered.
+          const problem = input.length > maxInputLength ? `longer than ${maxInputLength.toLocaleString('en')} characters` : cellInputProblem(input);
+          if (!problem) return true;
+          summary.skipped.push({ sheet: name, address: addressOf(row, col), reason: problem });
           return false;
         });
         const id = randomUUID();

@@ -11,7 +11,7 @@ import { timeAgo } from '../workbooks/relativeTime.js';
 import { useRestoreRevision, useRevisions, useRevisionSnapshot } from './api.js';
 import { RevisionSnapshotView } from './RevisionSnapshotView.js';
 
-const kindLabels: Record<RevisionKind, string> = { edit: 'Cell edits', sheet: 'Sheet change', restore: 'Restore' };
+const kindLabels: Record<RevisionKind, string> = { edit: 'Cell edits', sheet: 'Sheet change', restore: 'Restore', import: 'Import' };
 const exact = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'medium' });
 
 function RevisionRow({ r, selected, onSelect }: { r: RevisionSummary; selected: boolean; onSelect: () => void }) {

@@ -7,6 +7,7 @@ import { Notice } from '../../components/ui/Notice.js';
 import { LoadingRows, Page } from '../../components/ui/Page.js';
 import { sentence } from '../../lib/fieldErrors.js';
 import { useMe } from '../auth/api.js';
+import { ImportButton } from '../io/index.js';
 import { useDeleteWorkbook, useWorkbooks } from './api.js';
 import { NewWorkbookDialog } from './NewWorkbookDialog.js';
 import { WorkbookRow } from './WorkbookRow.js';
@@ -24,13 +25,19 @@ export function WorkbookListPage() {
       New workbook
     </Button>
   );
+  const startButtons = (
+    <div className="flex items-center gap-2">
+      <ImportButton label="Import file…" />
+      {newButton}
+    </div>
+  );
   const count = workbooks.data?.length;
 
   return (
     <Page
       title="Workbooks"
       description={!count ? undefined : count === 1 ? '1 workbook you can open' : `${count} workbooks you can open`}
-      actions={count ? newButton : undefined}
+      actions={count ? startButtons : undefined}
     >
       <title>Workbooks · Orbitab</title>
       {workbooks.isPending ? (
@@ -48,7 +55,7 @@ export function WorkbookListPage() {
               unpaired electrons, ground term and more.
             </p>
           </div>
-          {newButton}
+          {startButtons}
         </div>
       ) : (
         <div className="overflow-hidden rounded-panel border border-line bg-surface">
