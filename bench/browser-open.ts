@@ -1,0 +1,235 @@
+// Opening a 10,000-row × 10-column workbook in headless Chromium: the time from navigation until the
+// first rows show computed values, for a sheet of species and chemistry formulas and for a sheet of
+// plain numbers of the same size. The ratio is the cost of the chemistry (target ≤ 2×).
+//
+// Run: `npm run build` (the server serves dist/), then `npm run bench:open`.
+// Writes bench/results/open.json. Each workbook is opened once to warm the browser cache, then
+// `runs` times, alternating; the median is reported. Large sheets show their first screenful from a small
+// window engine first (src/features/grid/model/windowPreview.ts), so both moments are measured:
+// the first computed rows (the target) and the whole workbook editable. The engine's own build time comes from the page's
+// performance measure "orbitab:build-engine" (src/features/grid/session/useWorkbookSession.ts).
+import fs from 'node:fs';
+import path from 'node:path';
+import { maxCellsPerPatch } from '../shared/workbooks.js';
+import { launchBrowser } from '../tests/helpers/browser.js';
+import { startServer } from '../tests/helpers/server.js';
+
+export interface OpenTiming {
+  /** Navigation start → first rows showing computed values, per run (ms). */
+  runsMs: number[];
+  medianMs: number;
+  /** Navigation start → the full engine built and the editable grid shown, median (ms). */
+  readyMedianMs: number;
+  /** The engine build (buildFromSheets) inside that time, median (ms). */
+  engineBuildMedianMs: number;
+  /** When the workbook's JSON had arrived (navigation start → response end), median (ms). */
+  workbookResponseMedianMs: number;
+  /** When the parsed workbook reached the page's code, median (ms). */
+  workbookLoadedMedianMs: number;
+  /** Building the first-screenful preview (NaN when the sheet was loaded whole), median (ms). */
+  previewBuildMedianMs: number;
+}
+
+export interface ScrollTiming {
+  /** Frames drawn while the chemistry sheet scrolled 400 px per frame from the top to row ~8,000. */
+  frames: number;
+  medianFrameMs: number;
+  p95FrameMs: number;
+  longestFrameMs: number;
+  /** Computed numbers visible after the scroll (rows keep showing values while they stream in). */
+  numbersShownAtEnd: number;
+}
+
+export interface OpenBenchResult {
+  rows: number;
+  cols: number;
+  chemistry: OpenTiming;
+  numbers: OpenTiming;
+  scroll: ScrollTiming;
+  /** chemistry.medianMs / numbers.medianMs */
+  ratio: number;
+  target: string;
+  formulas: string[];
+  measuredAt: string;
+  node: string;
+  chromium: string;
+}
+
+/** Species a screening column might hold (invented list; every one is within the diatomic model). */
+const SPECIES = ['O2', 'N2', 'F2', 'CO', 'NO', 'NO+', 'CN-', 'C2', 'B2', 'O2-', 'O2+', 'N2+', 'OH', 'HF', 'CH', 'NH', 'Li2', 'H2', 'He2+', 'CO+'];
+const FORMULAS = ['BONDORDER', 'UNPAIRED', 'MAGNETISM', 'SPINMOMENT', 'GROUNDTERM', 'DEGENERACY', 'HOMO', 'LUMO', 'ELECTRONS'];
+
+function chemistryCells(rows: number): [number, number, string][] {
+  const cells: [number, number, string][] = [];
+  for (let r = 0; r < rows; r++) {
+    cells.push([r, 0, SPECIES[r % SPECIES.length]]);
+    FORMULAS.forEach((f, i) => cells.push([r, i + 1, `=${f}(A${r + 1})`]));
+  }
+  return cells;
+}
+
+function numberCells(rows: number, cols: number): [number, number, string][] {
+  const cells: [number, number, string][] = [];
+  for (let r = 0; r < rows; r++) for (let c = 0; c < cols; c++) cells.push([r, c, String(r * cols + c + 0.5)]);
+  return cells;
+}
+
+class ApiClient {
+  cookie = '';
+  constructor(readonly base: string) {}
+  async call<T>(method: string, route: string, body?: unknown): Promise<T> {
+    const res = await fetch(`${this.base}/api${route}`, {
+      method,
+      headers: { origin: this.base, cookie: this.cookie, ...(body === undefined ? {} : { 'content-type': 'application/json' }) },
+      body: body === undefined ? undefined : JSON.stringify(body),
+    });
+    const setCookie = res.headers.getSetCookie?.() ?? [];
+    const session = setCookie.find((c) => c.startsWith('orbitab_session='));
+    if (session) this.cookie = session.split(';')[0];
+    const text = await res.text();
+    if (!res.ok) throw new Error(`${method} ${route}: ${res.status} ${text.slice(0, 300)}`);
+    return (text ? JSON.parse(text) : null) as T;
+  }
+}
+
+async function createWorkbook(api: ApiClient, title: string, cells: [number, number, string][]): Promise<string> {
+  const { workbook } = await api.call<{ workbook: { id: string } }>('POST', '/workbooks', { title });
+  let wb = await api.call<{ revision: number; sheets: { id: string }[] }>('GET', `/workbooks/${workbook.id}`);
+  const sheetId = wb.sheets[0].id;
+  let revision = wb.revision;
+  for (let i = 0; i < cells.length; i += maxCellsPerPatch) {
+    const changes = cells.slice(i, i + maxCellsPerPatch).map(([row, col, input]) => ({ sheetId, row, col, input }));
+    ({ revision } = await api.call<{ revision: number }>('POST', `/workbooks/${workbook.id}/patches`, { baseRevision: revision, changes }));
+  }
+  wb = await api.call('GET', `/workbooks/${workbook.id}`);
+  return workbook.id;
+}
+
+const median = (xs: number[]) => {
+  const s = [...xs].sort((a, b) => a - b);
+  return s.length % 2 ? s[(s.length - 1) / 2] : (s[s.length / 2 - 1] + s[s.length / 2]) / 2;
+};
+
+export async function runOpenBench(options: { rows?: number; cols?: number; runs?: number; write?: boolean } = {}): Promise<OpenBenchResult> {
+  const rows = options.rows ?? 10_000;
+  const cols = options.cols ?? 10;
+  const runs = options.runs ?? 5;
+  const server = await startServer();
+  const browser = await launchBrowser({ viewport: { width: 1280, height: 800 } });
+  try {
+    const api = new ApiClient(server.url);
+    await api.call('POST', '/auth/sign-up', { name: 'Bench Analyst', email: 'bench@lab.example', password: 'bench-password-1' });
+    const chemistryId = await createWorkbook(api, 'Open benchmark: chemistry', chemistryCells(rows).filter(([, c]) => c < cols));
+    const numbersId = await createWorkbook(api, 'Open benchmark: numbers', numberCells(rows, cols));
+    const [name, value] = api.cookie.split('=');
+    await browser.context.addCookies([{ name, value, url: server.url }]);
+    const page = browser.page;
+    page.setDefaultTimeout(120_000);
+
+    const openOnce = async (id: string) => {
+      await page.goto('about:blank');
+      await page.goto(`${server.url}/workbooks/${id}`);
+      // Navigation start → the first frame where the grid shows computed numbers in its first rows.
+      const handle = await page.waitForFunction(
+        () => {
+          const grid = document.querySelector('[data-testid="sheet-grid"]');
+          return grid && grid.querySelectorAll('.orb-cell-number').length >= 20 ? performance.now() : false;
+        },
+        undefined,
+        { polling: 'raf' },
+      );
+      const shownMs = (await handle.jsonValue()) as number;
+      const ready = await page.waitForFunction(
+        () => {
+          const grid = document.querySelector('[data-testid="sheet-grid"]:not([data-preview])');
+          return grid && grid.querySelectorAll('.orb-cell-number').length >= 20 ? performance.now() : false;
+        },
+        undefined,
+        { polling: 'raf' },
+      );
+      const readyMs = (await ready.jsonValue()) as number;
+      const { buildMs, previewMs, loadedMs, responseMs } = await page.evaluate(() => ({
+        buildMs: performance.getEntriesByName('orbitab:build-engine').at(-1)?.duration ?? NaN,
+        previewMs: performance.getEntriesByName('orbitab:build-preview').at(-1)?.duration ?? NaN,
+        loadedMs: performance.getEntriesByName('orbitab:workbook-loaded').at(-1)?.startTime ?? NaN,
+        responseMs: (performance.getEntriesByType('resource') as PerformanceResourceTiming[]).filter((e) => /\/api\/workbooks\/[^/]+$/.test(e.name)).at(-1)?.responseEnd ?? NaN,
+      }));
+      return { shownMs, readyMs, buildMs, previewMs, loadedMs, responseMs };
+    };
+
+    type Run = Awaited<ReturnType<typeof openOnce>>;
+    const summary = (results: Run[]): OpenTiming => ({
+      runsMs: results.map((r) => Math.round(r.shownMs)),
+      medianMs: Math.round(median(results.map((r) => r.shownMs))),
+      readyMedianMs: Math.round(median(results.map((r) => r.readyMs))),
+      engineBuildMedianMs: Math.round(median(results.map((r) => r.buildMs))),
+      workbookResponseMedianMs: Math.round(median(results.map((r) => r.responseMs))),
+      workbookLoadedMedianMs: Math.round(median(results.map((r) => r.loadedMs))),
+      previewBuildMedianMs: Math.round(median(results.map((r) => r.previewMs))),
+    });
+    // Warm the browser cache, then alternate the two workbooks so a busy machine slows both alike.
+    await openOnce(numbersId);
+    await openOnce(chemistryId);
+    const numberRuns: Run[] = [];
+    const chemistryRuns: Run[] = [];
+    for (let i = 0; i < runs; i++) {
+      numberRuns.push(await openOnce(numbersId));
+      chemistryRuns.push(await openOnce(chemistryId));
+    }
+    const numbers = summary(numberRuns);
+    const chemistry = summary(chemistryRuns);
+
+    // Scrolling the open chemistry sheet (the grid shows 26 columns, rows virtualised).
+    // Sent as text: tsx would wrap named inner functions in a helper the page does not have.
+    const scroll = (await page.evaluate(`new Promise((resolve) => {
+      const box = document.querySelector('[data-testid="sheet-grid"]:not([data-preview]) .dsg-container');
+      const deltas = [];
+      let last = performance.now();
+      const step = () => {
+        const now = performance.now();
+        deltas.push(now - last);
+        last = now;
+        box.scrollTop += 400;
+        if (deltas.length < 480) return requestAnimationFrame(step);
+        const sorted = deltas.slice(1).sort((a, b) => a - b);
+        const at = (q) => Math.round(sorted[Math.min(sorted.length - 1, Math.floor(q * sorted.length))] * 10) / 10;
+        requestAnimationFrame(() => resolve({ frames: sorted.length, medianFrameMs: at(0.5), p95FrameMs: at(0.95), longestFrameMs: at(1), numbersShownAtEnd: box.querySelectorAll('.orb-cell-number').length }));
+      };
+      requestAnimationFrame(step);
+    })`)) as ScrollTiming;
+
+    const result: OpenBenchResult = {
+      rows,
+      cols,
+      chemistry,
+      numbers,
+      scroll,
+      ratio: Math.round((chemistry.medianMs / numbers.medianMs) * 100) / 100,
+      target: '≤ 2× the plain-number workbook',
+      formulas: ['A: species', ...FORMULAS.slice(0, cols - 1).map((f, i) => `${String.fromCharCode(66 + i)}: =${f}(A<row>)`)],
+      measuredAt: new Date().toISOString(),
+      node: process.version,
+      chromium: browser.context.browser()?.version() ?? 'unknown',
+    };
+    if (options.write !== false) {
+      const out = path.resolve(import.meta.dirname, 'results/open.json');
+      fs.mkdirSync(path.dirname(out), { recursive: true });
+      fs.writeFileSync(out, JSON.stringify(result, null, 2) + '\n');
+    }
+    return result;
+  } finally {
+    await browser.close();
+    await server.stop();
+  }
+}
+
+if (import.meta.url === `file://${process.argv[1]}`) {
+  const r = await runOpenBench();
+  console.log(`10,000 × ${r.cols} workbook, median of ${r.chemistry.runsMs.length} opens in headless Chromium:`);
+  for (const [label, t] of [['plain numbers:     ', r.numbers], ['chemistry formulas:', r.chemistry]] as const) {
+    console.log(`  ${label} first computed rows ${t.medianMs} ms; whole workbook editable ${t.readyMedianMs} ms`);
+    console.log(`                       (workbook JSON received ${t.workbookResponseMedianMs} ms, parsed ${t.workbookLoadedMedianMs} ms, preview ${t.previewBuildMedianMs} ms, engine build ${t.engineBuildMedianMs} ms)`);
+  }
+  console.log(`  scrolling the chemistry sheet: median frame ${r.scroll.medianFrameMs} ms, p95 ${r.scroll.p95FrameMs} ms, longest ${r.scroll.longestFrameMs} ms over ${r.scroll.frames} frames`);
+  console.log(`  ratio: ${r.ratio}× (target ${r.target}) → bench/results/open.json`);
+}

@@ -1,0 +1,78 @@
+// The side panel for the selected cell: the MO diagram of the diatomic species it names, or the
+// Hückel level ladder of the π system it describes, with the key numbers beside the picture.
+import { useMemo } from 'react';
+import { frontierGap } from '../../../functions/chem/huckel.js';
+import { subjectOfCell, type SubjectSource } from './cellSubject.js';
+import { HuckelLadderSvg } from './HuckelLadderSvg.js';
+import { layoutMoDiagram } from './moLayout.js';
+import { MoDiagramSvg } from './MoDiagramSvg.js';
+
+function Fact({ label, value }: { label: string; value: string }) {
+  return (
+    <div className="flex justify-between gap-3 py-0.5">
+      <dt className="text-ink-3">{label}</dt>
+      <dd className="text-right font-mono text-ink">{value}</dd>
+    </div>
+  );
+}
+
+const round = (x: number, places = 3) => String(Math.round(x * 10 ** places) / 10 ** places);
+
+export function StructurePanel({ source, address }: { source: SubjectSource | null; address: string }) {
+  const subject = useMemo(() => (source ? subjectOfCell(source) : null), [source]);
+  if (!source || !subject || subject.kind === 'none') {
+    return (
+      <div className="p-3 text-ui text-ink-2">
+        <p>
+          Select a cell that names a diatomic species (O2, NO+, CN-) or a π system in SMILES (c1ccccc1), or a formula using one, to see its levels here.
+        </p>
+        {subject?.kind === 'none' && subject.tried.length > 0 && (
+          <p className="mt-2 text-caption text-ink-3">
+            {address}: nothing recognisable in {subject.tried.slice(0, 3).map((t) => `“${t}”`).join(', ')}.
+          </p>
+        )}
+      </div>
+    );
+  }
+  if (subject.kind === 'diatomic') {
+    const a = subject.analysis;
+    const picture = layoutMoDiagram(a);
+    return (
+      <div className="flex flex-col gap-2 p-3" data-testid="structure-panel">
+        <h3 className="text-ui font-semibold">
+          MO diagram of <span className="font-mono">{a.species.formula}</span>
+        </h3>
+        <MoDiagramSvg picture={picture} title={`Molecular orbital diagram of ${a.species.formula}`} />
+        <dl className="text-caption">
+          <Fact label="Bond order" value={round(a.bondOrder)} />
+          <Fact label="Unpaired electrons" value={`${a.unpairedElectrons} (${a.unpairedElectrons > 0 ? 'paramagnetic' : 'diamagnetic'})`} />
+          <Fact label="Ground term" value={a.termUnicode} />
+          <Fact label="Valence electrons" value={String(a.species.valenceElectrons)} />
+          <Fact label="Configuration" value={a.configAbbreviated} />
+        </dl>
+        <p className="text-caption text-ink-3">Qualitative level order (spacing not to scale); atoms drawn neutral{a.species.charge !== 0 ? `, the molecule carries charge ${a.species.charge > 0 ? '+' : ''}${a.species.charge}` : ''}.</p>
+      </div>
+    );
+  }
+  const model = subject.model;
+  let gap = '—';
+  try {
+    const f = frontierGap(model, model.electrons);
+    gap = f.openShellDegenerate ? '0 (open-shell degenerate HOMO)' : `${round(f.gap)} |β|`;
+  } catch (e) {
+    gap = (e as Error).message;
+  }
+  return (
+    <div className="flex flex-col gap-2 p-3" data-testid="structure-panel">
+      <h3 className="text-ui font-semibold">
+        Hückel π levels of <span className="font-mono">{subject.smiles}</span>
+      </h3>
+      <HuckelLadderSvg model={model} electrons={model.electrons} title={`Hückel π levels of ${subject.smiles}`} />
+      <dl className="text-caption">
+        <Fact label="π centres" value={String(model.levels.length)} />
+        <Fact label="π electrons" value={String(model.electrons)} />
+        <Fact label="HOMO–LUMO gap" value={gap} />
+      </dl>
+    </div>
+  );
+}

@@ -1,0 +1,45 @@
+// The workbook screen (/workbooks/:id): loads the workbook, then hands it to the workspace.
+import { useEffect } from 'react';
+import { Link, useParams } from 'react-router';
+import { Notice } from '../../components/ui/Notice.js';
+import { ApiError } from '../../lib/api.js';
+import { useWorkbookSession } from './session/useWorkbookSession.js';
+import { Workspace } from './Workspace.js';
+import { PreviewGrid } from './components/PreviewGrid.js';
+
+export function WorkbookPage() {
+  const { id = '' } = useParams();
+  const { session, preview, payload, error } = useWorkbookSession(id);
+
+  useEffect(() => {
+    if (session) document.title = `${session.model.title} · Orbitab`;
+    return () => {
+      document.title = 'Orbitab';
+    };
+  }, [session]);
+
+  if (error) {
+    const missing = error instanceof ApiError && (error.status === 404 || error.status === 403);
+    return (
+      <div className="mx-auto max-w-xl p-6">
+        <Notice tone="error" title={missing ? 'This workbook is not available' : 'The workbook could not be opened'}>
+          {missing ? 'It does not exist, or it has not been shared with you.' : error.message}{' '}
+          <Link to="/" className="text-accent underline">
+            Back to the workbook list
+          </Link>
+        </Notice>
+      </div>
+    );
+  }
+  if (!session && preview && payload) {
+    return <PreviewGrid title={payload.title} preview={preview} settings={payload.sheets.find((s) => s.id === preview.sheetId)?.settings} />;
+  }
+  if (!session) {
+    return (
+      <div className="p-4 text-ui text-ink-2" aria-busy="true">
+        Opening workbook…
+      </div>
+    );
+  }
+  return <Workspace key={session.model.id} session={session} />;
+}

@@ -1,0 +1,46 @@
+// The first screenful of a large workbook while its full engine is still being built: the same
+// look as the grid, read-only, with a note that the rest is on its way.
+import { columnName } from '../model/a1.js';
+import { defaultColumnWidthPx, readDisplaySettings } from '../model/displaySettings.js';
+import type { SheetSettings } from '../../../../shared/workbooks.js';
+import type { SheetPreview } from '../model/windowPreview.js';
+
+const cellClass = (kind: string | undefined) => `orb-cell ${kind ? `orb-cell-${kind}` : ''}`;
+
+export function PreviewGrid({ title, preview, settings }: { title: string; preview: SheetPreview; settings: SheetSettings | undefined }) {
+  const widths = readDisplaySettings(settings).columnWidths;
+  const cols = Array.from({ length: Math.min(preview.colCount, 30) }, (_, c) => ({ c, w: widths[c] ?? defaultColumnWidthPx }));
+  const border = 'border-r border-b border-line';
+  return (
+    <div className="flex h-full min-h-0 flex-col bg-canvas">
+      <div className="flex h-9 shrink-0 items-center gap-3 border-b border-line bg-surface px-3">
+        <h1 className="truncate text-ui font-semibold">{title}</h1>
+        <span className="ml-auto text-caption text-ink-2" role="status">
+          Computing the whole workbook…
+        </span>
+      </div>
+      <div className="h-8 shrink-0 border-b border-line bg-raised" />
+      <div className="h-8 shrink-0 border-b border-line bg-surface" />
+      <div className="orb-grid min-h-0 flex-1 overflow-hidden bg-surface" data-testid="sheet-grid" data-preview="true" aria-busy="true">
+        <div className="flex h-6">
+          <div className={`w-[52px] shrink-0 bg-raised ${border}`} />
+          {cols.map(({ c, w }) => (
+            <div key={c} style={{ width: w }} className={`flex shrink-0 items-center justify-center bg-raised font-sans text-caption font-medium text-ink-3 ${border}`}>
+              {columnName(c)}
+            </div>
+          ))}
+        </div>
+        {preview.rows.map((row, r) => (
+          <div key={r} className="flex h-6">
+            <div className={`flex w-[52px] shrink-0 items-center justify-end bg-raised pr-1.5 text-[11px] text-ink-3 ${border}`}>{r + 1}</div>
+            {cols.map(({ c, w }) => (
+              <div key={c} style={{ width: w }} className={`shrink-0 ${border}`}>
+                <div className={cellClass(row[c]?.kind)}>{row[c]?.display}</div>
+              </div>
+            ))}
+          </div>
+        ))}
+      </div>
+    </div>
+  );
+}

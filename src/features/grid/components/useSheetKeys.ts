@@ -1,0 +1,164 @@
+// Keys and clipboard the grid library does not handle the desktop-spreadsheet way: Enter moves
+// down (Shift+Enter up), Home/End, Ctrl+Home/End, PageUp/PageDown (Shift extends the selection),
+// Ctrl+Z / Ctrl+Y, Ctrl+D / Ctrl+R fill, Delete clears, and copy/cut/paste as tab-separated text.
+// Listens on window in the capture phase, before the library's document listeners, and stops what
+// it handles. Panels outside the grid mark themselves with data-grid-shield and are left alone.
+import { useEffect, useRef, type RefObject } from 'react';
+import type { DataSheetGridRef } from 'react-datasheet-grid';
+import type { ViewCell } from './SheetGrid.js';
+
+export interface SheetKeyHandlers {
+  gridRef: RefObject<DataSheetGridRef | null>;
+  isEditing: () => boolean;
+  /** Number of view rows and columns. */
+  extent: () => { rows: number; cols: number };
+  /** The last used cell (view coordinates), and the last used column of a view row. */
+  lastUsed: () => ViewCell;
+  lastUsedColInRow: (viewRow: number) => number;
+  pageRows: () => number;
+  undo: () => void;
+  redo: () => void;
+  fillDown: () => void;
+  fillRight: () => void;
+  clear: () => void;
+  copy: (cut: boolean) => string | null;
+  /** Clipboard text, or a table read from clipboard HTML when there was no text. */
+  paste: (text: string, table?: string[][]) => void;
+}
+
+const isEditable = (t: EventTarget | null) => t instanceof HTMLElement && !!t.closest('input, textarea, select, [contenteditable="true"]');
+const isShielded = (t: EventTarget | null) => t instanceof HTMLElement && !!t.closest('[data-grid-shield]');
+
+/** Reads the first table of clipboard HTML as rows of cell text (when no plain text was given). */
+function htmlTable(html: string): string[][] | null {
+  const table = new DOMParser().parseFromString(html, 'text/html').querySelector('table');
+  if (!table) return null;
+  return [...table.rows].map((r) => [...r.cells].map((c) => c.textContent ?? ''));
+}
+
+export function useSheetKeys(h: SheetKeyHandlers) {
+  const handlers = useRef(h);
+  handlers.current = h;
+
+  useEffect(() => {
+    // Tab, Tab, Enter returns to the column where the row of entries began (desktop convention).
+    let tabAnchorCol: number | null = null;
+    const keydown = (e: KeyboardEvent) => {
+      const x = handlers.current;
+      const grid = x.gridRef.current;
+      const active = grid?.activeCell;
+      if (!grid || !active || e.defaultPrevented || e.isComposing || isShielded(e.target)) return;
+      if (e.target instanceof HTMLElement && (e.target.closest('dialog') || (isEditable(e.target) && !e.target.classList.contains('orb-cell-input')))) return;
+      // While the function list is open, its keys (arrows, Tab, Enter, Esc) belong to it.
+      if (document.querySelector('[role="listbox"][aria-label="Functions"]')) return;
+      if (e.key === 'Tab' && !e.shiftKey) tabAnchorCol ??= active.col;
+      else if (e.key === 'Enter' && !e.shiftKey && !e.ctrlKey && !e.metaKey && !e.altKey && tabAnchorCol !== null) {
+        const col = tabAnchorCol;
+        tabAnchorCol = null;
+        e.preventDefault();
+        e.stopPropagation();
+        grid.setActiveCell({ row: Math.min(x.extent().rows - 1, active.row + 1), col }); // commits an edit in progress
+        return;
+      } else if (e.key !== 'Shift' && e.key !== 'Tab' && !/^[\p{L}\p{N}\p{P}\p{S} ]$/u.test(e.key) && e.key !== 'Backspace') tabAnchorCol = null;
+      const stop = () => {
+        e.preventDefault();
+        e.stopPropagation();
+      };
+      const mod = e.ctrlKey || e.metaKey;
+      const { rows, cols } = x.extent();
+      const clampRow = (r: number) => Math.max(0, Math.min(rows - 1, r));
+      if (x.isEditing()) {
+        if (e.key === 'Enter' && e.shiftKey && !mod) {
+          stop();
+          grid.setActiveCell({ row: clampRow(active.row - 1), col: active.col }); // commits the edit
+        }
+        return;
+      }
+      const go = (target: ViewCell) => {
+        stop();
+        const cell = { row: clampRow(target.row), col: Math.max(0, Math.min(cols - 1, target.col)) };
+        if (e.shiftKey) grid.setSelection({ min: { row: active.row, col: active.col }, max: cell });
+        else grid.setActiveCell(cell);
+      };
+      switch (e.key) {
+        case 'Enter':
+          if (mod || e.altKey) return;
+          stop();
+          grid.setActiveCell({ row: clampRow(active.row + (e.shiftKey ? -1 : 1)), col: active.col });
+          return;
+        case 'Home':
+          return go(mod ? { row: 0, col: 0 } : { row: active.row, col: 0 });
+        case 'End':
+          return go(mod ? x.lastUsed() : { row: active.row, col: x.lastUsedColInRow(active.row) });
+        case 'PageDown':
+          return go({ row: active.row + x.pageRows(), col: active.col });
+        case 'PageUp':
+          return go({ row: active.row - x.pageRows(), col: active.col });
+        case 'Delete':
+        case 'Backspace':
+          stop();
+          x.clear();
+          return;
+      }
+      if (!mod || e.altKey) return;
+      const key = e.key.toLowerCase();
+      if (key === 'z') {
+        stop();
+        if (e.shiftKey) x.redo();
+        else x.undo();
+      } else if (key === 'y') {
+        stop();
+        x.redo();
+      } else if (key === 'd') {
+        stop();
+        x.fillDown();
+      } else if (key === 'r') {
+        stop();
+        x.fillRight();
+      }
+    };
+
+    const copyOrCut = (cut: boolean) => (e: ClipboardEvent) => {
+      // Inputs (the cell editor, the formula bar) copy their own text; the grid must not react.
+      e.stopPropagation();
+      if (isEditable(e.target) || isShielded(e.target) || !handlers.current.gridRef.current?.activeCell) return;
+      const text = handlers.current.copy(cut);
+      if (text === null) return;
+      e.clipboardData?.setData('text/plain', text);
+      e.preventDefault();
+    };
+    const copy = copyOrCut(false);
+    const cut = copyOrCut(true);
+    const paste = (e: ClipboardEvent) => {
+      e.stopPropagation();
+      if (isEditable(e.target) || isShielded(e.target) || !handlers.current.gridRef.current?.activeCell) return;
+      e.preventDefault();
+      const plain = e.clipboardData?.getData('text/plain') ?? '';
+      if (plain) return handlers.current.paste(plain);
+      const table = htmlTable(e.clipboardData?.getData('text/html') ?? '');
+      if (table) handlers.current.paste('', table);
+    };
+
+    const mousedown = () => (tabAnchorCol = null);
+    // Focus moving into a field outside the grid (a dialog, a panel) takes the keyboard from the
+    // grid, so the grid library stops reading keys typed there.
+    const focusin = (e: FocusEvent) => {
+      const t = e.target;
+      if (isEditable(t) && !isShielded(t) && !(t as HTMLElement).classList.contains('orb-cell-input')) handlers.current.gridRef.current?.setActiveCell(null);
+    };
+    window.addEventListener('focusin', focusin, true);
+    window.addEventListener('mousedown', mousedown, true);
+    window.addEventListener('keydown', keydown, true);
+    window.addEventListener('copy', copy, true);
+    window.addEventListener('cut', cut, true);
+    window.addEventListener('paste', paste, true);
+    return () => {
+      window.removeEventListener('mousedown', mousedown, true);
+      window.removeEventListener('focusin', focusin, true);
+      window.removeEventListener('keydown', keydown, true);
+      window.removeEventListener('copy', copy, true);
+      window.removeEventListener('cut', cut, true);
+      window.removeEventListener('paste', paste, true);
+    };
+  }, []);
+}

@@ -1,0 +1,83 @@
+// What one grid cell shows: the stored input, the computed value formatted for reading, and for an
+// error its message ("unknown element 'Xq'"). Pure, so display rules are tested without a browser.
+import { DetailedCellError, type CellValue } from 'hyperformula';
+
+export type CellKind = 'number' | 'text' | 'boolean' | 'error' | 'empty';
+
+export interface CellView {
+  /** What is stored and edited ('' for a cell filled by a neighbouring array formula). */
+  input: string;
+  /** The computed value as the grid shows it. */
+  display: string;
+  kind: CellKind;
+  /** The raw value, for charts, sorting and filters. */
+  value: number | string | boolean | null;
+  /** For errors: the code shown in the cell (#VALUE!) and the message shown on hover/selection. */
+  errorCode?: string;
+  errorMessage?: string;
+  /** Filled by an array formula in another cell: shown, not editable. */
+  spilled?: boolean;
+  /** Not editable for another reason (role, lock, protected range), with the reason to show. */
+  readOnlyReason?: string;
+}
+
+/** Decimal places for numbers, or null for the automatic ("general") format. */
+export type Precision = number | null;
+
+/**
+ * The automatic format, as desktop spreadsheets' "general" format behaves (common practice): whole
+ * numbers as they are, others to 10 significant digits with trailing zeros dropped, and scientific
+ * notation for very large or very small magnitudes.
+ */
+export function formatNumber(x: number, precision: Precision): string {
+  if (!Number.isFinite(x)) return String(x);
+  const abs = Math.abs(x);
+  if (precision !== null) {
+    const places = Math.max(0, Math.min(15, Math.round(precision)));
+    return abs >= 1e15 ? x.toExponential(places) : x.toFixed(places);
+  }
+  if (x === 0) return '0';
+  if (abs >= 1e11 || abs < 1e-4) return trimExponential(x.toExponential(5));
+  if (Number.isInteger(x)) return String(x);
+  return trimFraction(x.toPrecision(10));
+}
+
+function trimFraction(s: string): string {
+  return s.includes('.') ? s.replace(/\.?0+$/, '') : s;
+}
+
+function trimExponential(s: string): string {
+  const [mantissa, exponent] = s.split('e');
+  return `${trimFraction(mantissa)}E${exponent.startsWith('-') || exponent.startsWith('+') ? exponent : `+${exponent}`}`;
+}
+
+export function cellView(input: string, value: CellValue, precision: Precision, spilled = false): CellView | undefined {
+  if (value instanceof DetailedCellError) {
+    return { input, display: value.value, kind: 'error', value: value.value, errorCode: value.value, errorMessage: errorMessage(value), spilled };
+  }
+  if (value === null || value === undefined) {
+    if (input === '') return undefined;
+    // A formula that evaluates to an empty reference shows nothing but keeps its input.
+    return { input, display: '', kind: 'empty', value: null, spilled };
+  }
+  if (typeof value === 'number') return { input, display: formatNumber(value, precision), kind: 'number', value, spilled };
+  if (typeof value === 'boolean') return { input, display: value ? 'TRUE' : 'FALSE', kind: 'boolean', value, spilled };
+  return { input, display: value, kind: 'text', value, spilled };
+}
+
+const errorExplanations: Record<string, string> = {
+  '#DIV/0!': 'division by zero',
+  '#NAME?': 'unknown function or name',
+  '#REF!': 'the formula refers to a cell that no longer exists',
+  '#CYCLE!': 'the formula depends on itself (a circular reference)',
+  '#SPILL!': 'the array result has no room to spill: clear the cells it needs',
+  '#N/A': 'no value available',
+  '#NUM!': 'a number is out of range',
+  '#VALUE!': 'a value has the wrong type',
+};
+
+/** The engine's message when it has one, otherwise a plain explanation of the code. */
+export function errorMessage(error: DetailedCellError): string {
+  const message = error.message?.trim();
+  return message ? message : (errorExplanations[error.value] ?? error.value);
+}

@@ -1,0 +1,60 @@
+// Undo and redo across edits. We keep our own history instead of the engine's undo stack: changes
+// from colleagues (live updates) also go through the engine, and Ctrl+Z must undo only my own
+// edits. Each entry records the inputs before and after, so undoing is itself an edit that is
+// sent to the server like any other.
+import type { StructuralOp } from './structure.js';
+import type { InputDifference } from './sheetInputs.js';
+
+export interface CellEdit {
+  sheetId: string;
+  row: number;
+  col: number;
+  before: string;
+  after: string;
+}
+
+export type HistoryEntry =
+  | { kind: 'cells'; changes: CellEdit[] }
+  /** Rows or columns inserted or deleted; `differences` are every input it changed, per sheet. */
+  | { kind: 'structure'; sheetId: string; op: StructuralOp; differences: Map<string, InputDifference[]> };
+
+export class History {
+  private undoStack: HistoryEntry[] = [];
+  private redoStack: HistoryEntry[] = [];
+
+  constructor(readonly limit = 200) {}
+
+  push(entry: HistoryEntry) {
+    this.undoStack.push(entry);
+    if (this.undoStack.length > this.limit) this.undoStack.shift();
+    this.redoStack = [];
+  }
+
+  get canUndo() {
+    return this.undoStack.length > 0;
+  }
+
+  get canRedo() {
+    return this.redoStack.length > 0;
+  }
+
+  /** Takes the entry to undo and files it for redo. */
+  takeUndo(): HistoryEntry | undefined {
+    const e = this.undoStack.pop();
+    if (e) this.redoStack.push(e);
+    return e;
+  }
+
+  takeRedo(): HistoryEntry | undefined {
+    const e = this.redoStack.pop();
+    if (e) this.undoStack.push(e);
+    return e;
+  }
+
+  /** A deleted sheet's entries can no longer be replayed. */
+  forgetSheet(sheetId: string) {
+    const keep = (e: HistoryEntry) => (e.kind === 'cells' ? !e.changes.some((c) => c.sheetId === sheetId) : e.sheetId !== sheetId && !e.differences.has(sheetId));
+    this.undoStack = this.undoStack.filter(keep);
+    this.redoStack = this.redoStack.filter(keep);
+  }
+}

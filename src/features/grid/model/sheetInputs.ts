@@ -1,0 +1,95 @@
+// The inputs of one sheet exactly as people typed them ("1.50" stays "1.50"), kept beside the engine
+// because the engine normalises what it stores. Sparse: only non-empty cells have an entry.
+
+const COLUMN_SPAN = 4096; // > the engine's 2,000 columns, so row * span + col never collides
+
+export interface InputEntry {
+  row: number;
+  col: number;
+  input: string;
+}
+
+export interface InputDifference {
+  row: number;
+  col: number;
+  before: string;
+  after: string;
+}
+
+export class SheetInputs {
+  private cells = new Map<number, string>();
+
+  static from(entries: Iterable<readonly [number, number, string]>): SheetInputs {
+    const s = new SheetInputs();
+    for (const [row, col, input] of entries) s.set(row, col, input);
+    return s;
+  }
+
+  get size() {
+    return this.cells.size;
+  }
+
+  get(row: number, col: number): string {
+    return this.cells.get(row * COLUMN_SPAN + col) ?? '';
+  }
+
+  set(row: number, col: number, input: string) {
+    if (input === '') this.cells.delete(row * COLUMN_SPAN + col);
+    else this.cells.set(row * COLUMN_SPAN + col, input);
+  }
+
+  *entries(): IterableIterator<InputEntry> {
+    for (const [key, input] of this.cells) yield { row: Math.floor(key / COLUMN_SPAN), col: key % COLUMN_SPAN, input };
+  }
+
+  clone(): SheetInputs {
+    const s = new SheetInputs();
+    s.cells = new Map(this.cells);
+    return s;
+  }
+
+  /** Rows (or columns) from `at` on move by `delta`; a negative delta first drops the rows it covers. */
+  shifted(axis: 'row' | 'col', at: number, delta: number): SheetInputs {
+    const s = new SheetInputs();
+    for (const { row, col, input } of this.entries()) {
+      const index = axis === 'row' ? row : col;
+      if (index < at) s.set(row, col, input);
+      else if (delta < 0 && index < at - delta) continue; // removed
+      else if (axis === 'row') s.set(row + delta, col, input);
+      else s.set(row, col + delta, input);
+    }
+    return s;
+  }
+
+  /** One past the last used row and column (0 × 0 for an empty sheet). */
+  extent(): { rows: number; cols: number } {
+    let rows = 0;
+    let cols = 0;
+    for (const key of this.cells.keys()) {
+      rows = Math.max(rows, Math.floor(key / COLUMN_SPAN) + 1);
+      cols = Math.max(cols, (key % COLUMN_SPAN) + 1);
+    }
+    return { rows, cols };
+  }
+
+  /** A dense table for the engine's buildFromSheets (null for empty cells). */
+  toTable(): (string | null)[][] {
+    const { rows, cols } = this.extent();
+    const table: (string | null)[][] = Array.from({ length: rows }, () => new Array<string | null>(cols).fill(null));
+    for (const { row, col, input } of this.entries()) table[row][col] = input;
+    return table;
+  }
+}
+
+/** Every cell whose input differs between two states of a sheet. */
+export function diffInputs(before: SheetInputs, after: SheetInputs): InputDifference[] {
+  const out: InputDifference[] = [];
+  for (const { row, col, input } of before.entries()) {
+    const next = after.get(row, col);
+    if (next !== input) out.push({ row, col, before: input, after: next });
+  }
+  for (const { row, col, input } of after.entries()) {
+    if (before.get(row, col) === '') out.push({ row, col, before: '', after: input });
+  }
+  return out;
+}

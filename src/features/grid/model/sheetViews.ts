@@ -1,0 +1,79 @@
+// Cell views from the engine: one sheet's rows at once (on first show) or one cell (after an edit).
+import type { HyperFormula } from 'hyperformula';
+import { cellView, type CellView } from './cellView.js';
+import type { SheetInputs } from './sheetInputs.js';
+import type { Precision } from './cellView.js';
+
+export type RowData = Readonly<Record<string, CellView | undefined>>;
+export const EMPTY_ROW: RowData = Object.freeze({});
+
+interface SheetLike {
+  engineId: number;
+  inputs: SheetInputs;
+  display: { precision: Precision };
+  rowCount: number;
+}
+
+type ReadOnlyLabel = (row: number, col: number) => string | null | undefined;
+
+/** A value without an input can only come from an array formula elsewhere: it is spilled. */
+export function viewOfCell(engine: HyperFormula, s: SheetLike, row: number, col: number, readOnly: ReadOnlyLabel): CellView | undefined {
+  const input = s.inputs.get(row, col);
+  const value = engine.getCellValue({ sheet: s.engineId, row, col });
+  const view = cellView(input, value, s.display.precision, input === '' && value !== null);
+  if (!view) return view;
+  const reason = readOnly(row, col);
+  return reason ? { ...view, readOnlyReason: reason } : view;
+}
+
+/** Every row of a sheet; rows without content share one frozen empty object. */
+export function buildSheetRows(engine: HyperFormula, s: SheetLike, readOnly: ReadOnlyLabel): RowData[] {
+  const values = engine.getSheetValues(s.engineId);
+  const rows = new Array<RowData>(Math.max(s.rowCount, values.length)).fill(EMPTY_ROW);
+  for (let r = 0; r < values.length; r++) {
+    const line = values[r];
+    let row: Record<string, CellView> | null = null;
+    for (let c = 0; c < line.length; c++) {
+      const value = line[c];
+      const input = s.inputs.get(r, c);
+      if (value === null && input === '') continue;
+      const view = cellView(input, value, s.display.precision, input === '' && value !== null);
+      if (!view) continue;
+      const reason = readOnly(r, c);
+      (row ??= {})[c] = reason ? { ...view, readOnlyReason: reason } : view;
+    }
+    if (row) rows[r] = row;
+  }
+  return rows;
+}
+
+/** Cells grouped by engine sheet, then row, then the set of columns. */
+export function groupCells(cells: readonly { engineId: number; row: number; col: number }[]): Map<number, Map<number, Set<number>>> {
+  const bySheet = new Map<number, Map<number, Set<number>>>();
+  for (const c of cells) {
+    let rows = bySheet.get(c.engineId);
+    if (!rows) bySheet.set(c.engineId, (rows = new Map()));
+    let cols = rows.get(c.row);
+    if (!cols) rows.set(c.row, (cols = new Set()));
+    cols.add(c.col);
+  }
+  return bySheet;
+}
+
+/**
+ * A new rows array in which only the rows holding the given cells are new objects, so memoised
+ * grid rows and cells elsewhere keep their identity and do not re-render.
+ */
+export function withRowsReplaced(old: RowData[], rowCount: number, fixes: Map<number, Set<number>>, view: (row: number, col: number) => CellView | undefined): RowData[] {
+  const rows = old.length < rowCount ? old.concat(new Array<RowData>(rowCount - old.length).fill(EMPTY_ROW)) : old.slice();
+  for (const [row, cols] of fixes) {
+    const next: Record<string, CellView | undefined> = { ...rows[row] };
+    for (const col of cols) {
+      const v = view(row, col);
+      if (v) next[col] = v;
+      else delete next[col];
+    }
+    rows[row] = Object.keys(next).length === 0 ? EMPTY_ROW : next;
+  }
+  return rows;
+}

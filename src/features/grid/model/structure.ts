@@ -1,0 +1,134 @@
+// Inserting and deleting rows and columns. The engine moves the cells and rewrites every formula
+// that refers across the change (references follow their cells; references into deleted cells
+// become #REF!). The server stores cells by position, so the patch carries every input that ended
+// up different: the moved cells and the rewritten formulas, on any sheet.
+import type { CellInput } from '../save/pendingStore.js';
+import { diffInputs, type InputDifference, type SheetInputs } from './sheetInputs.js';
+import type { WorkbookModel } from './workbookModel.js';
+
+export interface StructuralOp {
+  axis: 'row' | 'col';
+  action: 'insert' | 'remove';
+  /** The first row/column (0-based) inserted before or removed. */
+  at: number;
+  count: number;
+}
+
+export class StructureError extends Error {}
+
+/** Where a cell ends up after the operation (null if it was removed). */
+export function movedPosition(row: number, col: number, op: StructuralOp): { row: number; col: number } | null {
+  const index = op.axis === 'row' ? row : col;
+  if (index < op.at) return { row, col };
+  let next: number;
+  if (op.action === 'insert') next = index + op.count;
+  else if (index < op.at + op.count) return null;
+  else next = index - op.count;
+  return op.axis === 'row' ? { row: next, col } : { row, col: next };
+}
+
+/** Applies the operation and returns the input changes it caused (already handed to onLocalChanges). */
+export function applyStructural(model: WorkbookModel, sheetId: string, op: StructuralOp, record = true): CellInput[] {
+  if (model.readOnly) throw new StructureError('you can view this workbook but not change it');
+  const blocked = model.structureRule?.(sheetId);
+  if (blocked) throw new StructureError(blocked);
+  if (!Number.isInteger(op.at) || op.at < 0 || !Number.isInteger(op.count) || op.count < 1) throw new StructureError('choose at least one row or column');
+  const target = model.sheet(sheetId);
+  const { engine } = model;
+
+  // The engine's own text of every formula before the change, to see which ones it rewrote.
+  const formulasBefore = new Map<string, { row: number; col: number; formula: string }[]>();
+  for (const s of model.sheets) {
+    const list: { row: number; col: number; formula: string }[] = [];
+    for (const e of s.inputs.entries()) {
+      if (e.input.startsWith('=')) list.push({ row: e.row, col: e.col, formula: engine.getCellFormula({ sheet: s.engineId, row: e.row, col: e.col }) ?? e.input });
+    }
+    formulasBefore.set(s.id, list);
+  }
+
+  const span: [number, number] = [op.at, op.count];
+  const possible =
+    op.axis === 'row'
+      ? op.action === 'insert'
+        ? engine.isItPossibleToAddRows(target.engineId, span)
+        : engine.isItPossibleToRemoveRows(target.engineId, span)
+      : op.action === 'insert'
+        ? engine.isItPossibleToAddColumns(target.engineId, span)
+        : engine.isItPossibleToRemoveColumns(target.engineId, span);
+  if (!possible) throw new StructureError(`cannot ${op.action} ${op.count} ${op.axis === 'row' ? 'row' : 'column'}(s) there (the sheet would exceed its size or split an array formula)`);
+  if (op.axis === 'row') {
+    if (op.action === 'insert') engine.addRows(target.engineId, span);
+    else engine.removeRows(target.engineId, span);
+  } else if (op.action === 'insert') engine.addColumns(target.engineId, span);
+  else engine.removeColumns(target.engineId, span);
+
+  const before = new Map<string, SheetInputs>(model.sheets.map((s) => [s.id, s.inputs]));
+  target.inputs = target.inputs.shifted(op.axis, op.at, op.action === 'insert' ? op.count : -op.count);
+  for (const s of model.sheets) {
+    for (const f of formulasBefore.get(s.id)!) {
+      const pos = s.id === sheetId ? movedPosition(f.row, f.col, op) : { row: f.row, col: f.col };
+      if (!pos) continue;
+      const now = engine.getCellFormula({ sheet: s.engineId, row: pos.row, col: pos.col });
+      if (now !== undefined && now !== f.formula) {
+        if (s.inputs === before.get(s.id)) s.inputs = s.inputs.clone();
+        s.inputs.set(pos.row, pos.col, now);
+      }
+    }
+  }
+
+  const differences = new Map<string, InputDifference[]>();
+  const changes: CellInput[] = [];
+  for (const s of model.sheets) {
+    if (s.inputs === before.get(s.id)) continue;
+    const d = diffInputs(before.get(s.id)!, s.inputs);
+    if (d.length === 0) continue;
+    differences.set(s.id, d);
+    for (const x of d) changes.push({ sheetId: s.id, row: x.row, col: x.col, input: x.after });
+  }
+  if (record) model.history.push({ kind: 'structure', sheetId, op, differences });
+  model.invalidateViews();
+  if (changes.length > 0) model.onLocalChanges(changes);
+  return changes;
+}
+
+/** Undoes my last edit; false when there is nothing to undo. */
+export function undoLast(model: WorkbookModel): boolean {
+  const entry = model.history.takeUndo();
+  if (!entry) return false;
+  if (entry.kind === 'cells') {
+    model.edit(
+      entry.changes.filter((c) => model.hasSheet(c.sheetId)).map((c) => ({ sheetId: c.sheetId, row: c.row, col: c.col, input: c.before })),
+      { record: false },
+    );
+    return true;
+  }
+  const inverse: StructuralOp = { ...entry.op, action: entry.op.action === 'insert' ? 'remove' : 'insert' };
+  applyStructural(model, entry.sheetId, inverse, false);
+  restore(model, entry.differences, 'before');
+  return true;
+}
+
+export function redoLast(model: WorkbookModel): boolean {
+  const entry = model.history.takeRedo();
+  if (!entry) return false;
+  if (entry.kind === 'cells') {
+    model.edit(
+      entry.changes.filter((c) => model.hasSheet(c.sheetId)).map((c) => ({ sheetId: c.sheetId, row: c.row, col: c.col, input: c.after })),
+      { record: false },
+    );
+    return true;
+  }
+  applyStructural(model, entry.sheetId, entry.op, false);
+  restore(model, entry.differences, 'after');
+  return true;
+}
+
+/** Puts back inputs the engine could not restore by itself (deleted cells, #REF! formulas, typed spellings). */
+function restore(model: WorkbookModel, differences: Map<string, InputDifference[]>, side: 'before' | 'after') {
+  const fixes: CellInput[] = [];
+  for (const [sheetId, list] of differences) {
+    if (!model.hasSheet(sheetId)) continue;
+    for (const d of list) if (model.input(sheetId, d.row, d.col) !== d[side]) fixes.push({ sheetId, row: d.row, col: d.col, input: d[side] });
+  }
+  model.edit(fixes, { record: false });
+}

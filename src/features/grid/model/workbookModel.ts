@@ -1,0 +1,305 @@
+// One open workbook in the browser: one HyperFormula engine (functions/engine.ts createEngine) fed
+// with the server's inputs, the typed inputs beside it, and the cell views the grid draws. Edits
+// apply to the engine at once; the model reports the input changes so they can be sent as patches.
+// Bulk writes run with evaluation suspended: many setCellContents calls inside HyperFormula's
+// batch() grow quadratically in 3.3–3.5 (see the workbook issue), while a suspended evaluation
+// recomputes once at the end.
+import { ExportedCellChange, type ExportedChange, type HyperFormula } from 'hyperformula';
+import { createEngine } from '../../../../functions/engine.js';
+import type { SheetPayload, WorkbookPayload } from '../../../../shared/workbooks.js';
+import { can, type AccessRole } from '../../../../shared/permissions.js';
+import type { CellView } from './cellView.js';
+import { buildSheetRows, EMPTY_ROW, groupCells, viewOfCell, withRowsReplaced, type RowData } from './sheetViews.js';
+import { readDisplaySettings, type DisplaySettings } from './displaySettings.js';
+import { SheetInputs } from './sheetInputs.js';
+import { lastInputPerCell, type CellInput } from '../save/pendingStore.js';
+import { History } from './history.js';
+
+export type { RowData };
+
+/** Rows and columns shown beyond the used area, so there is room to type. */
+export const minRowsShown = 1000;
+export const minColsShown = 26;
+
+export interface SheetState {
+  id: string;
+  name: string;
+  position: number;
+  engineId: number;
+  display: DisplaySettings;
+  inputs: SheetInputs;
+  /** Cell views per row, built when the sheet is first shown. */
+  rows: RowData[] | null;
+  rowCount: number;
+  colCount: number;
+}
+
+/** Why a cell may not be edited (null: it may). Issue-6 locks plug in through `setEditRule`. */
+export type EditRule = (sheetId: string, row: number, col: number) => string | null;
+
+export interface EditOutcome {
+  applied: CellInput[];
+  refused: { cell: CellInput; reason: string }[];
+}
+
+export class WorkbookModel {
+  readonly id: string;
+  title: string;
+  role: AccessRole;
+  readonly engine: HyperFormula;
+  readonly history = new History();
+  private sheetsById = new Map<string, SheetState>();
+  private listeners = new Set<() => void>();
+  private extraRule: EditRule | null = null;
+  /** Why rows and columns of a sheet may not be inserted or deleted now (a sheet lock), or null. */
+  structureRule: ((sheetId: string) => string | null) | null = null;
+  /** Called with every local change that must reach the server. */
+  onLocalChanges: (changes: CellInput[]) => void = () => {};
+  version = 0;
+
+  constructor(payload: WorkbookPayload) {
+    this.id = payload.id;
+    this.title = payload.title;
+    this.role = payload.role;
+    const ordered = [...payload.sheets].sort((a, b) => a.position - b.position);
+    const inputs = new Map(ordered.map((s) => [s.id, SheetInputs.from(s.cells)]));
+    // Built once from whole tables: no per-cell setCellContents on load. Undo lives in History
+    // (our own, mirrored in patches), so the engine keeps no undo stack of its own.
+    this.engine = createEngine(Object.fromEntries(ordered.map((s) => [s.name, inputs.get(s.id)!.toTable()])), { undoLimit: 0 });
+    for (const s of ordered) this.addSheetState(s, inputs.get(s.id)!);
+  }
+
+  // ---- reading ----
+
+  get sheets(): SheetState[] {
+    return [...this.sheetsById.values()].sort((a, b) => a.position - b.position);
+  }
+
+  sheet(sheetId: string): SheetState {
+    const s = this.sheetsById.get(sheetId);
+    if (!s) throw new Error(`no sheet ${sheetId} in this workbook`);
+    return s;
+  }
+
+  hasSheet(sheetId: string) {
+    return this.sheetsById.has(sheetId);
+  }
+
+  sheetByEngineId(engineId: number): SheetState | undefined {
+    for (const s of this.sheetsById.values()) if (s.engineId === engineId) return s;
+    return undefined;
+  }
+
+  get readOnly(): boolean {
+    return !can(this.role, 'editCells');
+  }
+
+  input(sheetId: string, row: number, col: number): string {
+    return this.sheet(sheetId).inputs.get(row, col);
+  }
+
+  view(sheetId: string, row: number, col: number): CellView | undefined {
+    return this.rows(sheetId)[row]?.[col];
+  }
+
+  /** The rows the grid draws; the same array until something in the sheet changes. */
+  rows(sheetId: string): RowData[] {
+    const s = this.sheet(sheetId);
+    if (!s.rows) s.rows = this.buildRows(s);
+    return s.rows;
+  }
+
+  subscribe(listener: () => void): () => void {
+    this.listeners.add(listener);
+    return () => this.listeners.delete(listener);
+  }
+
+  notify() {
+    this.version += 1;
+    for (const l of this.listeners) l();
+  }
+
+  // ---- editing ----
+
+  setEditRule(rule: EditRule | null) {
+    this.extraRule = rule;
+    for (const s of this.sheetsById.values()) s.rows = null;
+    this.notify();
+  }
+
+  /** Why this cell cannot be edited now, or null. */
+  readOnlyReason(sheetId: string, row: number, col: number): string | null {
+    if (this.readOnly) return 'you can view this workbook but not edit it';
+    const rows = this.sheetsById.get(sheetId)?.rows;
+    if (rows ? rows[row]?.[col]?.spilled : this.isSpilled(sheetId, row, col)) return 'filled by an array formula in another cell';
+    return this.extraRule?.(sheetId, row, col) ?? null;
+  }
+
+  private isSpilled(sheetId: string, row: number, col: number): boolean {
+    const s = this.sheet(sheetId);
+    return s.inputs.get(row, col) === '' && this.engine.getCellValue({ sheet: s.engineId, row, col }) !== null;
+  }
+
+  /**
+   * Applies local edits: to the engine at once, to the undo history, and out to the server.
+   * Cells that may not be edited are left alone and reported.
+   */
+  edit(changes: readonly CellInput[], options: { record?: boolean } = {}): EditOutcome {
+    const refused: EditOutcome['refused'] = [];
+    const allowed: CellInput[] = [];
+    for (const c of lastInputPerCell(changes)) {
+      const reason = this.readOnlyReason(c.sheetId, c.row, c.col);
+      if (reason) refused.push({ cell: c, reason });
+      else if (this.input(c.sheetId, c.row, c.col) !== c.input) allowed.push(c);
+    }
+    const before = allowed.map((c) => this.input(c.sheetId, c.row, c.col));
+    const applied = this.write(allowed);
+    if (options.record !== false && applied.length > 0) {
+      this.history.push({ kind: 'cells', changes: allowed.map((c, i) => ({ ...c, before: before[i], after: c.input })) });
+    }
+    if (applied.length > 0) this.onLocalChanges(applied);
+    return { applied, refused };
+  }
+
+  /** Changes made elsewhere (another client, a conflict resolution): applied but not sent back. */
+  applyRemote(changes: readonly CellInput[]) {
+    this.write(lastInputPerCell(changes).filter((c) => this.hasSheet(c.sheetId)));
+  }
+
+  /** Writes inputs to the engine and the views; returns the changes actually written. */
+  write(changes: readonly CellInput[]): CellInput[] {
+    if (changes.length === 0) return [];
+    const bulk = changes.length > 1;
+    const written: CellInput[] = [];
+    let engineChanges: ExportedChange[] = [];
+    if (bulk) this.engine.suspendEvaluation();
+    try {
+      for (const c of changes) {
+        const s = this.sheet(c.sheetId);
+        const result = this.engine.setCellContents({ sheet: s.engineId, row: c.row, col: c.col }, [[c.input === '' ? null : c.input]]);
+        if (!bulk) engineChanges = result;
+        s.inputs.set(c.row, c.col, c.input);
+        written.push(c);
+      }
+    } finally {
+      if (bulk) engineChanges = this.engine.resumeEvaluation();
+    }
+    const touched: { engineId: number; row: number; col: number }[] = written.map((c) => ({ engineId: this.sheet(c.sheetId).engineId, row: c.row, col: c.col }));
+    for (const ch of engineChanges) if (ch instanceof ExportedCellChange) touched.push({ engineId: ch.sheet, row: ch.row, col: ch.col });
+    this.refreshViews(touched);
+    return written;
+  }
+
+  /** Recomputes the views of the given cells, replacing only the rows they are in. */
+  refreshViews(cells: readonly { engineId: number; row: number; col: number }[]) {
+    for (const [engineId, fixes] of groupCells(cells)) {
+      const s = this.sheetByEngineId(engineId);
+      if (!s) continue;
+      for (const [row, cols] of fixes) for (const col of cols) this.growToFit(s, row, col);
+      // Not yet shown: built on first show, from the engine as it is then.
+      if (s.rows) s.rows = withRowsReplaced(s.rows, s.rowCount, fixes, (row, col) => this.computeView(s, row, col));
+    }
+    this.notify();
+  }
+
+  /** Rebuilds every view (after structural changes or a new edit rule). */
+  invalidateViews() {
+    for (const s of this.sheetsById.values()) {
+      const { rows, cols } = s.inputs.extent();
+      s.rowCount = Math.max(s.rowCount, rows + 100);
+      s.colCount = Math.max(s.colCount, cols + 2);
+      s.rows = null;
+    }
+    this.notify();
+  }
+
+  /** More rows at the bottom of a sheet (the grid shows a fixed number at a time). */
+  addDisplayRows(sheetId: string, count: number) {
+    const s = this.sheet(sheetId);
+    s.rowCount = Math.min(this.engine.getConfig().maxRows, s.rowCount + count);
+    if (s.rows) s.rows = s.rows.concat(new Array<RowData>(Math.max(0, s.rowCount - s.rows.length)).fill(EMPTY_ROW));
+    this.notify();
+  }
+
+  private growToFit(s: SheetState, row: number, col: number) {
+    if (row >= s.rowCount - 20) s.rowCount = Math.min(this.engine.getConfig().maxRows, row + 200);
+    if (col >= s.colCount - 1) s.colCount = Math.min(this.engine.getConfig().maxColumns, col + 3);
+  }
+
+  computeView(s: SheetState, row: number, col: number): CellView | undefined {
+    return viewOfCell(this.engine, s, row, col, this.readOnlyLabel(s.id));
+  }
+
+  private buildRows(s: SheetState): RowData[] {
+    return buildSheetRows(this.engine, s, this.readOnlyLabel(s.id));
+  }
+
+  /** The per-cell read-only marking the views carry (the role, or the extra rule). */
+  private readOnlyLabel(sheetId: string): (row: number, col: number) => string | null | undefined {
+    if (this.readOnly) return () => 'read-only';
+    const rule = this.extraRule;
+    return rule ? (row, col) => rule(sheetId, row, col) : () => null;
+  }
+
+  // ---- sheets ----
+
+  addSheetState(p: Pick<SheetPayload, 'id' | 'name' | 'position' | 'settings'>, inputs = new SheetInputs()) {
+    let engineId = this.engine.getSheetId(p.name);
+    if (engineId === undefined) {
+      this.engine.addSheet(p.name);
+      engineId = this.engine.getSheetId(p.name)!;
+      if (inputs.size > 0) this.engine.setSheetContent(engineId, inputs.toTable());
+    }
+    const { rows, cols } = inputs.extent();
+    this.sheetsById.set(p.id, {
+      id: p.id,
+      name: p.name,
+      position: p.position,
+      engineId,
+      display: readDisplaySettings(p.settings),
+      inputs,
+      rows: null,
+      rowCount: Math.max(minRowsShown, rows + 100),
+      colCount: Math.max(minColsShown, cols + 2),
+    });
+    this.notify();
+  }
+
+  renameSheetState(sheetId: string, name: string) {
+    const s = this.sheet(sheetId);
+    if (s.name === name) return;
+    this.engine.renameSheet(s.engineId, name);
+    s.name = name;
+    this.invalidateViews(); // formulas naming the sheet now show the new name
+  }
+
+  removeSheetState(sheetId: string) {
+    const s = this.sheetsById.get(sheetId);
+    if (!s) return;
+    this.engine.removeSheet(s.engineId);
+    this.sheetsById.delete(sheetId);
+    this.history.forgetSheet(sheetId);
+    this.invalidateViews();
+  }
+
+  setPositions(order: readonly string[]) {
+    order.forEach((id, position) => {
+      const s = this.sheetsById.get(id);
+      if (s) s.position = position;
+    });
+    this.notify();
+  }
+
+  setDisplay(sheetId: string, display: DisplaySettings) {
+    const s = this.sheet(sheetId);
+    const precisionChanged = s.display.precision !== display.precision;
+    s.display = display;
+    if (precisionChanged) s.rows = null;
+    this.notify();
+  }
+
+  dispose() {
+    this.listeners.clear();
+    this.engine.destroy();
+  }
+}

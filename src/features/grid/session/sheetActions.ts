@@ -1,0 +1,38 @@
+// Tab operations go straight to the server (they are rare and must not be lost or reordered with
+// cell patches), then to the engine once the server has accepted them.
+import type { SheetMutationResult } from '../../../../shared/workbooks.js';
+import { api } from '../../../lib/api.js';
+import { writeDisplaySettings, type DisplaySettings } from '../model/displaySettings.js';
+import type { WorkbookSession } from './useWorkbookSession.js';
+
+const base = (s: WorkbookSession) => `/workbooks/${encodeURIComponent(s.model.id)}/sheets`;
+
+export async function addSheet(s: WorkbookSession): Promise<string> {
+  const { sheet } = await api<SheetMutationResult>(base(s), { method: 'POST', body: {} });
+  s.model.addSheetState(sheet);
+  return sheet.id;
+}
+
+export async function renameSheet(s: WorkbookSession, sheetId: string, name: string): Promise<void> {
+  const { sheet } = await api<SheetMutationResult>(`${base(s)}/${encodeURIComponent(sheetId)}`, { method: 'PATCH', body: { name } });
+  s.model.renameSheetState(sheetId, sheet.name);
+}
+
+export async function deleteSheet(s: WorkbookSession, sheetId: string): Promise<void> {
+  await api(`${base(s)}/${encodeURIComponent(sheetId)}`, { method: 'DELETE' });
+  s.queue.dropSheet(sheetId);
+  s.model.removeSheetState(sheetId);
+  // The server keeps positions dense (0, 1, 2…): close the gap the same way.
+  s.model.setPositions(s.model.sheets.map((x) => x.id));
+}
+
+export async function moveSheet(s: WorkbookSession, sheetId: string, position: number): Promise<void> {
+  await api<SheetMutationResult>(`${base(s)}/${encodeURIComponent(sheetId)}`, { method: 'PATCH', body: { position } });
+  const order = s.model.sheets.map((x) => x.id).filter((id) => id !== sheetId);
+  order.splice(position, 0, sheetId);
+  s.model.setPositions(order);
+}
+
+export async function saveDisplaySettings(s: WorkbookSession, sheetId: string, display: DisplaySettings): Promise<void> {
+  await api<SheetMutationResult>(`${base(s)}/${encodeURIComponent(sheetId)}`, { method: 'PATCH', body: { settings: writeDisplaySettings(display) } });
+}

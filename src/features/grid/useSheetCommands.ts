@@ -1,0 +1,159 @@
+// What the toolbar, the keyboard and the clipboard do to the sheet, on the current selection.
+// Every command goes through the model (engine first, then the save queue) and reports cells it
+// had to leave alone, so nothing is dropped silently.
+import { useRef } from 'react';
+import { applyStructural, redoLast, undoLast, type StructuralOp } from './model/structure.js';
+import { clearRange, fillPairs, pasteBlock, pasteCopiedCells, sortRange, type CopiedCells } from './model/rangeEdits.js';
+import { formatTsv, parseTsv } from './model/tsv.js';
+import { shiftColumnWidths, type DisplaySettings } from './model/displaySettings.js';
+import type { SortDirection } from './model/sortFilter.js';
+import type { EditOutcome } from './model/workbookModel.js';
+import type { WorkbookSession } from './session/useWorkbookSession.js';
+import type { SheetView } from './useSheetView.js';
+import type { FillPair, ViewCell } from './components/SheetGrid.js';
+
+export interface ViewSelection {
+  min: ViewCell;
+  max: ViewCell;
+}
+
+export interface CommandContext {
+  session: WorkbookSession;
+  sheetId: string;
+  view: SheetView;
+  /** The selection now (read when a command runs, so fast keyboard use is not a step behind). */
+  getSelection: () => ViewSelection | null;
+  /** The active cell's column: the key column for sorting. */
+  activeCol: number | null;
+  filtered: boolean;
+  display: DisplaySettings;
+  setDisplay: (d: DisplaySettings) => void;
+  say: (message: string | null) => void;
+  select: (sel: ViewSelection) => void;
+}
+
+const plural = (n: number, word: string) => `${n} ${word}${n === 1 ? '' : 's'}`;
+
+export function useSheetCommands(ctx: CommandContext) {
+  const clipboard = useRef<{ text: string; source: CopiedCells } | null>(null);
+  const c = ctx;
+  const { model } = c.session;
+
+  const report = (outcome: EditOutcome) => {
+    if (outcome.refused.length > 0) c.say(`${plural(outcome.refused.length, 'cell')} left unchanged: ${outcome.refused[0].reason}.`);
+    else c.say(null);
+  };
+  const guard = (action: () => void) => {
+    try {
+      action();
+    } catch (e) {
+      c.say((e as Error).message);
+    }
+  };
+  const viewRows = (sel: ViewSelection) => Array.from({ length: sel.max.row - sel.min.row + 1 }, (_, i) => c.view.sheetRow(sel.min.row + i));
+  const span = (sel: ViewSelection) => ({ top: c.view.sheetRow(sel.min.row), bottom: c.view.sheetRow(sel.max.row), left: sel.min.col, right: sel.max.col });
+  const noFilter = (what: string) => {
+    if (c.filtered) c.say(`Clear the filter before you ${what}: hidden rows would be affected too.`);
+    return !c.filtered;
+  };
+
+  const structural = (op: StructuralOp) =>
+    guard(() => {
+      applyStructural(model, c.sheetId, op);
+      if (op.axis === 'col') c.setDisplay({ ...c.display, columnWidths: shiftColumnWidths(c.display.columnWidths, op.at, op.action === 'insert' ? op.count : -op.count) });
+      c.say(null);
+    });
+
+  const rowsOp = (action: StructuralOp['action']) => {
+    const sel = c.getSelection();
+    if (!sel || !noFilter(action === 'insert' ? 'insert rows' : 'delete rows')) return;
+    structural({ axis: 'row', action, at: span(sel).top, count: sel.max.row - sel.min.row + 1 });
+  };
+  const colsOp = (action: StructuralOp['action']) => {
+    const sel = c.getSelection();
+    if (sel) structural({ axis: 'col', action, at: sel.min.col, count: sel.max.col - sel.min.col + 1 });
+  };
+
+  return {
+    undo: () => guard(() => void (undoLast(model) || c.say('Nothing to undo.'))),
+    redo: () => guard(() => void (redoLast(model) || c.say('Nothing to redo.'))),
+    insertRows: () => rowsOp('insert'),
+    deleteRows: () => rowsOp('remove'),
+    insertCols: () => colsOp('insert'),
+    deleteCols: () => colsOp('remove'),
+
+    /** Ctrl+D: the top row of the selection into the rows below (one row: from the row above). */
+    fillDown: () => {
+      const sel = c.getSelection();
+      if (!sel) return;
+      const from = sel.min.row === sel.max.row ? sel.min.row - 1 : sel.min.row;
+      if (from < 0) return;
+      const pairs: FillPair[] = [];
+      for (let v = from + 1; v <= sel.max.row; v++) for (let col = sel.min.col; col <= sel.max.col; col++) pairs.push({ from: { row: c.view.sheetRow(from), col }, to: { row: c.view.sheetRow(v), col } });
+      guard(() => report(fillPairs(model, c.sheetId, pairs)));
+    },
+    /** Ctrl+R: the left column of the selection into the columns to its right. */
+    fillRight: () => {
+      const sel = c.getSelection();
+      if (!sel) return;
+      const from = sel.min.col === sel.max.col ? sel.min.col - 1 : sel.min.col;
+      if (from < 0) return;
+      const pairs: FillPair[] = [];
+      for (const row of viewRows(sel)) for (let col = from + 1; col <= sel.max.col; col++) pairs.push({ from: { row, col: from }, to: { row, col } });
+      guard(() => report(fillPairs(model, c.sheetId, pairs)));
+    },
+    sort: (direction: SortDirection) => {
+      const sel = c.getSelection();
+      if (!sel || !noFilter('sort')) return;
+      let range = span(sel);
+      if (range.top === range.bottom) {
+        // One cell selected: sort the whole used block below the (frozen) header row.
+        const { rows, cols } = model.sheet(c.sheetId).inputs.extent();
+        range = { top: c.display.freezeHeaderRow ? 1 : 0, bottom: Math.max(0, rows - 1), left: 0, right: Math.max(0, cols - 1) };
+      }
+      const keyCol = c.activeCol ?? sel.min.col;
+      guard(() => report(sortRange(model, c.sheetId, range, keyCol, direction)));
+    },
+    clear: () => {
+      const sel = c.getSelection();
+      if (!sel) return;
+      guard(() => {
+        const outcomes = viewRows(sel).map((row) => clearRange(model, c.sheetId, { top: row, bottom: row, left: sel.min.col, right: sel.max.col }));
+        report({ applied: outcomes.flatMap((o) => o.applied), refused: outcomes.flatMap((o) => o.refused) });
+      });
+    },
+    copy: (cut: boolean): string | null => {
+      const sel = c.getSelection();
+      if (!sel) return null;
+      const rows = viewRows(sel);
+      const text = formatTsv(rows.map((row) => Array.from({ length: sel.max.col - sel.min.col + 1 }, (_, j) => model.view(c.sheetId, row, sel.min.col + j)?.display ?? '')));
+      clipboard.current = { text, source: { sheetId: c.sheetId, rows, left: sel.min.col, right: sel.max.col } };
+      if (cut) guard(() => report(pasteBlock(model, c.sheetId, rows, sel.min.col, rows.map(() => Array<string>(sel.max.col - sel.min.col + 1).fill('')))));
+      return text;
+    },
+    paste: (text: string, table?: string[][]) => {
+      const sel = c.getSelection();
+      if (!sel) return;
+      const selHeight = sel.max.row - sel.min.row + 1;
+      const selWidth = sel.max.col - sel.min.col + 1;
+      const internal = clipboard.current && !table && text === clipboard.current.text ? clipboard.current.source : null;
+      guard(() => {
+        let height: number;
+        let width: number;
+        if (internal) {
+          const single = internal.rows.length === 1 && internal.left === internal.right;
+          height = single ? selHeight : internal.rows.length;
+          width = single ? selWidth : internal.right - internal.left + 1;
+          report(pasteCopiedCells(model, c.sheetId, c.view.rowsFrom(sel.min.row, height), sel.min.col, width, internal));
+        } else {
+          let block = table ?? parseTsv(text);
+          if (block.length === 1 && block[0].length === 1) block = Array.from({ length: selHeight }, () => Array<string>(selWidth).fill(block[0][0]));
+          height = block.length;
+          width = Math.max(...block.map((r) => r.length));
+          report(pasteBlock(model, c.sheetId, c.view.rowsFrom(sel.min.row, height), sel.min.col, block));
+        }
+        c.select({ min: sel.min, max: { row: sel.min.row + height - 1, col: sel.min.col + width - 1 } });
+      });
+    },
+  };
+}

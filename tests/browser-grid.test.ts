@@ -1,0 +1,341 @@
+// The workbook grid end to end in Debian Chromium against the real server (production build, fresh
+// database): typing species and chemistry formulas, computed values and error messages, function
+// autocomplete, saving and reloading, undo, unsent changes kept across a reload, pasting
+// tab-separated text, copying out, and the MO diagram panel. Screenshots go to tests/artifacts/.
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { launchBrowser, screenshot, type TestBrowser } from './helpers/browser.js';
+import { startServer, type TestServer } from './helpers/server.js';
+
+let server: TestServer;
+let browser: TestBrowser;
+let page: Page;
+
+beforeAll(async () => {
+  server = await startServer();
+  browser = await launchBrowser();
+  page = browser.page;
+  page.setDefaultTimeout(15_000);
+  await browser.context.grantPermissions(['clipboard-read', 'clipboard-write'], { origin: server.url });
+});
+
+afterAll(async () => {
+  await browser?.close();
+  await server?.stop();
+});
+
+/** The grid cell at an A1 address, as the page shows it (found by its column header and row number). */
+async function cell(a1: string) {
+  return page.evaluate((address) => {
+    const [, letters, digits] = /^([A-Z]+)(\d+)$/.exec(address)!;
+    const header = document.querySelector(`.orb-col-header[data-col="${letters}"]`)?.closest('.dsg-cell') as HTMLElement | null;
+    if (!header) return null;
+    for (const row of document.querySelectorAll('[data-testid="sheet-grid"] .dsg-row:not(.dsg-row-header)')) {
+      const cells = [...row.children] as HTMLElement[];
+      if (cells[0]?.textContent !== digits) continue;
+      const target = cells.find((c) => c.style.left === header.style.left);
+      if (!target) return null;
+      const r = target.getBoundingClientRect();
+      const inner = target.querySelector('.orb-cell') as HTMLElement | null;
+      return { text: inner?.textContent ?? '', title: inner?.title ?? '', x: r.x + r.width / 2, y: r.y + r.height / 2 };
+    }
+    return null;
+  }, a1);
+}
+
+async function expectCell(a1: string, text: string) {
+  await expect.poll(async () => (await cell(a1))?.text, { timeout: 10_000, message: `cell ${a1}` }).toBe(text);
+}
+
+async function clickCell(a1: string) {
+  const c = await cell(a1);
+  if (!c) throw new Error(`cell ${a1} is not on screen`);
+  await page.mouse.click(c.x, c.y);
+}
+
+/** Types a row of inputs from the active cell: Tab between cells, Enter at the end. */
+async function typeRow(inputs: string[]) {
+  for (const [i, input] of inputs.entries()) {
+    await page.keyboard.type(input);
+    await page.keyboard.press(i === inputs.length - 1 ? 'Enter' : 'Tab');
+  }
+}
+
+async function waitSaved() {
+  await page.locator('[data-testid="save-state"][data-state="saved"]').waitFor();
+}
+
+async function reloadWorkbook() {
+  await page.reload();
+  await page.getByTestId('workbook-title').waitFor();
+}
+
+describe('the workbook grid in a browser', () => {
+  it('creates a workbook from the list and opens an empty sheet', async () => {
+    await page.goto(`${server.url}/sign-up`);
+    await page.getByLabel('Name').fill('Ines Duarte');
+    await page.getByLabel('Email').fill('ines@lab.example');
+    await page.getByLabel('Password').fill('sigma-pi-sigma-star');
+    await page.getByRole('button', { name: 'Create account' }).click();
+    await page.getByRole('button', { name: 'New workbook' }).click();
+    await page.getByRole('dialog').getByLabel('Title').fill('Diatomic screen, grid test');
+    await page.getByRole('button', { name: 'Create and open' }).click();
+    await page.waitForURL((u) => u.pathname.startsWith('/workbooks/'));
+    await expect.poll(() => page.getByTestId('workbook-title').textContent()).toBe('Diatomic screen, grid test');
+    await expectCell('A1', '');
+    await waitSaved();
+  });
+
+  it('computes chemistry formulas as they are typed (O2 bond order 2 and two unpaired electrons; N2 bond order 3, closed shell)', async () => {
+    await clickCell('A1');
+    await typeRow(['O2', '=BONDORDER(A1)', '=UNPAIRED(A1)']);
+    await page.keyboard.press('Home');
+    await typeRow(['N2', '=BONDORDER(A2)', '=UNPAIRED(A2)']);
+    await page.keyboard.press('Home');
+    await typeRow(['Xq2', '=BONDORDER(A3)']);
+    await expectCell('B1', '2');
+    await expectCell('C1', '2');
+    await expectCell('B2', '3');
+    await expectCell('C2', '0');
+    await expectCell('B3', '#VALUE!');
+    await screenshot(page, 'grid-typed-values');
+  });
+
+  it('shows an error’s message on hover and in the bar when the cell is selected', async () => {
+    expect((await cell('B3'))?.title).toMatch(/unknown element 'Xq'/);
+    await clickCell('B3');
+    await expect.poll(() => page.getByTestId('cell-error').textContent()).toMatch(/#VALUE! unknown element 'Xq'/);
+    expect(await page.getByLabel('Formula bar').inputValue()).toBe('=BONDORDER(A3)');
+    await screenshot(page, 'grid-error-message');
+  });
+
+  it('offers our functions with signature and summary while a formula is typed', async () => {
+    await clickCell('D2');
+    await page.keyboard.type('=UNP');
+    const list = page.getByRole('listbox', { name: 'Functions' });
+    await list.getByRole('option', { name: /UNPAIRED/ }).waitFor();
+    expect(await list.textContent()).toMatch(/UNPAIRED\(species/);
+    await screenshot(page, 'grid-autocomplete');
+    await page.keyboard.press('Tab');
+    await page.keyboard.type('A1)');
+    await page.keyboard.press('Enter');
+    await expectCell('D2', '2');
+  });
+
+  it('saves every change and shows the same values after a reload', async () => {
+    await waitSaved();
+    await reloadWorkbook();
+    await expectCell('A1', 'O2');
+    await expectCell('B1', '2');
+    await expectCell('C2', '0');
+    await expectCell('D2', '2');
+  });
+
+  it('undoes an edit with Ctrl+Z, recomputing and saving the undo', async () => {
+    await clickCell('A1');
+    await typeRow(['F2']);
+    await expectCell('B1', '1'); // F2: bond order 1
+    await clickCell('C5');
+    await page.keyboard.press('Control+z');
+    await expectCell('A1', 'O2');
+    await expectCell('B1', '2');
+    await page.keyboard.press('Control+y');
+    await expectCell('A1', 'F2');
+    await page.keyboard.press('Control+z');
+    await expectCell('A1', 'O2');
+    await waitSaved();
+    await reloadWorkbook();
+    await expectCell('A1', 'O2');
+  });
+
+  it('keeps changes the server has not acknowledged across a reload, then sends them', async () => {
+    await page.route('**/api/workbooks/*/patches', (route) => route.abort('connectionrefused'));
+    await clickCell('A4');
+    await typeRow(['CO', '=BONDORDER(A4)']);
+    await expect.poll(() => page.getByTestId('save-state').textContent()).toMatch(/Offline — 2 changes waiting/);
+    await screenshot(page, 'grid-offline-waiting');
+    await reloadWorkbook();
+    await expectCell('B4', '3');
+    await page.unroute('**/api/workbooks/*/patches');
+    await page.getByTestId('sheet-message').waitFor();
+    await waitSaved();
+    await reloadWorkbook();
+    await expectCell('A4', 'CO');
+    await expectCell('B4', '3');
+  });
+
+  it('pastes a block of tab-separated text, quoted cells included, with formulas computed', async () => {
+    await page.evaluate(() => navigator.clipboard.writeText('CO\t=BONDORDER(E1)\nNO+\t=BONDORDER(E2)\n"C2"\t=UNPAIRED(E3)\n'));
+    await clickCell('E1');
+    await page.keyboard.press('Control+v');
+    await expectCell('E3', 'C2');
+    await expectCell('F1', '3'); // CO: triple bond
+    await expectCell('F2', '3'); // NO+: isoelectronic with N2
+    await expectCell('F3', '0'); // C2: KK σg² σu*² πu⁴, closed shell in this model
+    await screenshot(page, 'grid-after-paste');
+  });
+
+  it('copies a block out as tab-separated values other programs read', async () => {
+    await clickCell('A1');
+    await page.keyboard.press('Shift+ArrowDown');
+    await page.keyboard.press('Shift+ArrowRight');
+    await expect.poll(() => page.getByLabel('Cell address').inputValue()).toBe('A1:B2');
+    await page.keyboard.press('Control+c');
+    expect(await page.evaluate(() => navigator.clipboard.readText())).toBe('O2\t2\nN2\t3');
+  });
+
+  it('draws the MO diagram of the selected species in the side panel, with the caution note', async () => {
+    await clickCell('A1');
+    const diagram = page.getByRole('img', { name: 'Molecular orbital diagram of O2' });
+    await diagram.waitFor();
+    const panel = page.getByTestId('structure-panel');
+    expect(await panel.textContent()).toMatch(/Bond order\s*2/);
+    expect(await panel.textContent()).toMatch(/2 \(paramagnetic\)/);
+    expect(await diagram.locator('[data-character="antibonding"]').count()).toBeGreaterThan(0);
+    expect(await page.getByTestId('safety-note').textContent()).toMatch(/safety data sheets/);
+    await screenshot(page, 'grid-mo-diagram');
+    await clickCell('F2');
+    await page.getByRole('img', { name: /diagram of NO\+/ }).waitFor();
+  });
+
+  it('moves like a desktop spreadsheet: Tab, Tab, Enter back to the first column; Ctrl+End; Ctrl+Home; PageDown', async () => {
+    const address = () => page.getByLabel('Cell address').inputValue();
+    await clickCell('A6');
+    await page.keyboard.press('Tab');
+    await page.keyboard.press('Tab');
+    await page.keyboard.press('Enter');
+    await expect.poll(address).toBe('A7');
+    await page.keyboard.press('Control+End');
+    await expect.poll(address).toBe('F4'); // the last used row (4) and column (F)
+    await page.keyboard.press('Control+Home');
+    await expect.poll(address).toBe('A1');
+    await page.keyboard.press('PageDown');
+    await expect.poll(async () => Number((await address()).slice(1))).toBeGreaterThan(10);
+    await page.keyboard.press('Control+Home');
+  });
+
+  it('fills a formula down with Ctrl+D, its reference following each row', async () => {
+    await clickCell('G1');
+    await typeRow(['=B1*10']);
+    await clickCell('G1');
+    await page.keyboard.press('Shift+ArrowDown');
+    await page.keyboard.press('Shift+ArrowDown');
+    await page.keyboard.press('Control+d');
+    await expectCell('G2', '30');
+    await expectCell('G3', '#VALUE!');
+    await clickCell('G2');
+    expect(await page.getByLabel('Formula bar').inputValue()).toBe('=B2*10');
+  });
+
+  it('inserts and deletes a row, formulas following their cells', async () => {
+    await clickCell('A2');
+    await page.getByRole('button', { name: '+ Row' }).click();
+    await expectCell('A3', 'N2');
+    await expectCell('B3', '3');
+    await clickCell('B3');
+    expect(await page.getByLabel('Formula bar').inputValue()).toBe('=BONDORDER(A3)');
+    await clickCell('A2');
+    await page.getByRole('button', { name: '− Row' }).click();
+    await expectCell('A2', 'N2');
+    await expectCell('G2', '30');
+  });
+
+  it('sorts a block by the active column', async () => {
+    await clickCell('F1');
+    await page.keyboard.press('Shift+ArrowLeft');
+    await page.keyboard.press('Shift+ArrowDown');
+    await page.keyboard.press('Shift+ArrowDown');
+    await page.getByRole('button', { name: 'Sort ↑' }).click();
+    await expectCell('E1', 'C2');
+    await expectCell('F1', '0');
+    await expectCell('F3', '3');
+  });
+
+  it('filters rows by a value of a column, keeping true row numbers', async () => {
+    await clickCell('A2');
+    await page.getByRole('button', { name: 'Filter…' }).click();
+    await page.getByRole('dialog', { name: 'Filter column A' }).getByRole('button', { name: /^N2/ }).click();
+    await expect.poll(() => page.getByTestId('active-filter').textContent()).toMatch(/A = “N2”/);
+    await expectCell('A2', 'N2');
+    expect(await cell('A1')).toBeNull(); // row 1 is hidden
+    await screenshot(page, 'grid-filtered');
+    await page.getByRole('button', { name: 'Clear the filter' }).click();
+    await expectCell('A1', 'O2');
+  });
+
+  it('freezes the header row, shows numbers to a chosen precision and keeps both after a reload', async () => {
+    await page.getByRole('button', { name: 'Freeze row 1' }).click();
+    await page.getByLabel('Decimal places').selectOption('2');
+    await expectCell('B2', '3.00');
+    await expect.poll(() => page.locator('.orb-col-header[data-col="A"] .orb-col-frozen').textContent()).toBe('O2');
+    await screenshot(page, 'grid-frozen-precision');
+    await page.waitForTimeout(800); // display settings are saved after a short pause
+    await reloadWorkbook();
+    await expectCell('B2', '3.00');
+    await page.getByLabel('Decimal places').selectOption('auto');
+    await page.getByRole('button', { name: 'Freeze row 1' }).click();
+    await expectCell('B1', '2');
+  });
+
+  it('widens a column by dragging its header edge', async () => {
+    const handle = page.getByRole('separator', { name: 'Width of column A' });
+    const box = (await handle.boundingBox())!;
+    const before = (await page.locator('.orb-col-header[data-col="A"]').boundingBox())!.width;
+    await page.mouse.move(box.x + box.width / 2, box.y + box.height / 2);
+    await page.mouse.down();
+    await page.mouse.move(box.x + 80, box.y + box.height / 2, { steps: 5 });
+    await page.mouse.up();
+    await expect.poll(async () => (await page.locator('.orb-col-header[data-col="A"]').boundingBox())!.width).toBeGreaterThan(before + 60);
+  });
+
+  it('plots two columns in the chart panel', async () => {
+    await page.getByRole('button', { name: 'Chart' }).click();
+    const panel = page.getByTestId('chart-panel');
+    await panel.getByLabel('X column').selectOption({ label: 'B' });
+    await panel.getByLabel('Y column').selectOption({ label: 'C' });
+    // B and C hold numbers together in rows 1 and 2 only (B3 is an error, C4 is empty).
+    await expect.poll(() => panel.textContent()).toMatch(/2 points; 2 rows without two numbers left out/);
+    await screenshot(page, 'grid-chart');
+    await page.getByRole('button', { name: 'Structure' }).click();
+  });
+
+  it('adds and renames a sheet tab', async () => {
+    await page.getByRole('button', { name: 'Add a sheet' }).click();
+    await page.getByRole('tab', { name: 'Sheet2', selected: true }).waitFor();
+    await page.getByRole('tab', { name: 'Sheet2' }).dblclick();
+    await page.getByLabel('Sheet name').fill('Limits');
+    await page.keyboard.press('Enter');
+    await page.getByRole('tab', { name: 'Limits' }).waitFor();
+    await reloadWorkbook();
+    await page.getByRole('tab', { name: 'Limits' }).waitFor();
+    await page.getByRole('tab', { name: 'Sheet1' }).click();
+    await expectCell('A1', 'O2');
+  });
+
+  it('shows a spilled array in the cells it fills, and keeps those cells read-only', async () => {
+    await clickCell('B6');
+    await typeRow(['=MOTABLE("N2")']);
+    await expectCell('C6', 'bonding'); // σg(2s) of N2 is bonding, with 2 electrons
+    await expectCell('D6', '2');
+    await expectCell('B11', 'σu*(2p)');
+    await clickCell('C6');
+    await expect.poll(() => page.getByText('Read-only: filled by an array formula in another cell').count()).toBe(1);
+    await page.keyboard.type('9');
+    await page.keyboard.press('Enter');
+    await expectCell('C6', 'bonding');
+    await screenshot(page, 'grid-spilled-array');
+  });
+
+  it('looks right in the dark theme too', async () => {
+    await page.emulateMedia({ colorScheme: 'dark' });
+    await page.evaluate(() => localStorage.removeItem('orbitab.theme'));
+    await reloadWorkbook();
+    await clickCell('B3');
+    await screenshot(page, 'grid-dark');
+    await page.emulateMedia({ colorScheme: 'light' });
+  });
+
+  it('raised no uncaught errors in the page', () => {
+    expect(browser.errors).toEqual([]);
+  });
+});

@@ -1,0 +1,279 @@
+// Two people on one workbook, each in their own Chromium (separate profiles, separate sessions),
+// against the real server: sharing from the Share dialog, an edit in one window appearing in the
+// other within a second, a conflict offering both values (both choices), protected ranges and sheet
+// locks greying cells and refusing edits, a live switch to viewer making the grid read-only, history
+// with a read-only old revision and a restore, the audit log, and an invitation accepted from the
+// mail outbox. Screenshots land in tests/artifacts/team-*.png.
+import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
+import type { APIRequestContext, Page } from 'playwright-core';
+import { launchBrowser, screenshot, type TestBrowser } from './helpers/browser.js';
+import { startServer, type TestServer } from './helpers/server.js';
+
+const ada = { name: 'Ada Okafor', email: 'ada@lab.example', password: 'sigma-pi-orbitals' };
+const ben = { name: 'Ben Laszlo', email: 'ben@lab.example', password: 'unpaired-spins-2' };
+const cy = { name: 'Cy Moreau', email: 'cy@lab.example', password: 'hund-rule-maximum' };
+
+let server: TestServer;
+let owner: TestBrowser;
+let editor: TestBrowser;
+let a: Page;
+let b: Page;
+let workbookId: string;
+
+async function call(request: APIRequestContext, method: string, path: string, data?: unknown) {
+  const res = await request.fetch(`${server.url}/api${path}`, { method, data, headers: { origin: server.url } });
+  const body = res.status() === 204 ? null : await res.json();
+  if (!res.ok()) throw new Error(`${method} ${path} → ${res.status()} ${JSON.stringify(body)}`);
+  return body;
+}
+
+/** The grid cell at an A1 address (rows count from the header row; the first cell is the row number). */
+function cell(page: Page, a1: string) {
+  const m = /^([A-Z])(\d+)$/.exec(a1)!;
+  const col = m[1].charCodeAt(0) - 65;
+  const row = Number(m[2]) - 1;
+  return page.getByTestId('sheet-grid').locator('.dsg-row:not(.dsg-row-header)').nth(row).locator('.dsg-cell').nth(col + 1);
+}
+
+async function goTo(page: Page, a1: string) {
+  const address = page.getByLabel('Cell address');
+  // Cleared first: the box jumps only when its text was changed, and it may already show `a1`.
+  await address.fill('');
+  await address.fill(a1);
+  await address.press('Enter');
+}
+
+/** Types into a cell the way a person does: select it, type, Enter. */
+async function typeInto(page: Page, a1: string, text: string) {
+  await goTo(page, a1);
+  await page.keyboard.type(text);
+  await page.keyboard.press('Enter');
+}
+
+const saveState = (page: Page) => page.getByTestId('save-state');
+
+async function openWorkbook(page: Page) {
+  await page.goto(`${server.url}/workbooks/${workbookId}`);
+  await page.getByTestId('sheet-grid').waitFor();
+  await page.locator('[data-testid="live-state"][data-state="live"]').waitFor();
+}
+
+beforeAll(async () => {
+  server = await startServer();
+  // The colleague's window runs the dark theme, so the screenshots show both.
+  [owner, editor] = await Promise.all([launchBrowser(), launchBrowser({ colorScheme: 'dark' })]);
+  a = owner.page;
+  b = editor.page;
+  for (const p of [a, b]) p.setDefaultTimeout(10_000);
+  await call(owner.context.request, 'POST', '/auth/sign-up', ada);
+  await call(editor.context.request, 'POST', '/auth/sign-up', ben);
+  workbookId = (await call(owner.context.request, 'POST', '/workbooks', { title: 'Diatomic screening' })).workbook.id;
+  const { sheets } = await call(owner.context.request, 'GET', `/workbooks/${workbookId}`);
+  const sheetId = sheets[0].id;
+  const at = (row: number, col: number, input: string) => ({ sheetId, row, col, input });
+  await call(owner.context.request, 'POST', `/workbooks/${workbookId}/patches`, {
+    baseRevision: 0,
+    changes: [at(0, 0, 'Species'), at(0, 1, 'Bond order'), at(1, 0, 'N2'), at(1, 1, '=BONDORDER(A2)')],
+  });
+});
+
+// A failed step leaves both windows on record, to see what each person saw.
+afterEach(async (ctx) => {
+  if (ctx.task.result?.state !== 'fail') return;
+  const name = ctx.task.name.replace(/[^\w]+/g, '-').slice(0, 40);
+  await Promise.all([screenshot(a, `team-failed-${name}-owner`), screenshot(b, `team-failed-${name}-other`)]).catch(() => undefined);
+});
+
+afterAll(async () => {
+  await Promise.all([owner?.close(), editor?.close()]);
+  await server?.stop();
+});
+
+describe('two people on one workbook', () => {
+  it('shares the workbook from the Share dialog: an account joins at once, anyone else is invited', async () => {
+    await openWorkbook(a);
+    await a.getByRole('button', { name: 'Share', exact: true }).click();
+    const dialog = a.getByRole('dialog', { name: 'Share “Diatomic screening”' });
+    await dialog.getByLabel('Add people by e-mail').fill(ben.email);
+    await dialog.getByRole('button', { name: 'Share', exact: true }).click();
+    await dialog.getByText('Ben Laszlo now has access as editor.').waitFor();
+    await dialog.getByLabel('Add people by e-mail').fill(cy.email);
+    await dialog.getByLabel('Role', { exact: true }).selectOption('viewer');
+    await dialog.getByRole('button', { name: 'Share', exact: true }).click();
+    await dialog.getByText(/an invitation was e-mailed/).waitFor();
+    await dialog.getByRole('listitem', { name: `Invitation to ${cy.email}` }).waitFor();
+    expect(await dialog.getByLabel('Role of Ben Laszlo').inputValue()).toBe('editor');
+    await screenshot(a, 'team-share-dialog');
+    await dialog.getByRole('button', { name: 'Done' }).click();
+  });
+
+  it('shows who else is here, on which cell', async () => {
+    await openWorkbook(b);
+    await goTo(b, 'C3');
+    await a.getByRole('listitem', { name: 'Ben Laszlo on C3' }).waitFor();
+    await goTo(a, 'A2');
+    await b.getByRole('listitem', { name: 'Ada Okafor on A2' }).waitFor();
+  });
+
+  it('shows an edit made in one window in the other within a second, computed there too', async () => {
+    expect(await cell(b, 'B2').textContent()).toBe('3'); // N2: bond order 3, O2: 2 (Atkins & de Paula, Physical Chemistry, MO theory; from memory)
+    await typeInto(a, 'A2', 'O2');
+    const typedAt = Date.now();
+    await cell(b, 'A2').getByText('O2', { exact: true }).waitFor({ timeout: 1000 });
+    const elapsedMs = Date.now() - typedAt;
+    await cell(b, 'B2').getByText('2', { exact: true }).waitFor({ timeout: 1000 }); // O2: bond order 2
+    expect(elapsedMs).toBeLessThan(1000);
+    console.log(`[browser-team] edit visible in the other window after ${elapsedMs} ms`);
+    await screenshot(b, 'team-live-edit-other-window');
+  });
+
+  async function conflictOn(a1: string, mine: string, theirs: string) {
+    await editor.context.setOffline(true);
+    await typeInto(b, a1, mine);
+    await saveState(b).and(b.locator('[data-state="offline"]')).waitFor();
+    await typeInto(a, a1, theirs);
+    await saveState(a).and(a.locator('[data-state="saved"]')).waitFor();
+    await editor.context.setOffline(false);
+    const dialog = b.getByRole('dialog', { name: 'This cell was changed by someone else' });
+    await dialog.waitFor();
+    const row = dialog.getByRole('listitem', { name: `Conflict in Sheet1!${a1}` });
+    expect(await row.locator('[data-value="theirs"]').textContent()).toBe(theirs);
+    expect(await row.locator('[data-value="mine"]').textContent()).toBe(mine);
+    return dialog;
+  }
+
+  it('offers both values when two people change one cell, and “Keep mine” saves mine over theirs', async () => {
+    const dialog = await conflictOn('A3', 'CO', 'NO');
+    await screenshot(b, 'team-conflict-dialog');
+    await dialog.getByRole('button', { name: 'Keep mine' }).click();
+    await saveState(b).and(b.locator('[data-state="saved"]')).waitFor();
+    await cell(a, 'A3').getByText('CO', { exact: true }).waitFor();
+    expect(await cell(b, 'A3').textContent()).toBe('CO');
+  });
+
+  it('“Take theirs” shows theirs and sets mine aside where it can still be copied', async () => {
+    const dialog = await conflictOn('A4', 'F2', 'NO+');
+    await dialog.getByRole('button', { name: 'Take theirs' }).click();
+    await cell(b, 'A4').getByText('NO+', { exact: true }).waitFor();
+    const setAside = b.getByRole('region', { name: 'Inputs set aside' });
+    await setAside.getByRole('button', { name: 'Show' }).click();
+    await setAside.getByText('F2', { exact: true }).waitFor();
+    await saveState(b).and(b.locator('[data-state="saved"]')).waitFor();
+    expect(await cell(a, 'A4').textContent()).toBe('NO+');
+    await screenshot(b, 'team-conflict-set-aside');
+  });
+
+  it('greys a protected range for everyone not named on it and refuses edits there', async () => {
+    await a.getByRole('button', { name: 'Protect', exact: true }).click();
+    const dialog = a.getByRole('dialog', { name: 'Protect “Sheet1”' });
+    await dialog.getByLabel('Range to protect').fill('A1:C1');
+    await dialog.getByRole('button', { name: 'Protect range' }).click();
+    await dialog.getByRole('listitem', { name: 'Range A1:C1' }).waitFor();
+    await screenshot(a, 'team-protect-dialog');
+    await dialog.getByRole('button', { name: 'Done' }).click();
+
+    const banner = b.getByRole('status', { name: 'Sheet protection' });
+    await banner.getByText(/Protected range A1:C1: greyed cells are read-only for you/).waitFor();
+    for (const a1 of ['A1', 'B1', 'C1']) expect(await cell(b, a1).getAttribute('class')).toContain('dsg-cell-disabled');
+    expect(await cell(b, 'D1').getAttribute('class')).not.toContain('dsg-cell-disabled');
+    await typeInto(b, 'A1', 'Ion');
+    expect(await cell(b, 'A1').textContent()).toBe('Species');
+    await goTo(b, 'A1');
+    await b.getByText('Read-only: Protected range A1:C1: only Ada Okafor may change it.').waitFor();
+    // The owner, named on the range, still edits it.
+    await typeInto(a, 'C1', 'Notes');
+    await cell(b, 'C1').getByText('Notes', { exact: true }).waitFor();
+    await screenshot(b, 'team-protected-range-other-window');
+  });
+
+  it('greys a locked sheet, says who locked it, when and why, and refuses every edit', async () => {
+    await a.getByRole('button', { name: 'Protect', exact: true }).click();
+    const dialog = a.getByRole('dialog', { name: 'Protect “Sheet1”' });
+    await dialog.getByLabel('Why lock it?').fill('Reference values checked against the tables');
+    await dialog.getByRole('button', { name: 'Lock sheet' }).click();
+    await dialog.getByRole('button', { name: 'Unlock' }).waitFor();
+    await dialog.getByRole('button', { name: 'Done' }).click();
+
+    await b.getByRole('status', { name: 'Sheet protection' }).getByText(/Locked by Ada Okafor on .*: “Reference values checked against the tables”/).waitFor();
+    expect(await cell(b, 'E9').getAttribute('class')).toContain('dsg-cell-disabled');
+    await typeInto(b, 'E9', 'CN-');
+    expect(await cell(b, 'E9').textContent()).toBe('');
+    await screenshot(b, 'team-locked-sheet-other-window');
+    expect(editor.errors).toEqual([]);
+
+    await a.getByRole('button', { name: 'Protect', exact: true }).click();
+    await dialog.getByRole('button', { name: 'Unlock' }).click();
+    await dialog.getByLabel('Why lock it?').waitFor();
+    await dialog.getByRole('button', { name: 'Done' }).click();
+    await b.getByText(/Protected range A1:C1: greyed cells/).waitFor();
+    expect(await cell(b, 'E9').getAttribute('class')).not.toContain('dsg-cell-disabled');
+  });
+
+  it('makes the grid read-only at once when the owner makes an editor a viewer', async () => {
+    await a.getByRole('button', { name: 'Share', exact: true }).click();
+    const dialog = a.getByRole('dialog', { name: 'Share “Diatomic screening”' });
+    await dialog.getByLabel('Role of Ben Laszlo').selectOption('viewer');
+    await b.getByText('read-only', { exact: true }).waitFor();
+    await dialog.getByRole('button', { name: 'Done' }).click();
+    expect(await cell(b, 'D7').getAttribute('class')).toContain('dsg-cell-disabled');
+    await typeInto(b, 'D7', 'O2-');
+    expect(await cell(b, 'D7').textContent()).toBe('');
+    expect(await b.getByLabel('Formula bar').isDisabled()).toBe(true);
+    await expect(b.getByRole('button', { name: 'History' }).isVisible()).resolves.toBe(true);
+    await screenshot(b, 'team-viewer-read-only');
+  });
+
+  it('lists revisions with author and time, shows an old one read-only, and restores it for everyone', async () => {
+    await a.getByRole('button', { name: 'History' }).click();
+    const dialog = a.getByRole('dialog', { name: 'History' });
+    const revisions = dialog.getByRole('list', { name: 'Revisions' });
+    await revisions.getByRole('button', { name: 'Revision 1' }).waitFor();
+    expect(await revisions.getByRole('button', { name: 'Revision 2' }).textContent()).toContain('Ada Okafor');
+    await revisions.getByRole('button', { name: 'Revision 1' }).click();
+    const table = dialog.getByRole('table', { name: 'Sheet1 as of this revision (read-only)' });
+    await table.getByRole('cell', { name: 'N2', exact: true }).waitFor();
+    expect(await table.getByRole('cell', { name: '3', exact: true }).count()).toBe(1);
+    await screenshot(a, 'team-history-view');
+    await dialog.getByRole('button', { name: 'Restore this revision…' }).click();
+    await dialog.getByRole('button', { name: 'Restore #1' }).click();
+    await dialog.getByText(/Restored as revision #\d+/).waitFor();
+    await dialog.getByRole('button', { name: 'Close' }).click();
+    await cell(b, 'A2').getByText('N2', { exact: true }).waitFor();
+    await cell(a, 'A2').getByText('N2', { exact: true }).waitFor();
+    expect(await cell(b, 'A3').textContent()).toBe('');
+  });
+
+  it('shows the owner the audit log of sharing, roles, protection and restores', async () => {
+    await a.getByRole('button', { name: 'Audit' }).click();
+    const log = a.getByRole('dialog', { name: 'Audit log' }).getByRole('list', { name: 'Audit entries' });
+    for (const line of [/added Ben Laszlo as an editor/, /invited cy@lab.example by e-mail as a viewer/, /protected A1:C1 on sheet “Sheet1”/, /Ada Okafor locked sheet “Sheet1”/, /changed Ben Laszlo from editor to viewer/, /restored revision #1/]) {
+      await log.getByText(line).waitFor();
+    }
+    await screenshot(a, 'team-audit-log');
+    await a.getByRole('button', { name: 'Close' }).click();
+    expect(await b.getByRole('button', { name: 'Audit' }).count()).toBe(0); // a viewer does not see it
+  });
+
+  it('lets a site admin read the invitation in the mail outbox, and the invitee accept it', async () => {
+    await a.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Mail' }).click();
+    const message = a.getByRole('list', { name: 'Messages' }).getByRole('listitem').filter({ hasText: cy.email });
+    const link = await message.getByRole('link', { name: /\/invitations\// }).getAttribute('href');
+    await screenshot(a, 'team-mail-outbox');
+
+    await editor.context.clearCookies();
+    await b.goto(link!);
+    await b.getByText(`Ada Okafor invited ${cy.email} to the workbook “Diatomic screening” as a viewer.`).waitFor();
+    await screenshot(b, 'team-invitation-signed-out');
+    await b.getByRole('link', { name: 'Create account' }).click();
+    await b.getByLabel('Name').fill(cy.name);
+    await b.getByLabel('Email').fill(cy.email);
+    await b.getByLabel('Password').fill(cy.password);
+    await b.getByRole('button', { name: 'Create account' }).click();
+    await b.getByRole('button', { name: 'Accept and open the workbook' }).click();
+    await b.getByTestId('workbook-title').getByText('Diatomic screening').waitFor();
+    await b.getByText('read-only', { exact: true }).waitFor();
+    await a.goto(link!);
+    await a.getByText(/already been used/).waitFor();
+    expect([...owner.errors, ...editor.errors]).toEqual([]);
+  });
+});
