@@ -1,7 +1,9 @@
 // The workbook grid end to end in Debian Chromium against the real server (production build, fresh
 // database): typing species and chemistry formulas, computed values and error messages, function
 // autocomplete, saving and reloading, undo, unsent changes kept across a reload, pasting
-// tab-separated text, copying out, and the MO diagram panel. Screenshots go to tests/artifacts/.
+// tab-separated text, copying out, the MO diagram panel, the address box and the export menu.
+// Screenshots go to tests/artifacts/.
+import fs from 'node:fs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { launchBrowser, screenshot, type TestBrowser } from './helpers/browser.js';
@@ -214,6 +216,19 @@ describe('the workbook grid in a browser', () => {
     await page.keyboard.press('Control+Home');
   });
 
+  it('goes back to the grid on Enter in the address box when no other address was typed', async () => {
+    await clickCell('H1');
+    await page.getByLabel('Cell address').click();
+    await page.keyboard.press('Enter');
+    await page.keyboard.type('NO');
+    await page.keyboard.press('Enter');
+    await expectCell('H1', 'NO');
+    await expect.poll(() => page.getByLabel('Cell address').inputValue()).toBe('H2');
+    await clickCell('H1');
+    await page.keyboard.press('Delete');
+    await expectCell('H1', '');
+  });
+
   it('fills a formula down with Ctrl+D, its reference following each row', async () => {
     await clickCell('G1');
     await typeRow(['=B1*10']);
@@ -333,6 +348,17 @@ describe('the workbook grid in a browser', () => {
     await clickCell('B3');
     await screenshot(page, 'grid-dark');
     await page.emulateMedia({ colorScheme: 'light' });
+  });
+
+  it('offers the workbook as .xlsx, values-only .xlsx and the sheet as .csv, and downloads the .xlsx', async () => {
+    await page.getByRole('button', { name: 'Export' }).click();
+    const menu = page.getByRole('menu', { name: 'Export' });
+    const items = await menu.getByRole('menuitem').allTextContents();
+    expect(items.map((t) => /^[^(]*\([^)]*\)/.exec(t)?.[0])).toEqual(['Workbook (.xlsx)', 'Values only (.xlsx)', 'Sheet “Sheet1” (.csv)']);
+    const [download] = await Promise.all([page.waitForEvent('download'), menu.getByRole('menuitem', { name: /^Workbook \(\.xlsx\)/ }).click()]);
+    expect(download.suggestedFilename()).toMatch(/\.xlsx$/);
+    // An .xlsx file is a ZIP package, which begins with the local-file-header signature "PK" (common practice).
+    expect(fs.readFileSync((await download.path())!).subarray(0, 2).toString('latin1')).toBe('PK');
   });
 
   it('raised no uncaught errors in the page', () => {

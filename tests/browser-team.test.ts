@@ -198,6 +198,13 @@ describe('two people on one workbook', () => {
     expect(await cell(b, 'E9').getAttribute('class')).toContain('dsg-cell-disabled');
     await typeInto(b, 'E9', 'CN-');
     expect(await cell(b, 'E9').textContent()).toBe('');
+    // Rows too: refused in the grid with the lock's reason, nothing shown that the server would refuse.
+    const a2 = await cell(b, 'A2').textContent();
+    await goTo(b, 'A2');
+    await b.getByRole('button', { name: '+ Row' }).click();
+    await b.getByTestId('sheet-message').getByText('Rows not inserted: Sheet locked by Ada Okafor: Reference values checked against the tables.', { exact: false }).waitFor();
+    expect(await cell(b, 'A2').textContent()).toBe(a2);
+    expect(await saveState(b).getAttribute('data-state')).toBe('saved');
     await screenshot(b, 'team-locked-sheet-other-window');
     expect(editor.errors).toEqual([]);
 
@@ -220,6 +227,7 @@ describe('two people on one workbook', () => {
     expect(await cell(b, 'D7').textContent()).toBe('');
     expect(await b.getByLabel('Formula bar').isDisabled()).toBe(true);
     await expect(b.getByRole('button', { name: 'History' }).isVisible()).resolves.toBe(true);
+    await expect(b.getByRole('button', { name: 'Export' }).isVisible()).resolves.toBe(true); // viewers export too
     await screenshot(b, 'team-viewer-read-only');
   });
 

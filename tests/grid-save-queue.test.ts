@@ -1,48 +1,11 @@
 // The save path: unsent changes merged per cell, sent as debounced patches, retried while the server
 // is unreachable, kept in (fake) local storage until acknowledged, and conflicts reported as such.
+// Which base revision each patch claims is specified in grid-save-base-revision.test.ts.
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { PatchQueue, type PatchTransport, type SaveStatus } from '../src/features/grid/save/patchQueue.js';
-import { PendingStore, pendingKey, type CellInput, type KeyValueStorage } from '../src/features/grid/save/pendingStore.js';
+import { PendingStore, pendingKey } from '../src/features/grid/save/pendingStore.js';
 import { ApiError } from '../src/lib/api.js';
-
-class MemoryStorage implements KeyValueStorage {
-  data = new Map<string, string>();
-  failWrites = false;
-  getItem(k: string) {
-    return this.data.get(k) ?? null;
-  }
-  setItem(k: string, v: string) {
-    if (this.failWrites) throw new Error('QuotaExceededError');
-    this.data.set(k, v);
-  }
-  removeItem(k: string) {
-    this.data.delete(k);
-  }
-}
-
-type Sent = { baseRevision: number; changes: CellInput[] };
-
-/** A server stand-in: records patches and answers with whatever the test scripts next. */
-function scriptedServer() {
-  const sent: Sent[] = [];
-  const answers: ((p: Sent) => Promise<{ revision: number }>)[] = [];
-  let revision = 7;
-  const transport: PatchTransport = {
-    send: (p) => {
-      sent.push(structuredClone(p));
-      const next = answers.shift();
-      return next ? next(p) : Promise.resolve({ revision: ++revision });
-    },
-  };
-  return { sent, answers, transport };
-}
-
-/** Lets promise callbacks and the zero-delay timers they set run (several rounds of microtasks). */
-async function settle() {
-  for (let i = 0; i < 4; i++) await vi.advanceTimersByTimeAsync(1);
-}
-
-const cell = (row: number, col: number, input: string, sheetId = 's1'): CellInput => ({ sheetId, row, col, input });
+import { cell, MemoryStorage, scriptedServer, settle } from './helpers/scriptedServer.js';
 
 let storage: MemoryStorage;
 let store: PendingStore;
@@ -99,7 +62,7 @@ describe('patch queue', () => {
   it('keeps a change made while its cell was on the way, and sends it next', async () => {
     const server = scriptedServer();
     let release!: () => void;
-    server.answers.push(() => new Promise((resolve) => (release = () => resolve({ revision: 8 }))));
+    server.answers.push(() => new Promise((resolve) => (release = () => resolve({ revision: 8, applied: 1 }))));
     const { q } = newQueue(server.transport);
     q.enqueue([cell(0, 0, 'first')]);
     await vi.advanceTimersByTimeAsync(300);
@@ -169,10 +132,31 @@ describe('patch queue', () => {
     expect(q.status).toEqual({ kind: 'conflict', waiting: 2, conflicts: [conflict] });
     await vi.advanceTimersByTimeAsync(60_000);
     expect(server.sent).toHaveLength(1);
+  });
+
+  it('keeping mine sends it again on top of the revision that beat it, once that revision is here', async () => {
+    const server = scriptedServer();
+    const conflict = { sheetId: 's1', row: 0, col: 0, theirs: 'N2', mine: 'O2', revision: 9 };
+    server.answers.push(() => Promise.reject(new ApiError(409, 'conflict', 'changed by someone else', { conflicts: [conflict] })));
+    server.commitByColleague();
+    server.commitByColleague(); // revisions 8 and 9 are a colleague's
+    const { q } = newQueue(server.transport);
+    const asked: number[] = [];
+    q.catchUp = (n) => asked.push(n);
+    q.enqueue([cell(0, 0, 'O2'), cell(5, 5, 'CO')]);
+    await vi.advanceTimersByTimeAsync(300);
 
     q.keepMine();
     await settle();
-    expect(server.sent[1]).toEqual({ baseRevision: 9, changes: [cell(0, 0, 'O2'), cell(5, 5, 'CO')] });
+    // E5 met no conflict on base 7, so it goes at once; A1 waits for revisions 8 and 9.
+    expect(server.sent[1]).toEqual({ baseRevision: 7, changes: [cell(5, 5, 'CO')] });
+    expect(asked).toContain(9);
+    expect(q.status.kind).toBe('saving');
+    q.takeInRemote(8, []);
+    q.takeInRemote(9, [cell(0, 0, 'N2')]); // shown as mine, as I chose
+    q.takeInRemote(10, []); // my own E5, echoed by the live feed
+    await settle();
+    expect(server.sent[2]).toEqual({ baseRevision: 10, changes: [cell(0, 0, 'O2')] });
     expect(q.status.kind).toBe('saved');
   });
 
@@ -185,7 +169,8 @@ describe('patch queue', () => {
     await vi.advanceTimersByTimeAsync(300);
     expect(q.takeTheirs()).toEqual([cell(0, 0, 'N2')]);
     await settle();
-    expect(server.sent[1]).toEqual({ baseRevision: 9, changes: [cell(5, 5, 'CO')] });
+    // Revisions 8 and 9 have not been taken in here, so the patch still claims only revision 7.
+    expect(server.sent[1]).toEqual({ baseRevision: 7, changes: [cell(5, 5, 'CO')] });
   });
 
   it('treats a 409 on cells that already hold my input (an answer lost on the way) as saved', async () => {
@@ -196,7 +181,7 @@ describe('patch queue', () => {
     q.enqueue([cell(0, 0, 'O2'), cell(1, 0, 'N2')]);
     await vi.advanceTimersByTimeAsync(300);
     await settle();
-    expect(server.sent[1]).toEqual({ baseRevision: 8, changes: [cell(1, 0, 'N2')] });
+    expect(server.sent[1]).toEqual({ baseRevision: 7, changes: [cell(1, 0, 'N2')] });
     expect(q.status.kind).toBe('saved');
   });
 });

@@ -19,5 +19,6 @@ export function session(cells: [number, number, string][], transport: PatchTrans
   const model = new WorkbookModel(onePayload(cells));
   const queue = new PatchQueue({ transport, store: new PendingStore(memoryStorage(), 'wb'), baseRevision: 4, debounceMs: 300 });
   model.onLocalChanges = (c) => queue.enqueue(c);
+  queue.showRemote = (inputs) => model.applyRemote(inputs);
   return { model, queue };
 }

@@ -25,6 +25,7 @@ import { ConflictResolver } from '../live/ConflictResolver.js';
 import { TeamNotices } from '../live/TeamNotices.js';
 import { TeamToolbar } from '../live/TeamToolbar.js';
 import { useWorkbookTeam } from '../live/useWorkbookTeam.js';
+import { ExportMenu } from '../io/index.js';
 
 function gridSelection(grid: DataSheetGridRef | null): ViewSelection | null {
   const s = grid?.selection;
@@ -143,6 +144,8 @@ export function Workspace({ session }: { session: WorkbookSession }) {
         {model.readOnly && <span className="rounded-ctl bg-raised px-1.5 text-caption text-ink-3">read-only</span>}
         <span className="ml-auto" />
         <TeamToolbar team={team} model={model} activeSheet={{ id: activeSheetId, name: sheet.name }} selectionRange={address || undefined} />
+        {/* Every role may export, viewers included (the API checks the same). */}
+        <ExportMenu workbookId={model.id} activeSheet={{ id: activeSheetId, name: sheet.name }} />
         <SaveIndicator status={status} storageWorks={store.storageWorks} />
       </div>
       <ConflictResolver session={session} status={status} onSetAside={team.addSetAside} />

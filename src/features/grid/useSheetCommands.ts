@@ -33,21 +33,25 @@ export interface CommandContext {
 }
 
 const plural = (n: number, word: string) => `${n} ${word}${n === 1 ? '' : 's'}`;
+const sentence = (text: string) => (/[.!?]$/.test(text) ? text : `${text}.`);
 
 export function useSheetCommands(ctx: CommandContext) {
   const clipboard = useRef<{ text: string; source: CopiedCells } | null>(null);
   const c = ctx;
   const { model } = c.session;
 
-  const report = (outcome: EditOutcome) => {
-    if (outcome.refused.length > 0) c.say(`${plural(outcome.refused.length, 'cell')} left unchanged: ${outcome.refused[0].reason}.`);
+  /** `done` names a whole-or-nothing action (fill, sort, paste), which one refused cell stops entirely. */
+  const report = (outcome: EditOutcome, done?: string) => {
+    const reason = outcome.refused[0]?.reason;
+    if (reason && done && outcome.applied.length === 0) c.say(`Not ${done}: ${sentence(reason)}`);
+    else if (reason) c.say(`${plural(outcome.refused.length, 'cell')} left unchanged: ${sentence(reason)}`);
     else c.say(null);
   };
-  const guard = (action: () => void) => {
+  const guard = (action: () => void, refused = '') => {
     try {
       action();
     } catch (e) {
-      c.say((e as Error).message);
+      c.say(refused + sentence((e as Error).message));
     }
   };
   const viewRows = (sel: ViewSelection) => Array.from({ length: sel.max.row - sel.min.row + 1 }, (_, i) => c.view.sheetRow(sel.min.row + i));
@@ -57,12 +61,17 @@ export function useSheetCommands(ctx: CommandContext) {
     return !c.filtered;
   };
 
-  const structural = (op: StructuralOp) =>
-    guard(() => {
+  const structural = (op: StructuralOp) => {
+    try {
       applyStructural(model, c.sheetId, op);
-      if (op.axis === 'col') c.setDisplay({ ...c.display, columnWidths: shiftColumnWidths(c.display.columnWidths, op.at, op.action === 'insert' ? op.count : -op.count) });
-      c.say(null);
-    });
+    } catch (e) {
+      // A lock or protected range (or the engine) refused it: nothing changed here, nothing is sent.
+      c.say(`${op.axis === 'row' ? 'Rows' : 'Columns'} not ${op.action === 'insert' ? 'inserted' : 'deleted'}: ${sentence((e as Error).message)}`);
+      return;
+    }
+    if (op.axis === 'col') c.setDisplay({ ...c.display, columnWidths: shiftColumnWidths(c.display.columnWidths, op.at, op.action === 'insert' ? op.count : -op.count) });
+    c.say(null);
+  };
 
   const rowsOp = (action: StructuralOp['action']) => {
     const sel = c.getSelection();
@@ -75,8 +84,8 @@ export function useSheetCommands(ctx: CommandContext) {
   };
 
   return {
-    undo: () => guard(() => void (undoLast(model) || c.say('Nothing to undo.'))),
-    redo: () => guard(() => void (redoLast(model) || c.say('Nothing to redo.'))),
+    undo: () => guard(() => void (undoLast(model) || c.say('Nothing to undo.')), 'Not undone: '),
+    redo: () => guard(() => void (redoLast(model) || c.say('Nothing to redo.')), 'Not redone: '),
     insertRows: () => rowsOp('insert'),
     deleteRows: () => rowsOp('remove'),
     insertCols: () => colsOp('insert'),
@@ -90,7 +99,7 @@ export function useSheetCommands(ctx: CommandContext) {
       if (from < 0) return;
       const pairs: FillPair[] = [];
       for (let v = from + 1; v <= sel.max.row; v++) for (let col = sel.min.col; col <= sel.max.col; col++) pairs.push({ from: { row: c.view.sheetRow(from), col }, to: { row: c.view.sheetRow(v), col } });
-      guard(() => report(fillPairs(model, c.sheetId, pairs)));
+      guard(() => report(fillPairs(model, c.sheetId, pairs), 'filled'));
     },
     /** Ctrl+R: the left column of the selection into the columns to its right. */
     fillRight: () => {
@@ -100,7 +109,7 @@ export function useSheetCommands(ctx: CommandContext) {
       if (from < 0) return;
       const pairs: FillPair[] = [];
       for (const row of viewRows(sel)) for (let col = from + 1; col <= sel.max.col; col++) pairs.push({ from: { row, col: from }, to: { row, col } });
-      guard(() => report(fillPairs(model, c.sheetId, pairs)));
+      guard(() => report(fillPairs(model, c.sheetId, pairs), 'filled'));
     },
     sort: (direction: SortDirection) => {
       const sel = c.getSelection();
@@ -112,7 +121,7 @@ export function useSheetCommands(ctx: CommandContext) {
         range = { top: c.display.freezeHeaderRow ? 1 : 0, bottom: Math.max(0, rows - 1), left: 0, right: Math.max(0, cols - 1) };
       }
       const keyCol = c.activeCol ?? sel.min.col;
-      guard(() => report(sortRange(model, c.sheetId, range, keyCol, direction)));
+      guard(() => report(sortRange(model, c.sheetId, range, keyCol, direction), 'sorted'));
     },
     clear: () => {
       const sel = c.getSelection();
@@ -128,7 +137,7 @@ export function useSheetCommands(ctx: CommandContext) {
       const rows = viewRows(sel);
       const text = formatTsv(rows.map((row) => Array.from({ length: sel.max.col - sel.min.col + 1 }, (_, j) => model.view(c.sheetId, row, sel.min.col + j)?.display ?? '')));
       clipboard.current = { text, source: { sheetId: c.sheetId, rows, left: sel.min.col, right: sel.max.col } };
-      if (cut) guard(() => report(pasteBlock(model, c.sheetId, rows, sel.min.col, rows.map(() => Array<string>(sel.max.col - sel.min.col + 1).fill('')))));
+      if (cut) guard(() => report(pasteBlock(model, c.sheetId, rows, sel.min.col, rows.map(() => Array<string>(sel.max.col - sel.min.col + 1).fill(''))), 'cut'));
       return text;
     },
     paste: (text: string, table?: string[][]) => {
@@ -144,13 +153,13 @@ export function useSheetCommands(ctx: CommandContext) {
           const single = internal.rows.length === 1 && internal.left === internal.right;
           height = single ? selHeight : internal.rows.length;
           width = single ? selWidth : internal.right - internal.left + 1;
-          report(pasteCopiedCells(model, c.sheetId, c.view.rowsFrom(sel.min.row, height), sel.min.col, width, internal));
+          report(pasteCopiedCells(model, c.sheetId, c.view.rowsFrom(sel.min.row, height), sel.min.col, width, internal), 'pasted');
         } else {
           let block = table ?? parseTsv(text);
           if (block.length === 1 && block[0].length === 1) block = Array.from({ length: selHeight }, () => Array<string>(selWidth).fill(block[0][0]));
           height = block.length;
           width = Math.max(...block.map((r) => r.length));
-          report(pasteBlock(model, c.sheetId, c.view.rowsFrom(sel.min.row, height), sel.min.col, block));
+          report(pasteBlock(model, c.sheetId, c.view.rowsFrom(sel.min.row, height), sel.min.col, block), 'pasted');
         }
         c.select({ min: sel.min, max: { row: sel.min.row + height - 1, col: sel.min.col + width - 1 } });
       });

@@ -108,12 +108,10 @@ export function applyRemoteRevision(model: WorkbookModel, queue: PatchQueue, rev
         break;
     }
   }
-  const baseBefore = queue.baseRevision;
   const plan = planCellChanges(rev.changes, queue.waiting, (sheetId, row, col) => (model.hasSheet(sheetId) ? model.input(sheetId, row, col) : undefined));
   model.applyRemote(plan.writes);
-  // Later patches may build on this revision only when nothing of it was held back and every earlier
-  // revision is already included; otherwise the server must still see those cells as conflicts.
-  const advanced = plan.heldBack.length === 0 && baseBefore === rev.revision - 1;
-  if (advanced) queue.advanceBase(rev.revision);
-  return { ...plan, orphaned, advanced };
+  // The queue's ledger decides whether later patches may build on this revision: not while any of it
+  // is held back or an earlier revision is missing (the server must still see those cells as conflicts).
+  queue.takeInRemote(rev.revision, plan.heldBack);
+  return { ...plan, orphaned, advanced: queue.baseRevision >= rev.revision };
 }

@@ -5,17 +5,17 @@ import type { PatchQueue } from '../grid/save/patchQueue.js';
 import { resolveConflicts, type ConflictChoice, type SetAsideInput } from './conflictResolution.js';
 
 /**
- * Drops every conflicting cell from the queue (its base moves to the revision that beat me), shows
- * theirs where I took theirs, and queues mine again where I kept mine. Returns my inputs set aside.
+ * Keeps mine where I kept mine (the queue sends it again on top of the revision that beat it) and
+ * shows theirs where I took theirs. Returns my inputs set aside.
  */
 export function settleConflicts(
   session: { model: WorkbookModel; queue: PatchQueue },
   conflicts: readonly CellConflict[],
   choose: ConflictChoice | ((c: CellConflict) => ConflictChoice),
 ): SetAsideInput[] {
-  const plan = resolveConflicts(conflicts, choose, session.queue.waiting);
-  session.queue.takeTheirs();
-  session.model.applyRemote(plan.applyLocally.filter((c) => session.model.hasSheet(c.sheetId)));
-  session.queue.enqueue(plan.resend);
+  const pick = typeof choose === 'function' ? choose : () => choose;
+  const plan = resolveConflicts(conflicts, pick, session.queue.waiting);
+  const shown = session.queue.resolveConflicts(pick);
+  session.model.applyRemote(shown.filter((c) => session.model.hasSheet(c.sheetId)));
   return plan.setAside;
 }

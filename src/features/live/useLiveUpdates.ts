@@ -45,7 +45,12 @@ export function useLiveUpdates(session: WorkbookSession, opts: LiveOptions): Liv
 
   useEffect(() => {
     const end = (reason: EndReason) => {
-      feed.stop();
+      // Without the stream, revisions can still be fetched one by one when the save queue needs them
+      // to move its base on; after the others the page must be reloaded anyway.
+      if (reason !== 'refused') {
+        feed.stop();
+        queue.catchUp = null;
+      }
       source.close();
       setState((s) => ({ ...s, connection: 'ended', ended: reason, presence: [] }));
     };
@@ -63,6 +68,7 @@ export function useLiveUpdates(session: WorkbookSession, opts: LiveOptions): Liv
         }
       },
     });
+    queue.catchUp = (revision) => feed.catchUp(revision);
 
     const source = new EventSource(`/api/workbooks/${encodeURIComponent(workbookId)}/events`);
     let opened = 0;
@@ -101,6 +107,7 @@ export function useLiveUpdates(session: WorkbookSession, opts: LiveOptions): Liv
     return () => {
       feed.stop();
       source.close();
+      queue.catchUp = null;
     };
   }, [model, queue, workbookId, queryClient, handlers]);
 

@@ -11,7 +11,7 @@ import { useMe } from '../auth/api.js';
 import type { KeyValueStorage } from '../grid/save/pendingStore.js';
 import { workbookQueryOptions, type WorkbookSession } from '../grid/session/useWorkbookSession.js';
 import { protectionOf, useProtection } from '../locks/api.js';
-import { editRuleFor } from '../locks/editability.js';
+import { editRuleFor, structureRuleFor } from '../locks/editability.js';
 import type { SetAsideInput } from './conflictResolution.js';
 import { LatestThrottle } from './presenceThrottle.js';
 import { addSetAside, loadSetAside, saveSetAside } from './setAside.js';
@@ -78,6 +78,8 @@ export function useWorkbookTeam(session: WorkbookSession, cursor: PresenceInput 
   });
 
   useEffect(() => {
+    // Cells, and rows and columns of a locked sheet, refuse edits for the same reasons the API gives.
+    model.structureRule = structureRuleFor(protection, myId);
     model.setEditRule(editRuleFor(protection, myId));
   }, [model, protection, myId]);
 

@@ -1,7 +1,7 @@
 // Whether a person may change a cell, as far as sheet locks and protected ranges go (roles are the
 // grid model's own check). Built on shared/team.ts `editBlock`, the very function the server's patch
 // check calls, so a greyed cell in the grid and a 403 from the API can never disagree.
-import { editBlock, type EditBlock, type Protection, type UserRef } from '../../../shared/team.js';
+import { editBlock, sheetLockedAgainst, type EditBlock, type Protection, type UserRef } from '../../../shared/team.js';
 
 export const noProtection: Protection = { locks: [], protectedRanges: [] };
 
@@ -33,6 +33,19 @@ export function editRuleFor(protection: Protection, userId: string): ((sheetId: 
   return (sheetId, row, col) => {
     const block = editBlock(protection, userId, sheetId, row, col);
     return block ? blockReason(block) : null;
+  };
+}
+
+/**
+ * The rule the grid model takes as `structureRule`: why `userId` may not insert or delete rows and
+ * columns of a sheet (it is locked against them), or null. Protected ranges are checked cell by cell
+ * on what the operation would change (grid/model/structure.ts).
+ */
+export function structureRuleFor(protection: Protection, userId: string): ((sheetId: string) => string | null) | null {
+  if (protection.locks.length === 0) return null;
+  return (sheetId) => {
+    const lock = sheetLockedAgainst(protection, userId, sheetId);
+    return lock ? blockReason({ kind: 'lock', lock }) : null;
   };
 }
 

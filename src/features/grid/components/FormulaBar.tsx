@@ -38,14 +38,25 @@ export function FormulaBar(p: FormulaBarProps) {
           onFocus={(e) => e.target.select()}
           onBlur={() => setAddressDraft(null)}
           onKeyDown={(e) => {
-            if (e.key === 'Enter' && addressDraft !== null) {
-              if (p.onGoTo(addressDraft)) {
+            const box = e.currentTarget;
+            // Leaving the box hands the keyboard back to the grid (the box is shielded from its keys).
+            const backToGrid = () => {
+              setAddressDraft(null);
+              box.blur();
+              p.onCancel();
+            };
+            if (e.key === 'Enter') {
+              e.preventDefault();
+              // Enter on the address as shown (nothing typed, or typed back the same) goes back to that cell.
+              const typed = addressDraft?.trim() ?? '';
+              if (typed === '' || typed.toUpperCase() === p.address.toUpperCase()) backToGrid();
+              else if (p.onGoTo(typed)) {
                 setAddressDraft(null);
-                e.currentTarget.blur(); // typing goes to the cell now
+                box.blur(); // typing goes to the cell now
               }
             } else if (e.key === 'Escape') {
-              setAddressDraft(null);
-              p.onCancel();
+              e.preventDefault();
+              backToGrid();
             }
           }}
         />

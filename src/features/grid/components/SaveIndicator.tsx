@@ -4,7 +4,7 @@ import type { SaveStatus } from '../save/patchQueue.js';
 
 const plural = (n: number, word: string) => `${n} ${word}${n === 1 ? '' : 's'}`;
 
-export function saveLabel(s: SaveStatus): string {
+function saveLabel(s: SaveStatus): string {
   switch (s.kind) {
     case 'saved':
       return 'Saved';

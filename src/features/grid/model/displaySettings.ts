@@ -1,6 +1,8 @@
 // A sheet's display settings, stored on the server as the sheet's `settings` JSON: column widths,
-// a frozen header row and the number of decimal places. Unknown or malformed fields fall back to
-// defaults rather than breaking the sheet.
+// a frozen header row and the number of decimal places. Malformed fields fall back to defaults
+// rather than breaking the sheet. Fields the grid does not manage (an import's `frozenRows`,
+// `frozenCols` and `merged`, which the export writes back) ride along untouched: the server replaces
+// the whole settings object on every save, so dropping them here would lose them for good.
 import type { SheetSettings } from '../../../../shared/workbooks.js';
 import type { Precision } from './cellView.js';
 
@@ -10,7 +12,11 @@ export interface DisplaySettings {
   /** Keep the first row in view while scrolling (the usual row of column titles). */
   freezeHeaderRow: boolean;
   precision: Precision;
+  /** Stored fields this grid does not manage, saved back as they came. */
+  kept: SheetSettings;
 }
+
+const managed = new Set(['columnWidths', 'freezeHeaderRow', 'precision']);
 
 export const defaultColumnWidthPx = 112;
 export const minColumnWidthPx = 36;
@@ -30,11 +36,17 @@ export function readDisplaySettings(settings: SheetSettings | undefined): Displa
     columnWidths: widths,
     freezeHeaderRow: s.freezeHeaderRow === true,
     precision: typeof p === 'number' && Number.isInteger(p) && p >= 0 && p <= 15 ? p : null,
+    kept: Object.fromEntries(Object.entries(settings ?? {}).filter(([key]) => !managed.has(key))),
   };
 }
 
 export function writeDisplaySettings(d: DisplaySettings): SheetSettings {
-  return { columnWidths: Object.fromEntries(Object.entries(d.columnWidths).map(([k, v]) => [k, Math.round(v)])), freezeHeaderRow: d.freezeHeaderRow, precision: d.precision };
+  return {
+    ...d.kept,
+    columnWidths: Object.fromEntries(Object.entries(d.columnWidths).map(([k, v]) => [k, Math.round(v)])),
+    freezeHeaderRow: d.freezeHeaderRow,
+    precision: d.precision,
+  };
 }
 
 export function clampWidth(px: number): number {

@@ -51,6 +51,17 @@ export class History {
     return e;
   }
 
+  /** The entry just taken could not be replayed (a lock refused it): it goes back where it was. */
+  untakeUndo() {
+    const e = this.redoStack.pop();
+    if (e) this.undoStack.push(e);
+  }
+
+  untakeRedo() {
+    const e = this.undoStack.pop();
+    if (e) this.redoStack.push(e);
+  }
+
   /** A deleted sheet's entries can no longer be replayed. */
   forgetSheet(sheetId: string) {
     const keep = (e: HistoryEntry) => (e.kind === 'cells' ? !e.changes.some((c) => c.sheetId === sheetId) : e.sheetId !== sheetId && !e.differences.has(sheetId));

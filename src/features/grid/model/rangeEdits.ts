@@ -1,7 +1,8 @@
 // Edits that write a block of cells at once: fill down/right, sort, paste and clear. Formulas that
 // move are rewritten by the engine's own fill logic (getFillRangeData), so relative references
 // shift as in any desktop spreadsheet and absolute ($A$1) ones stay. Plain values keep the exact
-// text that was typed.
+// text that was typed. Fill, sort and paste change all their cells or none: one locked, protected or
+// spilled cell refuses the lot, since half a sort or half a paste would scramble the block.
 import type { SimpleCellRange } from 'hyperformula';
 import type { CellInput } from '../save/pendingStore.js';
 import type { CellRange } from './a1.js';
@@ -25,7 +26,7 @@ export function fillDown(model: WorkbookModel, sheetId: string, r: CellRange): E
   for (let row = r.top + 1; row <= r.bottom; row++) {
     for (let col = r.left; col <= r.right; col++) changes.push({ sheetId, row, col, input: movedInput(model, sheetId, { row: r.top, col }, { row, col }) });
   }
-  return model.edit(changes);
+  return model.edit(changes, { whole: true });
 }
 
 /** Ctrl+R: the left column of the block copied into every column to its right. */
@@ -34,12 +35,12 @@ export function fillRight(model: WorkbookModel, sheetId: string, r: CellRange): 
   for (let col = r.left + 1; col <= r.right; col++) {
     for (let row = r.top; row <= r.bottom; row++) changes.push({ sheetId, row, col, input: movedInput(model, sheetId, { row, col: r.left }, { row, col }) });
   }
-  return model.edit(changes);
+  return model.edit(changes, { whole: true });
 }
 
 /** Copies each source cell to its target (the grid's drag-fill handle), formulas re-pointed. */
 export function fillPairs(model: WorkbookModel, sheetId: string, pairs: { from: { row: number; col: number }; to: { row: number; col: number } }[]): EditOutcome {
-  return model.edit(pairs.map(({ from, to }) => ({ sheetId, row: to.row, col: to.col, input: movedInput(model, sheetId, from, to) })));
+  return model.edit(pairs.map(({ from, to }) => ({ sheetId, row: to.row, col: to.col, input: movedInput(model, sheetId, from, to) })), { whole: true });
 }
 
 function sortValue(model: WorkbookModel, sheetId: string, row: number, col: number): SortValue {
@@ -60,7 +61,7 @@ export function sortRange(model: WorkbookModel, sheetId: string, r: CellRange, k
       changes.push({ sheetId, row: r.top + targetOffset, col, input: movedInput(model, sheetId, { row: r.top + sourceOffset, col }, { row: r.top + targetOffset, col }) });
     }
   });
-  return model.edit(changes);
+  return model.edit(changes, { whole: true });
 }
 
 /**
@@ -76,7 +77,7 @@ export function pasteBlock(model: WorkbookModel, sheetId: string, rows: readonly
       if (left + j < maxColumns) changes.push({ sheetId, row: rows[i], col: left + j, input });
     });
   });
-  return model.edit(changes);
+  return model.edit(changes, { whole: true });
 }
 
 export interface CopiedCells {
@@ -104,7 +105,7 @@ export function pasteCopiedCells(model: WorkbookModel, sheetId: string, rows: re
       changes.push({ sheetId, row: to.row, col: to.col, input });
     }
   }
-  return model.edit(changes);
+  return model.edit(changes, { whole: true });
 }
 
 export function clearRange(model: WorkbookModel, sheetId: string, r: CellRange): EditOutcome {

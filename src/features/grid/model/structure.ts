@@ -1,7 +1,9 @@
 // Inserting and deleting rows and columns. The engine moves the cells and rewrites every formula
 // that refers across the change (references follow their cells; references into deleted cells
 // become #REF!). The server stores cells by position, so the patch carries every input that ended
-// up different: the moved cells and the rewritten formulas, on any sheet.
+// up different: the moved cells and the rewritten formulas, on any sheet. The server refuses that
+// whole patch if one of those cells is in a locked sheet or a protected range not open to me, so the
+// client refuses the operation first and puts every sheet back, rather than showing what cannot be saved.
 import type { CellInput } from '../save/pendingStore.js';
 import { diffInputs, type InputDifference, type SheetInputs } from './sheetInputs.js';
 import type { WorkbookModel } from './workbookModel.js';
@@ -85,10 +87,32 @@ export function applyStructural(model: WorkbookModel, sheetId: string, op: Struc
     differences.set(s.id, d);
     for (const x of d) changes.push({ sheetId: s.id, row: x.row, col: x.col, input: x.after });
   }
+  let refusal: string | null = null;
+  for (const c of changes) if ((refusal = model.protectionReason(c.sheetId, c.row, c.col))) break;
+  if (refusal) {
+    putBack(model, before);
+    throw new StructureError(refusal);
+  }
   if (record) model.history.push({ kind: 'structure', sheetId, op, differences });
   model.invalidateViews();
   if (changes.length > 0) model.onLocalChanges(changes);
   return changes;
+}
+
+/** Every sheet the operation touched gets its inputs and engine content back, as before it. */
+function putBack(model: WorkbookModel, before: ReadonlyMap<string, SheetInputs>) {
+  model.engine.suspendEvaluation();
+  try {
+    for (const s of model.sheets) {
+      const original = before.get(s.id)!;
+      if (s.inputs === original) continue;
+      s.inputs = original;
+      model.engine.setSheetContent(s.engineId, original.toTable());
+    }
+  } finally {
+    model.engine.resumeEvaluation();
+  }
+  model.invalidateViews();
 }
 
 /** Undoes my last edit; false when there is nothing to undo. */
@@ -103,7 +127,12 @@ export function undoLast(model: WorkbookModel): boolean {
     return true;
   }
   const inverse: StructuralOp = { ...entry.op, action: entry.op.action === 'insert' ? 'remove' : 'insert' };
-  applyStructural(model, entry.sheetId, inverse, false);
+  try {
+    applyStructural(model, entry.sheetId, inverse, false);
+  } catch (e) {
+    model.history.untakeUndo();
+    throw e;
+  }
   restore(model, entry.differences, 'before');
   return true;
 }
@@ -118,7 +147,12 @@ export function redoLast(model: WorkbookModel): boolean {
     );
     return true;
   }
-  applyStructural(model, entry.sheetId, entry.op, false);
+  try {
+    applyStructural(model, entry.sheetId, entry.op, false);
+  } catch (e) {
+    model.history.untakeRedo();
+    throw e;
+  }
   restore(model, entry.differences, 'after');
   return true;
 }

@@ -53,6 +53,8 @@ export class WorkbookModel {
   private extraRule: EditRule | null = null;
   /** Why rows and columns of a sheet may not be inserted or deleted now (a sheet lock), or null. */
   structureRule: ((sheetId: string) => string | null) | null = null;
+  /** Why a lock or protected range keeps me out of this cell (the rule alone: no views needed). */
+  protectionReason = (sheetId: string, row: number, col: number): string | null => this.extraRule?.(sheetId, row, col) ?? null;
   /** Called with every local change that must reach the server. */
   onLocalChanges: (changes: CellInput[]) => void = () => {};
   version = 0;
@@ -142,9 +144,10 @@ export class WorkbookModel {
 
   /**
    * Applies local edits: to the engine at once, to the undo history, and out to the server.
-   * Cells that may not be edited are left alone and reported.
+   * Cells that may not be edited are left alone and reported; with `whole`, one such cell refuses
+   * them all (a sort, fill or paste half applied would scramble the block).
    */
-  edit(changes: readonly CellInput[], options: { record?: boolean } = {}): EditOutcome {
+  edit(changes: readonly CellInput[], options: { record?: boolean; whole?: boolean } = {}): EditOutcome {
     const refused: EditOutcome['refused'] = [];
     const allowed: CellInput[] = [];
     for (const c of lastInputPerCell(changes)) {
@@ -152,6 +155,7 @@ export class WorkbookModel {
       if (reason) refused.push({ cell: c, reason });
       else if (this.input(c.sheetId, c.row, c.col) !== c.input) allowed.push(c);
     }
+    if (options.whole && refused.length > 0) return { applied: [], refused };
     const before = allowed.map((c) => this.input(c.sheetId, c.row, c.col));
     const applied = this.write(allowed);
     if (options.record !== false && applied.length > 0) {

@@ -1,10 +1,12 @@
 // Sends cell changes to the server as patches: merged per cell, debounced, one patch in flight at a
 // time, retried with growing pauses while the network or server is down, and kept in local storage
 // until acknowledged. The save state it reports is derived from what is actually unacknowledged, so
-// "saved" is shown only when the server holds every change.
-import { maxCellsPerPatch, type CellConflict } from '../../../../shared/workbooks.js';
+// "saved" is shown only when the server holds every change. Which base revision a patch claims is
+// RevisionLedger's rule: only revisions whose changes this browser has taken in.
+import { maxCellsPerPatch, type CellConflict, type PatchResult } from '../../../../shared/workbooks.js';
 import { ApiError } from '../../../lib/api.js';
 import type { CellInput, PendingStore } from './pendingStore.js';
+import { cellKey, RevisionLedger } from './revisionLedger.js';
 
 export type SaveStatus =
   | { kind: 'saved' }
@@ -14,21 +16,19 @@ export type SaveStatus =
   | { kind: 'refused'; waiting: number; message: string };
 
 export interface PatchTransport {
-  send(patch: { baseRevision: number; changes: CellInput[] }): Promise<{ revision: number }>;
+  send(patch: { baseRevision: number; changes: CellInput[] }): Promise<PatchResult>;
 }
 
 export interface PatchQueueOptions {
   transport: PatchTransport;
   store: PendingStore;
-  /** The revision of the workbook as loaded from the server. */
+  /** The revision of the workbook as loaded from the server (the engine shows exactly that). */
   baseRevision: number;
   debounceMs?: number;
   firstRetryMs?: number;
   maxRetryMs?: number;
   maxCellsPerSend?: number;
 }
-
-const cellKey = (c: { sheetId: string; row: number; col: number }) => `${c.sheetId}\u0000${c.row}\u0000${c.col}`;
 
 /** Network failures, 5xx and 429 are worth retrying; other refusals would only repeat themselves. */
 function isTransient(error: unknown): boolean {
@@ -38,8 +38,10 @@ function isTransient(error: unknown): boolean {
 
 export class PatchQueue {
   private pending = new Map<string, CellInput>();
-  private inFlight: Map<string, string> | null = null;
-  private base: number;
+  private inFlight: Map<string, CellInput> | null = null;
+  private ledger: RevisionLedger;
+  /** Some waiting cells need a later base than the one taken in so far. */
+  private blocked = false;
   private timer: ReturnType<typeof setTimeout> | null = null;
   private failures = 0;
   private batchLimit: number;
@@ -50,18 +52,25 @@ export class PatchQueue {
   private readonly debounceMs: number;
   private readonly firstRetryMs: number;
   private readonly maxRetryMs: number;
+  /** Asks the live feed for the revisions up to this one (set while the feed runs). */
+  catchUp: ((revision: number) => void) | null = null;
+  /** Shows colleagues' inputs that were held back behind mine, once mine is gone and theirs is newer. */
+  showRemote: (inputs: CellInput[]) => void = () => {};
 
   constructor(private readonly opts: PatchQueueOptions) {
-    this.base = opts.baseRevision;
+    this.ledger = new RevisionLedger(opts.baseRevision);
     this.debounceMs = opts.debounceMs ?? 300;
     this.firstRetryMs = opts.firstRetryMs ?? 1000;
     this.maxRetryMs = opts.maxRetryMs ?? 30_000;
     this.batchLimit = opts.maxCellsPerSend ?? maxCellsPerPatch;
   }
 
-  /** Takes over changes left from an earlier visit (they keep their own base revision). */
+  /**
+   * Takes over changes left from an earlier visit, already written over the loaded inputs: they keep
+   * their own base revision, so a colleague's change to one of those cells since then is a conflict.
+   */
   restore(snapshot: { baseRevision: number; changes: CellInput[] }) {
-    this.base = snapshot.baseRevision;
+    this.ledger.restore(snapshot.baseRevision, snapshot.changes);
     for (const c of snapshot.changes) this.pending.set(cellKey(c), c);
     this.persist();
     this.setStatus(this.idleStatus());
@@ -69,18 +78,20 @@ export class PatchQueue {
   }
 
   get baseRevision() {
-    return this.base;
+    return this.ledger.base;
   }
 
   /**
-   * A colleague's revision is now shown here (live updates): later patches build on it, so editing
-   * a cell after seeing their change is not reported as a conflict. The caller advances only when
-   * the revision touched none of the cells still waiting here (those must stay conflicts).
+   * A revision from the live feed is now shown here, except `heldBack`: its inputs for cells where an
+   * input of mine still waits (those must stay conflicts). Later patches build on it once every
+   * earlier revision is in too, so editing a cell after seeing a colleague's change is no conflict.
    */
-  advanceBase(revision: number) {
-    if (revision <= this.base) return;
-    this.base = revision;
+  takeInRemote(revision: number, heldBack: readonly CellInput[]) {
+    const before = this.ledger.base;
+    this.ledger.takeIn(revision, heldBack);
+    if (this.ledger.base === before) return;
     this.persist();
+    if (this.blocked && this.current.kind === 'saving' && !this.inFlight) this.schedule(0);
   }
 
   /** Every change not yet acknowledged, in the order first made. */
@@ -123,30 +134,34 @@ export class PatchQueue {
     this.schedule(0);
   }
 
-  /** After a conflict: send my inputs over the ones stored now. */
-  keepMine() {
-    if (this.current.kind !== 'conflict') return;
-    this.base = Math.max(this.base, ...this.current.conflicts.map((c) => c.revision));
-    this.persist();
-    this.setStatus({ kind: 'saving', waiting: this.pending.size });
-    this.schedule(0);
-  }
-
-  /** After a conflict: drop my inputs for the conflicting cells; returns the inputs now stored there. */
-  takeTheirs(): CellInput[] {
+  /**
+   * After a conflict, per refused cell: keep my input (sent again once this browser has taken in the
+   * revision that beat it, so it goes on top of that) or take theirs (my input dropped from the queue).
+   * Returns the inputs to show for the cells where I took theirs.
+   */
+  resolveConflicts(choose: (c: CellConflict) => 'mine' | 'theirs'): CellInput[] {
     if (this.current.kind !== 'conflict') return [];
     const conflicts = this.current.conflicts;
-    for (const c of conflicts) this.pending.delete(cellKey(c));
-    this.base = Math.max(this.base, ...conflicts.map((c) => c.revision));
+    const theirs = conflicts.filter((c) => choose(c) === 'theirs');
+    for (const c of theirs) this.pending.delete(cellKey(c));
+    const newer = this.ledger.settle(conflicts.map((c) => ({ cell: c, revision: c.revision, mineStillWaiting: this.pending.has(cellKey(c)) })));
     this.persist();
     this.setStatus(this.idleStatus());
     this.schedule(0);
-    return conflicts.map((c) => ({ sheetId: c.sheetId, row: c.row, col: c.col, input: c.theirs }));
+    // A colleague may have changed a cell again since the 409: then that newer input is the one to show.
+    const shown = new Map(theirs.map((c) => [cellKey(c), { sheetId: c.sheetId, row: c.row, col: c.col, input: c.theirs }]));
+    for (const n of newer) shown.set(cellKey(n), n);
+    return [...shown.values()];
   }
+
+  /** After a conflict: my input in every refused cell, or theirs (returned, to be shown). */
+  keepMine = () => void this.resolveConflicts(() => 'mine');
+  takeTheirs = (): CellInput[] => this.resolveConflicts(() => 'theirs');
 
   /** A deleted sheet's unsent changes have nowhere to go. */
   dropSheet(sheetId: string) {
     for (const [key, c] of this.pending) if (c.sheetId === sheetId) this.pending.delete(key);
+    this.ledger.dropSheet(sheetId);
     this.persist();
     if (this.current.kind === 'saving' || this.current.kind === 'saved') this.setStatus(this.idleStatus());
   }
@@ -178,15 +193,39 @@ export class PatchQueue {
     }, ms);
   }
 
+  /** The waiting cells a patch on the current base may carry, and the base the others need. */
+  private readyCells(): { ready: CellInput[]; needed: number } {
+    const base = this.ledger.base;
+    const ready: CellInput[] = [];
+    let needed = base;
+    for (const c of this.pending.values()) {
+      const floor = this.ledger.floor(c);
+      if (floor <= base) ready.push(c);
+      else needed = Math.max(needed, floor);
+    }
+    return { ready, needed };
+  }
+
   private async send() {
     if (this.disposed || this.inFlight || this.pending.size === 0) return;
-    const batch = [...this.pending.values()].slice(0, this.batchLimit);
-    this.inFlight = new Map(batch.map((c) => [cellKey(c), c.input]));
+    let { ready, needed } = this.readyCells();
+    if (needed > this.ledger.base && this.catchUp) {
+      this.catchUp(needed);
+      ({ ready, needed } = this.readyCells());
+    }
+    this.blocked = needed > this.ledger.base;
+    if (ready.length === 0) {
+      // Waiting for the live feed to bring the missing revisions; ask again now and then.
+      if (this.blocked) this.schedule(this.firstRetryMs);
+      return;
+    }
+    const batch = ready.slice(0, this.batchLimit);
+    const baseRevision = this.ledger.base;
+    this.inFlight = new Map(batch.map((c) => [cellKey(c), c]));
     this.lastBatchSize = batch.length;
     if (this.current.kind !== 'offline') this.setStatus({ kind: 'saving', waiting: this.pending.size });
     try {
-      const { revision } = await this.opts.transport.send({ baseRevision: this.base, changes: batch });
-      this.acknowledge(revision);
+      this.acknowledge(await this.opts.transport.send({ baseRevision, changes: batch }));
     } catch (error) {
       this.inFlight = null;
       this.handleFailure(error);
@@ -195,15 +234,21 @@ export class PatchQueue {
     if (this.pending.size > 0) this.schedule(0);
   }
 
-  private acknowledge(revision: number) {
-    for (const [key, input] of this.inFlight!) {
+  private acknowledge({ revision, applied }: PatchResult) {
+    const sent = [...this.inFlight!.entries()];
+    for (const [key, c] of sent) {
       // A cell edited again while the patch was on its way keeps its newer input for the next patch.
-      if (this.pending.get(key)?.input === input) this.pending.delete(key);
+      if (this.pending.get(key)?.input === c.input) this.pending.delete(key);
     }
     this.inFlight = null;
-    this.base = Math.max(this.base, revision);
+    // Each cell sent now holds my input on the server as of `revision`. The base itself moves only
+    // if that revision is mine and every revision before it is in (a patch that changed nothing
+    // answers with the workbook's current revision, which is not mine).
+    const newer = this.ledger.settle(sent.map(([key, c]) => ({ cell: c, revision, mineStillWaiting: this.pending.has(key) })));
+    if (applied > 0) this.ledger.own(revision);
     this.failures = 0;
     this.persist();
+    if (newer.length > 0) this.showRemote(newer);
     this.setStatus(this.idleStatus());
   }
 
@@ -216,8 +261,9 @@ export class PatchQueue {
       const real = conflicts.filter((c) => !alreadyStored.includes(c));
       if (alreadyStored.length > 0 && real.length === 0) {
         for (const c of alreadyStored) this.pending.delete(cellKey(c));
-        this.base = Math.max(this.base, ...alreadyStored.map((c) => c.revision));
+        const newer = this.ledger.settle(alreadyStored.map((c) => ({ cell: c, revision: c.revision, mineStillWaiting: false })));
         this.persist();
+        if (newer.length > 0) this.showRemote(newer);
         this.setStatus(this.idleStatus());
         this.schedule(0);
         return;
@@ -244,7 +290,7 @@ export class PatchQueue {
   }
 
   private persist() {
-    this.opts.store.save({ baseRevision: this.base, changes: [...this.pending.values()] });
+    this.opts.store.save({ baseRevision: this.ledger.base, changes: [...this.pending.values()] });
   }
 
   private setStatus(s: SaveStatus) {

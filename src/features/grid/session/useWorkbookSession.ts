@@ -56,6 +56,7 @@ export function openSession(payload: WorkbookPayload, storage: KeyValueStorage |
     restored = known.length;
   }
   model.onLocalChanges = (changes) => queue.enqueue(changes);
+  queue.showRemote = (inputs) => model.applyRemote(inputs);
   return { model, queue, store, restored };
 }
 
