@@ -34,7 +34,10 @@ export function formatNumber(x: number, precision: Precision): string {
   const abs = Math.abs(x);
   if (precision !== null) {
     const places = Math.max(0, Math.min(15, Math.round(precision)));
-    return abs >= 1e15 ? x.toExponential(places) : x.toFixed(places);
+    if (abs >= 1e15) return x.toExponential(places);
+    const text = x.toFixed(places);
+    // A tiny negative rounding residue (e.g. -1e-16) would otherwise show as "-0.000".
+    return /^-0(\.0*)?$/.test(text) ? text.slice(1) : text;
   }
   if (x === 0) return '0';
   if (abs >= 1e11 || abs < 1e-4) return trimExponential(x.toExponential(5));
