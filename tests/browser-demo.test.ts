@@ -5,7 +5,7 @@
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoTeam, demoWorkbooks } from '../server/seed/index.js';
-import { launchBrowser, screenshot, type TestBrowser } from './helpers/browser.js';
+import { gridCell, launchBrowser, screenshot, type TestBrowser } from './helpers/browser.js';
 import { startServer, type TestServer } from './helpers/server.js';
 
 let server: TestServer;
@@ -25,23 +25,9 @@ afterAll(async () => {
   await server?.stop();
 });
 
-/** The text of the grid cell at an A1 address (columns found by their header, rows by number). */
-async function cellText(a1: string) {
-  return page.evaluate((address) => {
-    const [, letters, digits] = /^([A-Z]+)(\d+)$/.exec(address)!;
-    const header = document.querySelector(`.orb-col-header[data-col="${letters}"]`)?.closest('.dsg-cell') as HTMLElement | null;
-    if (!header) return null;
-    for (const row of document.querySelectorAll('[data-testid="sheet-grid"] .dsg-row:not(.dsg-row-header)')) {
-      const cells = [...row.children] as HTMLElement[];
-      if (cells[0]?.textContent !== digits) continue;
-      const target = cells.find((c) => c.style.left === header.style.left);
-      return target?.querySelector('.orb-cell')?.textContent ?? null;
-    }
-    return null;
-  }, a1);
-}
-
-const expectCell = (a1: string, text: string) => expect.poll(() => cellText(a1), { timeout: 20_000, message: `cell ${a1}` }).toBe(text);
+/** Waits for the grid cell at an A1 address to show `text`. */
+const expectCell = (a1: string, text: string) =>
+  expect.poll(async () => (await gridCell(page, a1))?.text, { timeout: 20_000, message: `cell ${a1}` }).toBe(text);
 
 async function openWorkbook(title: string) {
   await page.goto(server.url);

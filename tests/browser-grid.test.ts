@@ -6,7 +6,7 @@
 import fs from 'node:fs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { launchBrowser, screenshot, type TestBrowser } from './helpers/browser.js';
+import { gridCell, launchBrowser, screenshot, type TestBrowser } from './helpers/browser.js';
 import { startServer, type TestServer } from './helpers/server.js';
 
 let server: TestServer;
@@ -27,23 +27,7 @@ afterAll(async () => {
 });
 
 /** The grid cell at an A1 address, as the page shows it (found by its column header and row number). */
-async function cell(a1: string) {
-  return page.evaluate((address) => {
-    const [, letters, digits] = /^([A-Z]+)(\d+)$/.exec(address)!;
-    const header = document.querySelector(`.orb-col-header[data-col="${letters}"]`)?.closest('.dsg-cell') as HTMLElement | null;
-    if (!header) return null;
-    for (const row of document.querySelectorAll('[data-testid="sheet-grid"] .dsg-row:not(.dsg-row-header)')) {
-      const cells = [...row.children] as HTMLElement[];
-      if (cells[0]?.textContent !== digits) continue;
-      const target = cells.find((c) => c.style.left === header.style.left);
-      if (!target) return null;
-      const r = target.getBoundingClientRect();
-      const inner = target.querySelector('.orb-cell') as HTMLElement | null;
-      return { text: inner?.textContent ?? '', title: inner?.title ?? '', x: r.x + r.width / 2, y: r.y + r.height / 2 };
-    }
-    return null;
-  }, a1);
-}
+const cell = (a1: string) => gridCell(page, a1);
 
 async function expectCell(a1: string, text: string) {
   await expect.poll(async () => (await cell(a1))?.text, { timeout: 10_000, message: `cell ${a1}` }).toBe(text);

@@ -24,6 +24,11 @@ function newQueue(transport: PatchTransport, base = 7) {
   return { q, seen };
 }
 
+/** A colleague's revision 9 wrote N2 in A1 where I typed O2. */
+const a1Conflict = { sheetId: 's1', row: 0, col: 0, theirs: 'N2', mine: 'O2', revision: 9 };
+/** A scripted server answer: 409, naming the cell changed under the patch. */
+const conflictAnswer = (conflict: typeof a1Conflict) => () => Promise.reject(new ApiError(409, 'conflict', 'changed by someone else', { conflicts: [conflict] }));
+
 describe('patch queue', () => {
   it('waits for a pause in typing, then sends every change in one patch on the loaded revision', async () => {
     const server = scriptedServer();
@@ -124,20 +129,18 @@ describe('patch queue', () => {
 
   it('reports a conflict naming the cells and sends nothing more until the user chooses', async () => {
     const server = scriptedServer();
-    const conflict = { sheetId: 's1', row: 0, col: 0, theirs: 'N2', mine: 'O2', revision: 9 };
-    server.answers.push(() => Promise.reject(new ApiError(409, 'conflict', 'changed by someone else', { conflicts: [conflict] })));
+    server.answers.push(conflictAnswer(a1Conflict));
     const { q } = newQueue(server.transport);
     q.enqueue([cell(0, 0, 'O2'), cell(5, 5, 'CO')]);
     await vi.advanceTimersByTimeAsync(300);
-    expect(q.status).toEqual({ kind: 'conflict', waiting: 2, conflicts: [conflict] });
+    expect(q.status).toEqual({ kind: 'conflict', waiting: 2, conflicts: [a1Conflict] });
     await vi.advanceTimersByTimeAsync(60_000);
     expect(server.sent).toHaveLength(1);
   });
 
   it('keeping mine sends it again on top of the revision that beat it, once that revision is here', async () => {
     const server = scriptedServer();
-    const conflict = { sheetId: 's1', row: 0, col: 0, theirs: 'N2', mine: 'O2', revision: 9 };
-    server.answers.push(() => Promise.reject(new ApiError(409, 'conflict', 'changed by someone else', { conflicts: [conflict] })));
+    server.answers.push(conflictAnswer(a1Conflict));
     server.commitByColleague();
     server.commitByColleague(); // revisions 8 and 9 are a colleague's
     const { q } = newQueue(server.transport);
@@ -162,8 +165,7 @@ describe('patch queue', () => {
 
   it('after a conflict, taking theirs drops my input for those cells and returns what is stored', async () => {
     const server = scriptedServer();
-    const conflict = { sheetId: 's1', row: 0, col: 0, theirs: 'N2', mine: 'O2', revision: 9 };
-    server.answers.push(() => Promise.reject(new ApiError(409, 'conflict', 'changed by someone else', { conflicts: [conflict] })));
+    server.answers.push(conflictAnswer(a1Conflict));
     const { q } = newQueue(server.transport);
     q.enqueue([cell(0, 0, 'O2'), cell(5, 5, 'CO')]);
     await vi.advanceTimersByTimeAsync(300);

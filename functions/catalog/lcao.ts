@@ -3,7 +3,7 @@
 // at the edge. Science in ../chem/lcao.ts and ../chem/levelgap.ts.
 import { frontierLevels, orbitalEnergiesFromCells } from '../chem/levelgap.js';
 import { h2PlusEnergyHartree, h2PlusMinimum, overlap1s, solveSecular2x2, type LcaoLevel } from '../chem/lcao.js';
-import { convertEnergy, convertLength, parseEnergyUnit, parseLengthUnit, toBohr } from '../chem/units.js';
+import { convertEnergy, convertLength, ENERGY_UNIT_NAMES, parseEnergyUnit, parseLengthUnit, toBohr } from '../chem/units.js';
 import { ChemError, type CatalogEntry, type ParamSpec, type SpillArg } from './types.js';
 
 const LEVELS_SOURCE =
@@ -25,7 +25,7 @@ const energyUnitParam: ParamSpec = {
   description: 'Unit of the energy returned.',
   optional: true,
   default: 'hartree',
-  choices: ['hartree', 'eV', 'kJ/mol', 'kcal/mol', 'cm-1'],
+  choices: [...ENERGY_UNIT_NAMES],
 };
 const secularParams: ParamSpec[] = [
   { name: 'Haa', type: 'number', description: 'Diagonal element ⟨a|H|a⟩ (Coulomb integral α of orbital a).', unit: 'any energy unit' },

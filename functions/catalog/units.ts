@@ -1,10 +1,13 @@
 // Units family: conversions with CODATA 2018 constants and Pauling's bond-number/length relation.
 // Science in ../chem/units.ts.
-import { chemConvert, parseLengthUnit, parsePaulingForm, paulingBondLength } from '../chem/units.js';
+import { chemConvert, ENERGY_UNIT_NAMES, LENGTH_UNIT_NAMES, parseLengthUnit, parsePaulingForm, paulingBondLength } from '../chem/units.js';
 import type { CatalogEntry } from './types.js';
 
 const CODATA_SOURCE =
   'CODATA 2018 recommended values (NIST, physics.nist.gov/cuu/Constants; Tiesinga et al., Rev. Mod. Phys. 93, 025010 (2021)); thermochemical calorie = 4.184 J (NIST SP 811); photon energy E = hc/λ.';
+
+/** The units CHEMCONVERT offers: energies, then nm (a wavelength or a length), then lengths. */
+const CONVERTIBLE_UNITS = [...ENERGY_UNIT_NAMES, 'nm', ...LENGTH_UNIT_NAMES];
 
 export const unitFunctions: CatalogEntry[] = [
   {
@@ -17,9 +20,9 @@ export const unitFunctions: CatalogEntry[] = [
         name: 'from',
         type: 'string',
         description: 'Unit of value. Energies: hartree (Eh), eV, kJ/mol, kcal/mol (thermochemical), cm-1 (also cm^-1, wavenumber); lengths: bohr, angstrom (Å), pm; nm is a photon wavelength beside an energy unit and a length beside a length unit.',
-        choices: ['hartree', 'eV', 'kJ/mol', 'kcal/mol', 'cm-1', 'nm', 'bohr', 'angstrom', 'pm'],
+        choices: CONVERTIBLE_UNITS,
       },
-      { name: 'to', type: 'string', description: 'Unit wanted, from the same list; an energy and a length cannot be converted into each other.', choices: ['hartree', 'eV', 'kJ/mol', 'kcal/mol', 'cm-1', 'nm', 'bohr', 'angstrom', 'pm'] },
+      { name: 'to', type: 'string', description: 'Unit wanted, from the same list; an energy and a length cannot be converted into each other.', choices: CONVERTIBLE_UNITS },
     ],
     returns: { description: 'The value in the unit wanted (energy ↔ wavelength is reciprocal: λ = hc/E).', unit: 'to', kind: 'number' },
     examples: [

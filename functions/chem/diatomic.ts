@@ -14,6 +14,7 @@ import { ChemError } from '../catalog/types.js';
 import { buildDiagram, ORDERINGS, type DiagramKind, type MoLevel, type OrderingChoice } from './moDiagram.js';
 import { parseSpecies, type Species } from './species.js';
 import { formatTerm, groundTerm, superscriptNumber, termDegeneracy, type MolecularTerm } from './terms.js';
+import { TextMemo } from './textMemo.js';
 
 export interface FilledLevel extends MoLevel {
   occupancy: number;
@@ -103,39 +104,24 @@ function analyse(species: Species, ordering: OrderingChoice): DiatomicAnalysis {
   };
 }
 
+/** One bounded memo per ordering, keyed by the species text (rejections remembered too: textMemo.ts). */
 const CACHE_LIMIT = 20_000;
-let analyses = 0;
-const caches: Record<OrderingChoice, Map<string, DiatomicAnalysis | ChemError>> = {
-  auto: new Map(),
-  mixed: new Map(),
-  unmixed: new Map(),
+const caches: Record<OrderingChoice, TextMemo<DiatomicAnalysis>> = {
+  auto: new TextMemo(CACHE_LIMIT),
+  mixed: new TextMemo(CACHE_LIMIT),
+  unmixed: new TextMemo(CACHE_LIMIT),
 };
 
 /** The cached analysis of a species text under an ordering. Throws ChemError for bad or unsupported species. */
 export function analyseDiatomic(speciesText: string, ordering: OrderingChoice = 'auto'): DiatomicAnalysis {
-  const cache = caches[ordering];
-  let entry = cache.get(speciesText);
-  if (entry === undefined) {
-    analyses++;
-    try {
-      entry = analyse(parseSpecies(speciesText), ordering);
-    } catch (e) {
-      if (!(e instanceof ChemError)) throw e;
-      entry = e;
-    }
-    if (cache.size >= CACHE_LIMIT) cache.clear();
-    cache.set(speciesText, entry);
-  }
-  if (entry instanceof ChemError) throw entry;
-  return entry;
+  return caches[ordering].get(speciesText, () => analyse(parseSpecies(speciesText), ordering));
 }
 
 /** How many analyses were actually computed (cache misses) since the last reset: for tests and benchmarks. */
 export function diatomicAnalysisCount(): number {
-  return analyses;
+  return Object.values(caches).reduce((sum, c) => sum + c.misses, 0);
 }
 
 export function clearDiatomicCache(): void {
   for (const c of Object.values(caches)) c.clear();
-  analyses = 0;
 }

@@ -3,6 +3,7 @@
 // down thousands of rows. Every rejection is a ChemError whose message says what is wrong.
 import { ChemError } from '../catalog/types.js';
 import { elementBySymbol, isElementBeyondArgon, type Element } from './elements.js';
+import { TextMemo } from './textMemo.js';
 
 export interface Species {
   /** The text as the user typed it. */
@@ -150,36 +151,19 @@ function parseUncached(original: string): Species {
   };
 }
 
-// Errors are cached too: a column of the same typo is as common as a column of the same species.
-// The cache is bounded so that a sheet of ever-different junk cannot grow it without limit.
-const CACHE_LIMIT = 20_000;
-const cache = new Map<string, Species | ChemError>();
-let parses = 0;
+// Bounded, and remembers rejections as well as species (see textMemo.ts).
+const parsed = new TextMemo<Species>(20_000);
 
 /** Parses a species (cached per distinct text). Throws ChemError with a message naming the problem. */
 export function parseSpecies(text: string): Species {
-  let entry = cache.get(text);
-  if (entry === undefined) {
-    parses++;
-    try {
-      entry = parseUncached(text);
-    } catch (e) {
-      if (!(e instanceof ChemError)) throw e;
-      entry = e;
-    }
-    if (cache.size >= CACHE_LIMIT) cache.clear();
-    cache.set(text, entry);
-  }
-  if (entry instanceof ChemError) throw entry;
-  return entry;
+  return parsed.get(text, () => parseUncached(text));
 }
 
 /** How many texts were actually parsed (cache misses) since the last reset: for tests and benchmarks. */
 export function speciesParseCount(): number {
-  return parses;
+  return parsed.misses;
 }
 
 export function clearSpeciesCache(): void {
-  cache.clear();
-  parses = 0;
+  parsed.clear();
 }

@@ -5,6 +5,7 @@
 //   await browser.page.goto(server.url);
 //   await screenshot(browser.page, 'sign-in-light');    // tests/artifacts/sign-in-light.png
 //   expect(browser.errors).toEqual([]);                 // no uncaught errors in the page
+//   (await gridCell(browser.page, 'B2'))?.text;         // what the sheet grid shows in B2
 //   await browser.close();                              // also deletes the temporary profile
 //
 // A persistent context on a fresh temporary profile (not the user's), with the flags that keep
@@ -81,4 +82,34 @@ export async function screenshot(page: Page, name: string): Promise<string> {
   const file = path.join(artifactsDir, `${name}.png`);
   await page.screenshot({ path: file });
   return file;
+}
+
+/** A sheet-grid cell as the page shows it: its text, its tooltip and the centre of its box on screen. */
+export interface GridCell {
+  text: string;
+  title: string;
+  x: number;
+  y: number;
+}
+
+/**
+ * The grid cell at an A1 address (its column found by header letter, its row by row number), or
+ * null while that cell is not rendered (not loaded yet, or scrolled out of the grid's window).
+ */
+export async function gridCell(page: Page, a1: string): Promise<GridCell | null> {
+  return page.evaluate((address) => {
+    const [, letters, digits] = /^([A-Z]+)(\d+)$/.exec(address)!;
+    const header = document.querySelector(`.orb-col-header[data-col="${letters}"]`)?.closest('.dsg-cell') as HTMLElement | null;
+    if (!header) return null;
+    for (const row of document.querySelectorAll('[data-testid="sheet-grid"] .dsg-row:not(.dsg-row-header)')) {
+      const cells = [...row.children] as HTMLElement[];
+      if (cells[0]?.textContent !== digits) continue;
+      const target = cells.find((c) => c.style.left === header.style.left);
+      if (!target) return null;
+      const r = target.getBoundingClientRect();
+      const inner = target.querySelector('.orb-cell') as HTMLElement | null;
+      return { text: inner?.textContent ?? '', title: inner?.title ?? '', x: r.x + r.width / 2, y: r.y + r.height / 2 };
+    }
+    return null;
+  }, a1);
 }

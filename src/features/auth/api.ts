@@ -20,12 +20,13 @@ export function useMe() {
   return useQuery(meQueryOptions);
 }
 
-export function useSignIn() {
+/** Signing in and signing up both open a session: forget the previous user's data, then remember the new user. */
+function useOpenSession<Input>(path: '/auth/sign-in' | '/auth/sign-up') {
   const queryClient = useQueryClient();
   return useMutation({
     // A wrong password is a 401 too; it must not be taken for "session lost".
     meta: { signIn: true },
-    mutationFn: (input: SignInInput) => api<AuthResponse>('/auth/sign-in', { method: 'POST', body: input }),
+    mutationFn: (input: Input) => api<AuthResponse>(path, { method: 'POST', body: input }),
     onSuccess: ({ user }) => {
       queryClient.clear();
       queryClient.setQueryData(queryKeys.me, user);
@@ -33,16 +34,12 @@ export function useSignIn() {
   });
 }
 
+export function useSignIn() {
+  return useOpenSession<SignInInput>('/auth/sign-in');
+}
+
 export function useSignUp() {
-  const queryClient = useQueryClient();
-  return useMutation({
-    meta: { signIn: true },
-    mutationFn: (input: SignUpInput) => api<AuthResponse>('/auth/sign-up', { method: 'POST', body: input }),
-    onSuccess: ({ user }) => {
-      queryClient.clear();
-      queryClient.setQueryData(queryKeys.me, user);
-    },
-  });
+  return useOpenSession<SignUpInput>('/auth/sign-up');
 }
 
 export function useSignOut() {

@@ -117,43 +117,36 @@ function putBack(model: WorkbookModel, before: ReadonlyMap<string, SheetInputs>)
 
 /** Undoes my last edit; false when there is nothing to undo. */
 export function undoLast(model: WorkbookModel): boolean {
-  const entry = model.history.takeUndo();
-  if (!entry) return false;
-  if (entry.kind === 'cells') {
-    model.edit(
-      entry.changes.filter((c) => model.hasSheet(c.sheetId)).map((c) => ({ sheetId: c.sheetId, row: c.row, col: c.col, input: c.before })),
-      { record: false },
-    );
-    return true;
-  }
-  const inverse: StructuralOp = { ...entry.op, action: entry.op.action === 'insert' ? 'remove' : 'insert' };
-  try {
-    applyStructural(model, entry.sheetId, inverse, false);
-  } catch (e) {
-    model.history.untakeUndo();
-    throw e;
-  }
-  restore(model, entry.differences, 'before');
-  return true;
+  return replay(model, 'before');
 }
 
+/** Redoes my last undone edit; false when there is nothing to redo. */
 export function redoLast(model: WorkbookModel): boolean {
-  const entry = model.history.takeRedo();
+  return replay(model, 'after');
+}
+
+/** Takes my last edit (undo) or my last undone edit (redo) from the history and brings the sheet to its `side`. */
+function replay(model: WorkbookModel, side: 'before' | 'after'): boolean {
+  const undoing = side === 'before';
+  const entry = undoing ? model.history.takeUndo() : model.history.takeRedo();
   if (!entry) return false;
   if (entry.kind === 'cells') {
     model.edit(
-      entry.changes.filter((c) => model.hasSheet(c.sheetId)).map((c) => ({ sheetId: c.sheetId, row: c.row, col: c.col, input: c.after })),
+      entry.changes.filter((c) => model.hasSheet(c.sheetId)).map((c) => ({ sheetId: c.sheetId, row: c.row, col: c.col, input: c[side] })),
       { record: false },
     );
     return true;
   }
+  const op: StructuralOp = undoing ? { ...entry.op, action: entry.op.action === 'insert' ? 'remove' : 'insert' } : entry.op;
   try {
-    applyStructural(model, entry.sheetId, entry.op, false);
+    applyStructural(model, entry.sheetId, op, false);
   } catch (e) {
-    model.history.untakeRedo();
+    // Refused (a lock): the entry goes back on the stack it came from.
+    if (undoing) model.history.untakeUndo();
+    else model.history.untakeRedo();
     throw e;
   }
-  restore(model, entry.differences, 'after');
+  restore(model, entry.differences, side);
   return true;
 }
 
