@@ -5,6 +5,7 @@ import { createEngine } from '../../functions/engine.js';
 import { catalogByName } from '../../functions/index.js';
 import { denseSheet } from '../services/values.js';
 import type { CellTriple } from './types.js';
+import { literalNumber } from './xlsxValues.js';
 
 export interface ComputedCell {
   row: number;
@@ -39,7 +40,7 @@ const FUNCTION_CALL = /([A-Za-z_][A-Za-z0-9_.]*)\s*\(/g;
 
 /** Names of catalog functions called in a formula (text in string literals is ignored). */
 export function catalogFunctionsIn(formula: string): string[] {
-  const code = formula.replace(/"(?:[^"]|"")*"/g, '""');
+  const code = formula.includes('"') ? formula.replace(/"(?:[^"]|"")*"/g, '""') : formula;
   const found = new Set<string>();
   for (const m of code.matchAll(FUNCTION_CALL)) {
     const name = m[1].toUpperCase();
@@ -61,19 +62,29 @@ function dateKindOf(engine: HyperFormula, address: { sheet: number; row: number;
   }
 }
 
+/** Below this share of filled cells a sheet's values are read one by one rather than as one array. */
+const DENSE_READ_THRESHOLD = 0.1;
+
 function computeSheet(engine: HyperFormula, sheet: number, name: string, cells: CellTriple[]): ComputedSheet {
   const out: ComputedCell[] = [];
+  // One call for the whole sheet when it is dense enough: the public per-cell getter validates its
+  // argument on each of 100,000 calls. The array holds the same exported values, trailing empties trimmed.
+  const { width, height } = engine.getSheetDimensions(sheet);
+  const all = cells.length >= DENSE_READ_THRESHOLD * width * height ? engine.getSheetValues(sheet) : null;
+  const valueAt = (row: number, col: number): CellValue => (all ? (all[row]?.[col] ?? null) : engine.getCellValue({ sheet, row, col }));
   // Numeric keys: a row never has more than the engine's 2,000 columns (functions/engine.ts).
   const key = (row: number, col: number) => row * 4096 + col;
-  const inputAt = new Set(cells.map(([r, c]) => key(r, c)));
-  const isSpilled = (row: number, col: number) => !inputAt.has(key(row, col)) && engine.getCellType({ sheet, row, col }) === CellType.ARRAY;
+  let inputAt: Set<number> | null = null; // built only if an array formula spills
+  const isSpilled = (row: number, col: number) => {
+    inputAt ??= new Set(cells.map(([r, c]) => key(r, c)));
+    return !inputAt.has(key(row, col)) && engine.getCellType({ sheet, row, col }) === CellType.ARRAY;
+  };
   const read = (row: number, col: number, input?: string): ComputedCell => {
-    const address = { sheet, row, col };
-    const value = engine.getCellValue(address);
-    const cell: ComputedCell = { row, col, value };
-    if (input !== undefined) cell.input = input;
-    if (typeof value === 'number') {
-      const kind = dateKindOf(engine, address);
+    const value = valueAt(row, col);
+    const cell: ComputedCell = input === undefined ? { row, col, value } : { row, col, input, value };
+    // A plain decimal literal is read by the engine as a plain number, never as a date or time.
+    if (typeof value === 'number' && (input === undefined || literalNumber(input) === null)) {
+      const kind = dateKindOf(engine, { sheet, row, col });
       if (kind) cell.dateKind = kind;
     }
     return cell;

@@ -30,15 +30,29 @@ export function importedSheetName(name: string, taken: Set<string>): string {
 
 const ROWS_PER_STATEMENT = 200;
 
-/** Inserts a sheet's cells, many rows per statement (SQLite's per-statement cost dominates otherwise). */
+/**
+ * Inserts a sheet's cells, many rows per statement (SQLite's per-statement cost dominates otherwise).
+ * One parameter array is filled in place for every full statement: building a fresh array per cell
+ * cost more than SQLite's own work for 100,000 cells.
+ */
 function cellInserter(ctx: AppContext) {
   const sql = (n: number) => `insert into cells (sheet_id, row, col, input, revision) values ${Array.from({ length: n }, () => '(?, ?, ?, ?, ?)').join(', ')}`;
   const full = ctx.db.$client.prepare(sql(ROWS_PER_STATEMENT));
+  const params: (string | number)[] = new Array(ROWS_PER_STATEMENT * 5);
   return (sheetId: string, cells: [number, number, string][], revision: number) => {
     for (let i = 0; i < cells.length; i += ROWS_PER_STATEMENT) {
-      const batch = cells.slice(i, i + ROWS_PER_STATEMENT);
-      const params = batch.flatMap(([row, col, input]) => [sheetId, row, col, input, revision]);
-      (batch.length === ROWS_PER_STATEMENT ? full : ctx.db.$client.prepare(sql(batch.length))).run(params);
+      const n = Math.min(ROWS_PER_STATEMENT, cells.length - i);
+      const bound = n === ROWS_PER_STATEMENT ? params : new Array<string | number>(n * 5);
+      for (let k = 0; k < n; k++) {
+        const [row, col, input] = cells[i + k];
+        const at = k * 5;
+        bound[at] = sheetId;
+        bound[at + 1] = row;
+        bound[at + 2] = col;
+        bound[at + 3] = input;
+        bound[at + 4] = revision;
+      }
+      (n === ROWS_PER_STATEMENT ? full : ctx.db.$client.prepare(sql(n))).run(bound);
     }
   };
 }

@@ -3,6 +3,7 @@
 import { Writable } from 'node:stream';
 import { parentPort } from 'node:worker_threads';
 import { computeWorkbook } from './engineValues.js';
+import { packSheets, unpackSheets, type PackedExportWorkbook } from './packedCells.js';
 import { SpreadsheetError, type ImportLimits } from './limits.js';
 import { readSpreadsheet } from './read.js';
 import type { ExportMode, ExportWorkbook } from './types.js';
@@ -11,8 +12,8 @@ import { writeComputedXlsx } from './writeXlsx.js';
 
 export type IoJob =
   | { kind: 'parse'; buffer: Uint8Array; filename: string; limits: ImportLimits }
-  | { kind: 'xlsx'; workbook: ExportWorkbook; mode: ExportMode }
-  | { kind: 'csv'; workbook: ExportWorkbook; sheetIndex: number };
+  | { kind: 'xlsx'; workbook: PackedExportWorkbook; mode: ExportMode }
+  | { kind: 'csv'; workbook: PackedExportWorkbook; sheetIndex: number };
 
 /** Bytes for the parent, moved rather than copied; the parent writes them to the response. */
 function chunkPoster(): Writable {
@@ -26,33 +27,39 @@ function chunkPoster(): Writable {
   });
 }
 
-async function run(job: IoJob): Promise<unknown> {
+/** The job's result, and any buffers to move (not copy) back with it. */
+async function run(job: IoJob): Promise<{ result: unknown; transfer?: ArrayBuffer[] }> {
   switch (job.kind) {
-    case 'parse':
-      return readSpreadsheet(Buffer.from(job.buffer.buffer, job.buffer.byteOffset, job.buffer.byteLength), job.filename, job.limits);
+    case 'parse': {
+      const parsed = await readSpreadsheet(Buffer.from(job.buffer.buffer, job.buffer.byteOffset, job.buffer.byteLength), job.filename, job.limits);
+      const { packed, transfer } = packSheets(parsed);
+      return { result: packed, transfer };
+    }
     case 'xlsx': {
       const started = performance.now();
-      const computed = computeWorkbook(job.workbook.sheets.map((s) => ({ name: s.name, cells: s.cells })));
+      const workbook: ExportWorkbook = unpackSheets(job.workbook);
+      const computed = computeWorkbook(workbook.sheets.map((s) => ({ name: s.name, cells: s.cells })));
       const computedAt = performance.now();
       const out = chunkPoster();
-      await writeComputedXlsx(out, job.workbook, computed, { mode: job.mode });
+      await writeComputedXlsx(out, workbook, computed, { mode: job.mode });
       await new Promise<void>((resolve) => (out.writableFinished ? resolve() : out.once('finish', resolve)));
-      return { engineMs: computedAt - started, writeMs: performance.now() - computedAt };
+      return { result: { engineMs: computedAt - started, writeMs: performance.now() - computedAt } };
     }
     case 'csv': {
       const started = performance.now();
-      const computed = computeWorkbook(job.workbook.sheets.map((s) => ({ name: s.name, cells: s.cells })));
+      const workbook: ExportWorkbook = unpackSheets(job.workbook);
+      const computed = computeWorkbook(workbook.sheets.map((s) => ({ name: s.name, cells: s.cells })));
       const computedAt = performance.now();
       await writeSheetCsv(chunkPoster(), computed.sheets[job.sheetIndex].cells);
-      return { engineMs: computedAt - started, writeMs: performance.now() - computedAt };
+      return { result: { engineMs: computedAt - started, writeMs: performance.now() - computedAt } };
     }
   }
 }
 
 parentPort!.on('message', async (job: IoJob) => {
   try {
-    const result = await run(job);
-    parentPort!.postMessage({ done: true, ok: true, result, heapUsedBytes: process.memoryUsage().heapUsed });
+    const { result, transfer } = await run(job);
+    parentPort!.postMessage({ done: true, ok: true, result, heapUsedBytes: process.memoryUsage().heapUsed }, transfer ?? []);
   } catch (e) {
     const error =
       e instanceof SpreadsheetError

@@ -1,6 +1,7 @@
 // readSpreadsheet in a worker of the shared pool (workerPool.ts), under its memory and time limits.
 // Cheap refusals (size, magic bytes) happen here first, so an obviously wrong upload costs no worker.
 import { defaultImportLimits, defaultWorkerLimits, type ImportLimits, type WorkerLimits } from './limits.js';
+import { unpackSheets, type PackedParsedWorkbook } from './packedCells.js';
 import { sniffSpreadsheet } from './sniff.js';
 import type { ParsedWorkbook } from './types.js';
 import { ioPool } from './workerPool.js';
@@ -18,11 +19,13 @@ export async function parseInWorker(
   sniffSpreadsheet(buffer, filename, limits);
   // A private copy, moved (not copied again) into the worker.
   const copy = new Uint8Array(buffer);
-  const outcome = await ioPool.run<ParsedWorkbook>({ kind: 'parse', buffer: copy, filename, limits }, [copy.buffer], {
+  // The worker sends each sheet's cells packed (packedCells.ts): cheaper to move than 100,000 small arrays.
+  const outcome = await ioPool.run<PackedParsedWorkbook>({ kind: 'parse', buffer: copy, filename, limits }, [copy.buffer], {
     limits: options.workerLimits ?? defaultWorkerLimits,
     doing: 'reading the file',
   });
-  return { ...outcome.result, stats: { elapsedMs: outcome.elapsedMs, workerHeapUsedBytes: outcome.workerHeapUsedBytes } };
+  const parsed: ParsedWorkbook = unpackSheets(outcome.result);
+  return { ...parsed, stats: { elapsedMs: outcome.elapsedMs, workerHeapUsedBytes: outcome.workerHeapUsedBytes } };
 }
 
 /** Stops the idle workers (tests, shutdown). */
