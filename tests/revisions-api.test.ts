@@ -137,5 +137,8 @@ describe('restoring a revision', () => {
     const bad = await w.restore(-1);
     expect(bad.status).toBe(400);
     expect(bad.body.error.message).toBe('n: must be 0 or more');
+    const word = await w.restore('latest' as unknown as number);
+    expect(word.status).toBe(400);
+    expect(word.body.error.message).toBe('n: must be a whole number');
   });
 });

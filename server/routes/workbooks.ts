@@ -25,7 +25,7 @@ import { createWorkbook, deleteWorkbook, loadWorkbook, renameWorkbook, summarize
 
 const workbookParams = z.object({ id: idSchema });
 const sheetParams = z.object({ id: idSchema, sheetId: idSchema });
-const revisionParams = z.object({ id: idSchema, n: z.coerce.number().int('must be a whole number').min(0, 'must be 0 or more') });
+const revisionParams = z.object({ id: idSchema, n: z.coerce.number({ error: 'must be a whole number' }).int('must be a whole number').min(0, 'must be 0 or more') });
 
 export function workbooksRouter(ctx: AppContext): Router {
   const router = Router();
