@@ -2,7 +2,6 @@
 // snapshot is computed the way a restore computes its target, by undoing later revisions in memory,
 // so what one sees is exactly what restoring n would bring back.
 import { Router } from 'express';
-import { z } from 'zod';
 import { auditQuerySchema, type AuditResponse, type RevisionSnapshot } from '../../shared/team.js';
 import type { CellEntry } from '../../shared/workbooks.js';
 import { requireUser } from '../auth/middleware.js';
@@ -11,9 +10,8 @@ import { notFound, parse } from '../errors.js';
 import { listAudit } from '../services/audit.js';
 import { loadModel, undoLaterRevisions } from '../services/restore.js';
 import { currentRevision } from '../services/revisionLog.js';
-import { workbookAccess } from './workbookAccess.js';
+import { revisionNumberSchema, workbookAccess } from './workbookAccess.js';
 
-const revisionParam = z.coerce.number({ error: 'must be a whole number' }).int('must be a whole number').min(0, 'must be 0 or more');
 
 function snapshotAt(ctx: AppContext, workbookId: string, n: number): RevisionSnapshot {
   return ctx.db.transaction((tx) => {
@@ -42,7 +40,7 @@ export function historyRouter(ctx: AppContext): Router {
 
   router.get('/:id/revisions/:n/snapshot', (req, res) => {
     const a = access(req, res, 'viewHistory');
-    const n = parse(revisionParam, req.params.n, 'n');
+    const n = parse(revisionNumberSchema, req.params.n, 'n');
     res.json(snapshotAt(ctx, a.workbook.id, n) satisfies RevisionSnapshot);
   });
 

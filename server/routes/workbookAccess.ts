@@ -22,3 +22,6 @@ export function workbookAccess(ctx: AppContext) {
 export function idParam(req: Request, name: string): string {
   return parse(idSchema, req.params[name], name);
 }
+
+/** A revision number in a path (:n): a whole number, 0 or more. */
+export const revisionNumberSchema = z.coerce.number({ error: 'must be a whole number' }).int('must be a whole number').min(0, 'must be 0 or more');

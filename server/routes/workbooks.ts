@@ -2,6 +2,7 @@
 // params and body with zod and asks services/access.ts before touching anything.
 import { Router, type Request, type Response } from 'express';
 import { z } from 'zod';
+import { revisionNumberSchema } from './workbookAccess.js';
 import {
   createSheetSchema,
   createWorkbookSchema,
@@ -25,7 +26,7 @@ import { createWorkbook, deleteWorkbook, loadWorkbook, renameWorkbook, summarize
 
 const workbookParams = z.object({ id: idSchema });
 const sheetParams = z.object({ id: idSchema, sheetId: idSchema });
-const revisionParams = z.object({ id: idSchema, n: z.coerce.number({ error: 'must be a whole number' }).int('must be a whole number').min(0, 'must be 0 or more') });
+const revisionParams = z.object({ id: idSchema, n: revisionNumberSchema });
 
 export function workbooksRouter(ctx: AppContext): Router {
   const router = Router();
