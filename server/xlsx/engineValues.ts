@@ -115,18 +115,22 @@ export function computeWorkbook(sheets: { name: string; cells: CellTriple[] }[])
   });
   try {
     const computed = sheets.map((s) => computeSheet(engine, engine.getSheetId(s.name)!, s.name, s.cells));
-    const uses = new Map<string, number>();
-    for (const s of sheets) for (const [, , input] of s.cells) if (input.startsWith('=')) for (const name of catalogFunctionsIn(input)) uses.set(name, (uses.get(name) ?? 0) + 1);
-    const functionsUsed = [...uses.entries()]
-      .sort((a, b) => a[0].localeCompare(b[0]))
-      .map(([name, count]) => {
-        const entry = catalogByName.get(name)!;
-        return { name, family: entry.family, source: entry.source, cells: count };
-      });
-    return { sheets: computed, functionsUsed };
+    return { sheets: computed, functionsUsed: functionsUsedIn(sheets) };
   } finally {
     engine.destroy();
   }
+}
+
+/** The catalog functions a workbook's formulas call, with how many cells call each (front sheet). */
+export function functionsUsedIn(sheets: { cells: readonly CellTriple[] }[]): FunctionUse[] {
+  const uses = new Map<string, number>();
+  for (const s of sheets) for (const [, , input] of s.cells) if (input.charCodeAt(0) === 61 /* = */) for (const name of catalogFunctionsIn(input)) uses.set(name, (uses.get(name) ?? 0) + 1);
+  return [...uses.entries()]
+    .sort((a, b) => a[0].localeCompare(b[0]))
+    .map(([name, count]) => {
+      const entry = catalogByName.get(name)!;
+      return { name, family: entry.family, source: entry.source, cells: count };
+    });
 }
 
 export function isEngineError(value: CellValue): value is DetailedCellError {

@@ -75,23 +75,29 @@ export function importSheets(ctx: AppContext, workbookId: string, userId: string
       if (replaced) ops.push({ op: 'delete', sheetId: replaced.id, name: replaced.name, position: replaced.position, settings: {}, cells: [] });
 
       const added: { id: string; name: string }[] = [];
+      let imported = 0;
+      let formulas = 0;
       parsed.sheets.forEach((sheet, i) => {
         const name = importedSheetName(sheet.name, taken);
         if (name !== sheet.name) summary.notes.push(`sheet "${sheet.name}" was imported as "${name}" (the workbook already has that name, or it has characters sheet names cannot hold)`);
-        const cells = sheet.cells.filter(([row, col, input]) => {
+        const cells: typeof sheet.cells = [];
+        for (const cell of sheet.cells) {
+          const input = cell[2];
           // The same checks a typed input meets in the patch schema: nothing is stored altered.
           const problem = input.length > maxInputLength ? `longer than ${maxInputLength.toLocaleString('en')} characters` : cellInputProblem(input);
-          if (!problem) return true;
-          summary.skipped.push({ sheet: name, address: addressOf(row, col), reason: problem });
-          return false;
-        });
+          if (problem) summary.skipped.push({ sheet: name, address: addressOf(cell[0], cell[1]), reason: problem });
+          else {
+            cells.push(cell);
+            if (input.charCodeAt(0) === 61 /* = */) formulas++;
+          }
+        }
+        imported += cells.length;
         const id = randomUUID();
         added.push({ id, name });
         ops.push({ op: 'add', sheetId: id, name, position: kept.length + i, settings: settingsFromParsed(sheet, summary.notes), cells });
       });
-      const imported = ops.flatMap((op) => (op.op === 'add' ? op.cells : []));
-      summary.cells = imported.length;
-      summary.formulas = imported.filter(([, , input]) => input.startsWith('=')).length;
+      summary.cells = imported;
+      summary.formulas = formulas;
 
       const revision = nextRevision(tx, workbookId);
       const recorded = ops.map((op) => {

@@ -32,8 +32,9 @@ async function run(job: IoJob): Promise<{ result: unknown; transfer?: ArrayBuffe
   switch (job.kind) {
     case 'parse': {
       const parsed = await readSpreadsheet(Buffer.from(job.buffer.buffer, job.buffer.byteOffset, job.buffer.byteLength), job.filename, job.limits);
+      const packStart = performance.now();
       const { packed, transfer } = packSheets(parsed);
-      return { result: packed, transfer };
+      return { result: { ...packed, packMs: performance.now() - packStart }, transfer };
     }
     case 'xlsx': {
       const started = performance.now();

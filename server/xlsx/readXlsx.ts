@@ -23,7 +23,9 @@ interface PendingText {
 }
 
 export async function readXlsx(buffer: Buffer, limits: ImportLimits): Promise<ParsedWorkbook> {
+  const started = performance.now();
   await inspectXlsxZip(buffer, limits);
+  const guardedAt = performance.now();
   const workbook = new ExcelJS.Workbook();
   try {
     await workbook.xlsx.load(buffer as unknown as ArrayBuffer, { ignoreNodes: IGNORED_NODES } as never);
@@ -31,6 +33,7 @@ export async function readXlsx(buffer: Buffer, limits: ImportLimits): Promise<Pa
     throw new SpreadsheetError('damaged_file', `the workbook's XML could not be read (${e instanceof Error ? e.message : String(e)})`);
   }
 
+  const loadedAt = performance.now();
   const sheets: ParsedSheet[] = [];
   const skipped: SkippedCell[] = [];
   const notes: string[] = [];
@@ -89,7 +92,8 @@ export async function readXlsx(buffer: Buffer, limits: ImportLimits): Promise<Pa
   const quote = textsNeedingApostrophe(pending.map((p) => p.text));
   pending.forEach((p, i) => (p.sheet.cells[p.index][2] = asTextInput(p.text, quote[i])));
 
-  return { sheets, summary: { sheets: sheets.length, cells: cellCount, formulas, skipped, notes } };
+  const timing = { guardMs: guardedAt - started, loadMs: loadedAt - guardedAt, cellsMs: performance.now() - loadedAt };
+  return { sheets, summary: { sheets: sheets.length, cells: cellCount, formulas, skipped, notes }, timing };
 }
 
 function isOrbitabAboutSheet(workbook: ExcelJS.Workbook, ws: ExcelJS.Worksheet): boolean {

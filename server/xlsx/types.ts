@@ -21,6 +21,8 @@ export interface ParsedSheet {
 export interface ParsedWorkbook {
   sheets: ParsedSheet[];
   summary: ImportSummary;
+  /** Where the reading time went (benchmarks): zip guard, exceljs, our pass over the cells. */
+  timing?: { guardMs: number; loadMs: number; cellsMs: number };
 }
 
 /** A sheet's stored settings (sheets.settings JSON): see sheetSettings.ts for the fields we read. */

@@ -84,6 +84,7 @@ export async function writeComputedXlsx(output: Writable, data: ExportWorkbook, 
   wb.created = data.exportedAt;
   wb.modified = data.exportedAt;
 
+  const styles = new SharedStyles();
   const omissions: string[] = [];
   const protection = data.sheets.flatMap((s, i) => describeProtection(names[i], s));
   if (withAbout) {
@@ -134,17 +135,50 @@ export async function writeComputedXlsx(output: Writable, data: ExportWorkbook, 
       const target = row!.getCell(cell.col + 1);
       const { value, numFmt, note } = cellValueFor(cell, mode);
       target.value = value;
-      if (numFmt) target.numFmt = numFmt;
+      const locked = plan.isLocked ? plan.isLocked(cell.row, cell.col) : undefined;
+      if (isPlainStyle(target.style)) target.style = styles.get(numFmt, locked, target.effectiveType);
+      else {
+        if (numFmt) target.numFmt = numFmt;
+        if (locked !== undefined) target.protection = { locked };
+      }
       if (note && notes < MAX_ERROR_NOTES_PER_SHEET) {
         target.note = note;
         notes++;
       }
-      if (plan.isLocked) target.protection = { locked: plan.isLocked(cell.row, cell.col) };
     }
     row?.commit();
     await ws.commit();
   }
   await wb.commit();
+}
+
+/**
+ * One style object per distinct (number format, locked, value type). exceljs gives every new cell
+ * its own empty style object and, when writing, turns each style object it has not seen into XML to
+ * find its index — for 100,000 cells that was a quarter of the writer's time. Shared objects hit its
+ * cache. The value type is part of the key because exceljs picks a default format by type the first
+ * time it sees an object. The objects are never mutated (cells only ever get a whole one assigned).
+ */
+class SharedStyles {
+  private byKey = new Map<string, Partial<ExcelJS.Style>>();
+  get(numFmt: string | undefined, locked: boolean | undefined, type: ExcelJS.ValueType): Partial<ExcelJS.Style> {
+    const key = `${numFmt ?? ''}\u0000${locked ?? ''}\u0000${type}`;
+    let style = this.byKey.get(key);
+    if (!style) {
+      style = {};
+      if (numFmt) style.numFmt = numFmt;
+      if (locked !== undefined) style.protection = { locked };
+      this.byKey.set(key, Object.freeze(style));
+    }
+    return style;
+  }
+}
+
+/** A cell that took no row or column style: the shared objects above can stand in for its style. */
+function isPlainStyle(style: Partial<ExcelJS.Style> | undefined): boolean {
+  if (!style) return true;
+  for (const _ in style) return false;
+  return true;
 }
 
 /** Empty cells inside protected ranges must exist in the file to carry their "locked" flag. */
