@@ -65,9 +65,19 @@ function richTextOf(value: unknown): string | null {
   return Array.isArray(rich) ? rich.map((r) => r.text ?? '').join('') : null;
 }
 
+/**
+ * A formula cell's stored model. exceljs's public `value` getter copies it into a new object on every
+ * read (40,000 copies for a screening sheet); the model is read in place instead (exceljs 4.4, pinned).
+ */
+function formulaModel(cell: ExcelJS.Cell): { shareType?: string; ref?: unknown } {
+  const model = (cell as unknown as { _value?: { model?: { shareType?: string; ref?: unknown } } })._value?.model;
+  return model ?? (cell.value as { shareType?: string; ref?: unknown });
+}
+
 export function readCell(cell: ExcelJS.Cell): CellReading {
-  const value = cell.value as any;
-  switch (cell.type) {
+  const type = cell.type;
+  const value = type === ValueType.Formula ? null : (cell.value as any);
+  switch (type) {
     case ValueType.Null:
       return { kind: 'empty' };
     case ValueType.Merge:
@@ -99,10 +109,11 @@ export function readCell(cell: ExcelJS.Cell): CellReading {
     case ValueType.Formula: {
       const formula = cleanFormulaText(String(cell.formula ?? ''));
       if (!formula) return { kind: 'skip', reason: 'formula text is missing (a shared formula whose master cell is gone)' };
-      const arrayRef = value?.shareType === 'array' && typeof value.ref === 'string' ? value.ref : undefined;
+      const model = formulaModel(cell);
+      const arrayRef = model.shareType === 'array' && typeof model.ref === 'string' ? model.ref : undefined;
       return { kind: 'formula', input: `=${formula}`, arrayRef };
     }
     default:
-      return { kind: 'skip', reason: `cell type ${String(cell.type)} is not supported` };
+      return { kind: 'skip', reason: `cell type ${String(type)} is not supported` };
   }
 }
