@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { AttemptLimiter, signInLimitDefaults } from '../server/auth/rateLimit.js';
+import { AttemptLimiter, signInLimitDefaults, signUpLimitDefault } from '../server/auth/rateLimit.js';
 import { makeTestApp, testPassword } from './helpers/app.js';
 
 const fifteenMinutesSeconds = 15 * 60;
@@ -105,5 +105,17 @@ describe('AttemptLimiter', () => {
     expect(limiter.check('k').allowed).toBe(true);
     limiter.record('k');
     expect(limiter.check('k')).toEqual({ allowed: false, retryAfterMs: 60_000 });
+  });
+
+  it(`refuses the sign-up after ${signUpLimitDefault.max} an hour from one address with 429 and Retry-After, before hashing a password`, async () => {
+    const t = makeTestApp();
+    for (let i = 0; i < signUpLimitDefault.max; i++) await t.signUp(`member${i}@lab.example`);
+    const res = await t.agent().post('/api/auth/sign-up').send({ email: 'one.more@lab.example', password: testPassword, name: 'One More' });
+    expect(res.status).toBe(429);
+    expect(Number(res.headers['retry-after'])).toBeGreaterThan(60 * 60 - 120);
+    expect(res.body.error).toMatchObject({ code: 'rate_limited', message: 'too many sign-ups for your address; try again in 60 minutes', details: { scope: 'address' } });
+    // Nothing was created, and signing in to existing accounts still works.
+    await t.agent().post('/api/auth/sign-in').send({ email: 'one.more@lab.example', password: testPassword }).expect(401);
+    await t.agent().post('/api/auth/sign-in').send({ email: 'member0@lab.example', password: testPassword }).expect(200);
   });
 });

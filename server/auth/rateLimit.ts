@@ -1,4 +1,4 @@
-// Sign-in attempt limits, kept in this process's memory.
+// Sign-in attempt limits (and a sign-up limit per address), kept in this process's memory.
 //
 // Why by hand: the rule we need is "count *failed* passwords per account (keyed by the normalised
 // email from the validated body) and *all* attempts per client address, check both before spending
@@ -28,6 +28,13 @@ export const signInLimitDefaults = {
   perAccount: { max: 5, windowMs: 15 * 60_000 },
   perAddress: { max: 20, windowMs: 15 * 60_000 },
 } satisfies Record<string, AttemptLimit>;
+
+/**
+ * Sign-ups per client address: each costs an argon2 hash (tens of milliseconds of CPU) and makes an
+ * account, so a script must not be able to repeat it freely. 30 an hour lets a lab behind one NAT
+ * onboard a group in one sitting (common practice; the number is our choice).
+ */
+export const signUpLimitDefault: AttemptLimit = { max: 30, windowMs: 60 * 60_000 };
 
 export type LimitCheck = { allowed: true } | { allowed: false; retryAfterMs: number };
 
@@ -80,17 +87,20 @@ export class AttemptLimiter {
   }
 }
 
+/** The sign-in limits, and the sign-up limit beside them (the same kind of counter). */
 export interface SignInLimits {
   perAccount: AttemptLimiter;
   perAddress: AttemptLimiter;
+  signUpPerAddress: AttemptLimiter;
 }
 
 export function createSignInLimits(
-  limits: { perAccount?: AttemptLimit; perAddress?: AttemptLimit } = {},
+  limits: { perAccount?: AttemptLimit; perAddress?: AttemptLimit; signUpPerAddress?: AttemptLimit } = {},
   now: () => number = Date.now,
 ): SignInLimits {
   return {
     perAccount: new AttemptLimiter(limits.perAccount ?? signInLimitDefaults.perAccount, now),
     perAddress: new AttemptLimiter(limits.perAddress ?? signInLimitDefaults.perAddress, now),
+    signUpPerAddress: new AttemptLimiter(limits.signUpPerAddress ?? signUpLimitDefault, now),
   };
 }

@@ -25,6 +25,9 @@ export function authRouter(ctx: AppContext): Router {
 
   router.post('/sign-up', async (req, res) => {
     const input = parse(signUpSchema, req.body);
+    const address = req.ip ?? 'unknown';
+    refuseIfLimited(signInLimits.signUpPerAddress, address, 'address', 'sign-ups');
+    signInLimits.signUpPerAddress.record(address);
     const passwordHash = await hashPassword(input.password);
     const user = createUser(db, { email: input.email, name: input.name, passwordHash }, config.adminEmail);
     await startSession(req, res, user.id);
@@ -67,7 +70,7 @@ export function authRouter(ctx: AppContext): Router {
   return router;
 }
 
-function refuseIfLimited(limiter: AttemptLimiter, key: string, scope: RateLimitDetails['scope']) {
+function refuseIfLimited(limiter: AttemptLimiter, key: string, scope: RateLimitDetails['scope'], what = 'sign-in attempts') {
   const check = limiter.check(key);
   if (check.allowed) return;
   const retryAfterSeconds = Math.max(1, Math.ceil(check.retryAfterMs / 1000));
@@ -76,7 +79,7 @@ function refuseIfLimited(limiter: AttemptLimiter, key: string, scope: RateLimitD
   throw new HttpError(
     429,
     'rate_limited',
-    `too many sign-in attempts for ${who}; try again in ${minutes} minute${minutes === 1 ? '' : 's'}`,
+    `too many ${what} for ${who}; try again in ${minutes} minute${minutes === 1 ? '' : 's'}`,
     { retryAfterSeconds, retryAt: new Date(Date.now() + retryAfterSeconds * 1000).toISOString(), scope } satisfies RateLimitDetails,
     { 'Retry-After': String(retryAfterSeconds) },
   );
