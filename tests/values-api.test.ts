@@ -104,3 +104,41 @@ describe('GET /api/workbooks/:id/values', () => {
     expect(screenValues.filter(([r]) => r >= 11).length).toBeGreaterThan(1); // MOTABLE spills a table
   });
 });
+
+describe('GET /api/workbooks/:id/values of a large workbook (computed in a worker)', () => {
+  it('gives the same values as computing in the server process, while the server keeps answering', async () => {
+    const { benchWorkbook } = await import('../bench/ioWorkload.js');
+    const { importSheets } = await import('../server/xlsx/importStore.js');
+    const { workbookSheets } = await import('../server/services/sheetOps.js');
+    const { createWorkbook, loadWorkbook } = await import('../server/services/workbookStore.js');
+    const { computeValues } = await import('../server/services/values.js');
+    const { VALUES_IN_WORKER_FROM_CELLS } = await import('../server/services/valuesInWorker.js');
+    const t = makeTestApp();
+    const owner = await t.signUp('lead@lab.test', 'Lab Lead');
+    // 3,000 invented screening rows × 10 columns: well past the worker threshold.
+    const cells = benchWorkbook(3_000).sheets[0].cells;
+    expect(cells.length).toBeGreaterThan(VALUES_IN_WORKER_FROM_CELLS);
+    const id = createWorkbook(t.ctx, owner.user, 'Large screen');
+    const [first] = workbookSheets(t.db, id);
+    const sheet = { name: 'Screening', cells, columnWidths: {}, frozenRows: 1, frozenCols: 0, merged: [] };
+    importSheets(t.ctx, id, owner.user.id, { sheets: [sheet], summary: { sheets: 1, cells: cells.length, formulas: 0, skipped: [], notes: [] } }, { replaceSheetId: first.id });
+
+    let done = false;
+    const request = owner.agent.get(`/api/workbooks/${id}/values`).then((r) => ((done = true), r));
+    let answeredMeanwhile = 0;
+    while (!done) {
+      expect((await owner.agent.get('/api/auth/me')).status).toBe(200);
+      if (!done) answeredMeanwhile++;
+    }
+    const res = await request;
+    expect(res.status).toBe(200);
+    expect(res.headers['content-type']).toMatch(/^application\/json/);
+    const inProcess = computeValues(loadWorkbook(t.ctx, { workbook: { id }, role: 'owner' } as never));
+    expect(res.body).toEqual(JSON.parse(JSON.stringify(inProcess)));
+    // O2 in row 8 of the invented list: bond order 2, two unpaired electrons (Atkins & de Paula, Physical Chemistry).
+    const at = (r: number, c: number) => (res.body as ValuesPayload).sheets[0].values.find(([row, col]) => row === r && col === c)?.[2];
+    expect([at(7, 0), at(7, 1), at(7, 2)]).toEqual(['O2', 2, 2]);
+    // The engine ran in the worker: other requests were answered while it worked.
+    expect(answeredMeanwhile).toBeGreaterThan(0);
+  }, 60_000);
+});

@@ -15,13 +15,14 @@ import {
 import type { WorkbookAction } from '../../shared/permissions.js';
 import { currentUser, requireUser } from '../auth/middleware.js';
 import type { AppContext } from '../context.js';
-import { parse } from '../errors.js';
+import { HttpError, parse } from '../errors.js';
 import { listVisibleWorkbooks, requireWorkbook } from '../services/access.js';
 import { applyPatch } from '../services/patches.js';
 import { restoreRevision } from '../services/restore.js';
 import { getRevision, listRevisions } from '../services/revisionLog.js';
 import { addSheet, deleteSheet, updateSheet } from '../services/sheetStore.js';
-import { computeValues } from '../services/values.js';
+import { valuesFor, type ValuesBody } from '../services/valuesInWorker.js';
+import { SpreadsheetError } from '../xlsx/limits.js';
 import { createWorkbook, deleteWorkbook, loadWorkbook, renameWorkbook, summarizeWorkbook } from '../services/workbookStore.js';
 
 const workbookParams = z.object({ id: idSchema });
@@ -108,8 +109,17 @@ export function workbooksRouter(ctx: AppContext): Router {
     res.json(restoreRevision(ctx, a.workbook.id, currentUser(res).id, n));
   });
 
-  router.get('/:id/values', (req, res) => {
-    res.json(computeValues(loadWorkbook(ctx, access(req, res, 'view'))));
+  router.get('/:id/values', async (req, res) => {
+    const workbook = loadWorkbook(ctx, access(req, res, 'view'));
+    let body: ValuesBody;
+    try {
+      body = await valuesFor(workbook);
+    } catch (e) {
+      if (e instanceof SpreadsheetError) throw new HttpError(503, 'values_failed', `values: ${e.message}`);
+      throw e;
+    }
+    if ('json' in body) res.json(body.json);
+    else res.type('application/json').send(Buffer.from(body.bytes.buffer, body.bytes.byteOffset, body.bytes.byteLength));
   });
 
   return router;

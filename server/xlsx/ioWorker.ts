@@ -3,7 +3,8 @@
 import { Writable } from 'node:stream';
 import { parentPort } from 'node:worker_threads';
 import { computeWorkbook } from './engineValues.js';
-import { packSheets, unpackSheets, type PackedExportWorkbook } from './packedCells.js';
+import { computeValues } from '../services/values.js';
+import { packSheets, unpackCells, unpackSheets, type PackedCells, type PackedExportWorkbook } from './packedCells.js';
 import { SpreadsheetError, type ImportLimits } from './limits.js';
 import { readSpreadsheet } from './read.js';
 import type { ExportMode, ExportWorkbook } from './types.js';
@@ -13,7 +14,9 @@ import { writeComputedXlsx } from './writeXlsx.js';
 export type IoJob =
   | { kind: 'parse'; buffer: Uint8Array; filename: string; limits: ImportLimits }
   | { kind: 'xlsx'; workbook: PackedExportWorkbook; mode: ExportMode }
-  | { kind: 'csv'; workbook: PackedExportWorkbook; sheetIndex: number };
+  | { kind: 'csv'; workbook: PackedExportWorkbook; sheetIndex: number }
+  /** GET …/values of a large workbook (services/valuesInWorker.ts): answered as UTF-8 JSON bytes. */
+  | { kind: 'values'; revision: number; sheets: { id: string; name: string; packed: PackedCells }[] };
 
 /** Bytes for the parent, moved rather than copied; the parent writes them to the response. */
 function chunkPoster(): Writable {
@@ -45,6 +48,11 @@ async function run(job: IoJob): Promise<{ result: unknown; transfer?: ArrayBuffe
       await writeComputedXlsx(out, workbook, computed, { mode: job.mode });
       await new Promise<void>((resolve) => (out.writableFinished ? resolve() : out.once('finish', resolve)));
       return { result: { engineMs: computedAt - started, writeMs: performance.now() - computedAt } };
+    }
+    case 'values': {
+      const payload = computeValues({ revision: job.revision, sheets: job.sheets.map((s) => ({ id: s.id, name: s.name, cells: unpackCells(s.packed) })) as never });
+      const bytes = new TextEncoder().encode(JSON.stringify(payload));
+      return { result: bytes, transfer: [bytes.buffer as ArrayBuffer] };
     }
     case 'csv': {
       const started = performance.now();
