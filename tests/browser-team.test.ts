@@ -195,6 +195,9 @@ describe('two people on one workbook', () => {
     await dialog.getByRole('button', { name: 'Done' }).click();
 
     await b.getByRole('status', { name: 'Sheet protection' }).getByText(/Locked by Ada Okafor on .*: “Reference values checked against the tables”/).waitFor();
+    // The tab carries the lock too, with who and why on hover.
+    const lockedTab = b.getByRole('tab', { name: 'Sheet1 (locked)' });
+    expect(await lockedTab.getAttribute('title')).toContain('Locked by Ada Okafor: Reference values checked against the tables');
     expect(await cell(b, 'E9').getAttribute('class')).toContain('dsg-cell-disabled');
     await typeInto(b, 'E9', 'CN-');
     expect(await cell(b, 'E9').textContent()).toBe('');
@@ -213,6 +216,7 @@ describe('two people on one workbook', () => {
     await dialog.getByLabel('Why lock it?').waitFor();
     await dialog.getByRole('button', { name: 'Done' }).click();
     await b.getByText(/Protected range A1:C1: greyed cells/).waitFor();
+    await b.getByRole('tab', { name: 'Sheet1', exact: true }).waitFor();
     expect(await cell(b, 'E9').getAttribute('class')).not.toContain('dsg-cell-disabled');
   });
 

@@ -52,3 +52,11 @@ export const OrbitabMark = ({ size = 18 }: { size?: number }) => (
     <circle cx="8" cy="8" r="1.6" fill="var(--color-on-accent)" />
   </svg>
 );
+
+/** A closed padlock, for locked sheets. */
+export const LockIcon = (props: { className?: string }) => (
+  <Icon width="12" height="12" className={props.className}>
+    <rect x="3.5" y="7" width="9" height="6.5" rx="1.25" />
+    <path d="M5.5 7V5a2.5 2.5 0 0 1 5 0v2" />
+  </Icon>
+);

@@ -267,7 +267,10 @@ export function Workspace({ session }: { session: WorkbookSession }) {
         )}
       </div>
       <SheetTabs
-        sheets={sheets.map((s) => ({ id: s.id, name: s.name }))}
+        sheets={sheets.map((s) => {
+          const lock = team.protection.locks.find((l) => l.sheetId === s.id);
+          return { id: s.id, name: s.name, lock: lock ? { by: lock.lockedBy.name, reason: lock.reason } : undefined };
+        })}
         activeId={activeSheetId}
         canEdit={!model.readOnly}
         onSelect={switchSheet}

@@ -1,11 +1,14 @@
 // Sheet tabs along the bottom: switch, add, rename (double-click), move left/right or drag, delete.
 import { useState } from 'react';
 import { ConfirmDialog } from '../../../components/ui/Dialog.js';
+import { LockIcon } from '../../../components/ui/icons.js';
 import { sheetNameSchema } from '../../../../shared/workbooks.js';
 
 export interface TabSheet {
   id: string;
   name: string;
+  /** Set while the sheet is locked: who locked it and why (shown on the tab). */
+  lock?: { by: string; reason: string };
 }
 
 export interface SheetTabsProps {
@@ -85,11 +88,13 @@ export function SheetTabs(p: SheetTabsProps) {
               }}
               onClick={() => p.onSelect(s.id)}
               onDoubleClick={() => p.canEdit && setRenaming({ id: s.id, name: s.name })}
-              title={p.canEdit ? 'Double-click to rename; drag to move' : s.name}
+              aria-label={s.lock ? `${s.name} (locked)` : undefined}
+              title={[s.lock ? `Locked by ${s.lock.by}${s.lock.reason ? `: ${s.lock.reason}` : ''}` : '', p.canEdit ? 'Double-click to rename; drag to move' : s.name].filter(Boolean).join('\n')}
               className={`-mt-px flex max-w-48 items-center border-x border-b px-3 font-medium whitespace-nowrap ${
                 s.id === p.activeId ? 'border-line bg-surface text-accent shadow-[inset_0_2px_0_var(--color-accent)]' : 'border-transparent text-ink-2 hover:bg-hover hover:text-ink'
               }`}
             >
+              {s.lock && <LockIcon className="mr-1 shrink-0 text-ink-3" />}
               <span className="truncate">{s.name}</span>
             </button>
           ),
