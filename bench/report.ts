@@ -139,6 +139,18 @@ function ioRows(r: Loose): SummaryRow[] {
     parts.push({ bench: 'Import/export', measure: "export: the engine's recalculation alone / exceljs's whole write", value: ratioText(e.engineOnlyRatio, e.engineMs, e.bareMs), target: '—', met: null });
     parts.push({ bench: 'Import/export', measure: 'export: our writer alone, given the values / exceljs alone', value: ratioText(e.writerOnlyRatio, e.writerOnlyMs, e.bareMs), target: '—', met: null });
   }
+  if (typeof e.floorRatio === 'number') {
+    parts.push({ bench: 'Import/export', measure: 'export lower bound: (engine alone + our writer alone) / exceljs alone', value: `${num(e.floorRatio)}×`, target: '—', met: null });
+  }
+  if (typeof i.floorRatio === 'number') {
+    parts.push({
+      bench: 'Import/export',
+      measure: 'import lower bound: (exceljs alone + zip guard + packing + SQLite alone) / exceljs alone',
+      value: `${num(i.floorRatio)}× (SQLite alone ${ms(i.rawInsertMs)})`,
+      target: '—',
+      met: null,
+    });
+  }
   if (typeof par.speedup === 'number') {
     parts.push({ bench: 'Import/export', measure: 'recalculation split over two workers (two halves at once / whole in one)', value: `${num(par.speedup)}× faster (${ms(par.halvesAtOnceMs)} vs ${ms(par.wholeMs)})`, target: '—', met: null });
   }
