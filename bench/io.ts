@@ -23,13 +23,13 @@ import { Worker } from 'node:worker_threads';
 import ExcelJS from 'exceljs';
 import { createApp } from '../server/app.js';
 import { loadConfig } from '../server/config.js';
-import { openDatabase } from '../server/db/index.js';
+import { openDatabase, type Db } from '../server/db/index.js';
 import { users } from '../server/db/schema.js';
 import { workbookSheets } from '../server/services/sheetOps.js';
 import { createWorkbook } from '../server/services/workbookStore.js';
 import { computeWorkbook, type ComputedWorkbook } from '../server/xlsx/engineValues.js';
 import { exportInWorker } from '../server/xlsx/exportInWorker.js';
-import { importSheets } from '../server/xlsx/importStore.js';
+import { cellInserter, importSheets } from '../server/xlsx/importStore.js';
 import { closeParsePool, parseInWorker, warmParsePool } from '../server/xlsx/parseInWorker.js';
 import { readSpreadsheet } from '../server/xlsx/read.js';
 import { writeComputedXlsx } from '../server/xlsx/writeXlsx.js';
@@ -83,7 +83,13 @@ export interface IoBenchResult {
     /** SQLite alone inserting the same rows into a bare table shaped like cells (rawInsertMs). */
     rawInsertMs: number;
     /** (exceljs alone + zip guard + packing for the trip out of the worker + SQLite alone) / exceljs alone. */
-    floorRatio: number; storeMs: number; inProcessParseMs: number; peakRssMb: number; bareRssMb: number; workerHeapMb: number };
+    floorRatio: number;
+    storeMs: number;
+    inProcessParseMs: number;
+    peakRssMb: number;
+    bareRssMb: number;
+    workerHeapMb: number;
+  };
   targetRatio: number;
   withinTarget: { export: boolean; import: boolean };
 }
@@ -177,33 +183,16 @@ async function parallelEngineCheck(sheet: { name: string; cells: CellTriple[] },
 }
 
 /**
- * SQLite's own part of storing the cells: the same 100,000 rows inserted into a bare table shaped like
- * `cells` (WITHOUT ROWID, same key; no foreign key, no revision, no checks), 200 rows a statement,
- * one transaction — the least any import that stores them can spend.
+ * SQLite's own part of storing the cells: the same 100,000 rows inserted by the import's own loop
+ * (cellInserter) into a bare table shaped like `cells` (WITHOUT ROWID, same key; no foreign key, no
+ * revision record, no checks), one transaction — the least any import that stores them can spend.
  */
-function rawInsertMs(db: ReturnType<typeof openDatabase>, cells: CellTriple[]): number {
+function rawInsertMs(db: Db, cells: CellTriple[]): number {
   const sqlite = db.$client;
   sqlite.exec('drop table if exists bench_cells; create table bench_cells (sheet_id text not null, row integer not null, col integer not null, input text not null, revision integer not null, primary key (sheet_id, row, col)) without rowid');
-  const perStatement = 200;
-  const full = sqlite.prepare(`insert into bench_cells values ${Array.from({ length: perStatement }, () => '(?, ?, ?, ?, ?)').join(', ')}`);
-  const params: (string | number)[] = new Array(perStatement * 5);
-  const sheetId = '00000000-0000-4000-8000-000000000000';
+  const insert = cellInserter(sqlite, 'bench_cells');
   const started = performance.now();
-  sqlite.transaction(() => {
-    for (let i = 0; i < cells.length; i += perStatement) {
-      const n = Math.min(perStatement, cells.length - i);
-      const bound = n === perStatement ? params : new Array<string | number>(n * 5);
-      for (let k = 0; k < n; k++) {
-        const [row, col, input] = cells[i + k];
-        bound[k * 5] = sheetId;
-        bound[k * 5 + 1] = row;
-        bound[k * 5 + 2] = col;
-        bound[k * 5 + 3] = input;
-        bound[k * 5 + 4] = 1;
-      }
-      (n === perStatement ? full : sqlite.prepare(`insert into bench_cells values ${Array.from({ length: n }, () => '(?, ?, ?, ?, ?)').join(', ')}`)).run(bound);
-    }
-  })();
+  sqlite.transaction(() => insert('00000000-0000-4000-8000-000000000000', cells, 1))();
   const ms = performance.now() - started;
   sqlite.exec('drop table bench_cells');
   return ms;

@@ -2,7 +2,7 @@
 // integrations and export. Only non-empty values are returned, as [row, col, value] per sheet.
 import { CellType, DenseSparseChooseBasedOnThreshold, DetailedCellError, ErrorType, type CellValue, type HyperFormula } from 'hyperformula';
 import { createEngine, type SheetInput } from '../../functions/engine.js';
-import type { ComputedValue, ValueEntry, ValuesPayload, WorkbookPayload } from '../../shared/workbooks.js';
+import type { ComputedValue, SheetPayload, ValueEntry, ValuesPayload, WorkbookPayload } from '../../shared/workbooks.js';
 
 // Rows without cells share one empty array, so a lone cell in row 900,000 costs one pointer per row
 // rather than a dense block (the engine only reads its input).
@@ -66,7 +66,13 @@ function candidateCells(engine: HyperFormula, sheet: number, cells: WorkbookPayl
   return out.sort((a, b) => a[0] - b[0] || a[1] - b[1]);
 }
 
-export function computeValues(workbook: Pick<WorkbookPayload, 'revision' | 'sheets'>): ValuesPayload {
+/** What computing values needs of a workbook: its revision and each sheet's id, name and cells. */
+export interface ValuesInput {
+  revision: number;
+  sheets: Pick<SheetPayload, 'id' | 'name' | 'cells'>[];
+}
+
+export function computeValues(workbook: ValuesInput): ValuesPayload {
   // The engine's default address map is dense per sheet; a sparse sheet (one cell far down) would
   // then allocate its whole bounding box, so sheets less than a tenth filled are stored sparse.
   const engine = createEngine(Object.fromEntries(workbook.sheets.map((s) => [s.name, denseSheet(s.cells)])), {

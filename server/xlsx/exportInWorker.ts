@@ -2,7 +2,7 @@
 // as they come: the engine's recalculation of a large workbook (a second or more for 100,000 cells)
 // then never holds the server's event loop.
 import type { Writable } from 'node:stream';
-import { defaultWorkerLimits, type WorkerLimits } from './limits.js';
+import { recalcWorkerLimits, type WorkerLimits } from './limits.js';
 import type { ExportMode, ExportWorkbook } from './types.js';
 import { packSheets } from './packedCells.js';
 import { ioPool } from './workerPool.js';
@@ -28,7 +28,7 @@ export async function exportInWorker(output: Writable, workbook: ExportWorkbook,
   const { packed, transfer } = packSheets(workbook);
   const job = format.kind === 'xlsx' ? { kind: 'xlsx', workbook: packed, mode: format.mode } : { kind: 'csv', workbook: packed, sheetIndex: format.sheetIndex };
   const outcome = await ioPool.run<{ engineMs: number; writeMs: number }>(job, transfer, {
-    limits: options.workerLimits ?? { ...defaultWorkerLimits, timeoutMs: 120_000 },
+    limits: options.workerLimits ?? recalcWorkerLimits,
     doing: 'writing the export',
     onProgress: (m) => {
       const chunk = (m as { chunk?: Uint8Array }).chunk;

@@ -2,6 +2,7 @@
 // revision of kind 'import', recorded as sheet operations so history can show and undo it. Not pure:
 // this is the one file of the import that touches the database.
 import { randomUUID } from 'node:crypto';
+import type Database from 'better-sqlite3';
 import { cellInputProblem } from '../../shared/cellInput.js';
 import { maxInputLength, maxSheetNameLength, type RevisionKind, type RevisionPatch, type SheetOp } from '../../shared/workbooks.js';
 import type { AppContext } from '../context.js';
@@ -9,7 +10,7 @@ import { addressOf } from './a1.js';
 import { applySheetOp, workbookSheets } from '../services/sheetOps.js';
 import { nextRevision, recordRevision } from '../services/revisionLog.js';
 import { settingsFromParsed } from './sheetSettings.js';
-import type { ImportSummary, ParsedWorkbook } from './types.js';
+import type { CellTriple, ImportSummary, ParsedWorkbook } from './types.js';
 
 export interface ImportOutcome {
   revision: number;
@@ -33,13 +34,14 @@ const ROWS_PER_STATEMENT = 200;
 /**
  * Inserts a sheet's cells, many rows per statement (SQLite's per-statement cost dominates otherwise).
  * One parameter array is filled in place for every full statement: building a fresh array per cell
- * cost more than SQLite's own work for 100,000 cells.
+ * cost more than SQLite's own work for 100,000 cells. `table` is `cells` but for the benchmark, which
+ * times the same loop into a bare table of the same shape (bench/io.ts).
  */
-function cellInserter(ctx: AppContext) {
-  const sql = (n: number) => `insert into cells (sheet_id, row, col, input, revision) values ${Array.from({ length: n }, () => '(?, ?, ?, ?, ?)').join(', ')}`;
-  const full = ctx.db.$client.prepare(sql(ROWS_PER_STATEMENT));
+export function cellInserter(sqlite: Database.Database, table = 'cells') {
+  const sql = (n: number) => `insert into ${table} (sheet_id, row, col, input, revision) values ${Array.from({ length: n }, () => '(?, ?, ?, ?, ?)').join(', ')}`;
+  const full = sqlite.prepare(sql(ROWS_PER_STATEMENT));
   const params: (string | number)[] = new Array(ROWS_PER_STATEMENT * 5);
-  return (sheetId: string, cells: [number, number, string][], revision: number) => {
+  return (sheetId: string, cells: readonly CellTriple[], revision: number) => {
     for (let i = 0; i < cells.length; i += ROWS_PER_STATEMENT) {
       const n = Math.min(ROWS_PER_STATEMENT, cells.length - i);
       const bound = n === ROWS_PER_STATEMENT ? params : new Array<string | number>(n * 5);
@@ -52,7 +54,7 @@ function cellInserter(ctx: AppContext) {
         bound[at + 3] = input;
         bound[at + 4] = revision;
       }
-      (n === ROWS_PER_STATEMENT ? full : ctx.db.$client.prepare(sql(n))).run(bound);
+      (n === ROWS_PER_STATEMENT ? full : sqlite.prepare(sql(n))).run(bound);
     }
   };
 }
@@ -63,7 +65,7 @@ function cellInserter(ctx: AppContext) {
  */
 export function importSheets(ctx: AppContext, workbookId: string, userId: string, parsed: ParsedWorkbook, opts: { replaceSheetId?: string } = {}): ImportOutcome {
   const summary: ImportSummary = { ...parsed.summary, skipped: [...parsed.summary.skipped], notes: [...parsed.summary.notes] };
-  const insertCells = cellInserter(ctx);
+  const insertCells = cellInserter(ctx.db.$client);
 
   const outcome = ctx.db.transaction(
     (tx) => {

@@ -50,7 +50,7 @@ async function run(job: IoJob): Promise<{ result: unknown; transfer?: ArrayBuffe
       return { result: { engineMs: computedAt - started, writeMs: performance.now() - computedAt } };
     }
     case 'values': {
-      const payload = computeValues({ revision: job.revision, sheets: job.sheets.map((s) => ({ id: s.id, name: s.name, cells: unpackCells(s.packed) })) as never });
+      const payload = computeValues({ revision: job.revision, sheets: job.sheets.map((s) => ({ id: s.id, name: s.name, cells: unpackCells(s.packed) })) });
       const bytes = new TextEncoder().encode(JSON.stringify(payload));
       return { result: bytes, transfer: [bytes.buffer as ArrayBuffer] };
     }

@@ -46,6 +46,9 @@ export const defaultWorkerLimits: WorkerLimits = {
   timeoutMs: 60_000,
 };
 
+/** For recalculating a whole workbook (exports, large /values): the same heap, twice the time. */
+export const recalcWorkerLimits: WorkerLimits = { ...defaultWorkerLimits, timeoutMs: 120_000 };
+
 export type SpreadsheetErrorCode =
   | 'not_a_spreadsheet'
   | 'damaged_file'

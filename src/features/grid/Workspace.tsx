@@ -22,6 +22,7 @@ import { useModelVersion, useSaveStatus, type WorkbookSession } from './session/
 import { useSheetCommands, type ViewSelection } from './useSheetCommands.js';
 import { useSheetView } from './useSheetView.js';
 import { ConflictResolver } from '../live/ConflictResolver.js';
+import { lockSummary } from '../locks/SheetLockSection.js';
 import { TeamNotices } from '../live/TeamNotices.js';
 import { TeamToolbar } from '../live/TeamToolbar.js';
 import { useWorkbookTeam } from '../live/useWorkbookTeam.js';
@@ -269,7 +270,7 @@ export function Workspace({ session }: { session: WorkbookSession }) {
       <SheetTabs
         sheets={sheets.map((s) => {
           const lock = team.protection.locks.find((l) => l.sheetId === s.id);
-          return { id: s.id, name: s.name, lock: lock ? { by: lock.lockedBy.name, reason: lock.reason } : undefined };
+          return { id: s.id, name: s.name, lock: lock && lockSummary(lock) };
         })}
         activeId={activeSheetId}
         canEdit={!model.readOnly}

@@ -7,8 +7,8 @@ import { sheetNameSchema } from '../../../../shared/workbooks.js';
 export interface TabSheet {
   id: string;
   name: string;
-  /** Set while the sheet is locked: who locked it and why (shown on the tab). */
-  lock?: { by: string; reason: string };
+  /** Set while the sheet is locked: the lock's summary (who, when, why), shown on the tab's hover. */
+  lock?: string;
 }
 
 export interface SheetTabsProps {
@@ -89,7 +89,7 @@ export function SheetTabs(p: SheetTabsProps) {
               onClick={() => p.onSelect(s.id)}
               onDoubleClick={() => p.canEdit && setRenaming({ id: s.id, name: s.name })}
               aria-label={s.lock ? `${s.name} (locked)` : undefined}
-              title={[s.lock ? `Locked by ${s.lock.by}${s.lock.reason ? `: ${s.lock.reason}` : ''}` : '', p.canEdit ? 'Double-click to rename; drag to move' : s.name].filter(Boolean).join('\n')}
+              title={[s.lock, p.canEdit ? 'Double-click to rename; drag to move' : s.name].filter(Boolean).join('\n')}
               className={`-mt-px flex max-w-48 items-center border-x border-b px-3 font-medium whitespace-nowrap ${
                 s.id === p.activeId ? 'border-line bg-surface text-accent shadow-[inset_0_2px_0_var(--color-accent)]' : 'border-transparent text-ink-2 hover:bg-hover hover:text-ink'
               }`}
