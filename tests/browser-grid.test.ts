@@ -342,7 +342,8 @@ describe('the workbook grid in a browser', () => {
       return 0.2126 * r + 0.7152 * g + 0.0722 * b;
     };
     const colours = await page.evaluate(() => {
-      let el: Element | null = document.querySelector('.dsg-cell:not(.dsg-cell-header)');
+      const cellText = [...document.querySelectorAll('[data-testid="sheet-grid"] .orb-cell')].find((e) => (e.textContent ?? '').trim() !== '');
+      let el: Element | null = cellText ?? null;
       let bg = 'rgba(0, 0, 0, 0)';
       const text = el ? getComputedStyle(el).color : '';
       while (el && /rgba\(0, 0, 0, 0\)|transparent/.test(bg)) {
@@ -351,8 +352,8 @@ describe('the workbook grid in a browser', () => {
       }
       return { bg, text };
     });
-    expect(luminance(colours.bg)).toBeLessThan(0.1);
-    expect(luminance(colours.text)).toBeGreaterThan(0.4);
+    expect(luminance(colours.bg), JSON.stringify(colours)).toBeLessThan(0.1);
+    expect(luminance(colours.text), JSON.stringify(colours)).toBeGreaterThan(0.4);
     await screenshot(page, 'grid-dark');
     await page.emulateMedia({ colorScheme: 'light' });
   });
