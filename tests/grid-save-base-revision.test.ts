@@ -3,9 +3,9 @@
 // my next edit would overwrite a colleague's input I never saw. The same scenario end to end, on a
 // real server, is in client-team-conflicts.test.ts.
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
-import { PatchQueue, type PatchTransport } from '../src/features/grid/save/patchQueue.js';
-import { PendingStore, type CellInput } from '../src/features/grid/save/pendingStore.js';
-import { RevisionLedger } from '../src/features/grid/save/revisionLedger.js';
+import { PatchQueue, type PatchTransport } from '../src/core/workbook/save/patchQueue.js';
+import { PendingStore, type CellInput } from '../src/core/workbook/save/pendingStore.js';
+import { RevisionLedger } from '../src/core/workbook/save/revisionLedger.js';
 import { ApiError } from '../src/lib/api.js';
 import { cell, MemoryStorage, scriptedServer, settle } from './helpers/scriptedServer.js';
 

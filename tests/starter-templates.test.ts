@@ -5,7 +5,7 @@ import { renderToStaticMarkup } from 'react-dom/server';
 import { describe, expect, it } from 'vitest';
 import { createEngine } from '../functions/engine.js';
 import type { WorkbookPayload } from '../shared/workbooks.js';
-import { WorkbookModel } from '../src/features/grid/model/workbookModel.js';
+import { WorkbookModel } from '../src/core/workbook/model/workbookModel.js';
 import { StarterTemplate } from '../src/features/grid/StarterTemplate.js';
 import { starterTemplates, templateChanges } from '../src/features/grid/starterTemplates.js';
 

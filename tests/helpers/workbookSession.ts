@@ -1,9 +1,9 @@
 // A browser workbook session in Node for client tests: the real grid model (engine and cell
 // functions) and the real save queue over in-memory storage, on a one-sheet workbook at revision 4.
 import type { WorkbookPayload } from '../../shared/workbooks.js';
-import { WorkbookModel } from '../../src/features/grid/model/workbookModel.js';
-import { PatchQueue, type PatchTransport } from '../../src/features/grid/save/patchQueue.js';
-import { PendingStore, type KeyValueStorage } from '../../src/features/grid/save/pendingStore.js';
+import { WorkbookModel } from '../../src/core/workbook/model/workbookModel.js';
+import { PatchQueue, type PatchTransport } from '../../src/core/workbook/save/patchQueue.js';
+import { PendingStore, type KeyValueStorage } from '../../src/core/workbook/save/pendingStore.js';
 
 export function memoryStorage(): KeyValueStorage {
   const data = new Map<string, string>();
