@@ -50,9 +50,8 @@ const refusal = (action: () => unknown) => {
 };
 
 beforeEach(() => {
-  m = new WorkbookModel(payload);
   sent = [];
-  m.onLocalChanges = (c) => sent.push(c);
+  m = new WorkbookModel(payload, { onLocalChanges: (c) => sent.push(c) });
 });
 
 function expectUntouched() {

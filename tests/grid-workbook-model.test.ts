@@ -23,9 +23,8 @@ function payload(cells: [number, number, string][], other: [number, number, stri
 
 let sent: CellInput[][];
 function open(p: WorkbookPayload) {
-  const m = new WorkbookModel(p);
   sent = [];
-  m.onLocalChanges = (c) => sent.push(c);
+  const m = new WorkbookModel(p, { onLocalChanges: (c) => sent.push(c) });
   return m;
 }
 const rowsFrom = (first: number, count: number) => Array.from({ length: count }, (_, i) => first + i);

@@ -43,9 +43,8 @@ describe('starter templates', () => {
   });
 
   it('fills in dioxygen\'s bond order 2 and two unpaired electrons when applied to an empty workbook', () => {
-    const model = new WorkbookModel(payload('owner'));
     const sent: unknown[] = [];
-    model.onLocalChanges = (changes) => sent.push(...changes);
+    const model = new WorkbookModel(payload('owner'), { onLocalChanges: (changes) => sent.push(...changes) });
     const outcome = model.edit(templateChanges(starterTemplates[0], 'sheet-1'));
     expect(outcome.refused).toEqual([]);
     expect(model.view('sheet-1', 1, 2)?.value).toBe(2); // BONDORDER("O2")

@@ -39,10 +39,8 @@ export async function twoAnalysts() {
       return res.body as PatchResult;
     },
   };
-  const model = new WorkbookModel(payload);
-  const queue = new PatchQueue({ transport, store: new PendingStore(memoryStorage(), id), baseRevision: payload.revision, debounceMs: 0, firstRetryMs: 50 });
-  model.onLocalChanges = (c) => queue.enqueue(c);
-  queue.showRemote = (inputs) => model.applyRemote(inputs);
+  const model: WorkbookModel = new WorkbookModel(payload, { onLocalChanges: (c) => queue.enqueue(c) });
+  const queue: PatchQueue = new PatchQueue({ transport, store: new PendingStore(memoryStorage(), id), baseRevision: payload.revision, debounceMs: 0, firstRetryMs: 50, showRemote: (inputs) => model.applyRemote(inputs) });
   const feed = new RevisionFeed({
     start: payload.revision,
     apply: (rev) => applyRemoteRevision(model, queue, rev),

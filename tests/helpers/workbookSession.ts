@@ -16,9 +16,7 @@ export function onePayload(cells: [number, number, string][]): WorkbookPayload {
 
 /** By default the transport never answers (nothing leaves the queue). */
 export function session(cells: [number, number, string][], transport: PatchTransport = { send: () => new Promise(() => {}) }) {
-  const model = new WorkbookModel(onePayload(cells));
-  const queue = new PatchQueue({ transport, store: new PendingStore(memoryStorage(), 'wb'), baseRevision: 4, debounceMs: 300 });
-  model.onLocalChanges = (c) => queue.enqueue(c);
-  queue.showRemote = (inputs) => model.applyRemote(inputs);
+  const model: WorkbookModel = new WorkbookModel(onePayload(cells), { onLocalChanges: (c) => queue.enqueue(c) });
+  const queue: PatchQueue = new PatchQueue({ transport, store: new PendingStore(memoryStorage(), 'wb'), baseRevision: 4, debounceMs: 300, showRemote: (inputs) => model.applyRemote(inputs) });
   return { model, queue };
 }
