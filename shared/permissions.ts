@@ -56,6 +56,19 @@ export function canAny(roles: readonly AccessRole[], action: WorkbookAction): bo
   return roles.some((r) => can(r, action));
 }
 
+/**
+ * Everything a user may do with all their roles together: what the server decides with, sent to the
+ * client so that it shows exactly the controls the server will accept.
+ */
+export function allowedActions(roles: readonly AccessRole[]): WorkbookAction[] {
+  return (Object.keys(workbookActions) as WorkbookAction[]).filter((action) => canAny(roles, action));
+}
+
+/** Whether a list of allowed actions (from the server) includes this one. */
+export function allows(actions: readonly WorkbookAction[] | undefined, action: WorkbookAction): boolean {
+  return actions?.includes(action) ?? false;
+}
+
 const roleNames: Record<AccessRole, string> = { owner: 'an owner', editor: 'an editor', viewer: 'a viewer', 'site-admin': 'a site admin' };
 
 /** The reason a 403 gives: "as a viewer you cannot edit cells". */

@@ -1,6 +1,6 @@
 import { useState, type FormEvent, type KeyboardEvent } from 'react';
 import { Link } from 'react-router';
-import { can } from '../../../shared/permissions.js';
+import { allows } from '../../../shared/permissions.js';
 import { renameWorkbookSchema, type WorkbookSummary } from '../../../shared/workbooks.js';
 import { Button } from '../../components/ui/Button.js';
 import { SheetIcon } from '../../components/ui/icons.js';
@@ -92,12 +92,12 @@ export function WorkbookRow({ workbook, myId, onDelete }: { workbook: WorkbookSu
       <td className="py-1 pr-2 pl-3 text-right whitespace-nowrap">
         {!renaming && (
           <span className="inline-flex gap-0.5">
-            {can(workbook.role, 'rename') && (
+            {allows(workbook.actions, 'rename') && (
               <Button variant="ghost" onClick={() => setRenaming(true)} aria-label={`Rename ${workbook.title}`}>
                 Rename
               </Button>
             )}
-            {can(workbook.role, 'delete') && (
+            {allows(workbook.actions, 'delete') && (
               <Button variant="ghost" className="hover:text-danger" onClick={onDelete} aria-label={`Delete ${workbook.title}`}>
                 Delete
               </Button>
