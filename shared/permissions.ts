@@ -69,7 +69,14 @@ export function allows(actions: readonly WorkbookAction[] | undefined, action: W
   return actions?.includes(action) ?? false;
 }
 
+/** Each role in words, the one place they are written: as a label, and as a sentence says it. */
+export const roleLabels: Record<AccessRole, string> = { owner: 'Owner', editor: 'Editor', viewer: 'Viewer', 'site-admin': 'Site admin' };
 const roleNames: Record<AccessRole, string> = { owner: 'an owner', editor: 'an editor', viewer: 'a viewer', 'site-admin': 'a site admin' };
+
+/** "an editor"; a role this version does not know (an old audit entry) is named as recorded. */
+export function roleInSentence(role: unknown): string {
+  return typeof role === 'string' && role in roleNames ? roleNames[role as AccessRole] : `a ${typeof role === 'string' && role ? role : '?'}`;
+}
 
 /** The reason a 403 gives: "as a viewer you cannot edit cells". */
 export function refusalReason(role: AccessRole, action: WorkbookAction): string {

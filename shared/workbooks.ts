@@ -1,5 +1,5 @@
 // Workbooks, sheets, patches and revisions: the request bodies the server validates (and the client
-// reuses) and the payloads the API returns. Paths are in ARCHITECTURE.md.
+// reuses) and the payloads the API returns. The routes that take and give them are in server/routes/.
 import { z } from 'zod';
 import type { AccessRole, WorkbookAction } from './permissions.js';
 import type { ProtectedRange, SheetLock, TeamEvent } from './team.js';
