@@ -94,6 +94,7 @@ export function Workspace({ session }: { session: WorkbookSession }) {
       return { row, col: Math.max(0, cols - 1) };
     },
     lastUsedColInRow: (r) => Math.max(0, ...Object.keys(view.data[r] ?? {}).map(Number)),
+    isFilled: (r, c) => (view.data[r]?.[c]?.display ?? '') !== '',
     pageRows: () => Math.max(1, Math.floor((document.querySelector('[data-testid="sheet-grid"]')?.clientHeight ?? 480) / 24) - 2),
     ...commands,
   });
