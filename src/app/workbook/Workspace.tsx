@@ -235,7 +235,7 @@ export function Workspace({ session }: { session: WorkbookSession }) {
       <SheetTabs
         sheets={sheets.map((s) => {
           const lock = team.protection.locks.find((l) => l.sheetId === s.id);
-          return { id: s.id, name: s.name, lock: lock && lockSummary(lock) };
+          return { id: s.id, name: s.name, lock: lock && lockSummary(lock, team.myId) };
         })}
         activeId={activeSheetId}
         canEdit={!model.readOnly}
