@@ -35,7 +35,7 @@ export type SpillArg =
   | { kind: 'range'; rows: number; cols: number }
   | { kind: 'other' };
 
-export type Family = 'Diatomic' | 'LCAO' | 'Units' | 'Hückel';
+export type Family = 'Diatomic' | 'LCAO' | 'Units' | 'Hückel' | 'Extended Hückel';
 
 export interface CatalogEntry {
   name: string;
