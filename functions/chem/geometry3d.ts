@@ -32,7 +32,9 @@ export function geometrySourceOf(text: string): GeometrySource {
   const t = text.trim();
   if (/M {2}END|V[23]000/.test(t)) return 'molfile';
   const firstLine = t.split(/\r?\n|;/)[0].trim();
-  if (/^\d+$/.test(firstLine) || /^[A-Za-z]{1,2}\s+[-+0-9.eE]+\s+[-+0-9.eE]+\s+[-+0-9.eE]+$/.test(firstLine)) return 'xyz';
+  // An element symbol followed by a number cannot start SMILES (a SMILES name follows a space but is
+  // not numeric), so such a line is read as XYZ and a malformed one gets the XYZ message.
+  if (/^\d+$/.test(firstLine) || /^[A-Za-z]{1,2}\s+[-+.\d]/.test(firstLine)) return 'xyz';
   return 'smiles-conformer';
 }
 
@@ -108,7 +110,7 @@ export function conformerFromSmiles(smiles: string): Geometry3d {
     molecule = Molecule.fromSmiles(smiles);
   } catch (e) {
     const raw = e instanceof Error ? e.message : String(e);
-    throw new ChemError(`cannot read SMILES '${smiles}': ${raw.replace(/^.*?SmilesParser:\s*/, '')}`);
+    throw new ChemError(`cannot read SMILES '${smiles}': ${raw.replace(/^.*?SmilesParser:\s*/, '').replace(/^Class\$\S+:\s*/, '')}`);
   }
   if (molecule.getAllAtoms() === 0) throw new ChemError(`cannot read SMILES '${smiles}': no atoms`);
   let conformer: Molecule | null;
