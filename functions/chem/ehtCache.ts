@@ -6,7 +6,7 @@ import { solveEht, type EhtModel } from './eht.js';
 import { readGeometry, type Geometry3d } from './geometry3d.js';
 import { TextMemo } from './textMemo.js';
 
-/** Entries per memo: a 150-atom model with its 360² overlap matrix is ~2 MB, most are far smaller. */
+/** Entries per memo: a 150-atom model with its 300² overlap matrix is ~2 MB, most are far smaller. */
 const MEMO_LIMIT = 200;
 
 const geometries = new TextMemo<Geometry3d>(MEMO_LIMIT);

@@ -87,6 +87,40 @@ function normalisation(n: number, zeta: number): number {
 
 export type LocalComponent = 'sigma' | 'pi';
 
+interface Integrand {
+  poly: Poly;
+  /** ∫ dφ of the azimuthal factor. */
+  azimuth: number;
+  /** Power of R/2 collected from the radial factors, the angular factors and the volume element. */
+  powerOfHalfR: number;
+}
+
+/** The ξ, η polynomial depends only on the quantum numbers, so it is built once per kind of pair. */
+const integrands = new Map<string, Integrand>();
+
+function integrandPolynomial(na: number, la: 0 | 1, nb: number, lb: 0 | 1, component: LocalComponent): Integrand {
+  const key = `${na}${la}${nb}${lb}${component}`;
+  const known = integrands.get(key);
+  if (known) return known;
+  // Radial powers left after the angular factors take l powers of r.
+  let poly = polyMul(polyPow(R_A, na - 1 - la), polyPow(R_B, nb - 1 - lb));
+  let azimuth = 2 * Math.PI; // ∫ dφ for σ
+  let powerOfHalfR = na - 1 - la + (nb - 1 - lb) + 3;
+  if (component === 'sigma') {
+    if (la === 1) poly = polyMul(poly, Z_A);
+    if (lb === 1) poly = polyMul(poly, Z_B);
+    powerOfHalfR += la + lb;
+  } else {
+    poly = polyMul(poly, RHO2); // x_a x_b = ρ² cos²φ
+    azimuth = Math.PI; // ∫ cos²φ dφ
+    powerOfHalfR += 2;
+  }
+  poly = polyMul(poly, VOLUME);
+  const integrand = { poly, azimuth, powerOfHalfR };
+  integrands.set(key, integrand);
+  return integrand;
+}
+
 /**
  * Overlap in the local frame (A at the origin, B at +R on the z axis, both z axes pointing A→B):
  * component 'sigma' pairs s or p_z with s or p_z; 'pi' pairs p_x on A with p_x on B (needs two p shells).
@@ -95,20 +129,7 @@ export function localOverlap(a: StoShell, b: StoShell, distanceBohr: number, com
   const R = distanceBohr;
   if (!(R > 0)) throw new ChemError(`two-centre overlap needs a positive distance, got ${R}`, 'NUM');
   if (component === 'pi' && (a.l !== 1 || b.l !== 1)) throw new ChemError('a π overlap needs a p shell on both centres');
-  // Radial powers left after the angular factors take l powers of r.
-  let poly = polyMul(polyPow(R_A, a.n - 1 - a.l), polyPow(R_B, b.n - 1 - b.l));
-  let azimuth = 2 * Math.PI; // ∫ dφ for σ
-  let powerOfHalfR = a.n - 1 - a.l + (b.n - 1 - b.l) + 3;
-  if (component === 'sigma') {
-    if (a.l === 1) poly = polyMul(poly, Z_A);
-    if (b.l === 1) poly = polyMul(poly, Z_B);
-    powerOfHalfR += a.l + b.l;
-  } else {
-    poly = polyMul(poly, RHO2); // x_a x_b = ρ² cos²φ
-    azimuth = Math.PI; // ∫ cos²φ dφ
-    powerOfHalfR += 2;
-  }
-  poly = polyMul(poly, VOLUME);
+  const { poly, azimuth, powerOfHalfR } = integrandPolynomial(a.n, a.l, b.n, b.l, component);
   const p = (R * (a.zeta + b.zeta)) / 2;
   const t = (R * (a.zeta - b.zeta)) / 2;
   const aValues = poly.map((_, i) => auxA(i, p));
