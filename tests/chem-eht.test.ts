@@ -6,6 +6,7 @@
 import '../functions/openchemlibNode.js';
 import { describe, expect, it } from 'vitest';
 import { degenerateSet, frontier, homoIndex, levelComposition, mullikenCharge, oneElectronEnergy, solveEht, type EhtModel } from '../functions/chem/eht.js';
+import { elementParameters, PARAMETRISED_ELEMENTS, slaterZeta } from '../functions/chem/ehtParams.js';
 import { readGeometry } from '../functions/chem/geometry3d.js';
 import { huckelModelOf } from '../functions/chem/huckelCache.js';
 
@@ -23,6 +24,31 @@ function coefficientsOn(m: EhtModel, k: number, atom: number, shell: 's' | 'p'):
 }
 
 const TINY = 1e-8;
+
+describe('parameters', () => {
+  it("reproduce Hoffmann's 1963 values for H and C", () => {
+    // R. Hoffmann, J. Chem. Phys. 39, 1397 (1963): H 1s −13.6 eV; C 2s −21.4, 2p −11.4 eV, ζ 1.625.
+    expect(elementParameters('H')!.shells.map((s) => s.energyEv)).toEqual([-13.6]);
+    const carbon = elementParameters('C')!.shells;
+    expect(carbon.map((s) => s.energyEv)).toEqual([-21.4, -11.4]);
+    expect(carbon.map((s) => s.zeta)).toEqual([1.625, 1.625]);
+  });
+
+  it("follow Slater's rules for the exponents (Slater 1930 worked values: N 1.95, O 2.275, Na 0.733, Cl 2.033)", () => {
+    expect(slaterZeta(7)).toBeCloseTo(1.95, 12);
+    expect(slaterZeta(8)).toBeCloseTo(2.275, 12);
+    expect(slaterZeta(11)).toBeCloseTo(2.2 / 3, 12);
+    expect(slaterZeta(17)).toBeCloseTo(6.1 / 3, 12);
+  });
+
+  it('cover H, Li–Ne and Na–Ar with the s level below the p level (common practice)', () => {
+    expect(PARAMETRISED_ELEMENTS).toEqual(['H', 'Li', 'Be', 'B', 'C', 'N', 'O', 'F', 'Ne', 'Na', 'Mg', 'Al', 'Si', 'P', 'S', 'Cl', 'Ar']);
+    for (const el of PARAMETRISED_ELEMENTS.slice(1)) {
+      const [s, p] = elementParameters(el)!.shells;
+      expect(s.energyEv, el).toBeLessThan(p.energyEv);
+    }
+  });
+});
 
 describe('water: the photoelectron order 2a1 < 1b2 < 3a1 < 1b1', () => {
   // Measured: r(OH) 0.9578 Å, 104.48° (NIST CCCBDB; recalled from memory). Ionisation energies
