@@ -42,6 +42,12 @@ describe('EHTLEVELS', () => {
     expect(error.message).toMatch(/level 6 is out of range: this system has 5 levels/);
   });
 
+  it('still spills when k is left out before a charge: EHTLEVELS(s,,charge)', () => {
+    // HF+ (7 electrons): the π pair shares three electrons, 1.5 each.
+    const values = evaluate([[`=EHTLEVELS("${HF}",,1)`]]);
+    expect(values.slice(0, 5).map((r) => r[1])).toEqual([2, 2, 1.5, 1.5, 0]);
+  });
+
   it('reads a structure from a cell reference into a fixed 50×2 area', () => {
     const values = evaluate([[HF], ['=EHTLEVELS(A1)']]);
     expect(values[1][1]).toBe(2);

@@ -43,7 +43,8 @@ function basisSize(g: Geometry3d): number {
 
 function levelSpill(args: SpillArg[]): { rows: number; cols: number } {
   const one = { rows: 1, cols: 1 };
-  if (args.length >= 2 && args[1] && !(args[1].kind === 'literal' && args[1].value === '')) return one;
+  // k left out, left empty (EHTLEVELS(s,,charge)) or 0 means the whole list.
+  if (args.length >= 2 && args[1].kind !== 'empty' && !(args[1].kind === 'literal' && args[1].value === 0)) return one;
   const arg = args[0];
   if (!arg) return one;
   if (arg.kind !== 'literal') return { rows: MAX_SPILL_ROWS, cols: 2 };
@@ -70,7 +71,7 @@ export const ehtEntries: CatalogEntry[] = [
     name: 'EHTLEVELS',
     family: 'Extended Hückel',
     summary: 'Extended-Hückel orbital energies in eV, lowest first, with occupancies; spills two columns (energy, electrons), or gives level k.',
-    params: [structure, { name: 'k', type: 'integer', optional: true, description: 'Level number (1 = lowest); omit to spill all levels.' }, charge],
+    params: [structure, { name: 'k', type: 'integer', optional: true, description: 'Level number (1 = lowest); omit, leave empty or give 0 to spill all levels.' }, charge],
     returns: { description: 'orbital energy and occupancy per level (two columns), or one energy', unit: 'eV', kind: 'array' },
     examples: [
       { formula: `=EHTLEVELS("${WATER}")`, expected: [[-33.251, 2], [-17.107, 2], [-15.464, 2], [-14.8, 2], [-0.243, 0], [9.583, 0]], tolerance: 0.001, note: 'water: 2a1 < 1b2 < 3a1 < 1b1 (the O 2p lone pair at exactly H_pp = −14.8 eV), then 4a1, 2b2' },
@@ -80,7 +81,7 @@ export const ehtEntries: CatalogEntry[] = [
     spill: levelSpill,
     implementation: (s: string, k?: number, q?: number) => {
       const model = ehtModelOf(s, q);
-      if (k !== undefined) return pickIndex(model.levels, k, 'level', 'levels').energyEv;
+      if (k !== undefined && k !== 0) return pickIndex(model.levels, k, 'level', 'levels').energyEv;
       checkSpillLength(model.levels.length, 'EHTLEVELS', 'EHTLEVELS(structure, k)');
       return model.levels.map((l) => [l.energyEv, l.occupancy]);
     },
