@@ -74,7 +74,7 @@ export const ehtEntries: CatalogEntry[] = [
     params: [structure, { name: 'k', type: 'integer', optional: true, description: 'Level number (1 = lowest); omit, leave empty or give 0 to spill all levels.' }, charge],
     returns: { description: 'orbital energy and occupancy per level (two columns), or one energy', unit: 'eV', kind: 'array' },
     examples: [
-      { formula: `=EHTLEVELS("${WATER}")`, expected: [[-33.251, 2], [-17.107, 2], [-15.464, 2], [-14.8, 2], [-0.243, 0], [9.583, 0]], tolerance: 0.001, note: 'water: 2a1 < 1b2 < 3a1 < 1b1 (the O 2p lone pair at exactly H_pp = −14.8 eV), then 4a1, 2b2' },
+      { formula: `=EHTLEVELS("${WATER}")`, expected: [[-33.251, 2], [-17.107, 2], [-15.464, 2], [-14.8, 2], [-0.243, 0], [9.583, 0]], tolerance: 0.001, note: 'water: 2a1 < 1b2 < 3a1 < 1b1 (the O 2p lone pair at exactly H_pp = −14.8 eV), then two empty levels' },
       { formula: `=EHTLEVELS("${WATER}",4)`, expected: -14.8, tolerance: 1e-6, note: 'the HOMO, level 4 of 6' },
     ],
     source: `${HOFFMANN}; Slater-type overlaps R. S. Mulliken, C. A. Rieke, D. Orloff, H. Orloff, J. Chem. Phys. 17, 1248 (1949); H_ij = 1.75·S_ij(H_ii + H_jj)/2 (M. Wolfsberg, L. Helmholz, J. Chem. Phys. 20, 837 (1952)); HC = SCE by Löwdin orthogonalization. Electrons fill from the lowest level, two per level; a partly filled degenerate set shares its electrons equally. A cell reference spills a fixed ${MAX_SPILL_ROWS}×2 area; larger molecules must use k. ${LIMITS}`,
