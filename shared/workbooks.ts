@@ -39,6 +39,7 @@ export const sheetNameSchema = z
   .max(maxSheetNameLength, `at most ${maxSheetNameLength} characters`)
   .refine((s) => !/[[\]*?/\\:]/.test(s), 'may not contain any of [ ] * ? / \\ :')
   .refine((s) => !s.startsWith("'") && !s.endsWith("'"), 'may not begin or end with an apostrophe')
+  // eslint-disable-next-line no-control-regex -- control characters are exactly what this refuses
   .refine((s) => !/[\u0000-\u001f\u007f]/.test(s), 'may not contain control characters');
 
 export const sheetSettingsSchema = z

@@ -6,11 +6,11 @@ import { beforeEach, describe, expect, it } from 'vitest';
 import { parseCellRange } from '../shared/cellRange.js';
 import type { Protection, ProtectedRange, SheetLock } from '../shared/team.js';
 import type { WorkbookPayload } from '../shared/workbooks.js';
-import { applyStructural, StructureError, undoLast } from '../src/features/grid/model/structure.js';
-import { fillDown, pasteBlock, sortRange } from '../src/features/grid/model/rangeEdits.js';
-import { WorkbookModel } from '../src/features/grid/model/workbookModel.js';
-import type { CellInput } from '../src/features/grid/save/pendingStore.js';
-import { editRuleFor, structureRuleFor } from '../src/features/locks/editability.js';
+import { applyStructural, StructureError, undoLast } from '../src/core/workbook/model/structure.js';
+import { fillDown, pasteBlock, sortRange } from '../src/core/workbook/model/rangeEdits.js';
+import { WorkbookModel } from '../src/core/workbook/model/workbookModel.js';
+import type { CellInput } from '../src/core/workbook/save/pendingStore.js';
+import { editRuleFor, structureRuleFor } from '../src/core/team/editability.js';
 
 const ada = { id: 'u-ada', name: 'Ada Okafor' };
 const cy = { id: 'u-cy', name: 'Cy Moreau' };
@@ -50,9 +50,8 @@ const refusal = (action: () => unknown) => {
 };
 
 beforeEach(() => {
-  m = new WorkbookModel(payload);
   sent = [];
-  m.onLocalChanges = (c) => sent.push(c);
+  m = new WorkbookModel(payload, { onLocalChanges: (c) => sent.push(c) });
 });
 
 function expectUntouched() {

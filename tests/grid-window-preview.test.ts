@@ -2,8 +2,8 @@
 // must not be used when a formula in the window could depend on anything outside it.
 import { describe, expect, it } from 'vitest';
 import type { CellEntry, WorkbookPayload } from '../shared/workbooks.js';
-import { buildPreview, previewThresholdCells } from '../src/features/grid/model/windowPreview.js';
-import { WorkbookModel } from '../src/features/grid/model/workbookModel.js';
+import { buildPreview, previewThresholdCells } from '../src/core/workbook/model/windowPreview.js';
+import { WorkbookModel } from '../src/core/workbook/model/workbookModel.js';
 
 const SPECIES = ['O2', 'N2', 'CO', 'NO+', 'Xq2', 'OH'];
 

@@ -7,7 +7,7 @@ import { Button } from '../../components/ui/Button.js';
 import { Dialog } from '../../components/ui/Dialog.js';
 import { Notice } from '../../components/ui/Notice.js';
 import { sentence } from '../../lib/fieldErrors.js';
-import { timeAgo } from '../workbooks/relativeTime.js';
+import { timeAgo } from '../../lib/relativeTime.js';
 import { useRestoreRevision, useRevisions, useRevisionSnapshot } from './api.js';
 import { RevisionSnapshotView } from './RevisionSnapshotView.js';
 

@@ -5,7 +5,7 @@ import { Button } from '../../components/ui/Button.js';
 import { Dialog } from '../../components/ui/Dialog.js';
 import { Notice } from '../../components/ui/Notice.js';
 import { sentence } from '../../lib/fieldErrors.js';
-import { useMembers } from '../sharing/api.js';
+import { useMembers } from '../../core/team/members.js';
 import { ProtectedRangesSection } from './ProtectedRangesSection.js';
 import { SheetLockSection } from './SheetLockSection.js';
 

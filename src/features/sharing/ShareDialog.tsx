@@ -9,7 +9,8 @@ import { Dialog } from '../../components/ui/Dialog.js';
 import { Notice } from '../../components/ui/Notice.js';
 import { TextField } from '../../components/ui/TextField.js';
 import { checkForm, errorsFromApi, sentence, type FormErrors } from '../../lib/fieldErrors.js';
-import { useAddMember, useInvitations, useMembers } from './api.js';
+import { useMembers } from '../../core/team/members.js';
+import { useAddMember, useInvitations } from './api.js';
 import { InvitationList } from './InvitationList.js';
 import { MemberList, roleLabels } from './MemberList.js';
 

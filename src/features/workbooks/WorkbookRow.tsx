@@ -6,7 +6,7 @@ import { Button } from '../../components/ui/Button.js';
 import { SheetIcon } from '../../components/ui/icons.js';
 import { checkForm, errorsFromApi } from '../../lib/fieldErrors.js';
 import { useRenameWorkbook } from './api.js';
-import { timeAgo } from './relativeTime.js';
+import { timeAgo } from '../../lib/relativeTime.js';
 
 const roleNames = { owner: 'Owner', editor: 'Editor', viewer: 'Viewer', 'site-admin': 'Site admin' } as const;
 

@@ -3,13 +3,13 @@
 import { useNavigate } from 'react-router';
 import { can } from '../../../shared/permissions.js';
 import { Button } from '../../components/ui/Button.js';
-import { AuditDialog } from '../audit/AuditDialog.js';
-import type { WorkbookModel } from '../grid/model/workbookModel.js';
-import { HistoryDialog } from '../history/HistoryDialog.js';
-import { ProtectDialog } from '../locks/ProtectDialog.js';
-import { ShareDialog } from '../sharing/ShareDialog.js';
-import { PresenceChips } from './PresenceChips.js';
-import type { WorkbookTeam } from './useWorkbookTeam.js';
+import { AuditDialog } from '../../features/audit/AuditDialog.js';
+import type { WorkbookModel } from '../../core/workbook/model/workbookModel.js';
+import { HistoryDialog } from '../../features/history/HistoryDialog.js';
+import { ProtectDialog } from '../../features/locks/ProtectDialog.js';
+import { ShareDialog } from '../../features/sharing/ShareDialog.js';
+import { PresenceChips } from '../../features/live/PresenceChips.js';
+import type { WorkbookTeam } from '../../features/live/useWorkbookTeam.js';
 
 export function TeamToolbar({ team, model, activeSheet, selectionRange }: { team: WorkbookTeam; model: WorkbookModel; activeSheet: { id: string; name: string }; selectionRange?: string }) {
   const navigate = useNavigate();

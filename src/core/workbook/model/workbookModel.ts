@@ -55,11 +55,12 @@ export class WorkbookModel {
   structureRule: ((sheetId: string) => string | null) | null = null;
   /** Why a lock or protected range keeps me out of this cell (the rule alone: no views needed). */
   protectionReason = (sheetId: string, row: number, col: number): string | null => this.extraRule?.(sheetId, row, col) ?? null;
-  /** Called with every local change that must reach the server. */
-  onLocalChanges: (changes: CellInput[]) => void = () => {};
+  /** Called with every local change that must reach the server (the save queue's enqueue). */
+  readonly onLocalChanges: (changes: CellInput[]) => void;
   version = 0;
 
-  constructor(payload: WorkbookPayload) {
+  constructor(payload: WorkbookPayload, options: { onLocalChanges?: (changes: CellInput[]) => void } = {}) {
+    this.onLocalChanges = options.onLocalChanges ?? (() => {});
     this.id = payload.id;
     this.title = payload.title;
     this.role = payload.role;
