@@ -16,8 +16,9 @@ import { shellOverlapBlock, type StoShell } from './sto.js';
 const BOHR_ANGSTROM = 0.529177210903;
 
 /**
- * Size limits: the solve is O(N³) in basis functions. bench/eht.ts measured about 0.6 s at 242 and 2 s at
- * 302 basis functions on one shared core, so a cell stops at 300 (e.g. C49H100) and 150 atoms.
+ * Size limits: the solve is O(N³) in basis functions. bench/eht.ts measured about 0.56 s of CPU at 242 and
+ * 1.0 s at 302 basis functions (2.0 s at 362), so a cell stops near one second: 300 basis functions
+ * (e.g. C49H100) and 150 atoms.
  */
 export const EHT_MAX_ATOMS = 150;
 export const EHT_MAX_BASIS = 300;
