@@ -1,7 +1,7 @@
 // Workbooks, sheets, patches and revisions: the request bodies the server validates (and the client
-// reuses) and the payloads the API returns. Paths are in ARCHITECTURE.md.
+// reuses) and the payloads the API returns. The routes that take and give them are in server/routes/.
 import { z } from 'zod';
-import type { AccessRole } from './permissions.js';
+import type { AccessRole, WorkbookAction } from './permissions.js';
 import type { ProtectedRange, SheetLock, TeamEvent } from './team.js';
 import { cellInputProblem } from './cellInput.js';
 
@@ -130,6 +130,8 @@ export interface WorkbookSummary {
   title: string;
   revision: number;
   role: AccessRole;
+  /** What the user may do with all their roles together (shared/permissions.ts allowedActions). */
+  actions: WorkbookAction[];
   owner: { id: string; name: string };
   createdAt: number;
   updatedAt: number;
@@ -141,6 +143,8 @@ export interface WorkbookPayload {
   title: string;
   revision: number;
   role: AccessRole;
+  /** What the user may do with all their roles together (shared/permissions.ts allowedActions). */
+  actions: WorkbookAction[];
   sheets: SheetPayload[];
   /** Sheet locks and protected ranges (shared/team.ts); the server always sends both lists. */
   locks?: SheetLock[];

@@ -1,5 +1,6 @@
 // The first-screenful preview of a large sheet must show exactly what the full engine computes, and
 // must not be used when a formula in the window could depend on anything outside it.
+import { allowedActions } from '../shared/permissions.js';
 import { describe, expect, it } from 'vitest';
 import type { CellEntry, WorkbookPayload } from '../shared/workbooks.js';
 import { buildPreview, previewThresholdCells } from '../src/core/workbook/model/windowPreview.js';
@@ -19,7 +20,7 @@ function screeningCells(rows: number): CellEntry[] {
 function payload(cells: CellEntry[], extraSheet = false): WorkbookPayload {
   const sheets = [{ id: 's1', name: 'Screen', position: 0, settings: {}, cells }];
   if (extraSheet) sheets.push({ id: 's2', name: 'Limits', position: 1, settings: {}, cells: [[0, 0, '2.5']] });
-  return { id: 'wb', title: 'Large screen', revision: 1, role: 'owner', sheets };
+  return { id: 'wb', title: 'Large screen', revision: 1, role: 'owner', actions: allowedActions(['owner']), sheets };
 }
 
 const large = screeningCells(previewThresholdCells / 10 + 10);

@@ -1,6 +1,7 @@
 // The browser's workbook model, run in Node with the real engine and cell functions: what an edit
 // computes, what it sends to the server, and how fill, sort, paste, row/column changes and undo
 // keep formulas pointing at the right cells.
+import { allowedActions } from '../shared/permissions.js';
 import { beforeEach, describe, expect, it, vi } from 'vitest';
 import type { WorkbookPayload } from '../shared/workbooks.js';
 import { WorkbookModel } from '../src/core/workbook/model/workbookModel.js';
@@ -14,6 +15,7 @@ function payload(cells: [number, number, string][], other: [number, number, stri
     title: 'Screening',
     revision: 4,
     role,
+    actions: allowedActions([role]),
     sheets: [
       { id: 's1', name: 'Sheet1', position: 0, settings: {}, cells },
       { id: 's2', name: 'Summary sheet', position: 1, settings: {}, cells: other },

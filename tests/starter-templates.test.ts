@@ -1,5 +1,6 @@
 // The empty-workbook state: starter templates whose every formula computes, offered only while the
 // whole workbook is empty and the user may edit, and typed in as ordinary edits.
+import { allowedActions } from '../shared/permissions.js';
 import { createElement } from 'react';
 import { renderToStaticMarkup } from 'react-dom/server';
 import { describe, expect, it } from 'vitest';
@@ -14,6 +15,7 @@ const payload = (role: WorkbookPayload['role'], cells: [number, number, string][
   title: 'New workbook',
   revision: 0,
   role,
+  actions: allowedActions([role]),
   sheets: [{ id: 'sheet-1', name: 'Sheet1', position: 0, settings: {}, cells }],
 });
 

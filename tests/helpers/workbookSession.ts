@@ -1,5 +1,6 @@
 // A browser workbook session in Node for client tests: the real grid model (engine and cell
 // functions) and the real save queue over in-memory storage, on a one-sheet workbook at revision 4.
+import { allowedActions } from '../../shared/permissions.js';
 import type { WorkbookPayload } from '../../shared/workbooks.js';
 import { WorkbookModel } from '../../src/core/workbook/model/workbookModel.js';
 import { PatchQueue, type PatchTransport } from '../../src/core/workbook/save/patchQueue.js';
@@ -11,7 +12,7 @@ export function memoryStorage(): KeyValueStorage {
 }
 
 export function onePayload(cells: [number, number, string][]): WorkbookPayload {
-  return { id: 'wb', title: 'Screening', revision: 4, role: 'editor', sheets: [{ id: 's1', name: 'Sheet1', position: 0, settings: {}, cells }] };
+  return { id: 'wb', title: 'Screening', revision: 4, role: 'editor', actions: allowedActions(['editor']), sheets: [{ id: 's1', name: 'Sheet1', position: 0, settings: {}, cells }] };
 }
 
 /** By default the transport never answers (nothing leaves the queue). */
