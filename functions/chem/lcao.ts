@@ -6,7 +6,7 @@
 // (integrals over 1s orbitals in confocal elliptic coordinates); also Pauling & Wilson,
 // Introduction to Quantum Mechanics (1935), chapter on the hydrogen molecule-ion.
 // The tests check each closed form against a direct numerical integration.
-import { ChemError } from '../catalog/types.js';
+import { ChemError } from './errors.js';
 
 /** Energy of the hydrogen 1s orbital, −1/2 hartree (exact for a one-electron atom, Z = 1). */
 export const HYDROGEN_1S_ENERGY_HARTREE = -0.5;

@@ -10,7 +10,7 @@
 //   of open-shell degenerate systems such as cyclobutadiene, 4 π electrons in two nonbonding MOs).
 // - A singly occupied non-degenerate orbital counts as the HOMO (SOMO); the LUMO is the next level.
 // The gap is E(LUMO) − E(HOMO) in the unit of the energies given.
-import { ChemError } from '../catalog/types.js';
+import { ChemError } from './errors.js';
 
 export interface DegenerateLevel {
   energy: number;

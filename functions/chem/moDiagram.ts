@@ -27,7 +27,7 @@
 // (Mulliken's numbering, used by Huber & Herzberg 1979: CO … 5σ² with 2π the LUMO), with * added to
 // antibonding levels (our addition, so the table reads at a glance): 3σ, 4σ*, 1π, 5σ, 2π*, 6σ*.
 // Core shells are abbreviated K (1s²) and L (2s² 2p⁶) per atom, as Herzberg writes "KK" for N2.
-import { ChemError } from '../catalog/types.js';
+import { ChemError } from './errors.js';
 import type { Element } from './elements.js';
 import type { Species } from './species.js';
 import { superscriptNumber } from './terms.js';

@@ -16,7 +16,7 @@
 // pyrrole N, 1 for carbonyl O, 2 for ether O and 2 for a halogen (common practice, e.g. Streitwieser
 // 1961, ch. 5).
 import { Molecule } from 'openchemlib';
-import { ChemError } from '../catalog/types.js';
+import { ChemError } from './errors.js';
 import type { CentreType } from './huckelParams.js';
 
 export interface PiCentre {
