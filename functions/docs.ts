@@ -12,6 +12,7 @@ const FAMILY_INTRO: Record<Family, string> = {
   Diatomic: 'Valence MO analysis of a diatomic species written as text (`O2`, `NO+`, `CN-`): configuration, bond order, unpaired electrons, magnetism, ground term.',
   LCAO: 'Two-centre LCAO: overlap of 1s orbitals, the H2+ potential curve, the 2×2 secular problem and HOMO–LUMO gaps. Atomic units (bohr, hartree) unless a unit argument says otherwise.',
   Hückel: 'Hückel π-electron theory for conjugated systems.',
+  'π spectra': 'π→π* excitation energies, wavelengths and oscillator strengths by the Pariser–Parr–Pople model with single-excitation CI, from SMILES. Model estimates for screening, not measured spectra: see docs/spectra.md for the error table.',
   Units: 'Conversions with CODATA 2018 constants, and bond-length relations.',
 };
 

@@ -1,7 +1,8 @@
 // The Hückel π-system family: levels, gaps, π energies, bond orders, charges, aromaticity and an
 // absorption estimate, from a SMILES string or a hand-built Hückel matrix. Science in functions/chem/.
 import { ChemError, type CatalogEntry, type ParamSpec, type Table } from './types.js';
-import { absorptionMaxNm, DEFAULT_BETA_EV, DEFAULT_OFFSET_EV } from '../chem/absorption.js';
+import { absorptionMaxNm, DEFAULT_BETA_EV, DEFAULT_OFFSET_EV, HC_EV_NM } from '../chem/absorption.js';
+import { pppAbsorptionNm } from './spectra.js';
 import { aromaticity } from '../chem/aromaticity.js';
 import { bondOrder, checkElectronCount, delocalizationEnergy, frontierGap, piCharge, piEnergy, type HuckelModel } from '../chem/huckel.js';
 import { huckelModelOf, requireSmiles } from '../chem/huckelCache.js';
@@ -193,14 +194,26 @@ const piEntries: CatalogEntry[] = [
       { name: 'beta_eV', type: 'number', unit: 'eV', optional: true, default: DEFAULT_BETA_EV, description: 'Spectroscopic |β| in eV.' },
       { name: 'offset_eV', type: 'number', unit: 'eV', optional: true, default: DEFAULT_OFFSET_EV, description: 'Offset of the linear relation in eV.' },
       params,
+      {
+        name: 'model',
+        type: 'string',
+        optional: true,
+        choices: ['huckel', 'ppp'],
+        description:
+          '"huckel" (default, the linear gap relation; existing sheets keep their values) or "ppp": the PPP-CIS singlet with the most HOMO→LUMO character (beta_eV, offset_eV and params are then not used).',
+      },
     ],
     returns: { description: 'estimated λmax', unit: 'nm', kind: 'number' },
     examples: [
       { formula: '=ABSORPTION("C=CC=CC=C")', expected: 310.7, tolerance: 0.1, note: 'hexatriene; observed 258 nm — the one-line fit overestimates polyenes' },
       { formula: '=ABSORPTION("C=CC=CC=C",2.911,2.160)', expected: 261.0, tolerance: 0.1, note: 'with the polyene-only fit (observed 258 nm)' },
+      { formula: '=ABSORPTION("c1ccc2cccc2cc1",,,,"ppp")', expected: 610, tolerance: 2, note: 'azulene by PPP-CIS (observed ≈ 580 nm); the Hückel relation cannot go past ~632 nm and is not calibrated for azulene' },
     ],
-    source: `${STREITWIESER}, ch. 8 (spectroscopic β). Defaults |β| = ${DEFAULT_BETA_EV} eV, offset ${DEFAULT_OFFSET_EV} eV: least squares over butadiene 217, hexatriene 258, octatetraene 290, decapentaene 334 nm and the acene p bands of benzene 204, naphthalene 286, anthracene 375, tetracene 471, pentacene 580 nm (E. Clar, Polycyclic Hydrocarbons, 1964); RMS 0.68 eV, errors up to ~30 %. Polyene-only fit: 2.911, 2.160; acene-only: 2.496, 1.155.`,
-    implementation: (s: Table, betaEv: number = DEFAULT_BETA_EV, offsetEv: number = DEFAULT_OFFSET_EV, p?: string) => {
+    source: `${STREITWIESER}, ch. 8 (spectroscopic β). Defaults |β| = ${DEFAULT_BETA_EV} eV, offset ${DEFAULT_OFFSET_EV} eV: least squares over butadiene 217, hexatriene 258, octatetraene 290, decapentaene 334 nm and the acene p bands of benzene 204, naphthalene 286, anthracene 375, tetracene 471, pentacene 580 nm (E. Clar, Polycyclic Hydrocarbons, 1964); RMS 0.68 eV, errors up to ~30 %. Polyene-only fit: 2.911, 2.160; acene-only: 2.496, 1.155. Ceiling: with the default offset no gap gives more than 1239.84/${DEFAULT_OFFSET_EV} ≈ ${Math.round(HC_EV_NM / DEFAULT_OFFSET_EV)} nm, so deep-coloured dyes are out of reach. Calibrated only on alternant hydrocarbons: non-alternant molecules (azulene) and heteroatom molecules (dyes, carbonyls, azines) lie outside its calibration. For predicted spectra use model "ppp" or the π spectra family: PPPLAMBDA, PPPSTRONGEST, PPPSTATES.`,
+    implementation: (s: Table, betaEv: number = DEFAULT_BETA_EV, offsetEv: number = DEFAULT_OFFSET_EV, p?: string, which?: string) => {
+      const choice = (which ?? '').trim().toLowerCase();
+      if (choice === 'ppp') return pppAbsorptionNm(requireSmiles(s, 'ABSORPTION with model "ppp"').smiles);
+      if (choice !== '' && choice !== 'huckel' && choice !== 'hückel') throw new ChemError(`ABSORPTION: model must be "huckel" or "ppp", not "${which}"`);
       const model = huckelModelOf(s, p);
       return absorptionMaxNm(frontierGap(model, model.electrons).gap, betaEv, offsetEv);
     },

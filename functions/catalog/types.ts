@@ -36,7 +36,7 @@ export type SpillArg =
   | { kind: 'range'; rows: number; cols: number }
   | { kind: 'other' };
 
-export type Family = 'Diatomic' | 'LCAO' | 'Units' | 'Hückel';
+export type Family = 'Diatomic' | 'LCAO' | 'Units' | 'Hückel' | 'π spectra';
 
 export interface CatalogEntry {
   name: string;
