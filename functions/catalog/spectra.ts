@@ -111,7 +111,7 @@ export const spectraEntries: CatalogEntry[] = [
     returns: { description: 'T1 vertical excitation energy', unit: 'eV', kind: 'number' },
     examples: [{ formula: '=PPPTRIPLET("c1ccc2ccccc2c1")', expected: 1.85, tolerance: 0.01, note: 'naphthalene; observed T1 2.6 eV (recalled from memory): PPP-CIS triplets run low' }],
     source: `${PPP_SOURCE} Triplet CIS: ΔE − J; without correlation the triplets fall 0.5–1 eV below experiment. ${SEE_ALSO}`,
-    implementation: (s: string) => pppSpectrumOf(s).triplets[0].energy,
+    implementation: (s: string) => pppSpectrumOf(s).triplets[0],
   },
   {
     name: 'PPPSTGAP',
@@ -123,7 +123,7 @@ export const spectraEntries: CatalogEntry[] = [
     source: `${PPP_SOURCE} The gap inherits the low triplets (see PPPTRIPLET): read it as an upper estimate. ${SEE_ALSO}`,
     implementation: (s: string) => {
       const spectrum = pppSpectrumOf(s);
-      return spectrum.singlets[0].energy - spectrum.triplets[0].energy;
+      return spectrum.singlets[0].energy - spectrum.triplets[0];
     },
   },
   {
@@ -142,7 +142,7 @@ export const spectraEntries: CatalogEntry[] = [
         expected: [
           [5.795, 213.9, 1.033, 'HOMO→LUMO (99 %)'],
           [6.8, 182.3, 0, 'HOMO−1→LUMO (50 %)'],
-          [8.402, 147.6, 0, 'HOMO→LUMO+1 (50 %)'],
+          [8.402, 147.6, 0, 'HOMO−1→LUMO (50 %)'],
           [9.781, 126.8, 0.441, 'HOMO−1→LUMO+1 (99 %)'],
         ],
         tolerance: 0.1,

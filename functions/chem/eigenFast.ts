@@ -13,8 +13,8 @@ export interface FlatEigen {
   vectors: Float64Array;
 }
 
-/** Eigen-decomposition of the symmetric n×n matrix `a` (row-major; overwritten). */
-export function symmetricEigen(a: Float64Array, n: number): FlatEigen {
+/** Eigen-decomposition of the symmetric n×n matrix `a` (row-major; overwritten). With valuesOnly the vectors are not accumulated (about three times faster) and `vectors` is empty. */
+export function symmetricEigen(a: Float64Array, n: number, valuesOnly = false): FlatEigen {
   const d = new Float64Array(n);
   const e = new Float64Array(n);
   const z = a; // Householder transforms accumulate into z in place
@@ -59,6 +59,10 @@ export function symmetricEigen(a: Float64Array, n: number): FlatEigen {
   e[0] = 0;
   for (let i = 0; i < n; i++) {
     const l = i - 1;
+    if (valuesOnly) {
+      d[i] = z[i * n + i];
+      continue;
+    }
     if (d[i] !== 0) {
       for (let j = 0; j <= l; j++) {
         let g = 0;
@@ -105,11 +109,12 @@ export function symmetricEigen(a: Float64Array, n: number): FlatEigen {
           r = (d[i] - g) * s + 2 * c * b;
           d[i + 1] = g + (p = s * r);
           g = c * r - b;
-          for (let k = 0; k < n; k++) {
-            f = z[k * n + i + 1];
-            z[k * n + i + 1] = s * z[k * n + i] + c * f;
-            z[k * n + i] = c * z[k * n + i] - s * f;
-          }
+          if (!valuesOnly)
+            for (let k = 0; k < n; k++) {
+              f = z[k * n + i + 1];
+              z[k * n + i + 1] = s * z[k * n + i] + c * f;
+              z[k * n + i] = c * z[k * n + i] - s * f;
+            }
         }
         if (r === 0 && i >= l) continue;
         d[l] -= p;
@@ -121,10 +126,10 @@ export function symmetricEigen(a: Float64Array, n: number): FlatEigen {
   // sort ascending
   const order = Array.from({ length: n }, (_, k) => k).sort((x, y) => d[x] - d[y]);
   const values = new Float64Array(n);
-  const vectors = new Float64Array(n * n);
+  const vectors = new Float64Array(valuesOnly ? 0 : n * n);
   order.forEach((k, col) => {
     values[col] = d[k];
-    for (let i = 0; i < n; i++) vectors[i * n + col] = z[i * n + k];
+    if (!valuesOnly) for (let i = 0; i < n; i++) vectors[i * n + col] = z[i * n + k];
   });
   return { values, vectors };
 }

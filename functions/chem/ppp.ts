@@ -35,9 +35,9 @@ export interface ExcitedState {
   /** Excitation energy, eV. */
   energy: number;
   wavelength: number;
-  /** Oscillator strength (0 for triplets). */
+  /** Oscillator strength. */
   f: number;
-  /** Transition dipole (x, y) in e·Å (zero for triplets). */
+  /** Transition dipole (x, y) in e·Å. */
   dipole: [number, number];
   /** The excitation with the largest weight, as MO labels relative to the frontier (e.g. HOMO→LUMO+1), and its weight X². */
   leading: string;
@@ -49,7 +49,8 @@ export interface ExcitedState {
 export interface PppSpectrum {
   scf: PppScf;
   singlets: ExcitedState[];
-  triplets: ExcitedState[];
+  /** Triplet excitation energies, eV, lowest first. */
+  triplets: number[];
 }
 
 function moLabel(k: number, occupied: number): string {
@@ -110,25 +111,25 @@ export function pppSpectrum(pi: PiSystem, maxConfigurations = MAX_CIS_CONFIGURAT
   }
 
   const homoLumo = pairs.findIndex(([i, a]) => i === occupied - 1 && a === occupied);
-  const describe = (values: number[], amplitudes: number[][], withDipole: boolean): ExcitedState[] =>
+  const describe = (values: number[], amplitudes: number[][]): ExcitedState[] =>
     values.map((energy, s) => {
       const amp = amplitudes[s];
       let best = 0;
-      for (let x = 1; x < m; x++) if (amp[x] ** 2 > amp[best] ** 2) best = x;
+      // Ties (50:50 mixtures) go to the first excitation listed, so the label does not hang on rounding.
+      for (let x = 1; x < m; x++) if (amp[x] ** 2 > amp[best] ** 2 + 1e-6) best = x;
       let dx = 0;
       let dy = 0;
-      if (withDipole)
-        for (let x = 0; x < m; x++) {
-          const t = tia[x];
-          for (let mu = 0; mu < n; mu++) {
-            dx += amp[x] * t[mu] * positions[mu][0];
-            dy += amp[x] * t[mu] * positions[mu][1];
-          }
+      for (let x = 0; x < m; x++) {
+        const t = tia[x];
+        for (let mu = 0; mu < n; mu++) {
+          dx += amp[x] * t[mu] * positions[mu][0];
+          dy += amp[x] * t[mu] * positions[mu][1];
         }
+      }
       dx *= Math.SQRT2;
       dy *= Math.SQRT2;
       const mu2 = (dx * dx + dy * dy) / BOHR_ANGSTROM ** 2;
-      const f = withDipole ? (2 / 3) * (energy / HARTREE_EV) * mu2 : 0;
+      const f = (2 / 3) * (energy / HARTREE_EV) * mu2;
       return {
         energy,
         wavelength: HC_EV_NM / energy,
@@ -140,11 +141,11 @@ export function pppSpectrum(pi: PiSystem, maxConfigurations = MAX_CIS_CONFIGURAT
       };
     });
   const s = solveFlat(singlet);
-  const t = solveFlat(triplet);
+  const tripletValues = symmetricEigen(Float64Array.from(triplet.flat()), m, true).values;
   // A triplet at or below zero means the closed-shell SCF is unstable (triplet instability): no spectrum.
-  if (!(t.values[0] > 0) || !(s.values[0] > 0))
+  if (!(tripletValues[0] > 0) || !(s.values[0] > 0))
     throw new ChemError(`the closed-shell PPP ground state of '${pi.smiles}' is unstable (an excited state falls below it): the model gives no spectrum here`);
-  return { scf, singlets: describe(s.values, s.vectors, true), triplets: describe(t.values, t.vectors, false) };
+  return { scf, singlets: describe(s.values, s.vectors), triplets: Array.from(tripletValues) };
 }
 
 /** The n-th singlet (1-based), naming the valid range. */

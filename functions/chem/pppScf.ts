@@ -26,8 +26,8 @@ export interface PppScf {
 }
 
 const MAX_ITERATIONS = 200;
-/** Largest |FP − PF| element (eV) accepted as self-consistent. */
-const COMMUTATOR_TOLERANCE = 1e-9;
+/** Largest |FP − PF| element (eV) accepted as self-consistent: orbital energies are then converged far below 1e-6 eV. */
+const COMMUTATOR_TOLERANCE = 1e-7;
 const DIIS_DEPTH = 8;
 
 function commutator(f: number[][], p: number[][]): number[] {
