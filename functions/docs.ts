@@ -61,8 +61,9 @@ export function renderFunctionsMarkdown(help: FunctionHelp[] = functionHelp()): 
     '',
     `**Cautions.** ${CAUTIONS}`,
     '',
-    'Errors are cell values: `#VALUE!` for a wrong kind of argument (unknown species or unit, text where a number belongs), ' +
-      '`#NUM!` for a number outside what the model allows (negative distance, |S| ≥ 1, too many electrons), each with a message naming what is wrong. ' +
+    'Errors are cell values: `#VALUE!` for a wrong kind of argument (unknown species or unit, text where a number belongs, an empty cell where a number is required) ' +
+      'and for an electron count the levels cannot hold (too many electrons, none, or every level full), ' +
+      '`#NUM!` for a number outside what the model allows (negative distance, |S| ≥ 1), each with a message naming what is wrong. ' +
       'A function that spills a table returns a single value when its trailing selector arguments are given.',
     '',
     '## Contents',

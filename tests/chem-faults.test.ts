@@ -84,3 +84,11 @@ describe('empty cells in required number arguments', () => {
     expect(s).toBeCloseTo(overlap1s(2, 1), 12);
   });
 });
+
+describe('numbers below the engine rounding floor', () => {
+  it('ABSORPTION with an absurd β gives a number (0 at worst), never NaN, as fuzzing found', () => {
+    const [[v]] = evaluate([['=ABSORPTION("O=C1C=CC(=O)C=C1",1e+308,2)']]);
+    expect(typeof v).toBe('number');
+    expect(Number.isNaN(v)).toBe(false);
+  });
+});
