@@ -3,7 +3,8 @@
 // bookkeeping (Streitwieser 1961, ch. 5: pyridine N 1, pyrrole N 2, carbonyl O 1, ether O 2,
 // halogens 2; carbocations 0, carbanions 2) — common practice.
 import { describe, expect, it } from 'vitest';
-import { aromaticity, ringSystemVerdicts } from '../functions/chem/aromaticity.js';
+import { ringSystemVerdicts } from '../functions/chem/aromaticity.js';
+import { aromaticity } from '../functions/chem/ringAromaticity.js';
 import { buildHuckelMatrix } from '../functions/chem/huckel.js';
 import { findPiSystem } from '../functions/chem/piSystem.js';
 

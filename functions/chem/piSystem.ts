@@ -38,6 +38,8 @@ export interface PiBond {
   b: number;
   /** Formal bond order in the Kekulé structure openchemlib assigned (1, 2 or 3). */
   order: number;
+  /** True when the bond lies in a ring of the molecule (an exocyclic bond has false). */
+  inRing: boolean;
 }
 
 export interface PiSystem {
@@ -55,6 +57,8 @@ export interface PiSystem {
   numberingFollowsSmiles: boolean;
   /** Small rings (as openchemlib perceives them) made only of π centres, as centre indices. */
   rings: number[][];
+  /** Every small ring of the molecule (openchemlib's ring set, up to 7 members), as 1-based atom numbers in ring order. */
+  smallRings: number[][];
 }
 
 const VALENCE_ELECTRONS: Record<string, number> = { B: 3, C: 4, Si: 4, N: 5, P: 5, O: 6, S: 6, Se: 6, F: 7, Cl: 7, Br: 7, I: 7 };
@@ -77,6 +81,11 @@ export function parseSmiles(smiles: string): Molecule {
   checkCharges(molecule, text);
   checkAromaticRadicals(molecule, text);
   return molecule;
+}
+
+/** The atom tokens of a SMILES string in order: bracket atoms, Cl, Br and single organic-subset letters. */
+function atomTokens(text: string): string[] {
+  return text.match(/\[[^\]]*\]|Cl|Br|[BCNOPSFIbcnops]/g) ?? [];
 }
 
 /** SMILES text outside square brackets (bracket atoms replaced by a placeholder). */
@@ -137,8 +146,11 @@ function checkCharges(molecule: Molecule, text: string) {
  */
 function checkAromaticRadicals(molecule: Molecule, text: string) {
   if (!/[bcnops]/.test(outsideBrackets(text))) return;
+  const tokens = atomTokens(text);
   for (let i = 0; i < molecule.getAtoms(); i++) {
     if (molecule.getAtomRadical(i) === 0) continue;
+    // A radical the user wrote on purpose (an uppercase bracket atom such as [CH]) is kept.
+    if (!/^\[?\d*[a-z]/.test(tokens[i] ?? '')) continue;
     throw new ChemError(
       `'${text}' was read as a radical: its aromatic ring has no Kekulé structure without an unpaired electron on atom ${i + 1} (${molecule.getAtomLabel(i)}). Write the species meant explicitly, e.g. [cH-]1cccc1 for the anion, [cH+]1cccc1 for the cation or C1=CC=C[CH]1 for the radical`,
     );
@@ -241,12 +253,14 @@ export function findPiSystem(smiles: string, molecule: Molecule = parseSmiles(sm
   for (let b = 0; b < molecule.getBonds(); b++) {
     const ca = centreOfAtom.get(molecule.getBondAtom(0, b) + 1);
     const cb = centreOfAtom.get(molecule.getBondAtom(1, b) + 1);
-    if (ca !== undefined && cb !== undefined) bonds.push({ a: ca, b: cb, order: molecule.getBondOrder(b) });
+    if (ca !== undefined && cb !== undefined) bonds.push({ a: ca, b: cb, order: molecule.getBondOrder(b), inRing: molecule.isRingBond(b) });
   }
 
   const ringSet = molecule.getRingSet();
   const rings: number[][] = [];
+  const smallRings: number[][] = [];
   for (let r = 0; r < ringSet.getSize(); r++) {
+    smallRings.push(ringSet.getRingAtoms(r).map((a) => a + 1));
     const members = ringSet.getRingAtoms(r).map((a) => centreOfAtom.get(a + 1));
     if (members.every((m) => m !== undefined)) rings.push(members as number[]);
   }
@@ -261,5 +275,6 @@ export function findPiSystem(smiles: string, molecule: Molecule = parseSmiles(sm
     centreOfAtom,
     numberingFollowsSmiles: molecule.getAllAtoms() === atomCount,
     rings,
+    smallRings,
   };
 }
