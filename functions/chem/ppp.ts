@@ -30,6 +30,8 @@ const HARTREE_EV = 27.211386245988;
 /** Å per bohr (CODATA 2018). */
 const BOHR_ANGSTROM = 0.529177210903;
 export const HC_EV_NM = 1239.84198;
+/** Oscillator strengths below this are rounding noise of a forbidden band. */
+const FORBIDDEN_F = 1e-10;
 
 export interface ExcitedState {
   /** Excitation energy, eV. */
@@ -129,7 +131,9 @@ export function pppSpectrum(pi: PiSystem, maxConfigurations = MAX_CIS_CONFIGURAT
       dx *= Math.SQRT2;
       dy *= Math.SQRT2;
       const mu2 = (dx * dx + dy * dy) / BOHR_ANGSTROM ** 2;
-      const f = (2 / 3) * (energy / HARTREE_EV) * mu2;
+      // A symmetry-forbidden band comes out as rounding noise (~1e-30): report it as exactly 0.
+      const raw = (2 / 3) * (energy / HARTREE_EV) * mu2;
+      const f = raw < FORBIDDEN_F ? 0 : raw;
       return {
         energy,
         wavelength: HC_EV_NM / energy,
