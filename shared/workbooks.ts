@@ -26,7 +26,8 @@ export const titleSchema = z
   .string({ error: required('text') })
   .trim()
   .min(1, 'required')
-  .max(200, 'at most 200 characters');
+  .max(200, 'at most 200 characters')
+  .refine((s) => !/[\u0000-\u001f\u007f]/.test(s), 'may not contain line breaks or other control characters');
 
 /**
  * Sheet names follow the usual spreadsheet rules (common practice), so formulas can name them and
