@@ -18,7 +18,7 @@ import { hashPassword, verifyPassword } from '../auth/password.js';
 import { publicLink } from '../config.js';
 import type { AppContext } from '../context.js';
 import { auditLog, users } from '../db/schema.js';
-import { HttpError, badRequest, conflict, parse } from '../errors.js';
+import { HttpError, conflict, parse } from '../errors.js';
 import { findLiveToken, issueToken, resetMail, useToken, verificationMail } from '../services/accountTokens.js';
 import { findUserByEmail, findUserById, markEmailVerified, toPublicUser } from '../services/users.js';
 
@@ -28,6 +28,9 @@ export async function sendVerificationMail(ctx: AppContext, user: { id: string; 
   const { token, expiresAt } = issueToken(ctx.db, user, 'verify');
   await ctx.mail.send({ to: user.email, ...verificationMail({ name: user.name, email: user.email, link: publicLink(ctx.config, `/verify-email/${token}`), expiresAt }) });
 }
+
+/** A refused new password, shaped like parse()'s 400 so forms show it beside the field. */
+const weakPassword = (field: string, problem: string) => new HttpError(400, 'invalid_input', `${field}: ${problem}`, { issues: [{ field, message: problem }] });
 
 const badLink = (what: string) => new HttpError(410, 'link_expired', `this ${what} link is used, replaced by a newer one or expired; ask for a new one`);
 
@@ -81,7 +84,7 @@ export function accountLinksRouter(ctx: AppContext): Router {
     if (!live || !owner) throw badLink('password reset');
     // A weak password is refused before the link is used up, so the person can try another.
     const problem = passwordProblem(password, owner.email);
-    if (problem) throw badRequest(`password: ${problem}`);
+    if (problem) throw weakPassword('password', problem);
     const passwordHash = await hashPassword(password);
     const row = useToken(db, token, 'reset');
     if (!row) throw badLink('password reset');
@@ -108,7 +111,7 @@ export function accountLinksRouter(ctx: AppContext): Router {
     }
     await limits.passwordChangePerUser.giveBack(me.id);
     const problem = passwordProblem(input.next, me.email);
-    if (problem) throw badRequest(`next: ${problem}`);
+    if (problem) throw weakPassword('next', problem);
     const passwordHash = await hashPassword(input.next);
     db.transaction((tx) => {
       tx.update(users).set({ passwordHash }).where(eq(users.id, me.id)).run();
