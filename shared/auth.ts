@@ -32,7 +32,11 @@ export const personNameSchema = z
 
 export const signUpSchema = z.object({
   email: emailSchema,
-  password: z.string({ error: required('text') }),
+  password: z
+    .string({ error: required('text') })
+    .min(passwordMinLength, `at least ${passwordMinLength} characters`)
+    .max(passwordMaxLength, `at most ${passwordMaxLength} characters`)
+    .refine((p) => p.trim() !== '', 'may not be only spaces'),
   name: personNameSchema,
   /** The invitation link the person followed, when they sign up from one: it proves the mailbox. */
   invitationToken: z.string().regex(/^[A-Za-z0-9_-]{43}$/, 'not an invitation token').optional(),
