@@ -4,7 +4,7 @@ import { Button } from '../../components/ui/Button.js';
 import { Notice } from '../../components/ui/Notice.js';
 import { TextField } from '../../components/ui/TextField.js';
 import { errorsFromApi, sentence, type FormErrors } from '../../lib/fieldErrors.js';
-import { useMe } from './api.js';
+import { useMe } from '../../core/session/me.js';
 import { useChangePassword, useResendVerification } from './accountApi.js';
 
 /** "Your account": whether the address is confirmed (with a new link on request) and a password change. */

@@ -6,7 +6,7 @@ import { Notice } from '../../components/ui/Notice.js';
 import { TextField } from '../../components/ui/TextField.js';
 import { checkForm, errorsFromApi, sentence, type FormErrors } from '../../lib/fieldErrors.js';
 import { useRequestReset, useResetPassword } from './accountApi.js';
-import { AuthFrame } from './AuthFrame.js';
+import { AuthFrame } from '../../components/ui/AuthFrame.js';
 
 const backToSignIn = (
   <Link to="/sign-in" className="font-medium text-accent hover:underline">

@@ -3,7 +3,7 @@ import { Link, useParams } from 'react-router';
 import { Notice } from '../../components/ui/Notice.js';
 import { sentence } from '../../lib/fieldErrors.js';
 import { useVerifyEmail } from './accountApi.js';
-import { AuthFrame } from './AuthFrame.js';
+import { AuthFrame } from '../../components/ui/AuthFrame.js';
 
 /** Where the verification mail's link lands: confirms the address as soon as it opens. */
 export function VerifyEmailPage() {

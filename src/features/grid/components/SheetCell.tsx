@@ -5,7 +5,7 @@
 // column does on blur.
 import { memo, useLayoutEffect, useRef, useState } from 'react';
 import type { CellProps } from 'react-datasheet-grid';
-import type { CellView } from '../model/cellView.js';
+import type { CellView } from '../../../core/workbook/model/cellView.js';
 import { FunctionSuggestions, useFunctionSuggestions } from './FunctionSuggestions.js';
 
 /** What every cell of a column shares; kept stable so cells do not re-render for nothing. */
