@@ -11,7 +11,7 @@ const envSchema = z.object({
   ORBITAB_SEED: z.enum(['0', '1']).default('1'),
   ORBITAB_ADMIN_EMAIL: z.string().email().optional(),
   /** The public origin (scheme, host, port) people open; links in e-mail are built from it. */
-  ORBITAB_ORIGIN: z.string().url().refine((u) => /^https?:$/.test(new URL(u).protocol), 'must be an http or https URL').optional(),
+  ORBITAB_ORIGIN: z.string().url().refine((u) => URL.canParse(u) && /^https?:$/.test(new URL(u).protocol), 'must be an http or https URL').optional(),
   NODE_ENV: z.string().default('development'),
 });
 
