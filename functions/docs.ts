@@ -48,6 +48,7 @@ function renderFunction(h: FunctionHelp): string {
     lines.push(`- \`${e.formula}\` ${arrow} \`${e.expectedText}\`${e.note ? ` — ${e.note}` : ''}`);
   }
   lines.push('', `**Source:** ${h.source}`, '');
+  if (h.seeAlso.length > 0) lines.push(`**See also:** ${h.seeAlso.map((n) => `[${n}](#${n.toLowerCase()})`).join(', ')}`, '');
   return lines.join('\n');
 }
 
