@@ -4,6 +4,7 @@ import { z } from 'zod';
 import type { AccessRole } from './permissions.js';
 import type { ProtectedRange, SheetLock, TeamEvent } from './team.js';
 import { cellInputProblem } from './cellInput.js';
+import { cellKey } from './a1.js';
 
 /** Rows 1..1,000,000 and columns A..BXX (2,000), the engine's limits (functions/engine.ts). */
 export const maxRowIndex = 999_999;
@@ -97,7 +98,7 @@ export const patchSchema = z
     // Two inputs for one cell in one patch would make the result depend on order: refuse it.
     const seen = new Map<string, number>();
     patch.changes.forEach((c, i) => {
-      const key = `${c.sheetId}\u0000${c.row}\u0000${c.col}`;
+      const key = cellKey(c);
       const first = seen.get(key);
       if (first !== undefined) ctx.addIssue({ code: 'custom', path: ['changes', i], message: `the same cell as changes.${first}; send one input per cell` });
       else seen.set(key, i);

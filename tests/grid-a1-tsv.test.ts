@@ -1,6 +1,6 @@
 // A1 naming and clipboard text, the two formats the grid shares with other spreadsheet programs.
 import { describe, expect, it } from 'vitest';
-import { cellName, columnIndex, columnName, parseCellName, parseRangeName, rangeName, sheetReference } from '../src/features/grid/model/a1.js';
+import { cellName, columnIndex, columnName, parseCellName, parseRangeName, rangeName, sheetReference } from '../shared/a1.js';
 import { formatTsv, parseTsv } from '../src/features/grid/model/tsv.js';
 
 describe('A1 column letters (common practice: A…Z, then AA…ZZ, then AAA)', () => {

@@ -6,7 +6,7 @@ import type Database from 'better-sqlite3';
 import { cellInputProblem } from '../../shared/cellInput.js';
 import { maxInputLength, maxSheetNameLength, type RevisionKind, type RevisionPatch, type SheetOp } from '../../shared/workbooks.js';
 import type { AppContext } from '../context.js';
-import { addressOf } from './a1.js';
+import { cellName } from '../../shared/a1.js';
 import { applySheetOp, workbookSheets } from '../services/sheetOps.js';
 import { nextRevision, recordRevision } from '../services/revisionLog.js';
 import { settingsFromParsed } from './sheetSettings.js';
@@ -87,7 +87,7 @@ export function importSheets(ctx: AppContext, workbookId: string, userId: string
           const input = cell[2];
           // The same checks a typed input meets in the patch schema: nothing is stored altered.
           const problem = input.length > maxInputLength ? `longer than ${maxInputLength.toLocaleString('en')} characters` : cellInputProblem(input);
-          if (problem) summary.skipped.push({ sheet: name, address: addressOf(cell[0], cell[1]), reason: problem });
+          if (problem) summary.skipped.push({ sheet: name, address: cellName(cell[0], cell[1]), reason: problem });
           else {
             cells.push(cell);
             if (input.charCodeAt(0) === 61 /* = */) formulas++;

@@ -3,7 +3,7 @@
 // stores widths in characters of the default font and a frozen pane of rows × columns. We keep the
 // grid's fields and add `frozenRows`, `frozenCols` and `merged` so an export gives back what came in.
 import { maxSheetSettingsBytes, type SheetSettings } from '../../shared/workbooks.js';
-import { parseRange } from './a1.js';
+import { parseRangeName } from '../../shared/a1.js';
 import type { ParsedSheet } from './types.js';
 
 // Column width ↔ pixels, ECMA-376 Part 1 §18.3.1.13 (from memory): pixels =
@@ -66,6 +66,6 @@ export function fileLayoutOf(settings: SheetSettings | undefined): FileLayout {
     }
   }
   const frozenRows = typeof s.frozenRows === 'number' ? wholeAtLeastZero(s.frozenRows) : s.freezeHeaderRow === true ? 1 : 0;
-  const merged = Array.isArray(s.merged) ? s.merged.filter((m): m is string => typeof m === 'string' && parseRange(m) !== null) : [];
+  const merged = Array.isArray(s.merged) ? s.merged.filter((m): m is string => typeof m === 'string' && parseRangeName(m) !== null) : [];
   return { columnWidths, frozenRows: s.freezeHeaderRow === false ? 0 : frozenRows, frozenCols: wholeAtLeastZero(s.frozenCols), merged };
 }

@@ -6,7 +6,7 @@ import type { DataSheetGridRef } from 'react-datasheet-grid';
 import { ChartPanel } from '../chart/ChartPanel.js';
 import { SafetyNote } from '../diagram/SafetyNote.js';
 import { StructurePanel } from '../diagram/StructurePanel.js';
-import { cellName, parseCellName, rangeName } from './model/a1.js';
+import { cellName, parseCellName, rangeName } from '../../../shared/a1.js';
 import type { DisplaySettings } from './model/displaySettings.js';
 import { fillPairs } from './model/rangeEdits.js';
 import { FilterMenu, type SheetFilter } from './components/FilterMenu.js';

@@ -2,6 +2,7 @@
 // The rule that keeps work safe: a cell with my own input still waiting to be saved is never
 // overwritten by a remote change. It stays mine on screen, and my next patch meets the other input
 // as a 409 conflict, where I choose (ConflictDialog). Everything else is written at once.
+import { cellKey } from '../../../shared/a1.js';
 import type { LiveEvents } from '../../../shared/team.js';
 import type { RevisionDetail, SheetOp } from '../../../shared/workbooks.js';
 import { readDisplaySettings } from '../grid/model/displaySettings.js';
@@ -12,7 +13,6 @@ import type { PatchQueue } from '../grid/save/patchQueue.js';
 
 export type RemoteRevision = LiveEvents['revision'];
 
-const cellKey = (c: { sheetId: string; row: number; col: number }) => `${c.sheetId}\u0000${c.row}\u0000${c.col}`;
 
 /** The same shape whether a revision came over the event stream or was fetched to fill a gap. */
 export function fromRevisionDetail(d: RevisionDetail): RemoteRevision {
