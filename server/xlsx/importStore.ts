@@ -102,15 +102,16 @@ export function importSheets(ctx: AppContext, workbookId: string, userId: string
       summary.formulas = formulas;
 
       const revision = nextRevision(tx, workbookId);
+      const rewrites: RevisionPatch['changes'] = [];
       const recorded = ops.map((op) => {
-        if (op.op !== 'add') return applySheetOp(tx, workbookId, op, revision, userId);
+        if (op.op !== 'add') return applySheetOp(tx, workbookId, op, revision, userId, rewrites);
         // The sheet row through the shared path; its cells in one prepared statement (a workbook of
         // 100,000 cells would otherwise pay the query builder per cell).
-        applySheetOp(tx, workbookId, { ...op, cells: [] }, revision, userId);
+        applySheetOp(tx, workbookId, { ...op, cells: [] }, revision, userId, rewrites);
         insertCells(op.sheetId, op.cells, revision);
         return op;
       });
-      const patch: RevisionPatch = { sheetOps: recorded, changes: [] };
+      const patch: RevisionPatch = { sheetOps: recorded, changes: rewrites };
       // 'import' is stored as its own kind so history can name it (shared RevisionKind lists the others).
       recordRevision(tx, workbookId, revision, userId, 'import' as RevisionKind, patch);
       return { revision, sheets: added, patch };

@@ -12,6 +12,7 @@ import type { CellView } from './cellView.js';
 import { buildSheetRows, EMPTY_ROW, groupCells, viewOfCell, withRowsReplaced, type RowData } from './sheetViews.js';
 import { readDisplaySettings, type DisplaySettings } from './displaySettings.js';
 import { SheetInputs } from './sheetInputs.js';
+import { removeSheetFromFormula, renameSheetInFormula } from '../../../../shared/formulaText.js';
 import { lastInputPerCell, type CellInput } from '../save/pendingStore.js';
 import { History } from './history.js';
 
@@ -273,8 +274,21 @@ export class WorkbookModel {
     const s = this.sheet(sheetId);
     if (s.name === name) return;
     this.engine.renameSheet(s.engineId, name);
+    // The engine has re-pointed its formulas already; the typed text follows, as the server
+    // rewrites the stored text in the same revision (shared/formulaText.ts).
+    const before = s.name;
     s.name = name;
+    this.rewriteFormulaText((input) => renameSheetInFormula(input, before, name));
     this.invalidateViews(); // formulas naming the sheet now show the new name
+  }
+
+  /** Rewrites formula text in every sheet's inputs (the engine already holds the same formulas). */
+  private rewriteFormulaText(rewrite: (input: string) => string) {
+    for (const sheet of this.sheetsById.values()) {
+      for (const { row, col, input } of [...sheet.inputs.entries()]) {
+        if (input.startsWith('=')) sheet.inputs.set(row, col, rewrite(input));
+      }
+    }
   }
 
   removeSheetState(sheetId: string) {
@@ -282,6 +296,8 @@ export class WorkbookModel {
     if (!s) return;
     this.engine.removeSheet(s.engineId);
     this.sheetsById.delete(sheetId);
+    // The engine now reads references to the sheet as #REF!; the text says so too, as on the server.
+    this.rewriteFormulaText((input) => removeSheetFromFormula(input, s.name));
     this.history.forgetSheet(sheetId);
     this.invalidateViews();
   }
