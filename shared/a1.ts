@@ -2,6 +2,10 @@
 // A…Z, AA…ZZ, AAA…; rows counted from 1. Everything inside Orbitab counts from 0. Server, client and
 // importers all read and write addresses through here so they cannot drift apart.
 
+/** Rows 1..1,000,000 and columns A..BXX (2,000), the engine's limits (functions/engine.ts). */
+export const maxRowIndex = 999_999;
+export const maxColIndex = 1_999;
+
 /** Letters a column name may have: three reach XFD (xlsx's last column) and BXX (ours). */
 const COLUMN_LETTERS = 3;
 
