@@ -6,6 +6,7 @@
 // recomputes once at the end.
 import { ExportedCellChange, type ExportedChange, type HyperFormula } from 'hyperformula';
 import { createEngine } from '../../../../functions/engine.js';
+import { engineInput } from '../../../../functions/formulaTokens.js';
 import type { SheetPayload, WorkbookPayload } from '../../../../shared/workbooks.js';
 import { can, type AccessRole } from '../../../../shared/permissions.js';
 import type { CellView } from './cellView.js';
@@ -181,7 +182,7 @@ export class WorkbookModel {
     try {
       for (const c of changes) {
         const s = this.sheet(c.sheetId);
-        const result = this.engine.setCellContents({ sheet: s.engineId, row: c.row, col: c.col }, [[c.input === '' ? null : c.input]]);
+        const result = this.engine.setCellContents({ sheet: s.engineId, row: c.row, col: c.col }, [[c.input === '' ? null : engineInput(c.input)]]);
         if (!bulk) engineChanges = result;
         s.inputs.set(c.row, c.col, c.input);
         written.push(c);
