@@ -4,7 +4,9 @@ import { afterAll, beforeEach, describe, expect, it } from 'vitest';
 import { removeSheetFromFormula, renameSheetInFormula } from '../shared/formulaText.js';
 import type { CellEntry, ComputedValue, RevisionDetail, SheetOp, WorkbookPayload } from '../shared/workbooks.js';
 import { WorkbookModel } from '../src/features/grid/model/workbookModel.js';
+import { applyRemoteRevision } from '../src/features/live/remoteRevision.js';
 import { load, makeTeam, sharedWorkbook, type Agent, type Team } from './helpers/team.js';
+import { session } from './helpers/workbookSession.js';
 
 describe('formula text when a sheet is renamed or deleted', () => {
   it('rewrites unquoted, quoted and differently cased references, and both corners of a range', () => {
@@ -152,5 +154,21 @@ describe('the browser\'s model', () => {
     const op: SheetOp = { op: 'rename', sheetId: 's2', before: 'Data', after: 'Raw' };
     m.renameSheetState(op.sheetId, op.after);
     expect(m.input('s1', 0, 0)).toBe(renameSheetInFormula('=Data!A1*2', op.before, op.after));
+  });
+
+  it('takes in a colleague\'s rename with its rewrite, and my unsent formula follows the sheet too', () => {
+    const { model, queue } = session([[0, 0, '=Data!A1*2']]);
+    const add: SheetOp = { op: 'add', sheetId: 's2', name: 'Data', position: 1, settings: {}, cells: [[0, 0, '5']] };
+    applyRemoteRevision(model, queue, { revision: 5, kind: 'sheet', authorId: 'u-ben', changes: [], sheetOps: [add] });
+    model.edit([{ sheetId: 's1', row: 1, col: 0, input: '=SUM(Data!A1:A3)' }]);
+
+    const rename: SheetOp = { op: 'rename', sheetId: 's2', before: 'Data', after: 'Raw data' };
+    const changes = [{ sheetId: 's1', row: 0, col: 0, before: '=Data!A1*2', after: `='Raw data'!A1*2` }];
+    const result = applyRemoteRevision(model, queue, { revision: 6, kind: 'sheet', authorId: 'u-ben', changes, sheetOps: [rename] });
+    expect(result.writes).toEqual([]); // the model had rewritten the text already, to the same words
+    expect(model.input('s1', 0, 0)).toBe(`='Raw data'!A1*2`);
+    expect(model.view('s1', 0, 0)?.display).toBe('10');
+    expect(queue.waiting).toEqual([{ sheetId: 's1', row: 1, col: 0, input: `=SUM('Raw data'!A1:A3)` }]);
+    expect(model.input('s1', 1, 0)).toBe(`=SUM('Raw data'!A1:A3)`);
   });
 });

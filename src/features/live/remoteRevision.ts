@@ -3,6 +3,7 @@
 // overwritten by a remote change. It stays mine on screen, and my next patch meets the other input
 // as a 409 conflict, where I choose (ConflictDialog). Everything else is written at once.
 import { cellKey } from '../../../shared/a1.js';
+import { removeSheetFromFormula, renameSheetInFormula } from '../../../shared/formulaText.js';
 import type { LiveEvents } from '../../../shared/team.js';
 import type { RevisionDetail, SheetOp } from '../../../shared/workbooks.js';
 import { readDisplaySettings } from '../grid/model/displaySettings.js';
@@ -93,12 +94,16 @@ export function applyRemoteRevision(model: WorkbookModel, queue: PatchQueue, rev
         if (model.hasSheet(op.sheetId)) {
           orphaned.push(...queue.waiting.filter((c) => c.sheetId === op.sheetId));
           queue.dropSheet(op.sheetId);
+          queue.rewritePending((input) => removeSheetFromFormula(input, op.name));
           model.removeSheetState(op.sheetId);
           model.setPositions(order());
         }
         break;
       case 'rename':
-        if (model.hasSheet(op.sheetId)) model.renameSheetState(op.sheetId, op.after);
+        if (model.hasSheet(op.sheetId)) {
+          queue.rewritePending((input) => renameSheetInFormula(input, op.before, op.after));
+          model.renameSheetState(op.sheetId, op.after);
+        }
         break;
       case 'move':
         if (model.hasSheet(op.sheetId)) model.setPositions(reorder(order(), op.sheetId, op.to));
