@@ -5,8 +5,19 @@
 // Only what the rewrites need is told apart; everything else is plain text.
 
 /** Letters the engine allows in an unquoted sheet name (its UNICODE_LETTER_PATTERN), digits, underscore. */
-const NAME_CHAR = /[A-Za-z\u00C0-\u02AF0-9_]/;
-const NUMBER = /^(?:[0-9]+(?:\.[0-9]*)?|\.[0-9]+)[eE][+-]?[0-9]+/;
+function isNameChar(code: number): boolean {
+  return (
+    (code >= 48 && code <= 57) || // 0-9
+    (code >= 65 && code <= 90) || // A-Z
+    (code >= 97 && code <= 122) || // a-z
+    code === 95 || // _
+    (code >= 0xc0 && code <= 0x2af)
+  );
+}
+const DOT = 46;
+const isDigit = (code: number) => code >= 48 && code <= 57;
+/** A number literal with an exponent, read where a run of name characters starts (sticky). */
+const NUMBER = /(?:[0-9]+(?:\.[0-9]*)?|\.[0-9]+)[eE][+-]?[0-9]+/y;
 
 export type FormulaToken =
   | { kind: 'text'; text: string }
@@ -17,55 +28,53 @@ export type FormulaToken =
 /** Splits a formula ("=…") into the tokens the rewrites care about; everything else is plain text. */
 export function formulaTokens(formula: string): FormulaToken[] {
   const out: FormulaToken[] = [];
-  let plain = '';
-  const flush = () => {
-    if (plain) out.push({ kind: 'text', text: plain });
-    plain = '';
+  let plainFrom = 0;
+  const token = (from: number, to: number, t: FormulaToken) => {
+    if (plainFrom < from) out.push({ kind: 'text', text: formula.slice(plainFrom, from) });
+    out.push(t);
+    plainFrom = to;
   };
+  const n = formula.length;
   let i = 0;
-  while (i < formula.length) {
-    const ch = formula[i];
-    if (ch === '"') {
+  while (i < n) {
+    const code = formula.charCodeAt(i);
+    if (code === 34 /* " */) {
       // A string literal, "" standing for one quote inside it; an unclosed one runs to the end.
       let j = i + 1;
-      while (j < formula.length && !(formula[j] === '"' && formula[j + 1] !== '"')) j += formula[j] === '"' ? 2 : 1;
-      plain += formula.slice(i, j + 1);
+      while (j < n && !(formula.charCodeAt(j) === 34 && formula.charCodeAt(j + 1) !== 34)) j += formula.charCodeAt(j) === 34 ? 2 : 1;
       i = j + 1;
-    } else if (ch === "'") {
+    } else if (code === 39 /* ' */) {
       let j = i + 1;
-      while (j < formula.length && !(formula[j] === "'" && formula[j + 1] !== "'")) j += formula[j] === "'" ? 2 : 1;
-      if (formula[j + 1] === '!') {
-        flush();
-        out.push({ kind: 'sheet', text: formula.slice(i, j + 2), name: formula.slice(i + 1, j).replace(/''/g, "'") });
-        i = j + 2;
-      } else {
-        plain += formula.slice(i, j + 1);
-        i = j + 1;
-      }
-    } else if (NAME_CHAR.test(ch) || ch === '.') {
+      while (j < n && !(formula.charCodeAt(j) === 39 && formula.charCodeAt(j + 1) !== 39)) j += formula.charCodeAt(j) === 39 ? 2 : 1;
+      if (formula.charCodeAt(j + 1) === 33 /* ! */) token(i, j + 2, { kind: 'sheet', text: formula.slice(i, j + 2), name: formula.slice(i + 1, j).replace(/''/g, "'") });
+      i = j + (formula.charCodeAt(j + 1) === 33 ? 2 : 1);
+    } else if (isNameChar(code) || code === DOT) {
       // A whole run of name characters, so "A1E3" or "Sheet1E3" is never read from its middle.
       let j = i;
-      while (j < formula.length && (NAME_CHAR.test(formula[j]) || formula[j] === '.')) j++;
-      const run = formula.slice(i, j);
-      const number = NUMBER.exec(formula.slice(i));
-      if (formula[j] === '!' && /^[A-Za-z\u00C0-\u02AF0-9_]+$/.test(run) && formula[i - 1] !== '#') {
-        flush();
-        out.push({ kind: 'sheet', text: `${run}!`, name: run });
+      let dotted = false;
+      for (let c = code; j < n && (isNameChar(c) || c === DOT); c = formula.charCodeAt(++j)) dotted ||= c === DOT;
+      if (formula.charCodeAt(j) === 33 /* ! */ && !dotted && formula.charCodeAt(i - 1) !== 35 /* # */) {
+        const run = formula.slice(i, j);
+        token(i, j + 1, { kind: 'sheet', text: `${run}!`, name: run });
         i = j + 1;
-      } else if (number && /^[0-9.]/.test(ch) && !NAME_CHAR.test(formula[i + number[0].length] ?? '') && formula[i + number[0].length] !== '!') {
-        flush();
-        out.push({ kind: 'number', text: number[0] });
-        i += number[0].length;
-      } else {
-        plain += run;
-        i = j;
+        continue;
       }
+      if (isDigit(code) || code === DOT) {
+        NUMBER.lastIndex = i;
+        const number = NUMBER.exec(formula);
+        const after = number ? i + number[0].length : -1;
+        if (number && !isNameChar(formula.charCodeAt(after)) && formula.charCodeAt(after) !== 33) {
+          token(i, after, { kind: 'number', text: number[0] });
+          i = after;
+          continue;
+        }
+      }
+      i = j;
     } else {
-      plain += ch;
       i++;
     }
   }
-  flush();
+  if (plainFrom < n) out.push({ kind: 'text', text: formula.slice(plainFrom) });
   return out;
 }
 

@@ -14,9 +14,19 @@ const REFERENCE_AFTER_PREFIX = new RegExp(
 const isFormula = (input: string) => input.startsWith('=') && input.length > 1;
 const sameName = (a: string, b: string) => a.toLowerCase() === b.toLowerCase();
 
+/** Whether the formula could name the sheet at all (cheap; quoted names double their apostrophes). */
+function mayName(formula: string, name: string): boolean {
+  if (!isFormula(formula) || !formula.includes('!')) return false;
+  const text = formula.toLowerCase();
+  return name
+    .toLowerCase()
+    .split("'")
+    .every((part) => text.includes(part));
+}
+
 /** The formula with every reference to sheet `before` pointing at `after` (unchanged text when there is none). */
 export function renameSheetInFormula(formula: string, before: string, after: string): string {
-  if (!isFormula(formula) || !formula.includes('!')) return formula;
+  if (!mayName(formula, before)) return formula;
   return formulaTokens(formula)
     .map((t) => (t.kind === 'sheet' && sameName(t.name, before) ? `${sheetReference(after)}!` : t.text))
     .join('');
@@ -24,7 +34,7 @@ export function renameSheetInFormula(formula: string, before: string, after: str
 
 /** The formula with every reference into sheet `name` replaced by #REF!, as a deleted sheet leaves it. */
 export function removeSheetFromFormula(formula: string, name: string): string {
-  if (!isFormula(formula) || !formula.includes('!')) return formula;
+  if (!mayName(formula, name)) return formula;
   const parts = formulaTokens(formula);
   let out = '';
   for (let k = 0; k < parts.length; k++) {

@@ -5,7 +5,7 @@
 //
 // The rewrite is a consequence of the tab operation, not an edit of those cells by the user, so it
 // meets no lock or protected-range check; the tab operation itself is checked by its caller.
-import { and, asc, eq, like } from 'drizzle-orm';
+import { sql } from 'drizzle-orm';
 import { removeSheetFromFormula, renameSheetInFormula } from '../../shared/formulaText.js';
 import type { CellChangeRecord, SheetOp } from '../../shared/workbooks.js';
 import { cells, sheets } from '../db/schema.js';
@@ -25,22 +25,25 @@ function formulaRewrite(op: SheetOp): ((input: string) => string) | null {
 export function rewriteSheetReferences(tx: Tx, workbookId: string, op: SheetOp, revision: number): CellChangeRecord[] {
   const rewrite = formulaRewrite(op);
   if (!rewrite) return [];
-  const candidates = tx
-    .select({ sheetId: cells.sheetId, row: cells.row, col: cells.col, input: cells.input })
-    .from(cells)
-    .innerJoin(sheets, eq(sheets.id, cells.sheetId))
-    .where(and(eq(sheets.workbookId, workbookId), like(cells.input, '=%!%')))
-    .orderBy(asc(sheets.position), asc(cells.row), asc(cells.col))
-    .all();
+  // Plain SQL: only formulas naming some sheet (an "=" first, a "!" somewhere), in tab, row, column order.
+  const candidates = tx.all<{ sheetId: string; row: number; col: number; input: string }>(sql`
+    SELECT c.sheet_id AS sheetId, c.row AS row, c.col AS col, c.input AS input
+    FROM ${cells} c JOIN ${sheets} s ON s.id = c.sheet_id
+    WHERE s.workbook_id = ${workbookId} AND c.input LIKE '=%!%'
+    ORDER BY s.position, c.row, c.col`);
   const changes: CellChangeRecord[] = [];
   for (const c of candidates) {
     const after = rewrite(c.input);
-    if (after === c.input) continue;
-    tx.update(cells)
-      .set({ input: after, revision })
-      .where(and(eq(cells.sheetId, c.sheetId), eq(cells.row, c.row), eq(cells.col, c.col)))
-      .run();
-    changes.push({ sheetId: c.sheetId, row: c.row, col: c.col, before: c.input, after });
+    if (after !== c.input) changes.push({ sheetId: c.sheetId, row: c.row, col: c.col, before: c.input, after });
+  }
+  // One statement per block of cells, the new inputs passed as JSON: an UPDATE per cell through the
+  // query builder took about 12 s for 50,000 formulas.
+  for (let i = 0; i < changes.length; i += 5_000) {
+    const block = JSON.stringify(changes.slice(i, i + 5_000).map((c) => [c.sheetId, c.row, c.col, c.after]));
+    tx.run(sql`
+      UPDATE ${cells} SET input = j.value ->> 3, revision = ${revision}
+      FROM json_each(${block}) AS j
+      WHERE ${cells.sheetId} = j.value ->> 0 AND ${cells.row} = j.value ->> 1 AND ${cells.col} = j.value ->> 2`);
   }
   return changes;
 }
