@@ -11,7 +11,8 @@ import { createEngine } from '../functions/engine.js';
 import { lowercaseExponents } from '../functions/formulaTokens.js';
 import { closeParsePool } from '../server/xlsx/parseInWorker.js';
 import type { CellEntry, ComputedValue } from '../shared/workbooks.js';
-import { WorkbookModel } from '../src/features/grid/model/workbookModel.js';
+import { WorkbookModel } from '../src/core/workbook/model/workbookModel.js';
+import { allowedActions } from '../shared/permissions.js';
 import { makeTestApp } from './helpers/app.js';
 
 afterAll(() => closeParsePool());
@@ -51,8 +52,7 @@ describe('the engine', () => {
 
 describe('typed in the grid', () => {
   it('shows the value and keeps the text as typed', () => {
-    const m = new WorkbookModel({ id: 'wb', title: 'Moles', revision: 0, role: 'owner', sheets: [{ id: 's1', name: 'Sheet1', position: 0, settings: {}, cells: [] }] });
-    m.onLocalChanges = () => {};
+    const m = new WorkbookModel({ id: 'wb', title: 'Moles', revision: 0, role: 'owner', actions: allowedActions(['owner']), sheets: [{ id: 's1', name: 'Sheet1', position: 0, settings: {}, cells: [] }] });
     m.edit([{ sheetId: 's1', row: 0, col: 0, input: '=2.5E-3*4' }]);
     expect(m.input('s1', 0, 0)).toBe('=2.5E-3*4');
     expect(m.view('s1', 0, 0)?.display).toBe('0.01');

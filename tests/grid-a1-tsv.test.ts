@@ -2,7 +2,7 @@
 import { describe, expect, it } from 'vitest';
 import { cellAddress, cellKey, cellName, columnIndex, columnName, parseCellName, parseRangeName, rangeName, sheetReference } from '../shared/a1.js';
 import { parseCellRange } from '../shared/cellRange.js';
-import { formatTsv, parseTsv } from '../src/features/grid/model/tsv.js';
+import { formatTsv, parseTsv } from '../src/core/workbook/model/tsv.js';
 
 describe('A1 column letters (common practice: A…Z, then AA…ZZ, then AAA)', () => {
   it('names the first, last single-letter and first two-letter columns', () => {

@@ -3,10 +3,11 @@
 import { afterAll, beforeEach, describe, expect, it } from 'vitest';
 import { removeSheetFromFormula, renameSheetInFormula } from '../shared/formulaText.js';
 import type { CellEntry, ComputedValue, RevisionDetail, SheetOp, WorkbookPayload } from '../shared/workbooks.js';
-import { WorkbookModel } from '../src/features/grid/model/workbookModel.js';
+import { WorkbookModel } from '../src/core/workbook/model/workbookModel.js';
 import { applyRemoteRevision } from '../src/features/live/remoteRevision.js';
 import { load, makeTeam, sharedWorkbook, type Agent, type Team } from './helpers/team.js';
 import { session } from './helpers/workbookSession.js';
+import { allowedActions } from '../shared/permissions.js';
 
 describe('formula text when a sheet is renamed or deleted', () => {
   it('rewrites unquoted, quoted and differently cased references, and both corners of a range', () => {
@@ -129,6 +130,7 @@ describe('the browser\'s model', () => {
       title: 'Screening',
       revision: 3,
       role: 'owner',
+      actions: allowedActions(['owner']),
       sheets: [
         { id: 's1', name: 'Results', position: 0, settings: {}, cells: [[0, 0, '=Data!A1*2'], [0, 1, '="Data!A1"']] },
         { id: 's2', name: 'Data', position: 1, settings: {}, cells: [[0, 0, '5']] },

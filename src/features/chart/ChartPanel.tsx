@@ -2,7 +2,7 @@
 import { useMemo, useState } from 'react';
 import { CartesianGrid, Line, LineChart, ResponsiveContainer, Scatter, ScatterChart, Tooltip, XAxis, YAxis } from 'recharts';
 import { columnName } from '../../../shared/a1.js';
-import type { RowData } from '../grid/model/workbookModel.js';
+import type { RowData } from '../../core/workbook/model/workbookModel.js';
 import { numericPairs, sortedByX } from './chartData.js';
 
 export function ChartPanel({ rows, colCount, firstRow, headerRow, initialX }: { rows: RowData[]; colCount: number; firstRow: number; headerRow: RowData | null; initialX: number }) {

@@ -4,7 +4,7 @@
 // own dropped input is set aside where I can still read and copy it.
 import { cellKey } from '../../../shared/a1.js';
 import type { CellConflict } from '../../../shared/workbooks.js';
-import type { CellInput } from '../grid/save/pendingStore.js';
+import type { CellInput } from '../../core/workbook/save/pendingStore.js';
 
 export type ConflictChoice = 'mine' | 'theirs';
 

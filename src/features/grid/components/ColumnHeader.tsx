@@ -2,8 +2,8 @@
 // header row is frozen, the first row's value under the letter (click it to edit in the bar).
 import { useRef, useState, type MouseEvent } from 'react';
 import { columnName } from '../../../../shared/a1.js';
-import { clampWidth } from '../model/displaySettings.js';
-import type { CellView } from '../model/cellView.js';
+import { clampWidth } from '../../../core/workbook/model/displaySettings.js';
+import type { CellView } from '../../../core/workbook/model/cellView.js';
 
 export interface ColumnHeaderProps {
   col: number;

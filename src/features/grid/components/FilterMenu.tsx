@@ -2,7 +2,7 @@
 // cells must contain. The filter hides rows in this view only; nothing is changed or sent.
 import { useMemo, useRef, useState } from 'react';
 import { columnName } from '../../../../shared/a1.js';
-import { distinctValues, type FilterCriterion } from '../model/sortFilter.js';
+import { distinctValues, type FilterCriterion } from '../../../core/workbook/model/sortFilter.js';
 
 export interface SheetFilter {
   col: number;
