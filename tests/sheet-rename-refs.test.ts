@@ -114,6 +114,16 @@ describe('renaming and deleting sheets through the API', () => {
     expect((await valuesOf(t.owner.agent, wb.id, 'Results')).get('0,0')).toBe(10);
   });
 
+  it('lets an editor not on the lock undo their delete, references on the locked sheet included', async () => {
+    const res = await t.editor.agent.delete(`${sheetsUrl()}/${data}`).expect(200);
+    const restore = await t.editor.agent.post(`/api/workbooks/${wb.id}/revisions/${res.body.revision - 1}/restore`);
+    expect(restore.status, JSON.stringify(restore.body)).toBe(200);
+    expect(inputsOf(await load(t.owner.agent, wb.id), results).get('0,0')).toBe('=Data!A1*2');
+    // …while an edit of the locked sheet's cells stays theirs to refuse.
+    const { revision } = await load(t.editor.agent, wb.id);
+    await t.editor.agent.post(`/api/workbooks/${wb.id}/patches`).send({ baseRevision: revision, changes: [{ sheetId: results, row: 0, col: 0, input: '=1' }] }).expect(403);
+  });
+
   it('still refuses a rename of the locked sheet itself to someone not on the lock, rewriting nothing', async () => {
     const before = await load(t.owner.agent, wb.id);
     await t.editor.agent.patch(`${sheetsUrl()}/${results}`).send({ name: 'Mine now' }).expect(403);
