@@ -1,4 +1,5 @@
 import { HyperFormula, type ConfigParams } from 'hyperformula';
+import { engineInput } from './formulaTokens.js';
 import { registerOrbitabPlugin } from './plugin.js';
 
 export type SheetInput = (string | number | boolean | null)[][];
@@ -16,5 +17,8 @@ export const engineConfig: Partial<ConfigParams> = {
 
 export function createEngine(sheets: Record<string, SheetInput>, options: Partial<ConfigParams> = {}): HyperFormula {
   registerOrbitabPlugin();
-  return HyperFormula.buildFromSheets(sheets, { ...engineConfig, ...options });
+  // Stored formulas keep the exponent the user (or another program) wrote, 6.022E23 included; the
+  // engine reads only a lowercase e, so it is given that (functions/formulaTokens.ts).
+  const read = Object.fromEntries(Object.entries(sheets).map(([name, rows]) => [name, rows.map((row) => row.map(engineInput))]));
+  return HyperFormula.buildFromSheets(read, { ...engineConfig, ...options });
 }
