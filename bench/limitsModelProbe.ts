@@ -1,0 +1,10 @@
+import { WorkbookModel } from '../src/features/grid/model/workbookModel.js';
+const hostile = process.argv.slice(2);
+const cells: [number, number, string][] = hostile.map((f, i) => [i, 3, f]);
+cells.push([0, 0, '2'], [0, 1, '=A1*21']);
+let t = performance.now();
+const model = new WorkbookModel({ id: 'wb', title: 'Hostile', revision: 1, role: 'owner', sheets: [{ id: 's1', name: 'Sheet1', position: 0, settings: {}, cells }] } as any);
+console.log('open', Math.round(performance.now() - t), model.view('s1', 0, 3)?.errorMessage);
+t = performance.now();
+model.edit([{ sheetId: 's1', row: 0, col: 0, input: '3' }]);
+console.log('edit', Math.round(performance.now() - t), model.view('s1', 0, 1)?.display, Math.round(process.memoryUsage().heapUsed / 1e6));
