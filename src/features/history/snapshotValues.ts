@@ -45,7 +45,7 @@ export function snapshotSheets(snapshot: RevisionSnapshot, maxRows = snapshotMax
           return cellView(input, value, precision, input === '' && value !== null);
         }),
       );
-      return { id: s.id, name: s.name, cells, usedRows: Math.max(usedRows, values.length), usedCols: Math.max(usedCols, valueCols) };
+      return { id: s.id, name: s.name, cells, usedRows: spilled.rows, usedCols: spilled.cols };
     });
   } finally {
     engine.destroy();
