@@ -1,3 +1,4 @@
+import { maxBodyBytes } from '../shared/workbooks.js';
 import fs from 'node:fs';
 import path from 'node:path';
 import express, { type Express } from 'express';
@@ -34,7 +35,7 @@ export function createApp({ db, config }: CreateAppOptions): { app: Express; ctx
   app.use(createHttpLogger(logger));
 
   const api = express.Router();
-  api.use(express.json({ limit: '2mb' }));
+  api.use(express.json({ limit: maxBodyBytes }));
   api.use(checkOrigin(config.origin));
   api.use(loadSession(ctx.lucia));
 

@@ -10,7 +10,8 @@ import { evaluationLimits as L, count, formulaOperatorCount } from '../functions
 import { clearHuckelCache } from '../functions/chem/huckelCache.js';
 import { smilesHeavyAtomCount } from '../functions/chem/huckelCache.js';
 import { cellInputProblem } from '../shared/cellInput.js';
-import { WorkbookModel } from '../src/features/grid/model/workbookModel.js';
+import { allowedActions } from '../shared/permissions.js';
+import { WorkbookModel } from '../src/core/workbook/model/workbookModel.js';
 
 let engines: HyperFormula[] = [];
 afterEach(() => {
@@ -146,7 +147,7 @@ describe('a workbook holding hostile formulas stays usable', () => {
     const hostile = ['=SEQUENCE(1000000,2000)', '=SUM(A2:BXX1000000)', '=REPT("ab",200000000)', '=BXX1000000', '=SUM(B:B)', '=B1:B1000000*2', '=1' + '+1'.repeat(1249)];
     const cells: [number, number, string][] = hostile.map((f, i) => [i, 3, f]);
     cells.push([0, 0, '2'], [0, 1, '=A1*21']);
-    const model = new WorkbookModel({ id: 'wb', title: 'Hostile', revision: 1, role: 'owner', sheets: [{ id: 's1', name: 'Sheet1', position: 0, settings: {}, cells }] });
+    const model = new WorkbookModel({ id: 'wb', title: 'Hostile', revision: 1, role: 'owner', actions: allowedActions(['owner']), sheets: [{ id: 's1', name: 'Sheet1', position: 0, settings: {}, cells }] });
     try {
       for (const row of [0, 1, 2, 4, 5, 6]) expect(model.view('s1', row, 3)?.errorMessage).toMatch(/at most/);
       expect(model.view('s1', 0, 1)?.display).toBe('42');

@@ -1,7 +1,7 @@
 // Sorting and filtering rules, and number display (desktop-spreadsheet conventions, common practice).
 import { describe, expect, it } from 'vitest';
-import { distinctValues, filterRows, matchesFilter, sortPermutation, type SortValue } from '../src/features/grid/model/sortFilter.js';
-import { formatNumber } from '../src/features/grid/model/cellView.js';
+import { distinctValues, filterRows, matchesFilter, sortPermutation, type SortValue } from '../src/core/workbook/model/sortFilter.js';
+import { formatNumber } from '../src/core/workbook/model/cellView.js';
 
 describe('sorting a block by one column', () => {
   it('orders numbers by value, ascending and descending', () => {

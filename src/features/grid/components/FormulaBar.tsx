@@ -1,7 +1,7 @@
 // The formula bar: the address of the cell in focus (type an address to jump), its input (edit it
 // here as well as in the cell), and, for an error or a read-only cell, the reason in plain words.
 import { useEffect, useRef, useState } from 'react';
-import type { CellView } from '../model/cellView.js';
+import type { CellView } from '../../../core/workbook/model/cellView.js';
 import { FunctionSuggestions, useFunctionSuggestions } from './FunctionSuggestions.js';
 
 export interface FormulaBarProps {
