@@ -8,7 +8,7 @@ import { afterEach, describe, expect, it } from 'vitest';
 import { createEngine, type SheetInput } from '../functions/engine.js';
 import { evaluationLimits as L, count, formulaOperatorCount } from '../functions/limits.js';
 import { clearHuckelCache } from '../functions/chem/huckelCache.js';
-import { smilesHeavyAtomCount } from '../functions/chem/huckelCache.js';
+import { smilesHeavyAtomCount } from '../functions/catalog/huckelLimits.js';
 import { cellInputProblem } from '../shared/cellInput.js';
 import { allowedActions } from '../shared/permissions.js';
 import { WorkbookModel } from '../src/core/workbook/model/workbookModel.js';

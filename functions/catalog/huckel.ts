@@ -4,7 +4,7 @@ import { ChemError, type CatalogEntry, type ParamSpec, type Table } from './type
 import { absorptionMaxNm, DEFAULT_BETA_EV, DEFAULT_OFFSET_EV } from '../chem/absorption.js';
 import { aromaticity } from '../chem/aromaticity.js';
 import { bondOrder, checkElectronCount, delocalizationEnergy, frontierGap, piCharge, piEnergy, type HuckelModel } from '../chem/huckel.js';
-import { huckelModelOf, requireSmiles } from '../chem/huckelCache.js';
+import { huckelModelOf, requireSmiles } from './huckelLimits.js';
 import { checkSpillLength, column, levelRowsFromText, pickIndex } from './huckelSpill.js';
 import { secularEntries } from './huckelSecular.js';
 

@@ -7,17 +7,6 @@ import { modelFromMatrix, modelFromPiSystem, type HuckelModel } from './huckel.j
 import { parseParameterSet, type ParameterSetName } from './huckelParams.js';
 import { readSymmetricMatrix } from './matrixInput.js';
 import { findPiSystem, type PiSystem } from './piSystem.js';
-import { matrixProblem, piCentresProblem, smilesAtomsProblem } from '../limits.js';
-
-/**
- * Heavy atoms written in a SMILES string: bracket atoms, and the organic subset outside brackets
- * (OpenSMILES grammar). Counted from the text so an oversized structure is refused before parsing.
- */
-export function smilesHeavyAtomCount(smiles: string): number {
-  let n = 0;
-  for (const m of smiles.matchAll(/\[([^\]]*)\]|Cl|Br|[BCNOPSFI]|[bcnops]/g)) if (m[1] === undefined || !/^\d*H\d*[+-]?\d*$/.test(m[1])) n++;
-  return n;
-}
 
 /** Entries per cache; a 40-centre model holds ~26 kB, so the worst case stays near 26 MB. */
 const CACHE_CAPACITY = 1000;
@@ -86,16 +75,7 @@ function memo<T>(cache: LruCache<T>, key: string, build: () => T, counter: 'piSy
 
 /** The π system of a SMILES string (cached). */
 export function piSystemOf(smiles: string): PiSystem {
-  return memo(
-    piSystems,
-    smiles.trim(),
-    () => {
-      const tooMany = smilesAtomsProblem(smilesHeavyAtomCount(smiles));
-      if (tooMany) throw new ChemError(tooMany);
-      return findPiSystem(smiles);
-    },
-    'piSystemBuilds',
-  );
+  return memo(piSystems, smiles.trim(), () => findPiSystem(smiles), 'piSystemBuilds');
 }
 
 /** A structure argument: SMILES text in one cell, or a square range holding the Hückel matrix. */
@@ -114,21 +94,10 @@ export function huckelModelOf(structure: Table, params?: string): HuckelModel {
   if (smiles !== undefined) {
     const set: ParameterSetName = parseParameterSet(params);
     const pi = piSystemOf(smiles);
-    return memo(
-      models,
-      `${set}\u0000${smiles.trim()}`,
-      () => {
-        const tooMany = piCentresProblem(pi.centres.length);
-        if (tooMany) throw new ChemError(tooMany);
-        return modelFromPiSystem(pi, set);
-      },
-      'modelSolves',
-    );
+    return memo(models, `${set}\u0000${smiles.trim()}`, () => modelFromPiSystem(pi, set), 'modelSolves');
   }
   if (params !== undefined && params.trim() !== '')
     throw new ChemError('the params argument applies to SMILES input; a matrix range already holds h and k');
-  const tooBig = matrixProblem(structure.length, structure[0]?.length ?? 0);
-  if (tooBig) throw new ChemError(tooBig);
   const matrix = readSymmetricMatrix(structure, 'the Hückel matrix range');
   return memo(models, `matrix\u0000${matrix.map((row) => row.join(',')).join(';')}`, () => modelFromMatrix(matrix), 'modelSolves');
 }
