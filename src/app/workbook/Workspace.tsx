@@ -7,7 +7,7 @@ import { SafetyNote } from '../../features/diagram/SafetyNote.js';
 import { parseCellName } from '../../core/workbook/model/a1.js';
 import { fillPairs } from '../../core/workbook/model/rangeEdits.js';
 import { FilterMenu, type SheetFilter } from '../../features/grid/components/FilterMenu.js';
-import { FormulaBar } from '../../features/grid/components/FormulaBar.js';
+import { FormulaBar, type FormulaBarHandle } from '../../features/grid/components/FormulaBar.js';
 import { SheetGrid, type ViewCell } from '../../features/grid/components/SheetGrid.js';
 import { SheetTabs } from '../../features/grid/components/SheetTabs.js';
 import { StarterTemplate } from '../../features/grid/StarterTemplate.js';
@@ -52,6 +52,7 @@ export function Workspace({ session }: { session: WorkbookSession }) {
   const [message, setMessage] = useState<string | null>(session.restored > 0 ? `${session.restored} unsent change${session.restored === 1 ? '' : 's'} from your last visit restored; sending now.` : null);
   const editing = useRef(false);
   const gridRef = useRef<DataSheetGridRef>(null);
+  const barRef = useRef<FormulaBarHandle>(null);
   const view = useSheetView(model, activeSheetId, display.freezeHeaderRow, filter);
 
   const setDisplay = useDisplaySaver(session, activeSheetId, setMessage);
@@ -95,14 +96,34 @@ export function Workspace({ session }: { session: WorkbookSession }) {
     },
     lastUsedColInRow: (r) => Math.max(0, ...Object.keys(view.data[r] ?? {}).map(Number)),
     isFilled: (r, c) => (view.data[r]?.[c]?.display ?? '') !== '',
+    frozenCol: () => frozenPick,
+    hasFrozenRow: () => display.freezeHeaderRow,
+    pickFrozen: (col) => {
+      if (col === null) {
+        gridRef.current?.setActiveCell({ row: 0, col: frozenPick ?? 0 });
+        setFrozenPick(null);
+      } else {
+        gridRef.current?.setActiveCell(null);
+        setFrozenPick(col);
+      }
+    },
+    editInBar: (typed) => barRef.current?.edit(typed),
     pageRows: () => Math.max(1, Math.floor((document.querySelector('[data-testid="sheet-grid"]')?.clientHeight ?? 480) / 24) - 2),
     ...commands,
   });
 
   const widths = useMemo(() => ({ ...display.columnWidths, ...dragWidths }), [display.columnWidths, dragWidths]);
   useEffect(() => setDragWidths({}), [display.columnWidths]);
-  const returnToGrid = () => {
-    if (active) gridRef.current?.setActiveCell(active);
+  // Leaving the formula bar: back to the cell in the grid; on the frozen header row, Enter moves
+  // down into the grid (as it would from any cell) and Escape stays on the header cell.
+  const returnToGrid = (committed = false) => {
+    if (frozenPick !== null) {
+      (document.activeElement as HTMLElement | null)?.blur();
+      if (committed) {
+        gridRef.current?.setActiveCell({ row: 0, col: frozenPick });
+        setFrozenPick(null);
+      }
+    } else if (active) gridRef.current?.setActiveCell(active);
   };
 
   return (
@@ -142,6 +163,7 @@ export function Workspace({ session }: { session: WorkbookSession }) {
         onPanel={setPanel}
       />
       <FormulaBar
+        barRef={barRef}
         address={address}
         input={focusInput}
         liveText={liveText}
@@ -152,13 +174,14 @@ export function Workspace({ session }: { session: WorkbookSession }) {
           if (!focus) return;
           const outcome = model.edit([{ sheetId: activeSheetId, row: focus.row, col: focus.col, input }]);
           setMessage(outcome.refused[0] ? `Not changed: ${outcome.refused[0].reason}.` : null);
-          returnToGrid();
+          returnToGrid(true);
         }}
-        onCancel={returnToGrid}
+        onCancel={() => returnToGrid()}
         onGoTo={(text) => {
           const ref = parseCellName(text);
           if (!ref) return false;
           if (display.freezeHeaderRow && ref.row === 0) {
+            gridRef.current?.setActiveCell(null);
             setFrozenPick(ref.col);
             return true;
           }
@@ -212,7 +235,7 @@ export function Workspace({ session }: { session: WorkbookSession }) {
       <SheetTabs
         sheets={sheets.map((s) => {
           const lock = team.protection.locks.find((l) => l.sheetId === s.id);
-          return { id: s.id, name: s.name, lock: lock && lockSummary(lock) };
+          return { id: s.id, name: s.name, lock: lock && lockSummary(lock, team.myId) };
         })}
         activeId={activeSheetId}
         canEdit={!model.readOnly}

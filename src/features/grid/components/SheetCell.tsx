@@ -82,10 +82,12 @@ function CellEditor({ rowData, setRowData, columnData }: SheetCellProps) {
 function SheetCellImpl(props: SheetCellProps) {
   if (props.focus) return <CellEditor {...props} />;
   const view = props.rowData ?? null;
-  const title = view?.kind === 'error' ? `${view.errorCode}: ${view.errorMessage}` : view?.spilled ? 'Filled by an array formula (read-only)' : undefined;
+  const title = view?.kind === 'error' ? `${view.errorCode}: ${view.errorMessage}` : view?.spilled ? 'Filled by an array formula (read-only)' : view?.kind === 'number' ? String(view.value) : undefined;
+  // The text sits in its own box so that what does not fit ends in an ellipsis (a flex container
+  // would cut it off with no sign); a number's full value is in the tooltip.
   return (
     <div className={cellClass(view, props.disabled)} title={title} data-cell-kind={view?.kind} aria-selected={props.active || undefined}>
-      {view?.display}
+      {view?.display ? <span className="orb-cell-text">{view.display}</span> : null}
     </div>
   );
 }

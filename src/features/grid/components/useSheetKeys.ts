@@ -20,6 +20,13 @@ export interface SheetKeyHandlers {
   lastUsedColInRow: (viewRow: number) => number;
   /** Whether a cell (view coordinates) shows anything: Ctrl+Arrow and the fill handle look for data edges. */
   isFilled: (viewRow: number, col: number) => boolean;
+  /** The frozen header row (row 1, shown under the column letters): the column in focus there, or null. */
+  frozenCol: () => number | null;
+  hasFrozenRow: () => boolean;
+  /** Focus a cell of the frozen row (null: back into the grid, at its first row). */
+  pickFrozen: (col: number | null) => void;
+  /** Edit the frozen cell in focus in the formula bar: a typed character replaces, else the caret goes to the end. */
+  editInBar: (typed?: string) => void;
   pageRows: () => number;
   undo: () => void;
   redo: () => void;
@@ -41,6 +48,31 @@ function htmlTable(html: string): string[][] | null {
   return [...table.rows].map((r) => [...r.cells].map((c) => c.textContent ?? ''));
 }
 
+/** Keys on a cell of the frozen header row: arrows move, typing, F2 and Enter edit it in the formula bar. */
+function frozenKey(e: KeyboardEvent, x: SheetKeyHandlers, col: number) {
+  const stop = () => {
+    e.preventDefault();
+    e.stopPropagation();
+  };
+  const mod = e.ctrlKey || e.metaKey;
+  if (e.key === 'ArrowDown' || (e.key === 'Enter' && e.shiftKey)) {
+    stop();
+    x.pickFrozen(null);
+  } else if (e.key === 'ArrowLeft' || e.key === 'ArrowRight') {
+    stop();
+    x.pickFrozen(Math.max(0, Math.min(x.extent().cols - 1, col + (e.key === 'ArrowLeft' ? -1 : 1))));
+  } else if (e.key === 'F2' || (e.key === 'Enter' && !mod)) {
+    stop();
+    x.editInBar();
+  } else if (e.key.length === 1 && !mod && !e.altKey) {
+    stop();
+    x.editInBar(e.key);
+  } else if (e.key === 'Delete' || e.key === 'Backspace') {
+    stop();
+    x.clear();
+  }
+}
+
 export function useSheetKeys(h: SheetKeyHandlers) {
   const handlers = useRef(h);
   handlers.current = h;
@@ -52,6 +84,10 @@ export function useSheetKeys(h: SheetKeyHandlers) {
       const x = handlers.current;
       const grid = x.gridRef.current;
       const active = grid?.activeCell;
+      if (grid && !active && x.frozenCol() !== null && !e.defaultPrevented && !e.isComposing && !isShielded(e.target) && !isEditable(e.target)) {
+        frozenKey(e, x, x.frozenCol()!);
+        return;
+      }
       if (!grid || !active || e.defaultPrevented || e.isComposing || isShielded(e.target)) return;
       if (e.target instanceof HTMLElement && (e.target.closest('dialog') || (isEditable(e.target) && !e.target.classList.contains('orb-cell-input')))) return;
       // While the function list is open, its keys (arrows, Tab, Enter, Esc) belong to it.
@@ -94,6 +130,12 @@ export function useSheetKeys(h: SheetKeyHandlers) {
         return go(dataEdge(far, arrow, x.isFilled, x.extent()));
       }
       switch (e.key) {
+        case 'ArrowUp':
+          // From the first row below a frozen header, up into the header row (row 1).
+          if (active.row !== 0 || mod || e.shiftKey || e.altKey || !x.hasFrozenRow()) return;
+          stop();
+          x.pickFrozen(active.col);
+          return;
         case 'Enter':
           if (mod || e.altKey) return;
           stop();
