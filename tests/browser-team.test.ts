@@ -67,6 +67,11 @@ beforeAll(async () => {
   for (const p of [a, b]) p.setDefaultTimeout(10_000);
   await call(owner.context.request, 'POST', '/auth/sign-up', ada);
   await call(editor.context.request, 'POST', '/auth/sign-up', ben);
+  // Ben opens the link from his verification mail (read here through the admin's dev inbox), so Ada can add him directly.
+  const { messages } = await call(owner.context.request, 'GET', '/admin/mail');
+  const mail = messages.find((m: { to: string; text: string }) => m.to === ben.email && m.text.includes('/verify-email/'));
+  const token = /\/verify-email\/([A-Za-z0-9_-]{43})/.exec(mail.text)![1];
+  await call(editor.context.request, 'POST', '/auth/verify', { token });
   workbookId = (await call(owner.context.request, 'POST', '/workbooks', { title: 'Diatomic screening' })).workbook.id;
   const { sheets } = await call(owner.context.request, 'GET', `/workbooks/${workbookId}`);
   const sheetId = sheets[0].id;
