@@ -38,6 +38,16 @@ export const evaluationLimits = {
    * Argument lists do not deepen the recursion and are not counted.
    */
   maxFormulaOperators: 500,
+  /**
+   * The science core keeps its own method's bounds beside the method (functions/chem imports
+   * nothing of ours); they are listed here so this table is the whole picture, and
+   * tests/eval-limits.test.ts checks that the two agree. PPP-CIS: 60 π centres (the CIS of 40
+   * centres is ~50–120 ms of CPU, bench/ppp.ts). Extended Hückel: 300 valence basis functions and
+   * 150 atoms (about one second per solve, bench/eht.ts).
+   */
+  maxPppCentres: 60,
+  maxEhtBasisFunctions: 300,
+  maxEhtAtoms: 150,
 } as const;
 
 /** 2000000000 → "2,000,000,000": limits are quoted the same way everywhere. */

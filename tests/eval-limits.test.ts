@@ -186,3 +186,11 @@ describe('formula size: the cell-input check and the engine agree', () => {
     expect(smilesHeavyAtomCount('ClC(Br)=[N+]([O-])[2H]')).toBe(5); // Cl, C, Br, N, O; [2H] is hydrogen
   });
 });
+
+describe('one table of limits', () => {
+  it('lists the science core’s own method bounds exactly as the methods apply them', async () => {
+    const { MAX_PPP_CENTRES } = await import('../functions/chem/ppp.js');
+    const { EHT_MAX_ATOMS, EHT_MAX_BASIS } = await import('../functions/chem/eht.js');
+    expect([L.maxPppCentres, L.maxEhtBasisFunctions, L.maxEhtAtoms]).toEqual([MAX_PPP_CENTRES, EHT_MAX_BASIS, EHT_MAX_ATOMS]);
+  });
+});
