@@ -2,9 +2,17 @@
 import { defineConfig } from 'vite';
 import react from '@vitejs/plugin-react';
 import tailwindcss from '@tailwindcss/vite';
+import { fileURLToPath } from 'node:url';
 
 export default defineConfig({
   plugins: [react(), tailwindcss()],
+  // The client imports shared/ and functions/ by these names (tsconfig.json "paths" says the same).
+  resolve: {
+    alias: {
+      '@shared': fileURLToPath(new URL('./shared', import.meta.url)),
+      '@functions': fileURLToPath(new URL('./functions', import.meta.url)),
+    },
+  },
   build: { outDir: 'dist', emptyOutDir: true, chunkSizeWarningLimit: 4000 },
   server: { port: 5173 },
   test: {

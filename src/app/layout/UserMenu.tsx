@@ -1,6 +1,6 @@
 import { useEffect, useId, useRef, useState } from 'react';
 import { useNavigate } from 'react-router';
-import type { PublicUser } from '../../../shared/auth.js';
+import type { PublicUser } from '@shared/auth.js';
 import { ChevronDownIcon } from '../../components/ui/icons.js';
 import { sentence } from '../../lib/fieldErrors.js';
 import { useSignOut } from '../../core/session/me.js';

@@ -1,7 +1,7 @@
 // The team controls of an open workbook, in its title bar: who else is here, and Share, Protect,
 // History and Audit (each shown only to roles that can use it; the API checks again).
 import { useNavigate } from 'react-router';
-import { allows } from '../../../shared/permissions.js';
+import { allows } from '@shared/permissions.js';
 import { Button } from '../../components/ui/Button.js';
 import { AuditDialog } from '../../features/audit/AuditDialog.js';
 import type { WorkbookModel } from '../../core/workbook/model/workbookModel.js';

@@ -1,6 +1,6 @@
 // The signed-in user, for every feature: "who am I" is one query (`me`), null when signed out; and signing out.
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import type { AuthResponse, PublicUser } from '../../../shared/auth.js';
+import type { AuthResponse, PublicUser } from '@shared/auth.js';
 import { api, ApiError, queryKeys } from '../../lib/api.js';
 
 export const meQueryOptions = queryOptions({

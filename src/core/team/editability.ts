@@ -1,7 +1,7 @@
 // Whether a person may change a cell, as far as sheet locks and protected ranges go (roles are the
 // grid model's own check). Built on shared/team.ts `editBlock`, the very function the server's patch
 // check calls, so a greyed cell in the grid and a 403 from the API can never disagree.
-import { editBlock, sheetLockedAgainst, type EditBlock, type Protection, type UserRef } from '../../../shared/team.js';
+import { editBlock, sheetLockedAgainst, type EditBlock, type Protection, type UserRef } from '@shared/team.js';
 
 export const noProtection: Protection = { locks: [], protectedRanges: [] };
 

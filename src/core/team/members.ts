@@ -1,6 +1,6 @@
 // The members of one workbook (who they are, their roles): read by sharing, locks and the audit view.
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { MembersResponse } from '../../../shared/team.js';
+import type { MembersResponse } from '@shared/team.js';
 import { api, queryKeys } from '../../lib/api.js';
 
 const base = (id: string) => `/workbooks/${encodeURIComponent(id)}`;

@@ -1,8 +1,8 @@
 // The current sheet locks and protected ranges of one workbook, in the query cache: seeded from
 // GET /api/workbooks/:id, replaced by each live `protection` event, patched by the lock mutations.
 import { queryOptions, useQuery, type QueryClient } from '@tanstack/react-query';
-import type { Protection } from '../../../shared/team.js';
-import type { WorkbookPayload } from '../../../shared/workbooks.js';
+import type { Protection } from '@shared/team.js';
+import type { WorkbookPayload } from '@shared/workbooks.js';
 import { api, queryKeys } from '../../lib/api.js';
 import { noProtection } from './editability.js';
 

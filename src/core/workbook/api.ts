@@ -2,8 +2,8 @@
 // operations. Tab operations go straight to the server (they are rare and must not be lost or
 // reordered with cell patches), then to the engine once the server has accepted them.
 import { queryOptions } from '@tanstack/react-query';
-import type { PatchInput, PatchResult, SheetMutationResult, WorkbookPayload } from '../../../shared/workbooks.js';
-import { removeSheetFromFormula, renameSheetInFormula } from '../../../shared/formulaText.js';
+import type { PatchInput, PatchResult, SheetMutationResult, WorkbookPayload } from '@shared/workbooks.js';
+import { removeSheetFromFormula, renameSheetInFormula } from '@shared/formulaText.js';
 import { api, queryKeys } from '../../lib/api.js';
 import { writeDisplaySettings, type DisplaySettings } from './model/displaySettings.js';
 import type { WorkbookSession } from './session/useWorkbookSession.js';

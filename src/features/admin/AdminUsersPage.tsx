@@ -1,6 +1,6 @@
 import { useState } from 'react';
-import type { AdminUser } from '../../../shared/admin.js';
-import { siteRoles, type SiteRole } from '../../../shared/auth.js';
+import type { AdminUser } from '@shared/admin.js';
+import { siteRoles, type SiteRole } from '@shared/auth.js';
 import { Button } from '../../components/ui/Button.js';
 import { ConfirmDialog } from '../../components/ui/Dialog.js';
 import { Notice } from '../../components/ui/Notice.js';

@@ -1,7 +1,7 @@
 // Site administration: the account list and changes to one account.
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import type { AdminUser, AdminUserPatch, AdminUsersResponse } from '../../../shared/admin.js';
-import type { MailOutboxResponse } from '../../../shared/team.js';
+import type { AdminUser, AdminUserPatch, AdminUsersResponse } from '@shared/admin.js';
+import type { MailOutboxResponse } from '@shared/team.js';
 import { api, queryKeys } from '../../lib/api.js';
 
 export const adminUsersQueryOptions = queryOptions({

@@ -1,6 +1,6 @@
 // The audit log of one workbook (owners and site admins): sharing, roles, locks and restores.
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { AuditResponse } from '../../../shared/team.js';
+import type { AuditResponse } from '@shared/team.js';
 import { api, queryKeys } from '../../lib/api.js';
 
 export const auditQueryOptions = (workbookId: string) =>

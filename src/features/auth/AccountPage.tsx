@@ -1,5 +1,5 @@
 import { useState, type FormEvent } from 'react';
-import { passwordMinLength, passwordProblem } from '../../../shared/auth.js';
+import { passwordMinLength, passwordProblem } from '@shared/auth.js';
 import { Button } from '../../components/ui/Button.js';
 import { Notice } from '../../components/ui/Notice.js';
 import { TextField } from '../../components/ui/TextField.js';

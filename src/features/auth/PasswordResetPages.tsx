@@ -1,6 +1,6 @@
 import { useState, type FormEvent } from 'react';
 import { Link, useNavigate, useParams } from 'react-router';
-import { passwordMinLength, passwordProblem, passwordResetRequestSchema } from '../../../shared/auth.js';
+import { passwordMinLength, passwordProblem, passwordResetRequestSchema } from '@shared/auth.js';
 import { Button } from '../../components/ui/Button.js';
 import { Notice } from '../../components/ui/Notice.js';
 import { TextField } from '../../components/ui/TextField.js';

@@ -1,6 +1,6 @@
 // Proving an address, forgetting a password and changing it: the calls behind the account pages.
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { AuthResponse, PasswordResetRequested } from '../../../shared/auth.js';
+import type { AuthResponse, PasswordResetRequested } from '@shared/auth.js';
 import { api, queryKeys } from '../../lib/api.js';
 
 export const authPaths = {

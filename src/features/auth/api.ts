@@ -1,6 +1,6 @@
 // Signing in and signing up. "Who am I" and signing out live in src/core/session (every feature uses them).
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { AuthResponse, SignInInput, SignUpInput } from '../../../shared/auth.js';
+import type { AuthResponse, SignInInput, SignUpInput } from '@shared/auth.js';
 import { api, queryKeys } from '../../lib/api.js';
 
 /** Signing in and signing up both open a session: forget the previous user's data, then remember the new user. */

@@ -1,6 +1,6 @@
 // A Hückel level ladder: E = α + xβ with β < 0, so bonding levels (x > 0) sit below α. Degenerate
 // levels side by side; electrons as arrows; α marked by a dashed line.
-import type { HuckelModel } from '../../../functions/chem/huckel.js';
+import type { HuckelModel } from '@functions/chem/huckel.js';
 import { Electrons } from './ElectronArrows.js';
 import { ladderLevels, levelLabel } from './huckelLayout.js';
 

@@ -1,6 +1,6 @@
 // Predicted π→π* bands of a π system as sticks on a wavelength axis (PPP-CIS singlets from
 // functions/chem/ppp.ts): stick height is the oscillator strength relative to the strongest band shown.
-import type { ExcitedState } from '../../../functions/chem/ppp.js';
+import type { ExcitedState } from '@functions/chem/ppp.js';
 
 const WIDTH = 420;
 const HEIGHT = 120;

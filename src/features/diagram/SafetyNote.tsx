@@ -1,4 +1,4 @@
-import { cautionText } from '../../../shared/cautions.js';
+import { cautionText } from '@shared/cautions.js';
 
 /** The caution shown once, under computed results (text: shared/cautions.ts). */
 export function SafetyNote() {

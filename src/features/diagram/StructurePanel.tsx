@@ -3,9 +3,9 @@
 // predicted π→π* bands (PPP-CIS) of a π system, and the known disagreement with experiment of a
 // diatomic species where simple MO filling is known to fail.
 import { useMemo } from 'react';
-import { frontierGap } from '../../../functions/chem/huckel.js';
-import { knownFailureFor } from '../../../functions/chem/knownFailures.js';
-import { pppSpectrumOf, type PppSpectrum } from '../../../functions/chem/ppp.js';
+import { frontierGap } from '@functions/chem/huckel.js';
+import { knownFailureFor } from '@functions/chem/knownFailures.js';
+import { pppSpectrumOf, type PppSpectrum } from '@functions/chem/ppp.js';
 import { PppSpectrumSvg } from './PppSpectrumSvg.js';
 import { subjectOfCell, type SubjectSource } from './cellSubject.js';
 import { HuckelLadderSvg } from './HuckelLadderSvg.js';

@@ -1,10 +1,10 @@
 // What a selected cell is about: a diatomic species ("O2", =BONDORDER("NO+"), =UNPAIRED(A2) with
 // A2 holding "O2") or a π system written as SMILES (=PIGAP("c1ccccc1")). The side panel draws the
 // MO diagram or the Hückel ladder of whatever this finds.
-import { catalogByName } from '../../../functions/catalog/index.js';
-import { analyseDiatomic, type DiatomicAnalysis } from '../../../functions/chem/diatomic.js';
-import { huckelModelOf } from '../../../functions/chem/huckelCache.js';
-import type { HuckelModel } from '../../../functions/chem/huckel.js';
+import { catalogByName } from '@functions/catalog/index.js';
+import { analyseDiatomic, type DiatomicAnalysis } from '@functions/chem/diatomic.js';
+import { huckelModelOf } from '@functions/chem/huckelCache.js';
+import type { HuckelModel } from '@functions/chem/huckel.js';
 
 export type CellSubject =
   | { kind: 'diatomic'; text: string; analysis: DiatomicAnalysis }

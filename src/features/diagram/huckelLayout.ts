@@ -1,6 +1,6 @@
 // The level ladder of a Hückel π system: energies E = α + xβ (β < 0, so larger x lies lower),
 // degenerate levels side by side, electrons by Aufbau with Hund's rule inside a degenerate set.
-import type { HuckelModel } from '../../../functions/chem/huckel.js';
+import type { HuckelModel } from '@functions/chem/huckel.js';
 import { hundFilling, type OrbitalFilling } from './moLayout.js';
 
 export interface LadderLevel {

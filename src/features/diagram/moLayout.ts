@@ -2,8 +2,8 @@
 // sides, the molecular levels in the middle, electrons per orbital, and which atomic levels feed
 // which molecular ones. Energies are qualitative (the order of functions/chem/moDiagram.ts, evenly
 // spaced), so the picture says "not to scale". Pure, so the layout is tested without a browser.
-import type { DiatomicAnalysis, FilledLevel } from '../../../functions/chem/diatomic.js';
-import type { Element } from '../../../functions/chem/elements.js';
+import type { DiatomicAnalysis, FilledLevel } from '@functions/chem/diatomic.js';
+import type { Element } from '@functions/chem/elements.js';
 
 /** One orbital's electrons: 0, 1 (↑) or 2 (↑↓). */
 export type OrbitalFilling = 0 | 1 | 2;

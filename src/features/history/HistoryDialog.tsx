@@ -1,8 +1,8 @@
 // History: every revision with its author and time; pick one to see the workbook as it was right after
 // it (read-only), and restore it. A restore is itself a new revision, so nothing in between is lost.
 import { useState } from 'react';
-import { allows, type WorkbookAction } from '../../../shared/permissions.js';
-import type { RevisionKind, RevisionSummary } from '../../../shared/workbooks.js';
+import { allows, type WorkbookAction } from '@shared/permissions.js';
+import type { RevisionKind, RevisionSummary } from '@shared/workbooks.js';
 import { Button } from '../../components/ui/Button.js';
 import { Dialog } from '../../components/ui/Dialog.js';
 import { Notice } from '../../components/ui/Notice.js';

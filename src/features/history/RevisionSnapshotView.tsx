@@ -1,9 +1,9 @@
 // The workbook as of one revision, read-only: tabs, column letters, row numbers and the values as
 // they were computed from that revision's inputs. A plain table, deliberately not the editing grid.
 import { useMemo, useState } from 'react';
-import type { RevisionSnapshot } from '../../../shared/team.js';
+import type { RevisionSnapshot } from '@shared/team.js';
 import { Notice } from '../../components/ui/Notice.js';
-import { columnName } from '../../../shared/a1.js';
+import { columnName } from '@shared/a1.js';
 import { snapshotSheets } from './snapshotValues.js';
 
 export function RevisionSnapshotView({ snapshot }: { snapshot: RevisionSnapshot }) {

@@ -2,8 +2,8 @@
 // after a revision, and restoring it. Revisions never change once written, so their details and
 // snapshots are cached for the visit.
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import type { RevisionSnapshot } from '../../../shared/team.js';
-import type { RevisionSummary } from '../../../shared/workbooks.js';
+import type { RevisionSnapshot } from '@shared/team.js';
+import type { RevisionSummary } from '@shared/workbooks.js';
 import { api, queryKeys } from '../../lib/api.js';
 
 const base = (id: string) => `/workbooks/${encodeURIComponent(id)}/revisions`;

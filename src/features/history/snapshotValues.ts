@@ -1,8 +1,8 @@
 // The workbook as it was right after a revision, computed for reading: its inputs go into a scratch
 // engine (the same createEngine the grid and server use), the values come out as the grid would show
 // them, and the engine is thrown away. Nothing here can be edited or sent.
-import { createEngine } from '../../../functions/engine.js';
-import type { RevisionSnapshot } from '../../../shared/team.js';
+import { createEngine } from '@functions/engine.js';
+import type { RevisionSnapshot } from '@shared/team.js';
 import { cellView, type CellView } from '../../core/workbook/model/cellView.js';
 import { readDisplaySettings } from '../../core/workbook/model/displaySettings.js';
 import { SheetInputs } from '../../core/workbook/model/sheetInputs.js';

@@ -1,7 +1,7 @@
 // "Export": downloads straight from GET /api/workbooks/:id/export, so the browser streams the file
 // to disk. The workbook with formulas and cached values, values only, or the active sheet as CSV.
 import { useEffect, useRef, useState } from 'react';
-import { exportPath } from '../../../shared/io.js';
+import { exportPath } from '@shared/io.js';
 import { Button } from '../../components/ui/Button.js';
 
 export function ExportMenu({ workbookId, activeSheet }: { workbookId: string; activeSheet?: { id: string; name: string } }) {

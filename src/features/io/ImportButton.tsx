@@ -3,7 +3,7 @@
 import { useQueryClient } from '@tanstack/react-query';
 import { useRef, useState, type DragEvent } from 'react';
 import { useNavigate } from 'react-router';
-import { acceptedUploadTypes, maxUploadBytes, type ImportResponse } from '../../../shared/io.js';
+import { acceptedUploadTypes, maxUploadBytes, type ImportResponse } from '@shared/io.js';
 import { Button } from '../../components/ui/Button.js';
 import { Dialog } from '../../components/ui/Dialog.js';
 import { Notice } from '../../components/ui/Notice.js';

@@ -1,5 +1,5 @@
 // What an import took and what it could not: counts, then each skipped cell with its reason.
-import type { ImportSummary } from '../../../shared/io.js';
+import type { ImportSummary } from '@shared/io.js';
 
 const LISTED = 20;
 const plural = (n: number, one: string, many = `${one}s`) => `${n.toLocaleString()} ${n === 1 ? one : many}`;

@@ -1,6 +1,6 @@
 // Sends a spreadsheet to POST /api/imports with XMLHttpRequest, the one browser API that reports
 // upload progress (fetch does not). Errors arrive as the app's ApiError, like every other call.
-import type { ImportResponse } from '../../../shared/io.js';
+import type { ImportResponse } from '@shared/io.js';
 import { ApiError } from '../../lib/api.js';
 
 export interface UploadProgress {

@@ -2,12 +2,12 @@
 // or mine (still waiting here). Keeping mine sends it again on top of theirs, which stays in the
 // history; taking theirs shows it here and sets mine aside, where it can still be copied.
 import { useState } from 'react';
-import type { CellConflict } from '../../../shared/workbooks.js';
+import type { CellConflict } from '@shared/workbooks.js';
 import { Button } from '../../components/ui/Button.js';
 import { Dialog } from '../../components/ui/Dialog.js';
 import type { SaveStatus } from '../../core/workbook/save/patchQueue.js';
 import type { WorkbookSession } from '../../core/workbook/session/useWorkbookSession.js';
-import { cellAddress } from '../../../shared/a1.js';
+import { cellAddress } from '@shared/a1.js';
 import { conflictKey, describeInput, type ConflictChoice, type SetAsideInput } from './conflictResolution.js';
 import { settleConflicts } from './settleConflicts.js';
 

@@ -2,7 +2,7 @@
 // dismiss them: each with its cell, what replaced it and a copy button.
 import { useState } from 'react';
 import { Button } from '../../components/ui/Button.js';
-import { cellAddress } from '../../../shared/a1.js';
+import { cellAddress } from '@shared/a1.js';
 import { describeInput, type SetAsideInput } from './conflictResolution.js';
 
 export function SetAsideNotice({ inputs, sheetName, onDismiss }: { inputs: SetAsideInput[]; sheetName: (sheetId: string) => string; onDismiss: () => void }) {

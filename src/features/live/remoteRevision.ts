@@ -2,10 +2,10 @@
 // The rule that keeps work safe: a cell with my own input still waiting to be saved is never
 // overwritten by a remote change. It stays mine on screen, and my next patch meets the other input
 // as a 409 conflict, where I choose (ConflictDialog). Everything else is written at once.
-import { cellKey } from '../../../shared/a1.js';
-import { removeSheetFromFormula, renameSheetInFormula } from '../../../shared/formulaText.js';
-import type { LiveEvents } from '../../../shared/team.js';
-import type { RevisionDetail, SheetOp } from '../../../shared/workbooks.js';
+import { cellKey } from '@shared/a1.js';
+import { removeSheetFromFormula, renameSheetInFormula } from '@shared/formulaText.js';
+import type { LiveEvents } from '@shared/team.js';
+import type { RevisionDetail, SheetOp } from '@shared/workbooks.js';
 import { readDisplaySettings } from '../../core/workbook/model/displaySettings.js';
 import { SheetInputs } from '../../core/workbook/model/sheetInputs.js';
 import type { WorkbookModel } from '../../core/workbook/model/workbookModel.js';

@@ -4,8 +4,8 @@
 // itself and sends Last-Event-ID, so the server replays what was missed; RevisionFeed drops repeats.
 import { useQueryClient } from '@tanstack/react-query';
 import { useEffect, useRef, useState } from 'react';
-import type { AccessRole, WorkbookAction } from '../../../shared/permissions.js';
-import type { LiveEventName, LiveEvents, PresenceUser } from '../../../shared/team.js';
+import type { AccessRole, WorkbookAction } from '@shared/permissions.js';
+import type { LiveEventName, LiveEvents, PresenceUser } from '@shared/team.js';
 import { queryKeys } from '../../lib/api.js';
 import type { WorkbookSession } from '../../core/workbook/session/useWorkbookSession.js';
 import { revisionDetailQueryOptions } from '../../core/workbook/revisions.js';

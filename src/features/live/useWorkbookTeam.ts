@@ -4,8 +4,8 @@
 // the inputs of mine that were set aside.
 import { useMutation, useQuery } from '@tanstack/react-query';
 import { useCallback, useEffect, useRef, useState } from 'react';
-import type { AccessRole, WorkbookAction } from '../../../shared/permissions.js';
-import type { PresenceInput, Protection } from '../../../shared/team.js';
+import type { AccessRole, WorkbookAction } from '@shared/permissions.js';
+import type { PresenceInput, Protection } from '@shared/team.js';
 import { api } from '../../lib/api.js';
 import { useMe } from '../../core/session/me.js';
 import type { KeyValueStorage } from '../../core/workbook/save/pendingStore.js';

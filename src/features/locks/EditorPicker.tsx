@@ -1,6 +1,6 @@
 // Who besides the person setting a lock or range may still edit behind it: the workbook's owner and
 // editors (a viewer can edit nothing anyway, and the server refuses them on a list).
-import type { Member } from '../../../shared/team.js';
+import type { Member } from '@shared/team.js';
 
 export function EditorPicker({ members, myId, selected, onChange, legend }: { members: Member[]; myId: string; selected: string[]; onChange: (ids: string[]) => void; legend: string }) {
   const candidates = members.filter((m) => m.user.id !== myId && m.role !== 'viewer');

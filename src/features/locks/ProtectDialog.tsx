@@ -1,6 +1,6 @@
 // The "Protect" dialog of one sheet: its lock and its protected ranges.
-import { allows, type WorkbookAction } from '../../../shared/permissions.js';
-import type { Protection } from '../../../shared/team.js';
+import { allows, type WorkbookAction } from '@shared/permissions.js';
+import type { Protection } from '@shared/team.js';
 import { Button } from '../../components/ui/Button.js';
 import { Dialog } from '../../components/ui/Dialog.js';
 import { Notice } from '../../components/ui/Notice.js';

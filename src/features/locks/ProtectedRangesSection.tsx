@@ -1,7 +1,7 @@
 // Protected ranges of one sheet: a block of cells (A1 notation) only the named people may change.
 // Everyone sees the list; owners (any sheet) and editors (sheets they created) add and remove.
 import { useState, type FormEvent } from 'react';
-import { protectedRangeSchema, type Member, type ProtectedRange } from '../../../shared/team.js';
+import { protectedRangeSchema, type Member, type ProtectedRange } from '@shared/team.js';
 import { Button } from '../../components/ui/Button.js';
 import { TextField } from '../../components/ui/TextField.js';
 import { checkForm, errorsFromApi, sentence, type FormErrors } from '../../lib/fieldErrors.js';

@@ -1,6 +1,6 @@
 // A slim line above the grid when the sheet in view is locked or has protected ranges: who locked it,
 // when and why, and whether the greyed cells include mine to edit.
-import type { Protection } from '../../../shared/team.js';
+import type { Protection } from '@shared/team.js';
 import { lockSummary } from './SheetLockSection.js';
 
 export function ProtectionBanner({ protection, sheetId, myId, onOpen }: { protection: Protection; sheetId: string; myId: string; onOpen: () => void }) {

@@ -1,7 +1,7 @@
 // Locking one sheet: while locked only the people named on the lock may change it; everyone else
 // sees who locked it, when and why.
 import { useState, type FormEvent } from 'react';
-import { sheetLockSchema, type Member, type SheetLock } from '../../../shared/team.js';
+import { sheetLockSchema, type Member, type SheetLock } from '@shared/team.js';
 import { Button } from '../../components/ui/Button.js';
 import { TextField } from '../../components/ui/TextField.js';
 import { checkForm, errorsFromApi, sentence, type FormErrors } from '../../lib/fieldErrors.js';

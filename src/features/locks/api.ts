@@ -1,7 +1,7 @@
 // Locking sheets and protecting ranges: each answer patches the protection in the query cache
 // (src/core/team/protection.ts), so the greyed cells follow whichever arrives first.
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { ProtectedRange, ProtectedRangeInput, Protection, SheetLock, SheetLockInput } from '../../../shared/team.js';
+import type { ProtectedRange, ProtectedRangeInput, Protection, SheetLock, SheetLockInput } from '@shared/team.js';
 import { api, queryKeys } from '../../lib/api.js';
 import { setProtection } from '../../core/team/protection.js';
 import { withLock, withoutLock, withoutRange, withRange } from '../../core/team/editability.js';

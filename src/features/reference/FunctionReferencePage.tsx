@@ -1,7 +1,7 @@
 import { useDeferredValue, useMemo, useState } from 'react';
 import { SearchIcon } from '../../components/ui/icons.js';
 import { Notice } from '../../components/ui/Notice.js';
-import { cautionText, cautionTitle } from '../../../shared/cautions.js';
+import { cautionText, cautionTitle } from '@shared/cautions.js';
 import { FunctionEntry } from './FunctionEntry.js';
 import { allFunctions, groupByFamily, searchFunctions } from './referenceData.js';
 

@@ -1,7 +1,7 @@
 // The function reference page's view of functions/help.ts (the catalog as plain help data, shared
 // with the grid's autocomplete and docs/functions.md): search and grouping for the page.
-import { FAMILY_ORDER, functionHelp, type FunctionHelp } from '../../../functions/help.js';
-import type { Family } from '../../../functions/catalog/types.js';
+import { FAMILY_ORDER, functionHelp, type FunctionHelp } from '@functions/help.js';
+import type { Family } from '@functions/catalog/types.js';
 
 export type { FunctionHelp };
 

@@ -1,9 +1,9 @@
 // Invitations sent by e-mail and not yet accepted, with a way to withdraw each (owners only).
-import type { Invitation } from '../../../shared/team.js';
+import type { Invitation } from '@shared/team.js';
 import { Button } from '../../components/ui/Button.js';
 import { sentence } from '../../lib/fieldErrors.js';
 import { useRevokeInvitation } from './api.js';
-import { roleLabels } from '../../../shared/permissions.js';
+import { roleLabels } from '@shared/permissions.js';
 
 const dateFormat = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
 

@@ -1,7 +1,7 @@
 // /invitations/:token, the page an e-mailed link opens. Readable signed out: it says who invited whom
 // to what, then asks the invitee to sign up or sign in with the invited address and come back here.
 import { Link, useNavigate, useParams } from 'react-router';
-import type { InvitationPreview } from '../../../shared/team.js';
+import type { InvitationPreview } from '@shared/team.js';
 import { Button } from '../../components/ui/Button.js';
 import { Notice } from '../../components/ui/Notice.js';
 import { ApiError } from '../../lib/api.js';

@@ -2,8 +2,8 @@
 // over; everyone else sees the list and may leave. Destructive steps ask inline, inside the share
 // dialog, instead of stacking a second modal on top of it.
 import { useState } from 'react';
-import type { Member } from '../../../shared/team.js';
-import { roleLabels, type WorkbookRole } from '../../../shared/permissions.js';
+import type { Member } from '@shared/team.js';
+import { roleLabels, type WorkbookRole } from '@shared/permissions.js';
 import { Button } from '../../components/ui/Button.js';
 import { sentence } from '../../lib/fieldErrors.js';
 import { useChangeMemberRole, useRemoveMember } from './api.js';

@@ -2,8 +2,8 @@
 // e-mail), then see who has access and what is still pending. The API decides every step (403 with
 // its reason); the dialog only hides what the caller's role could never do.
 import { useId, useState, type FormEvent } from 'react';
-import { addMemberSchema, grantableRoles, type AddMemberResponse, type GrantableRole } from '../../../shared/team.js';
-import { allows, roleLabels, type WorkbookAction } from '../../../shared/permissions.js';
+import { addMemberSchema, grantableRoles, type AddMemberResponse, type GrantableRole } from '@shared/team.js';
+import { allows, roleLabels, type WorkbookAction } from '@shared/permissions.js';
 import { Button } from '../../components/ui/Button.js';
 import { Dialog } from '../../components/ui/Dialog.js';
 import { Notice } from '../../components/ui/Notice.js';

@@ -8,8 +8,8 @@ import type {
   InvitationPreview,
   InvitationsResponse,
   MemberRoleResult,
-} from '../../../shared/team.js';
-import type { WorkbookRole } from '../../../shared/permissions.js';
+} from '@shared/team.js';
+import type { WorkbookRole } from '@shared/permissions.js';
 import { api, queryKeys } from '../../lib/api.js';
 
 const base = (id: string) => `/workbooks/${encodeURIComponent(id)}`;

@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import type { WorkbookSummary } from '../../../shared/workbooks.js';
+import type { WorkbookSummary } from '@shared/workbooks.js';
 import { Button } from '../../components/ui/Button.js';
 import { ConfirmDialog } from '../../components/ui/Dialog.js';
 import { PlusIcon } from '../../components/ui/icons.js';

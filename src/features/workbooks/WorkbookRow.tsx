@@ -1,7 +1,7 @@
 import { useState, type FormEvent, type KeyboardEvent } from 'react';
 import { Link } from 'react-router';
-import { allows, roleLabels } from '../../../shared/permissions.js';
-import { renameWorkbookSchema, type WorkbookSummary } from '../../../shared/workbooks.js';
+import { allows, roleLabels } from '@shared/permissions.js';
+import { renameWorkbookSchema, type WorkbookSummary } from '@shared/workbooks.js';
 import { Button } from '../../components/ui/Button.js';
 import { SheetIcon } from '../../components/ui/icons.js';
 import { checkForm, errorsFromApi } from '../../lib/fieldErrors.js';

@@ -1,6 +1,6 @@
 // The workbook list: list, create, rename, delete. (Opening one is the grid feature's.)
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import type { CreateWorkbookInput, WorkbookSummary } from '../../../shared/workbooks.js';
+import type { CreateWorkbookInput, WorkbookSummary } from '@shared/workbooks.js';
 import { api, queryKeys } from '../../lib/api.js';
 
 export const workbooksQueryOptions = queryOptions({

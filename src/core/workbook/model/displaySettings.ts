@@ -3,7 +3,7 @@
 // rather than breaking the sheet. Fields the grid does not manage (an import's `frozenRows`,
 // `frozenCols` and `merged`, which the export writes back) ride along untouched: the server replaces
 // the whole settings object on every save, so dropping them here would lose them for good.
-import type { SheetSettings } from '../../../../shared/workbooks.js';
+import type { SheetSettings } from '@shared/workbooks.js';
 import type { Precision } from './cellView.js';
 
 export interface DisplaySettings {

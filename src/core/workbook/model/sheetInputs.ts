@@ -1,7 +1,7 @@
 // The inputs of one sheet exactly as people typed them ("1.50" stays "1.50"), kept beside the engine
 // because the engine normalises what it stores. Sparse: only non-empty cells have an entry.
 
-import { engineInput } from '../../../../functions/formulaTokens.js';
+import { engineInput } from '@functions/formulaTokens.js';
 
 const COLUMN_SPAN = 4096; // > the engine's 2,000 columns, so row * span + col never collides
 

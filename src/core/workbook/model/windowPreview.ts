@@ -4,7 +4,7 @@
 // only to cells inside the window on the same sheet, with no dynamic references (INDIRECT, OFFSET)
 // or names. The full engine replaces it a moment later; the preview is read-only.
 import { CellType } from 'hyperformula';
-import type { WorkbookPayload } from '../../../../shared/workbooks.js';
+import type { WorkbookPayload } from '@shared/workbooks.js';
 import { WorkbookModel, type RowData } from './workbookModel.js';
 
 export interface SheetPreview {

@@ -5,15 +5,15 @@
 // batch() grow quadratically in 3.3–3.5 (see the workbook issue), while a suspended evaluation
 // recomputes once at the end.
 import { ExportedCellChange, type ExportedChange, type HyperFormula } from 'hyperformula';
-import { createEngine } from '../../../../functions/engine.js';
-import { engineInput } from '../../../../functions/formulaTokens.js';
-import type { SheetPayload, WorkbookPayload } from '../../../../shared/workbooks.js';
-import { allows, type AccessRole, type WorkbookAction } from '../../../../shared/permissions.js';
+import { createEngine } from '@functions/engine.js';
+import { engineInput } from '@functions/formulaTokens.js';
+import type { SheetPayload, WorkbookPayload } from '@shared/workbooks.js';
+import { allows, type AccessRole, type WorkbookAction } from '@shared/permissions.js';
 import type { CellView } from './cellView.js';
 import { buildSheetRows, EMPTY_ROW, groupCells, viewOfCell, withRowsReplaced, type RowData } from './sheetViews.js';
 import { readDisplaySettings, type DisplaySettings } from './displaySettings.js';
 import { SheetInputs } from './sheetInputs.js';
-import { removeSheetFromFormula, renameSheetInFormula } from '../../../../shared/formulaText.js';
+import { removeSheetFromFormula, renameSheetInFormula } from '@shared/formulaText.js';
 import { lastInputPerCell, type CellInput } from '../save/pendingStore.js';
 import { History } from './history.js';
 

@@ -3,7 +3,7 @@
 // until acknowledged. The save state it reports is derived from what is actually unacknowledged, so
 // "saved" is shown only when the server holds every change. Which base revision a patch claims is
 // RevisionLedger's rule: only revisions whose changes this browser has taken in.
-import { maxCellsPerPatch, type CellConflict, type PatchResult } from '../../../../shared/workbooks.js';
+import { maxCellsPerPatch, type CellConflict, type PatchResult } from '@shared/workbooks.js';
 import { ApiError } from '../../../lib/api.js';
 import type { CellInput, PendingStore } from './pendingStore.js';
 import { cellKey, RevisionLedger } from './revisionLedger.js';

@@ -1,7 +1,7 @@
 // Unsent cell changes kept in the browser's local storage, one entry per workbook, so that a reload,
 // a crash or a closed laptop lid loses nothing typed. The entry is rewritten on every change and
 // removed only when the server has acknowledged every change in it.
-import { cellKey } from '../../../../shared/a1.js';
+import { cellKey } from '@shared/a1.js';
 
 export interface CellInput {
   sheetId: string;

@@ -9,7 +9,7 @@
 //
 // An acknowledgement that skips revisions I have not seen yet leaves the base where it was; those
 // revisions arrive over the live feed (or are fetched) and the base then catches up.
-import { cellKey, cellKeyPrefix } from '../../../../shared/a1.js';
+import { cellKey, cellKeyPrefix } from '@shared/a1.js';
 import type { CellInput } from './pendingStore.js';
 
 export interface CellRef {

@@ -3,7 +3,7 @@
 // changes an earlier visit left unsent in local storage.
 import { useQuery } from '@tanstack/react-query';
 import { useEffect, useRef, useState, useSyncExternalStore } from 'react';
-import type { WorkbookPayload } from '../../../../shared/workbooks.js';
+import type { WorkbookPayload } from '@shared/workbooks.js';
 import { sendPatch, workbookQueryOptions } from '../api.js';
 import { WorkbookModel } from '../model/workbookModel.js';
 import { PatchQueue, type SaveStatus } from '../save/patchQueue.js';

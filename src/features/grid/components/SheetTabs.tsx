@@ -2,7 +2,7 @@
 import { useState } from 'react';
 import { ConfirmDialog } from '../../../components/ui/Dialog.js';
 import { LockIcon } from '../../../components/ui/icons.js';
-import { sheetNameSchema } from '../../../../shared/workbooks.js';
+import { sheetNameSchema } from '@shared/workbooks.js';
 
 export interface TabSheet {
   id: string;

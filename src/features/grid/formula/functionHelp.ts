@@ -3,7 +3,7 @@
 // (signature from the engine's own parameter metadata). Matching is pure so it is tested without
 // a browser.
 import { HyperFormula } from 'hyperformula';
-import { functionHelp, type FunctionHelp as CatalogHelp } from '../../../../functions/help.js';
+import { functionHelp, type FunctionHelp as CatalogHelp } from '@functions/help.js';
 import { builtInSummaries } from './builtInSummaries.js';
 
 export interface FunctionHelp {
