@@ -105,7 +105,7 @@ describe('admin changes to an account', () => {
     await admin.agent.patch(`/api/admin/users/${member.user.id}`).send({ siteRole: 'admin', disabled: false }).expect(200);
     const entry = t.db.select().from(auditLog).get()!;
     expect(entry).toMatchObject({ actorId: admin.user.id, action: 'site.user_updated', workbookId: null });
-    expect(JSON.parse(entry.details)).toEqual({ userId: member.user.id, changes: { siteRole: { from: 'member', to: 'admin' } } });
+    expect(entry.details).toEqual({ userId: member.user.id, changes: { siteRole: { from: 'member', to: 'admin' } } });
   });
 
   it('makes an existing member admin when ORBITAB_ADMIN_EMAIL names them and they next sign in', async () => {

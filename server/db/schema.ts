@@ -1,6 +1,10 @@
 // The whole data model in one file; `npm run db:generate` writes the SQL migrations into drizzle/.
 import { sql } from 'drizzle-orm';
 import { index, integer, primaryKey, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
+import { siteRoles } from '../../shared/auth.js';
+import { workbookRoles } from '../../shared/permissions.js';
+import { grantableRoles } from '../../shared/team.js';
+import type { RevisionPatch, SheetSettings } from '../../shared/workbooks.js';
 
 const now = sql`(unixepoch('subsec') * 1000)`;
 
@@ -9,7 +13,7 @@ export const users = sqliteTable('users', {
   email: text('email').notNull().unique(),
   name: text('name').notNull(),
   passwordHash: text('password_hash').notNull(),
-  siteRole: text('site_role', { enum: ['admin', 'member'] }).notNull().default('member'),
+  siteRole: text('site_role', { enum: siteRoles }).notNull().default('member'),
   disabled: integer('disabled', { mode: 'boolean' }).notNull().default(false),
   /** When the owner of the address proved it (a mailed link); null until then. */
   emailVerifiedAt: integer('email_verified_at'),
@@ -59,7 +63,7 @@ export const workbookMembers = sqliteTable(
   {
     workbookId: text('workbook_id').notNull().references(() => workbooks.id, { onDelete: 'cascade' }),
     userId: text('user_id').notNull().references(() => users.id, { onDelete: 'cascade' }),
-    role: text('role', { enum: ['owner', 'editor', 'viewer'] }).notNull(),
+    role: text('role', { enum: workbookRoles }).notNull(),
     createdAt: integer('created_at').notNull().default(now),
   },
   (t) => [primaryKey({ columns: [t.workbookId, t.userId] }), index('members_user_idx').on(t.userId)],
@@ -74,7 +78,7 @@ export const sheets = sqliteTable(
     position: integer('position').notNull(),
     createdBy: text('created_by').references(() => users.id),
     /** Display settings (column widths, frozen rows, precision) as JSON. */
-    settings: text('settings').notNull().default('{}'),
+    settings: text('settings', { mode: 'json' }).$type<SheetSettings>().notNull().default({}),
   },
   (t) => [uniqueIndex('sheets_name_idx').on(t.workbookId, t.name), index('sheets_workbook_idx').on(t.workbookId)],
 );
@@ -101,7 +105,7 @@ export const revisions = sqliteTable(
     authorId: text('author_id').references(() => users.id),
     kind: text('kind').notNull().default('edit'),
     /** JSON: the changes of this revision, each with the input before and after. */
-    patch: text('patch').notNull(),
+    patch: text('patch', { mode: 'json' }).$type<RevisionPatch>().notNull(),
     createdAt: integer('created_at').notNull().default(now),
   },
   (t) => [primaryKey({ columns: [t.workbookId, t.number] })],
@@ -112,7 +116,7 @@ export const sheetLocks = sqliteTable('sheet_locks', {
   lockedBy: text('locked_by').notNull().references(() => users.id),
   reason: text('reason').notNull(),
   /** JSON array of user ids who may still edit the sheet (the locker is always one). */
-  editors: text('editors').notNull().default('[]'),
+  editors: text('editors', { mode: 'json' }).$type<string[]>().notNull().default([]),
   createdAt: integer('created_at').notNull().default(now),
 });
 
@@ -122,7 +126,7 @@ export const protectedRanges = sqliteTable(
     id: text('id').primaryKey(),
     sheetId: text('sheet_id').notNull().references(() => sheets.id, { onDelete: 'cascade' }),
     range: text('range').notNull(),
-    editors: text('editors').notNull().default('[]'),
+    editors: text('editors', { mode: 'json' }).$type<string[]>().notNull().default([]),
     createdBy: text('created_by').notNull().references(() => users.id),
     createdAt: integer('created_at').notNull().default(now),
   },
@@ -133,7 +137,7 @@ export const invitations = sqliteTable('invitations', {
   id: text('id').primaryKey(),
   workbookId: text('workbook_id').notNull().references(() => workbooks.id, { onDelete: 'cascade' }),
   email: text('email').notNull(),
-  role: text('role', { enum: ['editor', 'viewer'] }).notNull(),
+  role: text('role', { enum: grantableRoles }).notNull(),
   tokenHash: text('token_hash').notNull().unique(),
   invitedBy: text('invited_by').notNull().references(() => users.id),
   expiresAt: integer('expires_at').notNull(),
@@ -159,7 +163,7 @@ export const auditLog = sqliteTable(
     workbookId: text('workbook_id'),
     actorId: text('actor_id'),
     action: text('action').notNull(),
-    details: text('details').notNull().default('{}'),
+    details: text('details', { mode: 'json' }).$type<Record<string, unknown>>().notNull().default({}),
     createdAt: integer('created_at').notNull().default(now),
   },
   (t) => [index('audit_workbook_idx').on(t.workbookId)],

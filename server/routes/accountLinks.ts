@@ -91,7 +91,7 @@ export function accountLinksRouter(ctx: AppContext): Router {
     db.transaction((tx) => {
       // The link reached the mailbox, so the address is proved too.
       tx.update(users).set({ passwordHash, emailVerifiedAt: owner.emailVerifiedAt ?? Date.now() }).where(eq(users.id, owner.id)).run();
-      tx.insert(auditLog).values({ actorId: owner.id, action: 'site.password_reset', details: JSON.stringify({ userId: owner.id }) }).run();
+      tx.insert(auditLog).values({ actorId: owner.id, action: 'site.password_reset', details: { userId: owner.id } }).run();
     });
     markEmailVerified(db, owner.id, config.adminEmail);
     // Whoever knew the old password (or held a session) is out.
@@ -115,7 +115,7 @@ export function accountLinksRouter(ctx: AppContext): Router {
     const passwordHash = await hashPassword(input.next);
     db.transaction((tx) => {
       tx.update(users).set({ passwordHash }).where(eq(users.id, me.id)).run();
-      tx.insert(auditLog).values({ actorId: me.id, action: 'site.password_changed', details: JSON.stringify({ userId: me.id }) }).run();
+      tx.insert(auditLog).values({ actorId: me.id, action: 'site.password_changed', details: { userId: me.id } }).run();
     });
     // Every session ends; this one continues under a new id.
     await lucia.invalidateUserSessions(me.id);

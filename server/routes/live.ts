@@ -33,7 +33,7 @@ function missedRevisions(ctx: AppContext, workbookId: string, since: number) {
     .orderBy(asc(revisions.number))
     .limit(maxReplayedRevisions + 1)
     .all()
-    .map((r) => ({ ...r, kind: r.kind as RevisionKind, patch: JSON.parse(r.patch) as RevisionPatch }));
+    .map((r) => ({ ...r, kind: r.kind as RevisionKind, patch: r.patch }));
 }
 
 function openStream(res: Response, user: { id: string; name: string }): LiveConnection {

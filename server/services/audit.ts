@@ -7,7 +7,7 @@ import { auditLog, users } from '../db/schema.js';
 import type { Tx } from './cellStore.js';
 
 export function recordAudit(tx: Tx | Db, workbookId: string, actorId: string, action: AuditAction, details: Record<string, unknown>): void {
-  tx.insert(auditLog).values({ workbookId, actorId, action, details: JSON.stringify(details) }).run();
+  tx.insert(auditLog).values({ workbookId, actorId, action, details }).run();
 }
 
 export function listAudit(db: Db, workbookId: string, opts: { before?: number; limit: number }): AuditEntry[] {
@@ -24,7 +24,7 @@ export function listAudit(db: Db, workbookId: string, opts: { before?: number; l
       id: r.id,
       action: r.action as AuditAction,
       actor: r.actorId ? { id: r.actorId, name: r.name ?? '', email: r.email ?? '' } : null,
-      details: JSON.parse(r.details) as Record<string, unknown>,
+      details: r.details,
       createdAt: r.createdAt,
     }));
 }

@@ -58,7 +58,7 @@ export function lockSheet(ctx: AppContext, access: WorkbookAccess, userId: strin
       const existing = tx.select().from(sheetLocks).where(eq(sheetLocks.sheetId, sheetId)).get();
       requireLockRight(access, userId, sheet, existing?.lockedBy);
       const editors = editorList(tx, workbookId, userId, input.editors);
-      const row = { lockedBy: userId, reason: input.reason, editors: JSON.stringify(editors), createdAt: Date.now() };
+      const row = { lockedBy: userId, reason: input.reason, editors, createdAt: Date.now() };
       tx.insert(sheetLocks).values({ sheetId, ...row }).onConflictDoUpdate({ target: sheetLocks.sheetId, set: row }).run();
       recordAudit(tx, workbookId, userId, 'sheet.locked', { sheetId, sheetName: sheet.name, reason: input.reason, editors, replaced: existing !== undefined });
     },
@@ -95,7 +95,7 @@ export function protectRange(ctx: AppContext, access: WorkbookAccess, userId: st
       const count = tx.select({ id: protectedRanges.id }).from(protectedRanges).where(eq(protectedRanges.sheetId, sheetId)).all().length;
       if (count >= maxProtectedRangesPerSheet) throw badRequest(`sheet "${sheet.name}" already has ${maxProtectedRangesPerSheet} protected ranges, the most it may have; lock the sheet or remove some`);
       const editors = editorList(tx, workbookId, userId, input.editors);
-      tx.insert(protectedRanges).values({ id, sheetId, range: input.range, editors: JSON.stringify(editors), createdBy: userId, createdAt: Date.now() }).run();
+      tx.insert(protectedRanges).values({ id, sheetId, range: input.range, editors, createdBy: userId, createdAt: Date.now() }).run();
       recordAudit(tx, workbookId, userId, 'range.protected', { rangeId: id, sheetId, sheetName: sheet.name, range: input.range, editors });
     },
     { behavior: 'immediate' },
@@ -122,7 +122,7 @@ export function unprotectRange(ctx: AppContext, access: WorkbookAccess, userId: 
 
 /** Takes a departing member off every lock and range of the workbook, so re-joining later grants nothing old. */
 export function dropFromEditorLists(tx: Tx, workbookId: string, userId: string): void {
-  const without = (json: string) => JSON.stringify((JSON.parse(json) as string[]).filter((id) => id !== userId));
+  const without = (ids: string[]) => ids.filter((id) => id !== userId);
   const sheetIds = tx.select({ id: sheets.id }).from(sheets).where(eq(sheets.workbookId, workbookId)).all().map((s) => s.id);
   if (sheetIds.length === 0) return;
   for (const l of tx.select().from(sheetLocks).where(inArray(sheetLocks.sheetId, sheetIds)).all()) {

@@ -28,21 +28,20 @@ export function loadProtection(tx: Reader, workbookId: string): Protection {
     .all();
 
   const ids = new Set<string>();
-  const editorIds = (json: string) => JSON.parse(json) as string[];
-  for (const l of lockRows) [l.lockedBy, ...editorIds(l.editors)].forEach((id) => ids.add(id));
-  for (const r of rangeRows) [r.createdBy, ...editorIds(r.editors)].forEach((id) => ids.add(id));
+  for (const l of lockRows) [l.lockedBy, ...l.editors].forEach((id) => ids.add(id));
+  for (const r of rangeRows) [r.createdBy, ...r.editors].forEach((id) => ids.add(id));
   const names = new Map(ids.size ? tx.select({ id: users.id, name: users.name }).from(users).where(inArray(users.id, [...ids])).all().map((u) => [u.id, u.name]) : []);
   const ref = (id: string): UserRef => ({ id, name: names.get(id) ?? 'a former account' });
 
   return {
-    locks: lockRows.map((l) => ({ sheetId: l.sheetId, lockedBy: ref(l.lockedBy), reason: l.reason, editors: editorIds(l.editors).map(ref), createdAt: l.createdAt })),
+    locks: lockRows.map((l) => ({ sheetId: l.sheetId, lockedBy: ref(l.lockedBy), reason: l.reason, editors: l.editors.map(ref), createdAt: l.createdAt })),
     protectedRanges: rangeRows.map((r) => ({
       id: r.id,
       sheetId: r.sheetId,
       range: r.range,
       // Stored ranges were validated on the way in; a row that no longer parses protects nothing rather than everything.
       bounds: parseCellRange(r.range) ?? { top: 1, left: 1, bottom: 0, right: 0 },
-      editors: editorIds(r.editors).map(ref),
+      editors: r.editors.map(ref),
       createdBy: ref(r.createdBy),
       createdAt: r.createdAt,
     })),

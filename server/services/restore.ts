@@ -13,7 +13,7 @@ import { sheetCells, writeCell, type Tx } from './cellStore.js';
 import { currentRevision, nextRevision, patchesAfter, recordRevision } from './revisionLog.js';
 import { recordAudit } from './audit.js';
 import { assertMayChangeSheet, assertMayEditCells } from './protection.js';
-import { applySheetOp, invertSheetOp, parseSettings, workbookSheets } from './sheetOps.js';
+import { applySheetOp, invertSheetOp, workbookSheets } from './sheetOps.js';
 
 export interface ModelSheet {
   id: string;
@@ -46,7 +46,7 @@ export function loadModel(tx: Tx, workbookId: string): Model {
   const tabs = workbookSheets(tx, workbookId);
   const sheets = new Map<string, ModelSheet>();
   for (const s of tabs) {
-    sheets.set(s.id, { id: s.id, name: s.name, settings: parseSettings(s.settings), cells: new Map(sheetCells(tx, s.id).map(([r, c, input]) => [key(r, c), input])) });
+    sheets.set(s.id, { id: s.id, name: s.name, settings: s.settings, cells: new Map(sheetCells(tx, s.id).map(([r, c, input]) => [key(r, c), input])) });
   }
   return { order: tabs.map((s) => s.id), sheets };
 }

@@ -26,7 +26,7 @@ export function nextRevision(tx: Tx, workbookId: string): number {
 }
 
 export function recordRevision(tx: Tx, workbookId: string, number: number, authorId: string, kind: RevisionKind, patch: RevisionPatch): void {
-  tx.insert(revisions).values({ workbookId, number, authorId, kind, patch: JSON.stringify(patch) }).run();
+  tx.insert(revisions).values({ workbookId, number, authorId, kind, patch }).run();
 }
 
 const summaryColumns = {
@@ -74,7 +74,7 @@ export function getRevision(db: Db, workbookId: string, number: number): Revisio
     .where(and(eq(revisions.workbookId, workbookId), eq(revisions.number, number)))
     .get();
   if (!row) throw notFound(`revision ${number}`);
-  return { ...toSummary(row), patch: JSON.parse(row.patch) as RevisionPatch };
+  return { ...toSummary(row), patch: row.patch };
 }
 
 /** The patches of every revision after `number`, newest first (what a restore undoes). */
@@ -85,5 +85,5 @@ export function patchesAfter(tx: Tx, workbookId: string, number: number): { numb
     .where(and(eq(revisions.workbookId, workbookId), gt(revisions.number, number)))
     .orderBy(desc(revisions.number))
     .all()
-    .map((r) => ({ number: r.number, patch: JSON.parse(r.patch) as RevisionPatch }));
+    .map((r) => ({ number: r.number, patch: r.patch }));
 }

@@ -14,10 +14,6 @@ export function workbookSheets(tx: Pick<Tx, 'select'>, workbookId: string): Shee
   return tx.select().from(sheets).where(eq(sheets.workbookId, workbookId)).orderBy(sheets.position).all();
 }
 
-export function parseSettings(json: string): SheetSettings {
-  return JSON.parse(json) as SheetSettings;
-}
-
 function shift(tx: Tx, workbookId: string, by: 1 | -1, range: { from: number; to?: number }) {
   const bounds = [eq(sheets.workbookId, workbookId), gte(sheets.position, range.from)];
   if (range.to !== undefined) bounds.push(lte(sheets.position, range.to));
@@ -47,7 +43,7 @@ function applyToTabs(tx: Tx, workbookId: string, op: SheetOp, revision: number, 
     case 'add': {
       shift(tx, workbookId, 1, { from: op.position });
       tx.insert(sheets)
-        .values({ id: op.sheetId, workbookId, name: op.name, position: op.position, settings: JSON.stringify(op.settings), createdBy: userId })
+        .values({ id: op.sheetId, workbookId, name: op.name, position: op.position, settings: op.settings, createdBy: userId })
         .run();
       insertCells(tx, op.sheetId, op.cells, revision);
       return op;
@@ -57,7 +53,7 @@ function applyToTabs(tx: Tx, workbookId: string, op: SheetOp, revision: number, 
       const cells = sheetCells(tx, op.sheetId);
       tx.delete(sheets).where(eq(sheets.id, op.sheetId)).run(); // cells go with it (on delete cascade)
       shift(tx, workbookId, -1, { from: row.position + 1 });
-      return { op: 'delete', sheetId: row.id, name: row.name, position: row.position, settings: parseSettings(row.settings), cells };
+      return { op: 'delete', sheetId: row.id, name: row.name, position: row.position, settings: row.settings, cells };
     }
     case 'rename': {
       requireSheetRow(tx, workbookId, op.sheetId);
@@ -73,7 +69,7 @@ function applyToTabs(tx: Tx, workbookId: string, op: SheetOp, revision: number, 
     }
     case 'settings': {
       requireSheetRow(tx, workbookId, op.sheetId);
-      tx.update(sheets).set({ settings: JSON.stringify(op.after) }).where(eq(sheets.id, op.sheetId)).run();
+      tx.update(sheets).set({ settings: op.after }).where(eq(sheets.id, op.sheetId)).run();
       return op;
     }
   }

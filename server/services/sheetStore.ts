@@ -7,7 +7,7 @@ import { badRequest, conflict, HttpError, notFound } from '../errors.js';
 import type { Tx } from './cellStore.js';
 import { currentRevision, nextRevision, recordRevision } from './revisionLog.js';
 import { assertMayChangeSheet } from './protection.js';
-import { applySheetOp, parseSettings, workbookSheets, type SheetRow } from './sheetOps.js';
+import { applySheetOp, workbookSheets, type SheetRow } from './sheetOps.js';
 
 /** Sheet names are compared without case, as formulas compare them ('sheet1'!A1 is Sheet1!A1). */
 function assertNameFree(all: SheetRow[], name: string, exceptId?: string) {
@@ -49,7 +49,7 @@ function commit(ctx: AppContext, workbookId: string, userId: string, build: (tx:
 
 function sheetResult(ctx: AppContext, workbookId: string, sheetId: string, revision: number): SheetMutationResult {
   const sheet = sheetOf(workbookSheets(ctx.db, workbookId), sheetId);
-  return { revision, sheet: { id: sheet.id, name: sheet.name, position: sheet.position, settings: parseSettings(sheet.settings) } };
+  return { revision, sheet: { id: sheet.id, name: sheet.name, position: sheet.position, settings: sheet.settings } };
 }
 
 export function addSheet(ctx: AppContext, workbookId: string, userId: string, input: CreateSheetInput): SheetMutationResult {
@@ -77,7 +77,7 @@ export function updateSheet(ctx: AppContext, workbookId: string, sheetId: string
       if (input.position >= all.length) throw badRequest(`position: must be at most ${all.length - 1} (the last tab)`);
       ops.push({ op: 'move', sheetId, from: sheet.position, to: input.position });
     }
-    const settingsBefore = parseSettings(sheet.settings);
+    const settingsBefore = sheet.settings;
     if (input.settings !== undefined && JSON.stringify(input.settings) !== JSON.stringify(settingsBefore)) {
       ops.push({ op: 'settings', sheetId, before: settingsBefore, after: input.settings });
     }

@@ -71,7 +71,7 @@ export function promoteOperatorAdmin(db: Db, user: UserRow, adminEmail?: string)
   if (user.emailVerifiedAt === null || user.configPromotedAt !== null) return user;
   return db.transaction((tx) => {
     const promoted = tx.update(users).set({ siteRole: 'admin', configPromotedAt: Date.now() }).where(eq(users.id, user.id)).returning().get();
-    tx.insert(auditLog).values({ actorId: user.id, action: 'site.user_promoted_by_config', details: JSON.stringify({ userId: user.id, wasAdmin: user.siteRole === 'admin' }) }).run();
+    tx.insert(auditLog).values({ actorId: user.id, action: 'site.user_promoted_by_config', details: { userId: user.id, wasAdmin: user.siteRole === 'admin' } }).run();
     return promoted;
   });
 }
@@ -112,7 +112,7 @@ export function updateUser(db: Db, actorId: string, userId: string, patch: Admin
     const changes = Object.fromEntries(
       (Object.keys(patch) as (keyof AdminUserPatch)[]).filter((k) => before[k] !== after[k]).map((k) => [k, { from: before[k], to: after[k] }]),
     );
-    tx.insert(auditLog).values({ actorId, action: 'site.user_updated', details: JSON.stringify({ userId, changes }) }).run();
+    tx.insert(auditLog).values({ actorId, action: 'site.user_updated', details: { userId, changes } }).run();
     return after;
   });
 }

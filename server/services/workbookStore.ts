@@ -9,7 +9,7 @@ import type { AppContext } from '../context.js';
 import { cells, sheets, users, workbookMembers, workbooks } from '../db/schema.js';
 import type { WorkbookAccess } from './access.js';
 import { loadProtection } from './protection.js';
-import { parseSettings, workbookSheets } from './sheetOps.js';
+import { workbookSheets } from './sheetOps.js';
 
 export function createWorkbook(ctx: AppContext, user: Pick<User, 'id'>, title: string): string {
   const id = randomUUID();
@@ -43,7 +43,7 @@ export function loadWorkbook(ctx: AppContext, access: WorkbookAccess): WorkbookP
       revision,
       role: access.role,
       actions: allowedActions(access.roles),
-      sheets: tabs.map((s) => ({ id: s.id, name: s.name, position: s.position, settings: parseSettings(s.settings), cells: bySheet.get(s.id) ?? [] })),
+      sheets: tabs.map((s) => ({ id: s.id, name: s.name, position: s.position, settings: s.settings, cells: bySheet.get(s.id) ?? [] })),
       ...loadProtection(tx, workbook.id),
     };
   });
