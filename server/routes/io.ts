@@ -16,6 +16,7 @@ import { exportSource } from '../xlsx/exportSource.js';
 import { importSheets } from '../xlsx/importStore.js';
 import { defaultImportLimits, formatBytes, SpreadsheetError } from '../xlsx/limits.js';
 import { parseInWorker } from '../xlsx/parseInWorker.js';
+import { computeRefusal } from '../xlsx/refusals.js';
 import { sheetNameFromFilename } from '../xlsx/readCsv.js';
 
 const importBody = z.object({ workbookId: idSchema.optional() });
@@ -64,7 +65,7 @@ export function ioRouter(ctx: AppContext): Router {
     // Refuse before reading when the user may not add sheets there.
     if (workbookId) requireWorkbook(ctx, user, workbookId, 'editSheets');
 
-    const parsed = await parseInWorker(file.buffer, file.originalname || 'upload').catch((e) => {
+    const parsed = await parseInWorker(file.buffer, file.originalname || 'upload', { owner: user.id }).catch((e) => {
       throw asHttp(e);
     });
 
@@ -114,12 +115,12 @@ export function ioRouter(ctx: AppContext): Router {
     const { sheetIds: _ids, ...workbook } = source;
     try {
       // Computed and written in a worker: the engine's work on a large workbook never holds this thread.
-      await exportInWorker(res, workbook, format);
+      await exportInWorker(res, workbook, format, { owner: currentUser(res).id });
     } catch (e) {
       if (!res.headersSent) {
         res.removeHeader('Content-Disposition');
         // The workbook is already stored, so a failure here is the server's limit, not a bad request.
-        if (e instanceof SpreadsheetError) return next(new HttpError(503, 'export_failed', `export: ${e.message}; try values only, or split the workbook`));
+        if (e instanceof SpreadsheetError) return next(computeRefusal('export', e, '; try values only, or split the workbook'));
         return next(e);
       }
       // Past the first byte there is no JSON error to send; a cut-off download is the honest signal.

@@ -5,7 +5,7 @@ import type { Writable } from 'node:stream';
 import { recalcWorkerLimits, type WorkerLimits } from './limits.js';
 import type { ExportMode, ExportWorkbook } from './types.js';
 import { packSheets } from './packedCells.js';
-import { ioPool } from './workerPool.js';
+import { computePool } from './workerPool.js';
 
 export type ExportFormat = { kind: 'xlsx'; mode: ExportMode } | { kind: 'csv'; sheetIndex: number };
 
@@ -22,12 +22,13 @@ export interface ExportStats {
  * Streams the file into `output` and ends it. `onFirstByte` runs before the first write, so a
  * caller can still answer with a JSON error when the export fails before any byte is sent.
  */
-export async function exportInWorker(output: Writable, workbook: ExportWorkbook, format: ExportFormat, options: { workerLimits?: WorkerLimits; onFirstByte?: () => void } = {}): Promise<ExportStats> {
+export async function exportInWorker(output: Writable, workbook: ExportWorkbook, format: ExportFormat, options: { workerLimits?: WorkerLimits; onFirstByte?: () => void; owner?: string } = {}): Promise<ExportStats> {
   let bytes = 0;
   // Cells go packed (packedCells.ts): cloning 100,000 small arrays into the worker costs more than packing them.
   const { packed, transfer } = packSheets(workbook);
   const job = format.kind === 'xlsx' ? { kind: 'xlsx', workbook: packed, mode: format.mode } : { kind: 'csv', workbook: packed, sheetIndex: format.sheetIndex };
-  const outcome = await ioPool.run<{ engineMs: number; writeMs: number }>(job, transfer, {
+  const outcome = await computePool.run<{ engineMs: number; writeMs: number }>(job, transfer, {
+    owner: options.owner,
     limits: options.workerLimits ?? recalcWorkerLimits,
     doing: 'writing the export',
     onProgress: (m) => {

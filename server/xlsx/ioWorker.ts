@@ -3,7 +3,7 @@
 import { Writable } from 'node:stream';
 import { parentPort } from 'node:worker_threads';
 import { computeWorkbook } from './engineValues.js';
-import { computeValues } from '../services/values.js';
+import { computeValuesIsolated } from '../services/valuesIsolated.js';
 import { packSheets, unpackCells, unpackSheets, type PackedCells, type PackedExportWorkbook } from './packedCells.js';
 import { SpreadsheetError, type ImportLimits } from './limits.js';
 import { readSpreadsheet } from './read.js';
@@ -50,7 +50,7 @@ async function run(job: IoJob): Promise<{ result: unknown; transfer?: ArrayBuffe
       return { result: { engineMs: computedAt - started, writeMs: performance.now() - computedAt } };
     }
     case 'values': {
-      const payload = computeValues({ revision: job.revision, sheets: job.sheets.map((s) => ({ id: s.id, name: s.name, cells: unpackCells(s.packed) })) });
+      const payload = computeValuesIsolated({ revision: job.revision, sheets: job.sheets.map((s) => ({ id: s.id, name: s.name, cells: unpackCells(s.packed) })) });
       const bytes = new TextEncoder().encode(JSON.stringify(payload));
       return { result: bytes, transfer: [bytes.buffer as ArrayBuffer] };
     }
@@ -74,7 +74,9 @@ parentPort!.on('message', async (job: IoJob) => {
       e instanceof SpreadsheetError
         ? { code: e.code, message: e.message }
         : // Only the file varies between jobs, so an exception in the reader or writer is the file's doing.
-          { code: 'damaged_file', message: `the file could not be ${job.kind === 'parse' ? 'read' : 'written'} (${e instanceof Error ? e.message : String(e)})` };
+          job.kind === 'values'
+          ? { code: 'too_complex', message: `the workbook could not be computed (${e instanceof Error ? e.message : String(e)})` }
+          : { code: 'damaged_file', message: `the file could not be ${job.kind === 'parse' ? 'read' : 'written'} (${e instanceof Error ? e.message : String(e)})` };
     parentPort!.postMessage({ done: true, ok: false, error, heapUsedBytes: process.memoryUsage().heapUsed });
   }
 });
