@@ -73,6 +73,7 @@ export type SpreadsheetErrorCode =
   | 'file_too_large'
   | 'decompression_bomb'
   | 'too_many_cells'
+  | 'too_many_columns'
   | 'too_complex'
   | 'parse_timeout'
   | 'parse_out_of_memory'
@@ -86,6 +87,7 @@ const statusOf: Record<SpreadsheetErrorCode, 400 | 413 | 429 | 503> = {
   file_too_large: 413,
   decompression_bomb: 413,
   too_many_cells: 413,
+  too_many_columns: 413,
   too_complex: 413,
   parse_timeout: 413,
   parse_out_of_memory: 413,

@@ -2,7 +2,9 @@
 // Cheap refusals (size, magic bytes) happen here first, so an obviously wrong upload costs no worker.
 import { defaultImportLimits, defaultWorkerLimits, type ImportLimits, type WorkerLimits } from './limits.js';
 import { unpackSheets, type PackedParsedWorkbook } from './packedCells.js';
-import { sniffSpreadsheet } from './sniff.js';
+import { maxColIndex } from '../../shared/workbooks.js';
+import { checkCsvShape, decodeText, guessDelimiter } from './csvCount.js';
+import { extensionOf, sniffSpreadsheet } from './sniff.js';
 import type { ParsedWorkbook } from './types.js';
 import { computePool, ioPool } from './workerPool.js';
 
@@ -16,7 +18,10 @@ export async function parseInWorker(
   options: { limits?: ImportLimits; workerLimits?: WorkerLimits; owner?: string } = {},
 ): Promise<ParseResult> {
   const limits = options.limits ?? defaultImportLimits;
-  sniffSpreadsheet(buffer, filename, limits);
+  if (sniffSpreadsheet(buffer, filename, limits) === 'csv') {
+    const head = decodeText(buffer.subarray(0, 64 * 1024), []);
+    checkCsvShape(buffer, guessDelimiter(head, extensionOf(filename)), limits, maxColIndex + 1);
+  }
   // A private copy, moved (not copied again) into the worker.
   const copy = new Uint8Array(buffer);
   // The worker sends each sheet's cells packed (packedCells.ts): cheaper to move than 100,000 small arrays.
