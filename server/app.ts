@@ -19,6 +19,7 @@ import { teamRouter } from './routes/team.js';
 import { invitationLinksRouter } from './routes/invitations.js';
 import { adminTeamRouter } from './routes/adminTeam.js';
 import { ioRouter } from './routes/io.js';
+import { createStorageHealth } from './services/storageHealth.js';
 
 export interface CreateAppOptions {
   db: Db;
@@ -32,6 +33,9 @@ export function createApp({ db, config }: CreateAppOptions): { app: Express; ctx
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');
   app.use(createHttpLogger(logger));
+  // Storage failures (full disk, I/O errors) noted by the error handler and reported by /api/health.
+  const storage = createStorageHealth(config.databasePath);
+  app.locals.storageHealth = storage;
 
   const api = express.Router();
   api.use(express.json({ limit: '2mb' }));
@@ -47,8 +51,9 @@ export function createApp({ db, config }: CreateAppOptions): { app: Express; ctx
     } catch (e) {
       database = `error: ${(e as Error).message}`;
     }
-    const ok = database === 'ok' && (migrations as { current?: boolean })?.current === true;
-    res.status(ok ? 200 : 503).json({ status: ok ? 'ok' : 'degraded', database, migrations, mail: ctx.mail.status() });
+    const writes = storage.status();
+    const ok = database === 'ok' && (migrations as { current?: boolean })?.current === true && writes.writes === 'ok';
+    res.status(ok ? 200 : 503).json({ status: ok ? 'ok' : 'degraded', database, migrations, mail: ctx.mail.status(), storage: writes });
   });
 
   // Feature routers mount here.

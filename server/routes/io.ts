@@ -9,11 +9,10 @@ import { currentUser, requireUser } from '../auth/middleware.js';
 import type { AppContext } from '../context.js';
 import { badRequest, HttpError, parse } from '../errors.js';
 import { requireWorkbook } from '../services/access.js';
-import { createWorkbook, deleteWorkbook } from '../services/workbookStore.js';
-import { workbookSheets } from '../services/sheetOps.js';
+import { shutdownRefusal } from '../services/shutdown.js';
 import { exportInWorker, type ExportFormat } from '../xlsx/exportInWorker.js';
 import { exportSource } from '../xlsx/exportSource.js';
-import { importSheets } from '../xlsx/importStore.js';
+import { importStaged } from '../xlsx/importStaged.js';
 import { defaultImportLimits, formatBytes, SpreadsheetError } from '../xlsx/limits.js';
 import { parseInWorker } from '../xlsx/parseInWorker.js';
 import { computeRefusal } from '../xlsx/refusals.js';
@@ -60,6 +59,8 @@ export function ioRouter(ctx: AppContext): Router {
   router.post('/imports', requireUser, receiveUpload, async (req: Request, res: Response) => {
     const user = currentUser(res);
     const { workbookId } = parse(importBody, req.body ?? {});
+    const stopping = shutdownRefusal();
+    if (stopping) throw stopping;
     const file = req.file;
     if (!file) throw badRequest('file: required; send the spreadsheet as multipart/form-data in the field "file"');
     // Refuse before reading when the user may not add sheets there.
@@ -69,22 +70,14 @@ export function ioRouter(ctx: AppContext): Router {
       throw asHttp(e);
     });
 
-    if (workbookId) {
-      requireWorkbook(ctx, user, workbookId, 'editSheets'); // still allowed after the read
-      const outcome = importSheets(ctx, workbookId, user.id, parsed);
-      res.status(201).json({ workbookId, revision: outcome.revision, sheets: outcome.sheets, summary: outcome.summary });
-      return;
-    }
+    if (workbookId) requireWorkbook(ctx, user, workbookId, 'editSheets'); // still allowed after the read
     const title = titleSchema.safeParse(sheetNameFromFilename(file.originalname || '').replace(/_/g, ' '));
-    const newId = createWorkbook(ctx, user, title.success ? title.data : 'Imported workbook');
-    try {
-      const [emptyFirst] = workbookSheets(ctx.db, newId);
-      const outcome = importSheets(ctx, newId, user.id, parsed, { replaceSheetId: emptyFirst?.id });
-      res.status(201).json({ workbookId: newId, revision: outcome.revision, sheets: outcome.sheets, summary: outcome.summary });
-    } catch (e) {
-      deleteWorkbook(ctx, newId); // no half-made workbook is left behind
-      throw e;
-    }
+    // Stored in short steps into sheets no one sees until the last one (importStaged.ts): a large
+    // import neither holds the event loop nor leaves anything behind when it fails.
+    const outcome = await importStaged(ctx, workbookId ? { workbookId } : { newWorkbook: { title: title.success ? title.data : 'Imported workbook' } }, user.id, parsed, {
+      stopReason: shutdownRefusal,
+    });
+    res.status(201).json({ workbookId: outcome.workbookId, revision: outcome.revision, sheets: outcome.sheets, summary: outcome.summary });
   });
 
   router.get('/workbooks/:id/export', requireUser, async (req: Request, res: Response, next: NextFunction) => {
