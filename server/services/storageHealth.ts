@@ -24,8 +24,8 @@ export function storageFailureOf(err: unknown): StorageFailure | null {
   return null;
 }
 
-/** How long a write failure keeps /api/health saying writes fail, after the last one. */
-export const rememberFailureMs = 60_000;
+/** How long a write failure keeps /api/health saying writes fail, after the last one (ORBITAB_STORAGE_FAILURE_MS). */
+const rememberFailureMs = Number(process.env.ORBITAB_STORAGE_FAILURE_MS) > 0 ? Number(process.env.ORBITAB_STORAGE_FAILURE_MS) : 30_000;
 /** Less free space than this on the database's file system counts as full. */
 export const minFreeBytes = 1024 * 1024;
 

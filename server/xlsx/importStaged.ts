@@ -95,14 +95,13 @@ export async function importStaged(ctx: AppContext, target: ImportTarget, userId
   // they get the next number now (never later than the real one: no edit predates the sheet).
   const expectedRevision = 'workbookId' in target ? (ctx.db.select({ revision: workbooks.revision }).from(workbooks).where(eq(workbooks.id, target.workbookId)).get()?.revision ?? 0) + 1 : 1;
   const staged = checked.map((c, i) => ({ ...c, id: randomUUID(), stagingName: `${i}` }));
-  ctx.db.transaction((tx) => {
-    tx.insert(workbooks).values({ id: stagingId, title: stagingTitle, ownerId: userId }).run();
-    for (const [i, s] of staged.entries()) {
-      tx.insert(sheets).values({ id: s.id, workbookId: stagingId, name: s.stagingName, position: i, settings: JSON.stringify(settingsFromParsed(s.sheet, [])), createdBy: userId }).run();
-    }
-  });
-
   try {
+    ctx.db.transaction((tx) => {
+      tx.insert(workbooks).values({ id: stagingId, title: stagingTitle, ownerId: userId }).run();
+      for (const [i, s] of staged.entries()) {
+        tx.insert(sheets).values({ id: s.id, workbookId: stagingId, name: s.stagingName, position: i, settings: JSON.stringify(settingsFromParsed(s.sheet, [])), createdBy: userId }).run();
+      }
+    });
     const insert = cellInserter(ctx.db.$client);
     const slice = ctx.db.$client.transaction((sheetId: string, cells: readonly CellTriple[], from: number) => {
       const started = performance.now();
