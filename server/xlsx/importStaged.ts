@@ -64,7 +64,10 @@ async function checkedSheets(parsed: ParsedWorkbook, summary: ImportSummary) {
 /** Deletes a staging workbook, its cells a slice at a time. */
 export async function discardStaging(ctx: AppContext, stagingId: string): Promise<void> {
   const sqlite = ctx.db.$client;
-  const step = sqlite.prepare('delete from cells where rowid in (select c.rowid from cells c join sheets s on s.id = c.sheet_id where s.workbook_id = ? limit 20000)');
+  // cells has no rowid (its key is sheet, row, column), so a slice is chosen by that key.
+  const step = sqlite.prepare(
+    'delete from cells where (sheet_id, row, col) in (select c.sheet_id, c.row, c.col from cells c join sheets s on s.id = c.sheet_id where s.workbook_id = ? limit 20000)',
+  );
   while (step.run(stagingId).changes > 0) await turn();
   ctx.db.delete(workbooks).where(eq(workbooks.id, stagingId)).run();
 }
