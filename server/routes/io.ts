@@ -112,6 +112,7 @@ export function ioRouter(ctx: AppContext): Router {
     } catch (e) {
       if (!res.headersSent) {
         res.removeHeader('Content-Disposition');
+        res.removeHeader('Content-Type'); // the error is JSON, not the file
         // The workbook is already stored, so a failure here is the server's limit, not a bad request.
         if (e instanceof SpreadsheetError) return next(computeRefusal('export', e, '; try values only, or split the workbook'));
         return next(e);

@@ -18,6 +18,9 @@ export type IoJob =
   /** GET …/values of a large workbook (services/valuesInWorker.ts): answered as UTF-8 JSON bytes. */
   | { kind: 'values'; revision: number; sheets: { id: string; name: string; packed: PackedCells }[] };
 
+/** The longest /values answer, in characters of JSON. */
+const maxValuesChars = 64_000_000;
+
 /** Bytes for the parent, moved rather than copied; the parent writes them to the response. */
 function chunkPoster(): Writable {
   return new Writable({
@@ -51,7 +54,12 @@ async function run(job: IoJob): Promise<{ result: unknown; transfer?: ArrayBuffe
     }
     case 'values': {
       const payload = computeValuesIsolated({ revision: job.revision, sheets: job.sheets.map((s) => ({ id: s.id, name: s.name, cells: unpackCells(s.packed) })) });
-      const bytes = new TextEncoder().encode(JSON.stringify(payload));
+      const json = JSON.stringify(payload);
+      // Bytes are at most three per UTF-16 unit; checked on the text, before encoding it.
+      if (json.length > maxValuesChars) {
+        throw new SpreadsheetError('too_complex', `the values come to ${(json.length / 1e6).toFixed(0)} million characters, more than the ${maxValuesChars / 1e6} million one answer may hold (for example formulas that make very long texts)`);
+      }
+      const bytes = new TextEncoder().encode(json);
       return { result: bytes, transfer: [bytes.buffer as ArrayBuffer] };
     }
     case 'csv': {

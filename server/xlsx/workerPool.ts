@@ -101,6 +101,8 @@ export interface JobOptions {
   onProgress?: (message: unknown) => void;
   /** Who asked (a user id), for the per-person cap; jobs without one (benchmarks, CLI) are not counted. */
   owner?: string;
+  /** Stops the job (its worker is ended); the job fails with the signal's reason when that is a SpreadsheetError. */
+  signal?: AbortSignal;
 }
 
 /** One job in one worker. `reusable` is false when the worker must not serve again. */
@@ -112,6 +114,7 @@ function runJob(slot: Slot, message: unknown, transfer: ArrayBuffer[], options: 
       worker.off('message', onMessage);
       worker.off('error', onError);
       worker.off('exit', onExit);
+      options.signal?.removeEventListener('abort', onAbort);
       resolve({ done, reusable });
     };
     const timer = setTimeout(() => {
@@ -128,6 +131,11 @@ function runJob(slot: Slot, message: unknown, transfer: ArrayBuffer[], options: 
     worker.on('message', onMessage);
     worker.on('error', onError);
     worker.on('exit', onExit);
+    const onAbort = () => {
+      const reason = options.signal?.reason;
+      settle(reason instanceof SpreadsheetError ? reason : new SpreadsheetError('too_complex', `${options.doing} was stopped`), false);
+    };
+    options.signal?.addEventListener('abort', onAbort);
     worker.postMessage(message, transfer);
   });
 }
@@ -202,7 +210,12 @@ export class WorkerPool {
       return { result: job.done.result as T, elapsedMs: performance.now() - started, workerHeapUsedBytes: job.done.heapUsedBytes };
     } finally {
       if (reusable) this.giveBack(slot);
-      else void slot.worker.terminate();
+      else {
+        void slot.worker.terminate();
+        // A worker ended by a limit is replaced at once: starting one takes seconds, which the next
+        // request would otherwise wait for.
+        if (this.keepWarm) this.warm();
+      }
       this.release();
       releaseOwner();
     }
