@@ -3,6 +3,7 @@
 import { Writable } from 'node:stream';
 import { parentPort } from 'node:worker_threads';
 import { computeWorkbook } from './engineValues.js';
+import { capComputedWorkbook, capValuesPayload } from './longTexts.js';
 import { computeValuesIsolated } from '../services/valuesIsolated.js';
 import { packSheets, unpackCells, unpackSheets, type PackedCells, type PackedExportWorkbook } from './packedCells.js';
 import { SpreadsheetError, type ImportLimits } from './limits.js';
@@ -45,7 +46,7 @@ async function run(job: IoJob): Promise<{ result: unknown; transfer?: ArrayBuffe
     case 'xlsx': {
       const started = performance.now();
       const workbook: ExportWorkbook = unpackSheets(job.workbook);
-      const computed = computeWorkbook(workbook.sheets.map((s) => ({ name: s.name, cells: s.cells })));
+      const computed = capComputedWorkbook(computeWorkbook(workbook.sheets.map((s) => ({ name: s.name, cells: s.cells }))));
       const computedAt = performance.now();
       const out = chunkPoster();
       await writeComputedXlsx(out, workbook, computed, { mode: job.mode });
@@ -53,7 +54,7 @@ async function run(job: IoJob): Promise<{ result: unknown; transfer?: ArrayBuffe
       return { result: { engineMs: computedAt - started, writeMs: performance.now() - computedAt } };
     }
     case 'values': {
-      const payload = computeValuesIsolated({ revision: job.revision, sheets: job.sheets.map((s) => ({ id: s.id, name: s.name, cells: unpackCells(s.packed) })) });
+      const payload = capValuesPayload(computeValuesIsolated({ revision: job.revision, sheets: job.sheets.map((s) => ({ id: s.id, name: s.name, cells: unpackCells(s.packed) })) }));
       const json = JSON.stringify(payload);
       // Bytes are at most three per UTF-16 unit; checked on the text, before encoding it.
       if (json.length > maxValuesChars) {
@@ -65,7 +66,7 @@ async function run(job: IoJob): Promise<{ result: unknown; transfer?: ArrayBuffe
     case 'csv': {
       const started = performance.now();
       const workbook: ExportWorkbook = unpackSheets(job.workbook);
-      const computed = computeWorkbook(workbook.sheets.map((s) => ({ name: s.name, cells: s.cells })));
+      const computed = capComputedWorkbook(computeWorkbook(workbook.sheets.map((s) => ({ name: s.name, cells: s.cells }))));
       const computedAt = performance.now();
       await writeSheetCsv(chunkPoster(), computed.sheets[job.sheetIndex].cells);
       return { result: { engineMs: computedAt - started, writeMs: performance.now() - computedAt } };
