@@ -44,7 +44,7 @@ describe('counting a CSV from its bytes', () => {
     const run = vi.spyOn(ioPool, 'run');
     const e = await refusal(parseInWorker(bytes, 'tiny-cells.csv'));
     expect([e.status, e.code]).toEqual([413, 'too_many_cells']);
-    expect(e.message).toBe(`the file has 10,400,000 cells with content; the limit is ${defaultImportLimits.maxCells.toLocaleString('en')}`);
+    expect(e.message).toMatch(/^the file has more than [\d,]+ cells with content; the limit is 500,000$/);
     expect(run).not.toHaveBeenCalled();
     run.mockRestore();
   });

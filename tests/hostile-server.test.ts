@@ -62,11 +62,12 @@ async function get(route: string) {
 }
 
 /** An answer for a workbook with bad cells: each one an error, or the whole a clear 503 naming the limit. */
-function expectErrorsOrClearRefusal(res: { status: number; body: any }, bad: [number, number][]) {
+function expectErrorsOrClearRefusal(res: { status: number; body: any }, bad: [number, number][], orValue?: number) {
   if (res.status === 200) {
     const values = res.body.sheets[0].values as [number, number, unknown][];
     for (const [r, c] of bad) {
       const v = values.find(([row, col]) => row === r && col === c)?.[2] as { error?: string; message?: string } | undefined;
+      if (orValue !== undefined && (v as unknown) === orValue) continue;
       expect(v?.error, `cell ${r},${c}`).toMatch(/^#/);
       expect(v?.message).toBeTruthy();
     }
@@ -77,12 +78,13 @@ function expectErrorsOrClearRefusal(res: { status: number; body: any }, bad: [nu
   }
 }
 
-const hostile: { name: string; cells: { row: number; col: number; input: string }[] }[] = [
+const hostile: { name: string; cells: { row: number; col: number; input: string }[]; orValue?: number }[] = [
   { name: 'a two-billion-cell spill', cells: [{ row: 0, col: 0, input: '=SEQUENCE(1000000,2000)' }] },
   { name: 'ten 400-million-character texts', cells: Array.from({ length: 10 }, (_, i) => ({ row: i, col: 0, input: '=REPT("ab",200000000)' })) },
   { name: 'a sum over two thousand million-row columns', cells: [{ row: 0, col: 0, input: '=SUM(A2:BXX1000000)' }] },
   { name: 'a sum over ten million cells', cells: [{ row: 0, col: 0, input: '=SUM(B1:CW100000)' }] },
-  { name: 'a formula of 1,250 operands', cells: [{ row: 0, col: 0, input: `=${Array.from({ length: 1_250 }, () => '1').join('+')}` }] },
+  // Either its sum or its own cell error (the engine's parser may or may not hold it).
+  { name: 'a formula of 1,250 operands', cells: [{ row: 0, col: 0, input: `=${Array.from({ length: 1_250 }, () => '1').join('+')}` }], orValue: 1_250 },
 ];
 
 describe('hostile formulas against the running server', () => {
@@ -92,7 +94,7 @@ describe('hostile formulas against the running server', () => {
       const { result, slowestHealthMs } = await whilePolling(get(`/api/workbooks/${id}/values`));
       expect(slowestHealthMs).toBeLessThan(1_000);
       expect(result.status).not.toBe(500);
-      expectErrorsOrClearRefusal(result, h.cells.map((c) => [c.row, c.col]));
+      expectErrorsOrClearRefusal(result, h.cells.map((c) => [c.row, c.col]), h.orValue);
       if (result.status === 200) expect(result.body.sheets[0].values).toContainEqual([20, 1, 42]);
 
       expect((await client.get(`/api/workbooks/${id}`)).status).toBe(200);

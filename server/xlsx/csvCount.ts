@@ -35,35 +35,32 @@ const CR = 0x0d;
 const LF = 0x0a;
 
 export interface CsvShape {
-  /** Fields with content: what the reader would keep as cells. */
+  /** Fields with content: what the reader would keep as cells (exact unless `stopped`). */
   cells: number;
+  /** The count passed `stopAfterCells` and the scan stopped there. */
+  stopped: boolean;
   widestRow: { row: number; fields: number };
 }
 
-export function csvShape(bytes: Uint8Array, delimiter: string): CsvShape {
+/**
+ * One pass over the bytes with no call per field; it stops once the count passes `stopAfterCells`,
+ * since the answer is known by then.
+ */
+export function csvShape(bytes: Uint8Array, delimiter: string, stopAfterCells = Infinity): CsvShape {
   const delim = delimiter.charCodeAt(0);
   let cells = 0;
   let fields = 0; // in the current row, counting empty ones (they still move later fields right)
   let row = 0;
-  let widest = { row: 0, fields: 0 };
+  let widestRow = 0;
+  let widestFields = 0;
   let quoted = false;
   let content = 0; // bytes of the current field other than its enclosing quotes
   let quotes = 0;
-  const endField = () => {
-    // "" alone is empty; """" is one quote character.
-    if (content > 0 || quotes >= 4) cells++;
-    fields++;
-    content = 0;
-    quotes = 0;
-  };
-  const endRow = () => {
-    if (fields > widest.fields) widest = { row, fields };
-    fields = 0;
-    row++;
-  };
   let lineHasAny = false;
+  let stopped = false;
+  const n = bytes.length;
   const bom = bytes[0] === 0xef && bytes[1] === 0xbb && bytes[2] === 0xbf ? 3 : 0;
-  for (let i = bom; i < bytes.length; i++) {
+  for (let i = bom; i < n; i++) {
     const b = bytes[i];
     if (b === QUOTE) {
       quoted = !quoted;
@@ -71,30 +68,54 @@ export function csvShape(bytes: Uint8Array, delimiter: string): CsvShape {
       lineHasAny = true;
     } else if (quoted) content++;
     else if (b === delim) {
-      endField();
+      // A field of two quotes alone is empty; four quotes are one quote character.
+      if (content > 0 || quotes >= 4) cells++;
+      fields++;
+      content = 0;
+      quotes = 0;
       lineHasAny = true;
     } else if (b === LF || b === CR) {
+      if (lineHasAny || content > 0) {
+        if (content > 0 || quotes >= 4) cells++;
+        fields++;
+        content = 0;
+        quotes = 0;
+      }
       if (b === CR && bytes[i + 1] === LF) i++;
-      if (lineHasAny || content > 0) endField();
-      endRow();
+      if (fields > widestFields) {
+        widestFields = fields;
+        widestRow = row;
+      }
+      fields = 0;
+      row++;
       lineHasAny = false;
+      if (cells > stopAfterCells) {
+        stopped = true;
+        break;
+      }
     } else {
       content++;
       lineHasAny = true;
     }
   }
-  if (lineHasAny || content > 0) {
-    endField();
-    endRow();
+  if (!stopped && (lineHasAny || content > 0)) {
+    if (content > 0 || quotes >= 4) cells++;
+    fields++;
+    if (fields > widestFields) {
+      widestFields = fields;
+      widestRow = row;
+    }
   }
-  return { cells, widestRow: widest };
+  return { cells, stopped, widestRow: { row: widestRow, fields: widestFields } };
 }
 
 /** Refuses a CSV with more cells than the limit or a row wider than the reader holds, naming both. */
 export function checkCsvShape(bytes: Uint8Array, delimiter: string, limits: ImportLimits, gridColumns: number): void {
-  const shape = csvShape(bytes, delimiter);
+  // Counting stops at twice the limit: the refusal is certain by then, and a 20 MB file of tiny
+  // cells is not read to its end on the server's main thread.
+  const shape = csvShape(bytes, delimiter, 2 * limits.maxCells);
   if (shape.cells > limits.maxCells) {
-    throw new SpreadsheetError('too_many_cells', `the file has ${shape.cells.toLocaleString('en')} cells with content; the limit is ${limits.maxCells.toLocaleString('en')}`);
+    throw new SpreadsheetError('too_many_cells', `the file has ${shape.stopped ? 'more than ' : ''}${shape.cells.toLocaleString('en')} cells with content; the limit is ${limits.maxCells.toLocaleString('en')}`);
   }
   if (shape.widestRow.fields > maxCsvFieldsPerRow) {
     throw new SpreadsheetError(
