@@ -12,6 +12,7 @@ const FAMILY_INTRO: Record<Family, string> = {
   Diatomic: 'Valence MO analysis of a diatomic species written as text (`O2`, `NO+`, `CN-`): configuration, bond order, unpaired electrons, magnetism, ground term.',
   LCAO: 'Two-centre LCAO: overlap of 1s orbitals, the H2+ potential curve, the 2×2 secular problem and HOMO–LUMO gaps. Atomic units (bohr, hartree) unless a unit argument says otherwise.',
   Hückel: 'Hückel π-electron theory for conjugated systems.',
+  'Extended Hückel': 'All-valence-electron extended-Hückel theory (Hoffmann 1963) from a 3D structure: SMILES (a generated conformer), XYZ text or a molfile. Energies in eV; a qualitative, non-self-consistent model. Method, parameters and limits: docs/eht.md.',
   Units: 'Conversions with CODATA 2018 constants, and bond-length relations.',
 };
 

@@ -75,6 +75,8 @@ function spillArgs(ast: any): SpillArg[] {
         return { kind: 'literal', value: a.value };
       case 'STRING':
         return { kind: 'literal', value: a.value };
+      case 'EMPTY':
+        return { kind: 'empty' };
       case 'CELL_RANGE':
       case 'COLUMN_RANGE':
       case 'ROW_RANGE':

@@ -1,3 +1,4 @@
+import { maxBodyBytes } from '../shared/workbooks.js';
 import fs from 'node:fs';
 import path from 'node:path';
 import express, { type Express } from 'express';
@@ -38,7 +39,7 @@ export function createApp({ db, config }: CreateAppOptions): { app: Express; ctx
   app.locals.storageHealth = storage;
 
   const api = express.Router();
-  api.use(express.json({ limit: '2mb' }));
+  api.use(express.json({ limit: maxBodyBytes }));
   api.use(checkOrigin(config.origin));
   api.use(loadSession(ctx.lucia));
 

@@ -56,7 +56,27 @@ export function canAny(roles: readonly AccessRole[], action: WorkbookAction): bo
   return roles.some((r) => can(r, action));
 }
 
+/**
+ * Everything a user may do with all their roles together: what the server decides with, sent to the
+ * client so that it shows exactly the controls the server will accept.
+ */
+export function allowedActions(roles: readonly AccessRole[]): WorkbookAction[] {
+  return (Object.keys(workbookActions) as WorkbookAction[]).filter((action) => canAny(roles, action));
+}
+
+/** Whether a list of allowed actions (from the server) includes this one. */
+export function allows(actions: readonly WorkbookAction[] | undefined, action: WorkbookAction): boolean {
+  return actions?.includes(action) ?? false;
+}
+
+/** Each role in words, the one place they are written: as a label, and as a sentence says it. */
+export const roleLabels: Record<AccessRole, string> = { owner: 'Owner', editor: 'Editor', viewer: 'Viewer', 'site-admin': 'Site admin' };
 const roleNames: Record<AccessRole, string> = { owner: 'an owner', editor: 'an editor', viewer: 'a viewer', 'site-admin': 'a site admin' };
+
+/** "an editor"; a role this version does not know (an old audit entry) is named as recorded. */
+export function roleInSentence(role: unknown): string {
+  return typeof role === 'string' && role in roleNames ? roleNames[role as AccessRole] : `a ${typeof role === 'string' && role ? role : '?'}`;
+}
 
 /** The reason a 403 gives: "as a viewer you cannot edit cells". */
 export function refusalReason(role: AccessRole, action: WorkbookAction): string {

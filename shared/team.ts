@@ -4,7 +4,7 @@
 import { z } from 'zod';
 import { emailSchema } from './auth.js';
 import { boundsContain, formatCellRange, parseCellRange, type CellBounds } from './cellRange.js';
-import { workbookRoles, type AccessRole, type WorkbookRole } from './permissions.js';
+import { workbookRoles, type AccessRole, type WorkbookAction, type WorkbookRole } from './permissions.js';
 import { idSchema, maxColIndex, maxRowIndex, type RevisionKind, type SheetPayload, type WorkbookSummary } from './workbooks.js';
 
 // ---- requests ----
@@ -220,12 +220,12 @@ export interface PresenceUser {
 /** The `data:` JSON of each named event. Revision events carry `id: <revision>` for Last-Event-ID. */
 export interface LiveEvents {
   /** First event on every connection. */
-  ready: { revision: number; role: AccessRole };
+  ready: { revision: number; role: AccessRole; actions: WorkbookAction[] };
   revision: { revision: number; kind: RevisionKind; authorId: string; changes: { sheetId: string; row: number; col: number; before: string; after: string }[]; sheetOps: unknown[]; restoredFrom?: number };
   presence: { users: PresenceUser[] };
   protection: Protection;
   /** The caller's role changed (the stream stays open). */
-  role: { role: AccessRole };
+  role: { role: AccessRole; actions: WorkbookAction[] };
   renamed: { title: string };
   /** More revisions were missed than the server replays: load the workbook again. */
   reload: { revision: number };

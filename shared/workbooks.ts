@@ -1,7 +1,7 @@
 // Workbooks, sheets, patches and revisions: the request bodies the server validates (and the client
-// reuses) and the payloads the API returns. Paths are in ARCHITECTURE.md.
+// reuses) and the payloads the API returns. The routes that take and give them are in server/routes/.
 import { z } from 'zod';
-import type { AccessRole } from './permissions.js';
+import type { AccessRole, WorkbookAction } from './permissions.js';
 import type { ProtectedRange, SheetLock, TeamEvent } from './team.js';
 import { cellInputProblem } from './cellInput.js';
 
@@ -39,6 +39,7 @@ export const sheetNameSchema = z
   .max(maxSheetNameLength, `at most ${maxSheetNameLength} characters`)
   .refine((s) => !/[[\]*?/\\:]/.test(s), 'may not contain any of [ ] * ? / \\ :')
   .refine((s) => !s.startsWith("'") && !s.endsWith("'"), 'may not begin or end with an apostrophe')
+  // eslint-disable-next-line no-control-regex -- control characters are exactly what this refuses
   .refine((s) => !/[\u0000-\u001f\u007f]/.test(s), 'may not contain control characters');
 
 export const sheetSettingsSchema = z
@@ -129,6 +130,8 @@ export interface WorkbookSummary {
   title: string;
   revision: number;
   role: AccessRole;
+  /** What the user may do with all their roles together (shared/permissions.ts allowedActions). */
+  actions: WorkbookAction[];
   owner: { id: string; name: string };
   createdAt: number;
   updatedAt: number;
@@ -140,6 +143,8 @@ export interface WorkbookPayload {
   title: string;
   revision: number;
   role: AccessRole;
+  /** What the user may do with all their roles together (shared/permissions.ts allowedActions). */
+  actions: WorkbookAction[];
   sheets: SheetPayload[];
   /** Sheet locks and protected ranges (shared/team.ts); the server always sends both lists. */
   locks?: SheetLock[];

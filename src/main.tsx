@@ -11,6 +11,7 @@ import { RouterProvider } from 'react-router/dom';
 import { queryClient } from './app/queryClient.js';
 import { router } from './app/router.js';
 import { watchTheme } from './app/theme/theme.js';
+import './lib/openchemlibBrowser.js';
 
 watchTheme();
 

@@ -263,12 +263,17 @@ describe('the workbook grid in a browser', () => {
   });
 
   it('freezes the header row, shows numbers to a chosen precision and keeps both after a reload', async () => {
+    // Display settings are saved after a short pause: wait for the save that carries both choices.
+    const saved = page.waitForResponse((r) => {
+      const body = r.request().postData() ?? '';
+      return r.request().method() === 'PATCH' && /\/sheets\/[^/]+$/.test(r.url()) && body.includes('"freezeHeaderRow":true') && body.includes('"precision":2');
+    });
     await page.getByRole('button', { name: 'Freeze row 1' }).click();
     await page.getByLabel('Decimal places').selectOption('2');
     await expectCell('B2', '3.00');
     await expect.poll(() => page.locator('.orb-col-header[data-col="A"] .orb-col-frozen').textContent()).toBe('O2');
     await screenshot(page, 'grid-frozen-precision');
-    await page.waitForTimeout(800); // display settings are saved after a short pause
+    expect((await saved).status()).toBe(200);
     await reloadWorkbook();
     await expectCell('B2', '3.00');
     await page.getByLabel('Decimal places').selectOption('auto');
@@ -330,6 +335,25 @@ describe('the workbook grid in a browser', () => {
     await page.evaluate(() => localStorage.removeItem('orbitab.theme'));
     await reloadWorkbook();
     await clickCell('B3');
+    expect(await page.evaluate(() => document.documentElement.dataset.theme)).toBe('dark');
+    // The grid's cells are painted dark with light text (relative luminance, WCAG 2.x formula).
+    const luminance = (css: string) => {
+      const [r, g, b] = css.match(/[\d.]+/g)!.slice(0, 3).map((v) => Number(v) / 255).map((c) => (c <= 0.03928 ? c / 12.92 : ((c + 0.055) / 1.055) ** 2.4));
+      return 0.2126 * r + 0.7152 * g + 0.0722 * b;
+    };
+    const colours = await page.evaluate(() => {
+      const cellText = [...document.querySelectorAll('[data-testid="sheet-grid"] .orb-cell')].find((e) => (e.textContent ?? '').trim() !== '');
+      let el: Element | null = cellText ?? null;
+      let bg = 'rgba(0, 0, 0, 0)';
+      const text = el ? getComputedStyle(el).color : '';
+      while (el && /rgba\(0, 0, 0, 0\)|transparent/.test(bg)) {
+        bg = getComputedStyle(el).backgroundColor;
+        el = el.parentElement;
+      }
+      return { bg, text };
+    });
+    expect(luminance(colours.bg), JSON.stringify(colours)).toBeLessThan(0.1);
+    expect(luminance(colours.text), JSON.stringify(colours)).toBeGreaterThan(0.4);
     await screenshot(page, 'grid-dark');
     await page.emulateMedia({ colorScheme: 'light' });
   });

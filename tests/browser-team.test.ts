@@ -197,7 +197,7 @@ describe('two people on one workbook', () => {
     await b.getByRole('status', { name: 'Sheet protection' }).getByText(/Locked by Ada Okafor on .*: “Reference values checked against the tables”/).waitFor();
     // The tab carries the lock too, with the banner's summary (who, when, why) on hover.
     const lockedTab = b.getByRole('tab', { name: 'Sheet1 (locked)' });
-    expect(await lockedTab.getAttribute('title')).toMatch(/^Locked by Ada Okafor on .*: “Reference values checked against the tables”\. Only Ada Okafor may change it\./);
+    expect(await lockedTab.getAttribute('title')).toMatch(/^Locked by Ada Okafor on .*: “Reference values checked against the tables”\. Only Ada Okafor may change it; it is read-only for you\./);
     expect(await cell(b, 'E9').getAttribute('class')).toContain('dsg-cell-disabled');
     await typeInto(b, 'E9', 'CN-');
     expect(await cell(b, 'E9').textContent()).toBe('');

@@ -44,12 +44,15 @@ describe('symmetric eigenvalues: ml-matrix against mathjs', () => {
     const m = randomSymmetric(n, next);
     const ours = solveSymmetric(m, 'ascending').values;
     const theirs = mathjsValues(m);
+    expect(ours).toHaveLength(n);
     ours.forEach((x, k) => expect(Math.abs(x - theirs[k])).toBeLessThan(1e-9));
   });
 
   it('returns orthonormal eigenvectors that satisfy Hc = xc', () => {
     const m = randomSymmetric(12, random(7));
     const { values, vectors } = solveSymmetric(m, 'descending');
+    expect(values).toHaveLength(12);
+    expect(vectors.map((v) => v.length)).toEqual(new Array(12).fill(12));
     for (let k = 0; k < values.length; k++) {
       const hc = multiply(m, vectors[k]) as number[];
       hc.forEach((v, i) => expect(Math.abs(v - values[k] * vectors[k][i])).toBeLessThan(1e-10));
@@ -69,6 +72,8 @@ describe('generalized problem det(H − ES) = 0 by Löwdin orthogonalization', (
     const s = randomOverlap(n, next);
     const { values, vectors } = solveSecular(h, s, 'ascending');
     const theirs = mathjsValues(multiply(inv(s), h) as number[][]);
+    expect(values).toHaveLength(n);
+    expect(vectors.map((v) => v.length)).toEqual(new Array(n).fill(n));
     values.forEach((e, k) => expect(Math.abs(e - theirs[k])).toBeLessThan(1e-8));
     vectors.forEach((c, k) => {
       const hc = multiply(h, c) as number[];

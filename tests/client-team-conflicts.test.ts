@@ -3,8 +3,8 @@
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import type { AuditEntry } from '../shared/team.js';
 import type { CellConflict } from '../shared/workbooks.js';
-import type { PatchTransport } from '../src/features/grid/save/patchQueue.js';
-import type { CellInput } from '../src/features/grid/save/pendingStore.js';
+import type { PatchTransport } from '../src/core/workbook/save/patchQueue.js';
+import type { CellInput } from '../src/core/workbook/save/pendingStore.js';
 import { ApiError } from '../src/lib/api.js';
 import { resolveConflicts } from '../src/features/live/conflictResolution.js';
 import { settleConflicts } from '../src/features/live/settleConflicts.js';

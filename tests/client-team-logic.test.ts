@@ -4,8 +4,8 @@
 // log's words are in client-team-conflicts.test.ts.
 import { beforeEach, describe, expect, it, vi } from 'vitest';
 import type { Protection, ProtectedRange, SheetLock } from '../shared/team.js';
-import type { WorkbookModel } from '../src/features/grid/model/workbookModel.js';
-import { blockReason, editRuleFor, isCellEditable } from '../src/features/locks/editability.js';
+import type { WorkbookModel } from '../src/core/workbook/model/workbookModel.js';
+import { blockReason, editRuleFor, isCellEditable } from '../src/core/team/editability.js';
 import { applyRemoteRevision, planCellChanges, type RemoteRevision } from '../src/features/live/remoteRevision.js';
 import { RevisionFeed } from '../src/features/live/revisionFeed.js';
 import { LatestThrottle, type ThrottleClock } from '../src/features/live/presenceThrottle.js';

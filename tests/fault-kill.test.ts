@@ -135,6 +135,7 @@ describe('a server that is killed, restarted and then stopped while patches stre
     const body = JSON.stringify({ baseRevision: before, changes: [{ sheetId, row: 500, col: 0, input: '=UNPAIRED("NO")' }] });
     const half = Math.floor(body.length / 2);
     let inFlightRequest: http.ClientRequest | undefined;
+    let halfFlushed = false;
     const inFlight = new Promise<{ status: number; body: string }>((resolve, reject) => {
       const req = http.request(`${server.url}/api/workbooks/${workbookId}/patches`, {
         method: 'POST',
@@ -146,19 +147,26 @@ describe('a server that is killed, restarted and then stopped while patches stre
         res.on('data', (c: Buffer) => (text += c.toString())).on('end', () => resolve({ status: res.statusCode!, body: text }));
       });
       req.on('error', reject);
-      req.write(body.slice(0, half));
+      req.write(body.slice(0, half), () => (halfFlushed = true));
       inFlightRequest = req;
     });
 
     const afterRestart: SentPatch[] = [];
     const stream = streamPatches(client, workbookId, sheetId, 2, afterRestart, 1000);
-    await until(() => stream.acknowledged() >= 10, '10 acknowledged patches');
-    await new Promise((r) => setTimeout(r, 100)); // the half request's headers have reached the server
+    await until(() => stream.acknowledged() >= 10 && halfFlushed, '10 acknowledged patches and the half request sent');
+    // A patch sent after the half request's bytes left this process has been answered: the server
+    // has accepted the half request's connection by then.
+    const ackedAfterHalf = stream.acknowledged();
+    await until(() => stream.acknowledged() >= ackedAfterHalf + 2, 'two more acknowledged patches');
     server.child.kill('SIGTERM');
-    await new Promise((r) => setTimeout(r, 300));
 
-    // Stopped taking requests: a new connection is refused.
-    await expect(fetch(`${server.url}/api/health`)).rejects.toThrow();
+    // Stopped taking requests: a new connection is refused (soon after the signal).
+    let refused = false;
+    for (const started = Date.now(); !refused && Date.now() - started < 10_000; ) {
+      refused = await fetch(`${server.url}/api/health`).then(() => false, () => true);
+      if (!refused) await new Promise((r) => setImmediate(r));
+    }
+    expect(refused).toBe(true);
     stream.stop();
     inFlightRequest!.end(body.slice(half));
     const finished = await inFlight;

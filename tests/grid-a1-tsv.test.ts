@@ -1,7 +1,7 @@
 // A1 naming and clipboard text, the two formats the grid shares with other spreadsheet programs.
 import { describe, expect, it } from 'vitest';
-import { cellName, columnIndex, columnName, parseCellName, parseRangeName, rangeName, sheetReference } from '../src/features/grid/model/a1.js';
-import { formatTsv, parseTsv } from '../src/features/grid/model/tsv.js';
+import { cellName, columnIndex, columnName, parseCellName, parseRangeName, rangeName, sheetReference } from '../src/core/workbook/model/a1.js';
+import { formatTsv, parseTsv } from '../src/core/workbook/model/tsv.js';
 
 describe('A1 column letters (common practice: A…Z, then AA…ZZ, then AAA)', () => {
   it('names the first, last single-letter and first two-letter columns', () => {

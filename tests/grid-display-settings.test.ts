@@ -3,7 +3,7 @@
 // ranges, which the export writes back into the file) must come back out of the grid unchanged.
 import { describe, expect, it } from 'vitest';
 import { fileLayoutOf, settingsFromParsed } from '../server/xlsx/sheetSettings.js';
-import { readDisplaySettings, writeDisplaySettings } from '../src/features/grid/model/displaySettings.js';
+import { readDisplaySettings, writeDisplaySettings } from '../src/core/workbook/model/displaySettings.js';
 
 /** Settings exactly as an .xlsx import stores them: two frozen rows, one frozen column, a merged title. */
 const imported = settingsFromParsed({ name: 'Ions', cells: [], columnWidths: { 0: 20 }, frozenRows: 2, frozenCols: 1, merged: ['A1:C1'] }, []);

@@ -2,15 +2,16 @@
 // me: refused in the grid with the lock's own reason, the engine and every sheet left exactly as they
 // were, and nothing handed to the save queue. The server refuses such patches as a whole (403), so a
 // change shown here first would only be lost later.
+import { allowedActions } from '../shared/permissions.js';
 import { beforeEach, describe, expect, it } from 'vitest';
 import { parseCellRange } from '../shared/cellRange.js';
 import type { Protection, ProtectedRange, SheetLock } from '../shared/team.js';
 import type { WorkbookPayload } from '../shared/workbooks.js';
-import { applyStructural, StructureError, undoLast } from '../src/features/grid/model/structure.js';
-import { fillDown, pasteBlock, sortRange } from '../src/features/grid/model/rangeEdits.js';
-import { WorkbookModel } from '../src/features/grid/model/workbookModel.js';
-import type { CellInput } from '../src/features/grid/save/pendingStore.js';
-import { editRuleFor, structureRuleFor } from '../src/features/locks/editability.js';
+import { applyStructural, StructureError, undoLast } from '../src/core/workbook/model/structure.js';
+import { fillDown, pasteBlock, sortRange } from '../src/core/workbook/model/rangeEdits.js';
+import { WorkbookModel } from '../src/core/workbook/model/workbookModel.js';
+import type { CellInput } from '../src/core/workbook/save/pendingStore.js';
+import { editRuleFor, structureRuleFor } from '../src/core/team/editability.js';
 
 const ada = { id: 'u-ada', name: 'Ada Okafor' };
 const cy = { id: 'u-cy', name: 'Cy Moreau' };
@@ -24,6 +25,7 @@ const payload: WorkbookPayload = {
   title: 'Screening',
   revision: 4,
   role: 'editor',
+  actions: allowedActions(['editor']),
   sheets: [
     { id: 's1', name: 'Sheet1', position: 0, settings: {}, cells: [[0, 0, 'Species'], [0, 1, 'Bond order'], [1, 0, 'N2'], [1, 1, '=BONDORDER(A2)'], [2, 0, 'O2'], [2, 1, '=BONDORDER(A3)'], [3, 0, 'F2'], [3, 1, '=BONDORDER(A4)']] },
     { id: 's2', name: 'Summary', position: 1, settings: {}, cells: [[0, 0, '=Sheet1!B3*10']] },
@@ -50,9 +52,8 @@ const refusal = (action: () => unknown) => {
 };
 
 beforeEach(() => {
-  m = new WorkbookModel(payload);
   sent = [];
-  m.onLocalChanges = (c) => sent.push(c);
+  m = new WorkbookModel(payload, { onLocalChanges: (c) => sent.push(c) });
 });
 
 function expectUntouched() {

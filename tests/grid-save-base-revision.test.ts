@@ -3,9 +3,9 @@
 // my next edit would overwrite a colleague's input I never saw. The same scenario end to end, on a
 // real server, is in client-team-conflicts.test.ts.
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
-import { PatchQueue, type PatchTransport } from '../src/features/grid/save/patchQueue.js';
-import { PendingStore, type CellInput } from '../src/features/grid/save/pendingStore.js';
-import { RevisionLedger } from '../src/features/grid/save/revisionLedger.js';
+import { PatchQueue, type PatchTransport } from '../src/core/workbook/save/patchQueue.js';
+import { PendingStore, type CellInput } from '../src/core/workbook/save/pendingStore.js';
+import { RevisionLedger } from '../src/core/workbook/save/revisionLedger.js';
 import { ApiError } from '../src/lib/api.js';
 import { cell, MemoryStorage, scriptedServer, settle } from './helpers/scriptedServer.js';
 
@@ -16,7 +16,7 @@ beforeEach(() => {
 });
 afterEach(() => vi.useRealTimers());
 
-const newQueue = (transport: PatchTransport, base = 7) => ({ q: new PatchQueue({ transport, store, baseRevision: base, debounceMs: 300, firstRetryMs: 1000, maxRetryMs: 8000 }) });
+const newQueue = (transport: PatchTransport, base = 7, showRemote?: (inputs: CellInput[]) => void) => ({ q: new PatchQueue({ transport, store, baseRevision: base, debounceMs: 300, firstRetryMs: 1000, maxRetryMs: 8000, showRemote }) });
 
 describe('the base revision a patch claims (no silent overwrite of a colleague)', () => {
   it('does not jump to an acknowledged revision past a colleague’s revision not yet seen here', async () => {
@@ -88,9 +88,8 @@ describe('the base revision a patch claims (no silent overwrite of a colleague)'
     const server = scriptedServer();
     let release!: () => void;
     server.answers.push(() => new Promise((resolve) => (release = () => resolve({ revision: 8, applied: 1 }))));
-    const { q } = newQueue(server.transport);
     const shown: CellInput[] = [];
-    q.showRemote = (inputs) => shown.push(...inputs);
+    const { q } = newQueue(server.transport, 7, (inputs) => shown.push(...inputs));
     q.enqueue([cell(0, 0, 'O2')]);
     await vi.advanceTimersByTimeAsync(300);
     // The live feed brings my revision 8, then a colleague's 9 that changed A1 again on top of it.

@@ -2,8 +2,8 @@
 // is unreachable, kept in (fake) local storage until acknowledged, and conflicts reported as such.
 // Which base revision each patch claims is specified in grid-save-base-revision.test.ts.
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
-import { PatchQueue, type PatchTransport, type SaveStatus } from '../src/features/grid/save/patchQueue.js';
-import { PendingStore, pendingKey } from '../src/features/grid/save/pendingStore.js';
+import { PatchQueue, type PatchTransport, type SaveStatus } from '../src/core/workbook/save/patchQueue.js';
+import { PendingStore, pendingKey } from '../src/core/workbook/save/pendingStore.js';
 import { ApiError } from '../src/lib/api.js';
 import { cell, MemoryStorage, scriptedServer, settle } from './helpers/scriptedServer.js';
 

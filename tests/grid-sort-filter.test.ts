@@ -1,7 +1,7 @@
 // Sorting and filtering rules, and number display (desktop-spreadsheet conventions, common practice).
 import { describe, expect, it } from 'vitest';
-import { distinctValues, filterRows, matchesFilter, sortPermutation, type SortValue } from '../src/features/grid/model/sortFilter.js';
-import { formatNumber } from '../src/features/grid/model/cellView.js';
+import { distinctValues, filterRows, matchesFilter, sortPermutation, type SortValue } from '../src/core/workbook/model/sortFilter.js';
+import { formatNumber } from '../src/core/workbook/model/cellView.js';
 
 describe('sorting a block by one column', () => {
   it('orders numbers by value, ascending and descending', () => {
@@ -62,15 +62,17 @@ describe('filtering rows by a column value', () => {
 });
 
 describe('number display', () => {
-  it('shows whole numbers as they are and others to ten significant digits in the automatic format', () => {
+  it('shows whole numbers as they are and others to six significant digits in the automatic format', () => {
     expect(formatNumber(-1e-16, 3)).toBe('0.000');
     expect(formatNumber(-0, 2)).toBe('0.00');
     expect(formatNumber(-0.0004, 3)).toBe('0.000');
     expect(formatNumber(-0.0006, 3)).toBe('-0.001');
     expect(formatNumber(2, null)).toBe('2');
     expect(formatNumber(2.5, null)).toBe('2.5');
-    expect(formatNumber(1 / 3, null)).toBe('0.3333333333');
-    expect(formatNumber(Math.sqrt(8), null)).toBe('2.828427125');
+    expect(formatNumber(1 / 3, null)).toBe('0.333333');
+    expect(formatNumber(Math.sqrt(8), null)).toBe('2.82843');
+    expect(formatNumber(123456.789, null)).toBe('123457');
+    expect(formatNumber(1234567.5, null)).toBe('1.23457E+6');
   });
 
   it('switches to scientific notation for very large and very small magnitudes', () => {

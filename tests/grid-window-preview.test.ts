@@ -1,9 +1,10 @@
 // The first-screenful preview of a large sheet must show exactly what the full engine computes, and
 // must not be used when a formula in the window could depend on anything outside it.
+import { allowedActions } from '../shared/permissions.js';
 import { describe, expect, it } from 'vitest';
 import type { CellEntry, WorkbookPayload } from '../shared/workbooks.js';
-import { buildPreview, previewThresholdCells } from '../src/features/grid/model/windowPreview.js';
-import { WorkbookModel } from '../src/features/grid/model/workbookModel.js';
+import { buildPreview, previewThresholdCells } from '../src/core/workbook/model/windowPreview.js';
+import { WorkbookModel } from '../src/core/workbook/model/workbookModel.js';
 
 const SPECIES = ['O2', 'N2', 'CO', 'NO+', 'Xq2', 'OH'];
 
@@ -19,7 +20,7 @@ function screeningCells(rows: number): CellEntry[] {
 function payload(cells: CellEntry[], extraSheet = false): WorkbookPayload {
   const sheets = [{ id: 's1', name: 'Screen', position: 0, settings: {}, cells }];
   if (extraSheet) sheets.push({ id: 's2', name: 'Limits', position: 1, settings: {}, cells: [[0, 0, '2.5']] });
-  return { id: 'wb', title: 'Large screen', revision: 1, role: 'owner', sheets };
+  return { id: 'wb', title: 'Large screen', revision: 1, role: 'owner', actions: allowedActions(['owner']), sheets };
 }
 
 const large = screeningCells(previewThresholdCells / 10 + 10);

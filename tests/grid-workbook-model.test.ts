@@ -1,12 +1,13 @@
 // The browser's workbook model, run in Node with the real engine and cell functions: what an edit
 // computes, what it sends to the server, and how fill, sort, paste, row/column changes and undo
 // keep formulas pointing at the right cells.
+import { allowedActions } from '../shared/permissions.js';
 import { beforeEach, describe, expect, it, vi } from 'vitest';
 import type { WorkbookPayload } from '../shared/workbooks.js';
-import { WorkbookModel } from '../src/features/grid/model/workbookModel.js';
-import { applyStructural, redoLast, undoLast } from '../src/features/grid/model/structure.js';
-import { fillDown, fillRight, pasteBlock, pasteCopiedCells, sortRange } from '../src/features/grid/model/rangeEdits.js';
-import type { CellInput } from '../src/features/grid/save/pendingStore.js';
+import { WorkbookModel } from '../src/core/workbook/model/workbookModel.js';
+import { applyStructural, redoLast, undoLast } from '../src/core/workbook/model/structure.js';
+import { fillDown, fillRight, pasteBlock, pasteCopiedCells, sortRange } from '../src/core/workbook/model/rangeEdits.js';
+import type { CellInput } from '../src/core/workbook/save/pendingStore.js';
 
 function payload(cells: [number, number, string][], other: [number, number, string][] = [], role: WorkbookPayload['role'] = 'owner'): WorkbookPayload {
   return {
@@ -14,6 +15,7 @@ function payload(cells: [number, number, string][], other: [number, number, stri
     title: 'Screening',
     revision: 4,
     role,
+    actions: allowedActions([role]),
     sheets: [
       { id: 's1', name: 'Sheet1', position: 0, settings: {}, cells },
       { id: 's2', name: 'Summary sheet', position: 1, settings: {}, cells: other },
@@ -23,9 +25,8 @@ function payload(cells: [number, number, string][], other: [number, number, stri
 
 let sent: CellInput[][];
 function open(p: WorkbookPayload) {
-  const m = new WorkbookModel(p);
   sent = [];
-  m.onLocalChanges = (c) => sent.push(c);
+  const m = new WorkbookModel(p, { onLocalChanges: (c) => sent.push(c) });
   return m;
 }
 const rowsFrom = (first: number, count: number) => Array.from({ length: count }, (_, i) => first + i);

@@ -129,7 +129,7 @@ describe('live updates', () => {
     const cara = await stream(t.editor2);
     await cara.next((e) => e.event === 'ready');
     await t.owner.agent.patch(`/api/workbooks/${wb.id}/members/${t.editor2.user.id}`).send({ role: 'viewer' }).expect(200);
-    expect((await cara.next((e) => e.event === 'role')).data).toEqual({ role: 'viewer' });
+    expect((await cara.next((e) => e.event === 'role')).data).toEqual({ role: 'viewer', actions: ['view', 'viewHistory', 'export'] });
     cara.close();
   });
 

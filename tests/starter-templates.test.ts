@@ -1,11 +1,12 @@
 // The empty-workbook state: starter templates whose every formula computes, offered only while the
 // whole workbook is empty and the user may edit, and typed in as ordinary edits.
+import { allowedActions } from '../shared/permissions.js';
 import { createElement } from 'react';
 import { renderToStaticMarkup } from 'react-dom/server';
 import { describe, expect, it } from 'vitest';
 import { createEngine } from '../functions/engine.js';
 import type { WorkbookPayload } from '../shared/workbooks.js';
-import { WorkbookModel } from '../src/features/grid/model/workbookModel.js';
+import { WorkbookModel } from '../src/core/workbook/model/workbookModel.js';
 import { StarterTemplate } from '../src/features/grid/StarterTemplate.js';
 import { starterTemplates, templateChanges } from '../src/features/grid/starterTemplates.js';
 
@@ -14,6 +15,7 @@ const payload = (role: WorkbookPayload['role'], cells: [number, number, string][
   title: 'New workbook',
   revision: 0,
   role,
+  actions: allowedActions([role]),
   sheets: [{ id: 'sheet-1', name: 'Sheet1', position: 0, settings: {}, cells }],
 });
 
@@ -43,9 +45,8 @@ describe('starter templates', () => {
   });
 
   it('fills in dioxygen\'s bond order 2 and two unpaired electrons when applied to an empty workbook', () => {
-    const model = new WorkbookModel(payload('owner'));
     const sent: unknown[] = [];
-    model.onLocalChanges = (changes) => sent.push(...changes);
+    const model = new WorkbookModel(payload('owner'), { onLocalChanges: (changes) => sent.push(...changes) });
     const outcome = model.edit(templateChanges(starterTemplates[0], 'sheet-1'));
     expect(outcome.refused).toEqual([]);
     expect(model.view('sheet-1', 1, 2)?.value).toBe(2); // BONDORDER("O2")

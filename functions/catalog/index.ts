@@ -3,6 +3,7 @@ import { diatomicFunctions } from './diatomic.js';
 import { lcaoFunctions } from './lcao.js';
 import { unitFunctions } from './units.js';
 import { huckelEntries } from './huckel.js';
+import { ehtEntries } from './eht.js';
 
 // Each family file exports an array of entries; add new families here.
 export const catalog: CatalogEntry[] = [
@@ -10,6 +11,7 @@ export const catalog: CatalogEntry[] = [
   ...lcaoFunctions,
   ...unitFunctions,
   ...huckelEntries,
+  ...ehtEntries,
 ];
 
 export const catalogByName = new Map(catalog.map((e) => [e.name, e]));

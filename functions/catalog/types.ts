@@ -33,9 +33,11 @@ export interface Example {
 export type SpillArg =
   | { kind: 'literal'; value: Scalar }
   | { kind: 'range'; rows: number; cols: number }
+  /** An argument left out between commas, e.g. the k of EHTLEVELS(s,,1). */
+  | { kind: 'empty' }
   | { kind: 'other' };
 
-export type Family = 'Diatomic' | 'LCAO' | 'Units' | 'Hückel';
+export type Family = 'Diatomic' | 'LCAO' | 'Units' | 'Hückel' | 'Extended Hückel';
 
 export interface CatalogEntry {
   name: string;

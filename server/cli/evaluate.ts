@@ -1,6 +1,7 @@
 // Evaluates stand-alone formulas in a scratch engine, each on its own sheet so that a spilled
 // result never collides with the next formula. Used by `cli eval` and by tests.
 import { DetailedCellError } from 'hyperformula';
+import '../../functions/openchemlibNode.js';
 import { createEngine } from '../../functions/engine.js';
 
 export type CellScalar = number | string | boolean;

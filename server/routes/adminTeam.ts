@@ -1,6 +1,7 @@
 // Site admins' view of the team features: GET /api/admin/mail, the dev inbox (every message the
 // built-in fake SMTP server received, with its text and so its invitation links, newest first), and
 // GET /api/admin/workbooks, every workbook on the site (admins may open and read any of them).
+import { allowedActions } from '../../shared/permissions.js';
 import { Router } from 'express';
 import { count, desc, eq } from 'drizzle-orm';
 import { z } from 'zod';
@@ -39,6 +40,7 @@ export function adminTeamRouter(ctx: AppContext): Router {
       title: r.title,
       revision: r.revision,
       role: 'site-admin',
+      actions: allowedActions(['site-admin']),
       owner: { id: r.ownerId, name: r.ownerName },
       createdAt: r.createdAt,
       updatedAt: r.updatedAt,

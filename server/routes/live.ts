@@ -4,6 +4,7 @@
 // The event names and payloads are LiveEvents in shared/team.ts.
 import { and, asc, eq, gt } from 'drizzle-orm';
 import { Router, type Response } from 'express';
+import { allowedActions } from '../../shared/permissions.js';
 import { presenceSchema, type LiveEventName, type LiveEvents } from '../../shared/team.js';
 import type { RevisionKind, RevisionPatch, WorkbookEvent } from '../../shared/workbooks.js';
 import { currentSession, currentUser, requireUser } from '../auth/middleware.js';
@@ -114,13 +115,13 @@ export function liveRouter(ctx: AppContext): Router {
           return send('protection', event.protection);
         case 'members': {
           // Someone removed or re-roled mid-stream hears no more than their access now allows.
-          let now: typeof role;
+          let now: ReturnType<typeof requireWorkbook>;
           try {
-            now = requireWorkbook(ctx, user, workbookId, 'view').role;
+            now = requireWorkbook(ctx, user, workbookId, 'view');
           } catch {
             return close('access_removed');
           }
-          if (now !== role) send('role', { role: (role = now) });
+          if (now.role !== role) send('role', { role: (role = now.role), actions: allowedActions(now.roles) });
           return;
         }
       }
@@ -128,7 +129,7 @@ export function liveRouter(ctx: AppContext): Router {
     // Subscribing, the first event and any replay happen in one synchronous step: no commit can
     // slip in between, so the client sees every revision after the one `ready` names exactly once.
     const unsubscribe = ctx.events.subscribe(workbookId, onEvent);
-    send('ready', { revision: a.workbook.revision, role });
+    send('ready', { revision: a.workbook.revision, role, actions: allowedActions(a.roles) });
     const lastEventId = Number(req.get('last-event-id'));
     if (Number.isInteger(lastEventId) && lastEventId >= 0 && lastEventId < a.workbook.revision) {
       const missed = missedRevisions(ctx, workbookId, lastEventId);

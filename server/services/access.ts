@@ -3,7 +3,7 @@
 // locks widen these checks here, never in the routes.
 import { and, desc, eq } from 'drizzle-orm';
 import type { User } from 'lucia';
-import { accessRoles, canAny, refusalReason, type AccessRole, type WorkbookAction, type WorkbookRole } from '../../shared/permissions.js';
+import { accessRoles, allowedActions, canAny, refusalReason, type AccessRole, type WorkbookAction, type WorkbookRole } from '../../shared/permissions.js';
 import type { WorkbookSummary } from '../../shared/workbooks.js';
 import type { AppContext } from '../context.js';
 import { users, workbookMembers, workbooks } from '../db/schema.js';
@@ -68,6 +68,7 @@ export function listVisibleWorkbooks(ctx: AppContext, user: AccessUser): Workboo
       title: r.title,
       revision: r.revision,
       role: r.role,
+      actions: allowedActions(accessRoles(r.role, user.siteRole)),
       owner: { id: r.ownerId, name: r.ownerName },
       createdAt: r.createdAt,
       updatedAt: r.updatedAt,

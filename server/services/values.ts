@@ -1,6 +1,7 @@
 // Values computed on the server with the same engine the browser uses (functions/engine.ts), for
 // integrations and export. Only non-empty values are returned, as [row, col, value] per sheet.
 import { CellType, DenseSparseChooseBasedOnThreshold, DetailedCellError, ErrorType, type CellValue, type HyperFormula } from 'hyperformula';
+import '../../functions/openchemlibNode.js';
 import { createEngine, type SheetInput } from '../../functions/engine.js';
 import type { ComputedValue, SheetPayload, ValueEntry, ValuesPayload, WorkbookPayload } from '../../shared/workbooks.js';
 

@@ -1,5 +1,6 @@
 // Workbooks as wholes: create (with one empty "Sheet1"), load everything the client's engine needs,
 // rename, delete. Access is decided before these are called (services/access.ts).
+import { allowedActions } from '../../shared/permissions.js';
 import { randomUUID } from 'node:crypto';
 import { and, asc, eq, ne } from 'drizzle-orm';
 import type { User } from 'lucia';
@@ -41,6 +42,7 @@ export function loadWorkbook(ctx: AppContext, access: WorkbookAccess): WorkbookP
       title: workbook.title,
       revision,
       role: access.role,
+      actions: allowedActions(access.roles),
       sheets: tabs.map((s) => ({ id: s.id, name: s.name, position: s.position, settings: parseSettings(s.settings), cells: bySheet.get(s.id) ?? [] })),
       ...loadProtection(tx, workbook.id),
     };
@@ -55,7 +57,7 @@ export function summarizeWorkbook(ctx: AppContext, access: WorkbookAccess): Work
     .innerJoin(users, eq(users.id, workbooks.ownerId))
     .where(eq(workbooks.id, access.workbook.id))
     .get()!;
-  return { id: w.id, title: w.title, revision: w.revision, role: access.role, owner: { id: w.ownerId, name: w.ownerName }, createdAt: w.createdAt, updatedAt: w.updatedAt };
+  return { id: w.id, title: w.title, revision: w.revision, role: access.role, actions: allowedActions(access.roles), owner: { id: w.ownerId, name: w.ownerName }, createdAt: w.createdAt, updatedAt: w.updatedAt };
 }
 
 /** A new title is not a content change: the revision stays as it is. */

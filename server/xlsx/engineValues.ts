@@ -1,6 +1,7 @@
 // Computes a workbook once with the shared engine (functions/engine.ts), for export and `cli recalc`:
 // each input cell's value, the cells array formulas spill into, and which chemistry functions are used.
 import { CellType, DenseSparseChooseBasedOnThreshold, DetailedCellError, type CellValue, type HyperFormula } from 'hyperformula';
+import '../../functions/openchemlibNode.js';
 import { createEngine } from '../../functions/engine.js';
 import { catalogByName } from '../../functions/index.js';
 import { denseSheet } from '../services/values.js';

@@ -1,7 +1,7 @@
 // Route loaders that decide who may see a page. The user comes from the one `me` query, so a
 // guard costs a request only when the app starts or after sign-in/out changed it.
 import { redirect, type LoaderFunctionArgs } from 'react-router';
-import { meQueryOptions } from '../features/auth/api.js';
+import { meQueryOptions } from '../core/session/me.js';
 import { safeNext } from '../features/auth/safeNext.js';
 import { queryClient } from './queryClient.js';
 

@@ -6,6 +6,7 @@ import { MailOutbox } from '../features/admin/MailOutbox.js';
 import { SignInPage } from '../features/auth/SignInPage.js';
 import { SignUpPage } from '../features/auth/SignUpPage.js';
 import { InvitationPage } from '../features/sharing/InvitationPage.js';
+import { ImportButton } from '../features/io/index.js';
 import { WorkbookListPage } from '../features/workbooks/WorkbookListPage.js';
 import { redirectIfSignedIn, requireSignedIn, signInPath } from './guards.js';
 import { AppLayout } from './layout/AppLayout.js';
@@ -27,10 +28,10 @@ export const router = createBrowserRouter([
         Component: AppLayout,
         ErrorBoundary: RouteError,
         children: [
-          { index: true, Component: WorkbookListPage },
+          { index: true, Component: () => <WorkbookListPage importControl={<ImportButton label="Import file…" />} /> },
           {
             path: 'workbooks/:id',
-            lazy: async () => ({ Component: (await import('../features/grid/WorkbookPage.js')).WorkbookPage }),
+            lazy: async () => ({ Component: (await import('./workbook/WorkbookPage.js')).WorkbookPage }),
           },
           {
             path: 'functions',

@@ -2,9 +2,9 @@
 // run in Node (the real grid model, save queue, live feed and ledger), Bob calls the API directly.
 // The test decides when the server's live events reach Ann, so late or early arrivals can be staged.
 import type { PatchResult, WorkbookEvent, WorkbookPayload } from '../../shared/workbooks.js';
-import { WorkbookModel } from '../../src/features/grid/model/workbookModel.js';
-import { PatchQueue, type PatchTransport } from '../../src/features/grid/save/patchQueue.js';
-import { PendingStore } from '../../src/features/grid/save/pendingStore.js';
+import { WorkbookModel } from '../../src/core/workbook/model/workbookModel.js';
+import { PatchQueue, type PatchTransport } from '../../src/core/workbook/save/patchQueue.js';
+import { PendingStore } from '../../src/core/workbook/save/pendingStore.js';
 import { applyRemoteRevision, fromRevisionDetail, type RemoteRevision } from '../../src/features/live/remoteRevision.js';
 import { RevisionFeed } from '../../src/features/live/revisionFeed.js';
 import { ApiError } from '../../src/lib/api.js';
@@ -39,10 +39,8 @@ export async function twoAnalysts() {
       return res.body as PatchResult;
     },
   };
-  const model = new WorkbookModel(payload);
-  const queue = new PatchQueue({ transport, store: new PendingStore(memoryStorage(), id), baseRevision: payload.revision, debounceMs: 0, firstRetryMs: 50 });
-  model.onLocalChanges = (c) => queue.enqueue(c);
-  queue.showRemote = (inputs) => model.applyRemote(inputs);
+  const model: WorkbookModel = new WorkbookModel(payload, { onLocalChanges: (c) => queue.enqueue(c) });
+  const queue: PatchQueue = new PatchQueue({ transport, store: new PendingStore(memoryStorage(), id), baseRevision: payload.revision, debounceMs: 0, firstRetryMs: 50, showRemote: (inputs) => model.applyRemote(inputs) });
   const feed = new RevisionFeed({
     start: payload.revision,
     apply: (rev) => applyRemoteRevision(model, queue, rev),

@@ -2,8 +2,8 @@
 // scripted server that records patches. Use with vitest fake timers.
 import { vi } from 'vitest';
 import type { PatchResult } from '../../shared/workbooks.js';
-import type { PatchTransport } from '../../src/features/grid/save/patchQueue.js';
-import type { CellInput, KeyValueStorage } from '../../src/features/grid/save/pendingStore.js';
+import type { PatchTransport } from '../../src/core/workbook/save/patchQueue.js';
+import type { CellInput, KeyValueStorage } from '../../src/core/workbook/save/pendingStore.js';
 
 export class MemoryStorage implements KeyValueStorage {
   data = new Map<string, string>();

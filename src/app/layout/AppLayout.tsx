@@ -1,6 +1,6 @@
 import { NavLink, Outlet, useLocation } from 'react-router';
 import { OrbitabMark } from '../../components/ui/icons.js';
-import { useMe } from '../../features/auth/api.js';
+import { useMe } from '../../core/session/me.js';
 import { ThemeToggle } from '../theme/ThemeToggle.js';
 import { UserMenu } from './UserMenu.js';
 

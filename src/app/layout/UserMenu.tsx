@@ -3,7 +3,7 @@ import { useNavigate } from 'react-router';
 import type { PublicUser } from '../../../shared/auth.js';
 import { ChevronDownIcon } from '../../components/ui/icons.js';
 import { sentence } from '../../lib/fieldErrors.js';
-import { useSignOut } from '../../features/auth/api.js';
+import { useSignOut } from '../../core/session/me.js';
 
 function initials(name: string) {
   const parts = name.trim().split(/\s+/);

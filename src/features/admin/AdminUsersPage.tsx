@@ -7,7 +7,7 @@ import { Notice } from '../../components/ui/Notice.js';
 import { LoadingRows, Page } from '../../components/ui/Page.js';
 import { ApiError } from '../../lib/api.js';
 import { sentence } from '../../lib/fieldErrors.js';
-import { useMe } from '../auth/api.js';
+import { useMe } from '../../core/session/me.js';
 import { useAdminUsers, useUpdateAdminUser } from './api.js';
 
 const dateFormat = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium' });

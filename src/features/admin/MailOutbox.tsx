@@ -5,7 +5,7 @@ import { Notice } from '../../components/ui/Notice.js';
 import { LoadingRows, Page } from '../../components/ui/Page.js';
 import { ApiError } from '../../lib/api.js';
 import { sentence } from '../../lib/fieldErrors.js';
-import { timeAgo } from '../workbooks/relativeTime.js';
+import { timeAgo } from '../../lib/relativeTime.js';
 import { useAdminMail } from './api.js';
 
 const urlPattern = /(https?:\/\/[^\s<>"]+)/g;

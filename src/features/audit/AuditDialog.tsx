@@ -3,7 +3,7 @@ import { Button } from '../../components/ui/Button.js';
 import { Dialog } from '../../components/ui/Dialog.js';
 import { Notice } from '../../components/ui/Notice.js';
 import { sentence } from '../../lib/fieldErrors.js';
-import { useMembers } from '../sharing/api.js';
+import { useMembers } from '../../core/team/members.js';
 import { useAudit } from './api.js';
 import { describeAudit } from './describeAudit.js';
 

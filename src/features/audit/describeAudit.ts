@@ -1,11 +1,12 @@
 // One audit entry as a sentence. Details are what the server recorded at the time (shared/team.ts
 // AuditAction); people named only by id are looked up among today's members, else called "a
 // former member" — the log itself never changes.
+import { roleInSentence } from '../../../shared/permissions.js';
 import type { AuditEntry } from '../../../shared/team.js';
 
 type Details = Record<string, unknown>;
 const text = (v: unknown, fallback = '?') => (typeof v === 'string' && v !== '' ? v : fallback);
-const article = (role: unknown) => (role === 'editor' ? 'an editor' : role === 'viewer' ? 'a viewer' : role === 'owner' ? 'the owner' : `a ${text(role)}`);
+const article = (role: unknown) => (role === 'owner' ? 'the owner' : roleInSentence(role));
 
 export function describeAudit(entry: AuditEntry, nameOf: (userId: string) => string | undefined): string {
   const d: Details = entry.details;

@@ -6,7 +6,7 @@ import { Notice } from '../../components/ui/Notice.js';
 import { TextField } from '../../components/ui/TextField.js';
 import { checkForm, errorsFromApi, type FormErrors } from '../../lib/fieldErrors.js';
 import { useSignIn } from './api.js';
-import { AuthFrame } from './AuthFrame.js';
+import { AuthFrame } from '../../components/ui/AuthFrame.js';
 import { safeNext } from './safeNext.js';
 
 const fields = ['email', 'password'] as const;

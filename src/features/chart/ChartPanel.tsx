@@ -1,8 +1,8 @@
 // Plots two columns of the sheet against each other, as points or as a line (recharts).
 import { useMemo, useState } from 'react';
 import { CartesianGrid, Line, LineChart, ResponsiveContainer, Scatter, ScatterChart, Tooltip, XAxis, YAxis } from 'recharts';
-import { columnName } from '../grid/model/a1.js';
-import type { RowData } from '../grid/model/workbookModel.js';
+import { columnName } from '../../core/workbook/model/a1.js';
+import type { RowData } from '../../core/workbook/model/workbookModel.js';
 import { numericPairs, sortedByX } from './chartData.js';
 
 export function ChartPanel({ rows, colCount, firstRow, headerRow, initialX }: { rows: RowData[]; colCount: number; firstRow: number; headerRow: RowData | null; initialX: number }) {

@@ -1,6 +1,6 @@
 // The points of a two-column chart: rows where both cells hold numbers. Rows with text, errors or
 // blanks are counted, not plotted, so the panel can say how many were left out.
-import type { RowData } from '../grid/model/workbookModel.js';
+import type { RowData } from '../../core/workbook/model/workbookModel.js';
 
 export interface ChartPoint {
   x: number;

@@ -26,7 +26,8 @@ export function StructurePanel({ source, address }: { source: SubjectSource | nu
         <p>
           Select a cell that names a diatomic species (O2, NO+, CN-) or a π system in SMILES (c1ccccc1), or a formula using one, to see its levels here.
         </p>
-        {subject?.kind === 'none' && subject.tried.length > 0 && (
+        {/* Only a formula that reads cells is worth a word; a plain text cell is simply not a structure. */}
+        {subject?.kind === 'none' && subject.tried.length > 0 && source?.input.startsWith('=') && (
           <p className="mt-2 text-caption text-ink-3">
             {address}: nothing recognisable in {subject.tried.slice(0, 3).map((t) => `“${t}”`).join(', ')}.
           </p>

@@ -3,7 +3,7 @@
 // Choosing one types it into the active sheet as ordinary edits (saved, undoable).
 import { useState } from 'react';
 import { Button } from '../../components/ui/Button.js';
-import type { WorkbookModel } from './model/workbookModel.js';
+import type { WorkbookModel } from '../../core/workbook/model/workbookModel.js';
 import { starterTemplates, templateChanges } from './starterTemplates.js';
 
 export function StarterTemplate({ model, sheetId }: { model: WorkbookModel; sheetId: string }) {

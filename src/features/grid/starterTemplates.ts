@@ -1,7 +1,7 @@
 // What an empty workbook offers instead of a blank grid: a species column with the usual property
 // columns already written as formulas, for each kind of screening Orbitab does. Plain data, so a
 // test can evaluate every formula (tests/starter-templates.test.ts).
-import type { CellInput } from './save/pendingStore.js';
+import type { CellInput } from '../../core/workbook/save/pendingStore.js';
 
 export interface StarterTemplate {
   id: string;

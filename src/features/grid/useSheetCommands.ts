@@ -2,13 +2,13 @@
 // Every command goes through the model (engine first, then the save queue) and reports cells it
 // had to leave alone, so nothing is dropped silently.
 import { useRef } from 'react';
-import { applyStructural, redoLast, undoLast, type StructuralOp } from './model/structure.js';
-import { clearRange, fillPairs, pasteBlock, pasteCopiedCells, sortRange, type CopiedCells } from './model/rangeEdits.js';
-import { formatTsv, parseTsv } from './model/tsv.js';
-import { shiftColumnWidths, type DisplaySettings } from './model/displaySettings.js';
-import type { SortDirection } from './model/sortFilter.js';
-import type { EditOutcome } from './model/workbookModel.js';
-import type { WorkbookSession } from './session/useWorkbookSession.js';
+import { applyStructural, redoLast, undoLast, type StructuralOp } from '../../core/workbook/model/structure.js';
+import { clearRange, fillPairs, pasteBlock, pasteCopiedCells, sortRange, type CopiedCells } from '../../core/workbook/model/rangeEdits.js';
+import { formatTsv, parseTsv } from '../../core/workbook/model/tsv.js';
+import { shiftColumnWidths, type DisplaySettings } from '../../core/workbook/model/displaySettings.js';
+import type { SortDirection } from '../../core/workbook/model/sortFilter.js';
+import type { EditOutcome } from '../../core/workbook/model/workbookModel.js';
+import type { WorkbookSession } from '../../core/workbook/session/useWorkbookSession.js';
 import type { SheetView } from './useSheetView.js';
 import type { FillPair, ViewCell } from './components/SheetGrid.js';
 

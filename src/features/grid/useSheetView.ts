@@ -1,8 +1,8 @@
 // What the grid shows of a sheet: its rows (as the model keeps them), minus the frozen first row,
 // filtered when a filter is set, with the map from shown rows back to sheet rows.
 import { useMemo, useSyncExternalStore } from 'react';
-import { filterRows } from './model/sortFilter.js';
-import type { RowData, WorkbookModel } from './model/workbookModel.js';
+import { filterRows } from '../../core/workbook/model/sortFilter.js';
+import type { RowData, WorkbookModel } from '../../core/workbook/model/workbookModel.js';
 import type { SheetFilter } from './components/FilterMenu.js';
 
 const NO_ROW: RowData = Object.freeze({});

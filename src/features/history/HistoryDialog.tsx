@@ -1,13 +1,13 @@
 // History: every revision with its author and time; pick one to see the workbook as it was right after
 // it (read-only), and restore it. A restore is itself a new revision, so nothing in between is lost.
 import { useState } from 'react';
-import { can, type AccessRole } from '../../../shared/permissions.js';
+import { allows, type WorkbookAction } from '../../../shared/permissions.js';
 import type { RevisionKind, RevisionSummary } from '../../../shared/workbooks.js';
 import { Button } from '../../components/ui/Button.js';
 import { Dialog } from '../../components/ui/Dialog.js';
 import { Notice } from '../../components/ui/Notice.js';
 import { sentence } from '../../lib/fieldErrors.js';
-import { timeAgo } from '../workbooks/relativeTime.js';
+import { timeAgo } from '../../lib/relativeTime.js';
 import { useRestoreRevision, useRevisions, useRevisionSnapshot } from './api.js';
 import { RevisionSnapshotView } from './RevisionSnapshotView.js';
 
@@ -39,7 +39,7 @@ function RevisionRow({ r, selected, onSelect }: { r: RevisionSummary; selected: 
   );
 }
 
-export function HistoryDialog({ open, onClose, workbookId, role }: { open: boolean; onClose: () => void; workbookId: string; role: AccessRole }) {
+export function HistoryDialog({ open, onClose, workbookId, actions }: { open: boolean; onClose: () => void; workbookId: string; actions: WorkbookAction[] }) {
   const list = useRevisions(workbookId, open);
   const [selected, setSelected] = useState<number | null>(null);
   const [confirming, setConfirming] = useState(false);
@@ -85,7 +85,7 @@ export function HistoryDialog({ open, onClose, workbookId, role }: { open: boole
                   As of revision <strong>#{selected}</strong>
                   {selected === current && <span className="text-ink-3"> (the current state)</span>} · read-only
                 </p>
-                {can(role, 'restore') && selected !== current && !confirming && <Button onClick={() => setConfirming(true)}>Restore this revision…</Button>}
+                {allows(actions, 'restore') && selected !== current && !confirming && <Button onClick={() => setConfirming(true)}>Restore this revision…</Button>}
               </div>
               {confirming && (
                 <div role="group" aria-label="Confirm restore" className="flex items-center gap-2 rounded-ctl border border-caution-line bg-caution-soft px-3 py-2 text-ink">

@@ -3,7 +3,7 @@
 // snapshots are cached for the visit.
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { RevisionSnapshot } from '../../../shared/team.js';
-import type { RevisionDetail, RevisionSummary } from '../../../shared/workbooks.js';
+import type { RevisionSummary } from '../../../shared/workbooks.js';
 import { api, queryKeys } from '../../lib/api.js';
 
 const base = (id: string) => `/workbooks/${encodeURIComponent(id)}/revisions`;
@@ -18,13 +18,6 @@ export const revisionsQueryOptions = (workbookId: string) =>
     queryKey: queryKeys.revisions(workbookId),
     queryFn: ({ signal }) => api<RevisionList>(`${base(workbookId)}?limit=200`, { signal }),
     staleTime: 0,
-  });
-
-export const revisionDetailQueryOptions = (workbookId: string, n: number) =>
-  queryOptions({
-    queryKey: queryKeys.revision(workbookId, n),
-    queryFn: ({ signal }) => api<RevisionDetail>(`${base(workbookId)}/${n}`, { signal }),
-    staleTime: Infinity,
   });
 
 export const revisionSnapshotQueryOptions = (workbookId: string, n: number) =>

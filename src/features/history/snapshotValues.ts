@@ -3,9 +3,9 @@
 // them, and the engine is thrown away. Nothing here can be edited or sent.
 import { createEngine } from '../../../functions/engine.js';
 import type { RevisionSnapshot } from '../../../shared/team.js';
-import { cellView, type CellView } from '../grid/model/cellView.js';
-import { readDisplaySettings } from '../grid/model/displaySettings.js';
-import { SheetInputs } from '../grid/model/sheetInputs.js';
+import { cellView, type CellView } from '../../core/workbook/model/cellView.js';
+import { readDisplaySettings } from '../../core/workbook/model/displaySettings.js';
+import { SheetInputs } from '../../core/workbook/model/sheetInputs.js';
 
 export interface SnapshotSheet {
   id: string;

@@ -1,8 +1,8 @@
 // Mount point for conflicts: the dialog opens by itself when the save queue reports a 409, and a
 // slim banner stays until the choice is made (after "Decide later" too).
 import { useEffect, useState } from 'react';
-import type { SaveStatus } from '../grid/save/patchQueue.js';
-import type { WorkbookSession } from '../grid/session/useWorkbookSession.js';
+import type { SaveStatus } from '../../core/workbook/save/patchQueue.js';
+import type { WorkbookSession } from '../../core/workbook/session/useWorkbookSession.js';
 import { ConflictDialog } from './ConflictDialog.js';
 import { conflictKey, type SetAsideInput } from './conflictResolution.js';
 

@@ -3,7 +3,7 @@
 // Nothing is lost either way: a replaced colleague's input stays in the revision history, and my
 // own dropped input is set aside where I can still read and copy it.
 import type { CellConflict } from '../../../shared/workbooks.js';
-import type { CellInput } from '../grid/save/pendingStore.js';
+import type { CellInput } from '../../core/workbook/save/pendingStore.js';
 
 export type ConflictChoice = 'mine' | 'theirs';
 

@@ -4,11 +4,11 @@
 // as a 409 conflict, where I choose (ConflictDialog). Everything else is written at once.
 import type { LiveEvents } from '../../../shared/team.js';
 import type { RevisionDetail, SheetOp } from '../../../shared/workbooks.js';
-import { readDisplaySettings } from '../grid/model/displaySettings.js';
-import { SheetInputs } from '../grid/model/sheetInputs.js';
-import type { WorkbookModel } from '../grid/model/workbookModel.js';
-import type { CellInput } from '../grid/save/pendingStore.js';
-import type { PatchQueue } from '../grid/save/patchQueue.js';
+import { readDisplaySettings } from '../../core/workbook/model/displaySettings.js';
+import { SheetInputs } from '../../core/workbook/model/sheetInputs.js';
+import type { WorkbookModel } from '../../core/workbook/model/workbookModel.js';
+import type { CellInput } from '../../core/workbook/save/pendingStore.js';
+import type { PatchQueue } from '../../core/workbook/save/patchQueue.js';
 
 export type RemoteRevision = LiveEvents['revision'];
 

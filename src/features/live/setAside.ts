@@ -1,6 +1,6 @@
 // Inputs of mine that lost a conflict or whose tab was deleted by someone else, kept in this
 // browser's local storage per workbook until I dismiss them, so a choice in a hurry loses nothing.
-import type { KeyValueStorage } from '../grid/save/pendingStore.js';
+import type { KeyValueStorage } from '../../core/workbook/save/pendingStore.js';
 import type { SetAsideInput } from './conflictResolution.js';
 
 /** Enough to recover a bad afternoon; older entries go first (common practice: bounded local stores). */

@@ -1,7 +1,7 @@
 // Carries out the choices made in the conflict dialog on the session's queue and model.
 import type { CellConflict } from '../../../shared/workbooks.js';
-import type { WorkbookModel } from '../grid/model/workbookModel.js';
-import type { PatchQueue } from '../grid/save/patchQueue.js';
+import type { WorkbookModel } from '../../core/workbook/model/workbookModel.js';
+import type { PatchQueue } from '../../core/workbook/save/patchQueue.js';
 import { resolveConflicts, type ConflictChoice, type SetAsideInput } from './conflictResolution.js';
 
 /**

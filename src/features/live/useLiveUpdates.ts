@@ -4,12 +4,12 @@
 // itself and sends Last-Event-ID, so the server replays what was missed; RevisionFeed drops repeats.
 import { useQueryClient } from '@tanstack/react-query';
 import { useEffect, useRef, useState } from 'react';
-import type { AccessRole } from '../../../shared/permissions.js';
+import type { AccessRole, WorkbookAction } from '../../../shared/permissions.js';
 import type { LiveEventName, LiveEvents, PresenceUser } from '../../../shared/team.js';
 import { queryKeys } from '../../lib/api.js';
-import type { WorkbookSession } from '../grid/session/useWorkbookSession.js';
-import { revisionDetailQueryOptions } from '../history/api.js';
-import { setProtection } from '../locks/api.js';
+import type { WorkbookSession } from '../../core/workbook/session/useWorkbookSession.js';
+import { revisionDetailQueryOptions } from '../../core/workbook/revisions.js';
+import { setProtection } from '../../core/team/protection.js';
 import type { SetAsideInput } from './conflictResolution.js';
 import { applyRemoteRevision, fromRevisionDetail } from './remoteRevision.js';
 import { RevisionFeed } from './revisionFeed.js';
@@ -29,7 +29,7 @@ export interface LiveState {
 export interface LiveOptions {
   /** The revision the session's engine was built from. */
   loadedRevision: number;
-  onRole: (role: AccessRole) => void;
+  onRole: (access: { role: AccessRole; actions: WorkbookAction[] }) => void;
   /** My unsent inputs that a colleague's tab deletion left with nowhere to go. */
   onOrphaned: (inputs: SetAsideInput[]) => void;
 }
@@ -81,17 +81,17 @@ export function useLiveUpdates(session: WorkbookSession, opts: LiveOptions): Liv
         }
       });
 
-    on('ready', ({ revision, role }) => {
+    on('ready', ({ revision, role, actions }) => {
       // After a reconnect, lock and range changes made meanwhile were not replayed: ask again.
       if (opened++ > 0) void queryClient.invalidateQueries({ queryKey: queryKeys.protection(workbookId) });
-      if (role !== model.role) handlers.current.onRole(role);
+      if (role !== model.role || actions.join() !== model.actions.join()) handlers.current.onRole({ role, actions });
       feed.catchUp(revision);
       setState((s) => ({ ...s, connection: 'live', connects: s.connects + 1 }));
     });
     on('revision', (rev) => feed.receive(rev));
     on('presence', ({ users }) => setState((s) => ({ ...s, presence: users })));
     on('protection', (protection) => setProtection(queryClient, workbookId, protection));
-    on('role', ({ role }) => handlers.current.onRole(role));
+    on('role', (access) => handlers.current.onRole(access));
     on('renamed', ({ title }) => {
       model.title = title;
       model.notify();

@@ -4,14 +4,15 @@
 // the inputs of mine that were set aside.
 import { useMutation, useQuery } from '@tanstack/react-query';
 import { useCallback, useEffect, useRef, useState } from 'react';
-import type { AccessRole } from '../../../shared/permissions.js';
+import type { AccessRole, WorkbookAction } from '../../../shared/permissions.js';
 import type { PresenceInput, Protection } from '../../../shared/team.js';
 import { api } from '../../lib/api.js';
-import { useMe } from '../auth/api.js';
-import type { KeyValueStorage } from '../grid/save/pendingStore.js';
-import { workbookQueryOptions, type WorkbookSession } from '../grid/session/useWorkbookSession.js';
-import { protectionOf, useProtection } from '../locks/api.js';
-import { editRuleFor, structureRuleFor } from '../locks/editability.js';
+import { useMe } from '../../core/session/me.js';
+import type { KeyValueStorage } from '../../core/workbook/save/pendingStore.js';
+import { workbookQueryOptions } from '../../core/workbook/api.js';
+import type { WorkbookSession } from '../../core/workbook/session/useWorkbookSession.js';
+import { protectionOf, useProtection } from '../../core/team/protection.js';
+import { editRuleFor, structureRuleFor } from '../../core/team/editability.js';
 import type { SetAsideInput } from './conflictResolution.js';
 import { LatestThrottle } from './presenceThrottle.js';
 import { addSetAside, loadSetAside, saveSetAside } from './setAside.js';
@@ -22,6 +23,8 @@ export type TeamDialog = 'share' | 'protect' | 'history' | 'audit' | null;
 export interface WorkbookTeam {
   myId: string;
   role: AccessRole;
+  /** What I may do here, as the server decided it. */
+  actions: WorkbookAction[];
   protection: Protection;
   live: LiveState;
   setAside: SetAsideInput[];
@@ -49,7 +52,7 @@ export function useWorkbookTeam(session: WorkbookSession, cursor: PresenceInput 
   // The same cached load the session was built from (never refetched while open).
   const payload = useQuery(workbookQueryOptions(workbookId)).data;
   const protection = useProtection(workbookId, payload ? protectionOf(payload) : undefined);
-  const [role, setRole] = useState<AccessRole>(model.role);
+  const [access, setAccess] = useState<{ role: AccessRole; actions: WorkbookAction[] }>({ role: model.role, actions: model.actions });
   const [dialog, openDialog] = useState<TeamDialog>(null);
 
   const [setAside, setSetAside] = useState(() => loadSetAside(browserStorage(), workbookId));
@@ -70,9 +73,10 @@ export function useWorkbookTeam(session: WorkbookSession, cursor: PresenceInput 
   const live = useLiveUpdates(session, {
     loadedRevision: payload?.revision ?? session.queue.baseRevision,
     onRole: (next) => {
-      model.role = next;
+      model.role = next.role;
+      model.actions = next.actions;
       model.invalidateViews(); // greys or un-greys every cell for the new role
-      setRole(next);
+      setAccess(next);
     },
     onOrphaned: addToSetAside,
   });
@@ -102,5 +106,5 @@ export function useWorkbookTeam(session: WorkbookSession, cursor: PresenceInput 
     throttle.current?.push({ sheetId, row, col });
   }, [sheetId, row, col, live.connection, live.connects]);
 
-  return { myId, role, protection, live, setAside, addSetAside: addToSetAside, dismissSetAside, dialog, openDialog };
+  return { myId, role: access.role, actions: access.actions, protection, live, setAside, addSetAside: addToSetAside, dismissSetAside, dialog, openDialog };
 }

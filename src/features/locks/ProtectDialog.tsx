@@ -1,11 +1,11 @@
 // The "Protect" dialog of one sheet: its lock and its protected ranges.
-import { can, type AccessRole } from '../../../shared/permissions.js';
+import { allows, type WorkbookAction } from '../../../shared/permissions.js';
 import type { Protection } from '../../../shared/team.js';
 import { Button } from '../../components/ui/Button.js';
 import { Dialog } from '../../components/ui/Dialog.js';
 import { Notice } from '../../components/ui/Notice.js';
 import { sentence } from '../../lib/fieldErrors.js';
-import { useMembers } from '../sharing/api.js';
+import { useMembers } from '../../core/team/members.js';
 import { ProtectedRangesSection } from './ProtectedRangesSection.js';
 import { SheetLockSection } from './SheetLockSection.js';
 
@@ -15,7 +15,7 @@ export function ProtectDialog({
   workbookId,
   sheet,
   protection,
-  role,
+  actions,
   myId,
   suggestedRange,
 }: {
@@ -24,14 +24,14 @@ export function ProtectDialog({
   workbookId: string;
   sheet: { id: string; name: string };
   protection: Protection;
-  role: AccessRole;
+  actions: WorkbookAction[];
   myId: string;
   suggestedRange?: string;
 }) {
   const members = useMembers(workbookId, open);
   // Owners on any sheet, editors on sheets they created: the server knows who created which, so an
   // editor is offered the forms and told the server's reason if the sheet is not theirs.
-  const canLock = can(role, 'lockAnySheet') || can(role, 'lockOwnSheet');
+  const canLock = allows(actions, 'lockAnySheet') || allows(actions, 'lockOwnSheet');
   const lock = protection.locks.find((l) => l.sheetId === sheet.id);
   const ranges = protection.protectedRanges.filter((r) => r.sheetId === sheet.id);
   return (

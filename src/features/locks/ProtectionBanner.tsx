@@ -7,20 +7,19 @@ export function ProtectionBanner({ protection, sheetId, myId, onOpen }: { protec
   const lock = protection.locks.find((l) => l.sheetId === sheetId);
   const ranges = protection.protectedRanges.filter((r) => r.sheetId === sheetId);
   if (!lock && ranges.length === 0) return null;
-  const lockedOut = lock && !lock.editors.some((e) => e.id === myId);
   const rangesAgainstMe = ranges.filter((r) => !r.editors.some((e) => e.id === myId));
   return (
     <div role="status" aria-label="Sheet protection" className={`flex items-center gap-3 border-b px-3 py-1 text-caption ${lock ? 'border-caution-line bg-caution-soft text-ink' : 'border-line bg-raised text-ink-2'}`}>
       <LockGlyph />
-      <p className="min-w-0 flex-1 truncate" title={lock ? lockSummary(lock) : undefined}>
+      <p className="min-w-0 flex-1 truncate" title={lock ? lockSummary(lock, myId) : undefined}>
         {lock ? (
           <>
-            {lockSummary(lock)} {lockedOut ? 'Its cells are read-only for you.' : 'You are one of them.'}
+            {lockSummary(lock, myId)}
           </>
         ) : (
           <>
             {ranges.length === 1 ? `Protected range ${ranges[0].range}` : `${ranges.length} protected ranges (${ranges.map((r) => r.range).join(', ')})`}
-            {rangesAgainstMe.length > 0 ? ': greyed cells are read-only for you.' : ': you may edit them.'}
+            {rangesAgainstMe.length > 0 ? ': greyed cells are read-only for you.' : ranges.length === 1 ? ': you are among those who may edit it.' : ': you are among those who may edit each of them.'}
           </>
         )}
       </p>

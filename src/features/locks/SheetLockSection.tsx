@@ -10,8 +10,14 @@ import { EditorPicker } from './EditorPicker.js';
 
 const when = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
 
-export function lockSummary(lock: SheetLock): string {
-  return `Locked by ${lock.lockedBy.name} on ${when.format(new Date(lock.createdAt))}: “${lock.reason}”. Only ${lock.editors.map((e) => e.name).join(', ')} may change it.`;
+/** Who locked the sheet, when and why, and who may still edit it; said to `myId` when given. */
+export function lockSummary(lock: SheetLock, myId?: string): string {
+  const head = `Locked by ${lock.lockedBy.name} on ${when.format(new Date(lock.createdAt))}: “${lock.reason}”.`;
+  const names = lock.editors.map((e) => e.name);
+  if (myId === undefined) return `${head} Only ${names.join(', ')} may change it.`;
+  const others = lock.editors.filter((e) => e.id !== myId).map((e) => e.name);
+  if (others.length === lock.editors.length) return `${head} Only ${names.join(', ')} may change it; it is read-only for you.`;
+  return others.length === 0 ? `${head} You alone may still edit it.` : `${head} You and ${others.join(', ')} may still edit it.`;
 }
 
 export function SheetLockSection({ workbookId, sheetId, lock, members, myId, canLock }: { workbookId: string; sheetId: string; lock: SheetLock | undefined; members: Member[]; myId: string; canLock: boolean }) {

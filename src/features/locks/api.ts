@@ -1,35 +1,12 @@
-// Sheet locks and protected ranges of one workbook. The current protection lives in the query cache:
-// seeded from GET /api/workbooks/:id, replaced by each live `protection` event, and patched by the
-// answers of the calls below, so the greyed cells follow whichever arrives first.
-import { queryOptions, useMutation, useQuery, useQueryClient, type QueryClient } from '@tanstack/react-query';
+// Locking sheets and protecting ranges: each answer patches the protection in the query cache
+// (src/core/team/protection.ts), so the greyed cells follow whichever arrives first.
+import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { ProtectedRange, ProtectedRangeInput, Protection, SheetLock, SheetLockInput } from '../../../shared/team.js';
-import type { WorkbookPayload } from '../../../shared/workbooks.js';
 import { api, queryKeys } from '../../lib/api.js';
-import { noProtection, withLock, withoutLock, withoutRange, withRange } from './editability.js';
+import { setProtection } from '../../core/team/protection.js';
+import { withLock, withoutLock, withoutRange, withRange } from '../../core/team/editability.js';
 
 const sheetPath = (workbookId: string, sheetId: string) => `/workbooks/${encodeURIComponent(workbookId)}/sheets/${encodeURIComponent(sheetId)}`;
-
-export function protectionOf(payload: Pick<WorkbookPayload, 'locks' | 'protectedRanges'>): Protection {
-  return { locks: payload.locks ?? [], protectedRanges: payload.protectedRanges ?? [] };
-}
-
-export const protectionQueryOptions = (workbookId: string) =>
-  queryOptions({
-    queryKey: queryKeys.protection(workbookId),
-    // Only refetched after the live stream reconnects (events may have been missed meanwhile).
-    queryFn: ({ signal }) => api<WorkbookPayload>(`/workbooks/${encodeURIComponent(workbookId)}`, { signal }).then(protectionOf),
-    staleTime: Infinity,
-    // Like the workbook itself: each visit starts from what the server says now.
-    gcTime: 0,
-  });
-
-export function useProtection(workbookId: string, initial: Protection | undefined): Protection {
-  return useQuery({ ...protectionQueryOptions(workbookId), initialData: initial }).data ?? noProtection;
-}
-
-export function setProtection(queryClient: QueryClient, workbookId: string, update: Protection | ((p: Protection) => Protection)) {
-  queryClient.setQueryData<Protection>(queryKeys.protection(workbookId), (old) => (typeof update === 'function' ? update(old ?? noProtection) : update));
-}
 
 function useProtectionMutation<V, R>(workbookId: string, call: (v: V) => Promise<R>, apply: (p: Protection, r: R, v: V) => Protection) {
   const queryClient = useQueryClient();

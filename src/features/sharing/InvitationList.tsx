@@ -3,7 +3,7 @@ import type { Invitation } from '../../../shared/team.js';
 import { Button } from '../../components/ui/Button.js';
 import { sentence } from '../../lib/fieldErrors.js';
 import { useRevokeInvitation } from './api.js';
-import { roleLabels } from './MemberList.js';
+import { roleLabels } from '../../../shared/permissions.js';
 
 const dateFormat = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
 

@@ -6,8 +6,8 @@ import { Button } from '../../components/ui/Button.js';
 import { Notice } from '../../components/ui/Notice.js';
 import { ApiError } from '../../lib/api.js';
 import { sentence } from '../../lib/fieldErrors.js';
-import { useMe, useSignOut } from '../auth/api.js';
-import { AuthFrame } from '../auth/AuthFrame.js';
+import { useMe, useSignOut } from '../../core/session/me.js';
+import { AuthFrame } from '../../components/ui/AuthFrame.js';
 import { useAcceptInvitation, useInvitationLink } from './api.js';
 
 const closedStatus: Record<Exclude<InvitationPreview['status'], 'pending'>, string> = {

@@ -3,12 +3,11 @@
 // dialog, instead of stacking a second modal on top of it.
 import { useState } from 'react';
 import type { Member } from '../../../shared/team.js';
-import type { WorkbookRole } from '../../../shared/permissions.js';
+import { roleLabels, type WorkbookRole } from '../../../shared/permissions.js';
 import { Button } from '../../components/ui/Button.js';
 import { sentence } from '../../lib/fieldErrors.js';
 import { useChangeMemberRole, useRemoveMember } from './api.js';
 
-export const roleLabels: Record<WorkbookRole, string> = { owner: 'Owner', editor: 'Editor', viewer: 'Viewer' };
 
 type Pending = { kind: 'remove' | 'transfer'; member: Member } | null;
 

@@ -3,15 +3,16 @@
 // its reason); the dialog only hides what the caller's role could never do.
 import { useId, useState, type FormEvent } from 'react';
 import { addMemberSchema, grantableRoles, type AddMemberResponse, type GrantableRole } from '../../../shared/team.js';
-import { can, type AccessRole } from '../../../shared/permissions.js';
+import { allows, roleLabels, type WorkbookAction } from '../../../shared/permissions.js';
 import { Button } from '../../components/ui/Button.js';
 import { Dialog } from '../../components/ui/Dialog.js';
 import { Notice } from '../../components/ui/Notice.js';
 import { TextField } from '../../components/ui/TextField.js';
 import { checkForm, errorsFromApi, sentence, type FormErrors } from '../../lib/fieldErrors.js';
-import { useAddMember, useInvitations, useMembers } from './api.js';
+import { useMembers } from '../../core/team/members.js';
+import { useAddMember, useInvitations } from './api.js';
 import { InvitationList } from './InvitationList.js';
-import { MemberList, roleLabels } from './MemberList.js';
+import { MemberList } from './MemberList.js';
 
 const dateFormat = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium' });
 
@@ -25,7 +26,7 @@ export function ShareDialog({
   onClose,
   workbookId,
   title,
-  role,
+  actions,
   myId,
   onLeft,
 }: {
@@ -33,12 +34,12 @@ export function ShareDialog({
   onClose: () => void;
   workbookId: string;
   title: string;
-  role: AccessRole;
+  actions: WorkbookAction[];
   myId: string;
   /** I removed myself: the workbook is no longer mine to look at. */
   onLeft: () => void;
 }) {
-  const canManage = can(role, 'manageMembers');
+  const canManage = allows(actions, 'manageMembers');
   const members = useMembers(workbookId, open);
   const invitations = useInvitations(workbookId, open && canManage);
   const add = useAddMember(workbookId);

@@ -8,18 +8,11 @@ import type {
   InvitationPreview,
   InvitationsResponse,
   MemberRoleResult,
-  MembersResponse,
 } from '../../../shared/team.js';
 import type { WorkbookRole } from '../../../shared/permissions.js';
 import { api, queryKeys } from '../../lib/api.js';
 
 const base = (id: string) => `/workbooks/${encodeURIComponent(id)}`;
-
-export const membersQueryOptions = (workbookId: string) =>
-  queryOptions({
-    queryKey: queryKeys.members(workbookId),
-    queryFn: ({ signal }) => api<MembersResponse>(`${base(workbookId)}/members`, { signal }).then((r) => r.members),
-  });
 
 export const invitationsQueryOptions = (workbookId: string) =>
   queryOptions({
@@ -34,7 +27,6 @@ export const invitationLinkQueryOptions = (token: string) =>
     staleTime: 0,
   });
 
-export const useMembers = (workbookId: string, enabled = true) => useQuery({ ...membersQueryOptions(workbookId), enabled });
 export const useInvitations = (workbookId: string, enabled: boolean) => useQuery({ ...invitationsQueryOptions(workbookId), enabled });
 export const useInvitationLink = (token: string) => useQuery(invitationLinkQueryOptions(token));
 

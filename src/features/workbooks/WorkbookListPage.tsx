@@ -6,13 +6,14 @@ import { PlusIcon } from '../../components/ui/icons.js';
 import { Notice } from '../../components/ui/Notice.js';
 import { LoadingRows, Page } from '../../components/ui/Page.js';
 import { sentence } from '../../lib/fieldErrors.js';
-import { useMe } from '../auth/api.js';
-import { ImportButton } from '../io/index.js';
+import { useMe } from '../../core/session/me.js';
+import type { ReactNode } from 'react';
 import { useDeleteWorkbook, useWorkbooks } from './api.js';
 import { NewWorkbookDialog } from './NewWorkbookDialog.js';
 import { WorkbookRow } from './WorkbookRow.js';
 
-export function WorkbookListPage() {
+/** `importControl`: the file-import button, composed in by the app (src/app/router.tsx). */
+export function WorkbookListPage({ importControl }: { importControl?: ReactNode }) {
   const workbooks = useWorkbooks();
   const me = useMe().data;
   const remove = useDeleteWorkbook();
@@ -27,7 +28,7 @@ export function WorkbookListPage() {
   );
   const startButtons = (
     <div className="flex items-center gap-2">
-      <ImportButton label="Import file…" />
+      {importControl}
       {newButton}
     </div>
   );

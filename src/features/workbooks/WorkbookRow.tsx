@@ -1,14 +1,13 @@
 import { useState, type FormEvent, type KeyboardEvent } from 'react';
 import { Link } from 'react-router';
-import { can } from '../../../shared/permissions.js';
+import { allows, roleLabels } from '../../../shared/permissions.js';
 import { renameWorkbookSchema, type WorkbookSummary } from '../../../shared/workbooks.js';
 import { Button } from '../../components/ui/Button.js';
 import { SheetIcon } from '../../components/ui/icons.js';
 import { checkForm, errorsFromApi } from '../../lib/fieldErrors.js';
 import { useRenameWorkbook } from './api.js';
-import { timeAgo } from './relativeTime.js';
+import { timeAgo } from '../../lib/relativeTime.js';
 
-const roleNames = { owner: 'Owner', editor: 'Editor', viewer: 'Viewer', 'site-admin': 'Site admin' } as const;
 
 /** One workbook in the list: open it, rename it in place, or ask to delete it. */
 export function WorkbookRow({ workbook, myId, onDelete }: { workbook: WorkbookSummary; myId: string | undefined; onDelete: () => void }) {
@@ -85,19 +84,19 @@ export function WorkbookRow({ workbook, myId, onDelete }: { workbook: WorkbookSu
         )}
       </td>
       <td className="px-3 py-1 text-ink-2">{workbook.owner.id === myId ? 'You' : workbook.owner.name}</td>
-      <td className="px-3 py-1 text-ink-3">{roleNames[workbook.role]}</td>
+      <td className="px-3 py-1 text-ink-3">{roleLabels[workbook.role]}</td>
       <td className="px-3 py-1 text-ink-3 tabular-nums" title={new Date(workbook.updatedAt).toLocaleString()}>
         {timeAgo(workbook.updatedAt)}
       </td>
       <td className="py-1 pr-2 pl-3 text-right whitespace-nowrap">
         {!renaming && (
           <span className="inline-flex gap-0.5">
-            {can(workbook.role, 'rename') && (
+            {allows(workbook.actions, 'rename') && (
               <Button variant="ghost" onClick={() => setRenaming(true)} aria-label={`Rename ${workbook.title}`}>
                 Rename
               </Button>
             )}
-            {can(workbook.role, 'delete') && (
+            {allows(workbook.actions, 'delete') && (
               <Button variant="ghost" className="hover:text-danger" onClick={onDelete} aria-label={`Delete ${workbook.title}`}>
                 Delete
               </Button>

@@ -1,8 +1,8 @@
 // Filter rows by a value of the active column: pick one of the column's values or type text the
 // cells must contain. The filter hides rows in this view only; nothing is changed or sent.
 import { useMemo, useRef, useState } from 'react';
-import { columnName } from '../model/a1.js';
-import { distinctValues, type FilterCriterion } from '../model/sortFilter.js';
+import { columnName } from '../../../core/workbook/model/a1.js';
+import { distinctValues, type FilterCriterion } from '../../../core/workbook/model/sortFilter.js';
 
 export interface SheetFilter {
   col: number;

@@ -1,7 +1,7 @@
 // The formula bar: the address of the cell in focus (type an address to jump), its input (edit it
 // here as well as in the cell), and, for an error or a read-only cell, the reason in plain words.
-import { useEffect, useRef, useState } from 'react';
-import type { CellView } from '../model/cellView.js';
+import { useEffect, useImperativeHandle, useRef, useState, type Ref } from 'react';
+import type { CellView } from '../../../core/workbook/model/cellView.js';
 import { FunctionSuggestions, useFunctionSuggestions } from './FunctionSuggestions.js';
 
 export interface FormulaBarProps {
@@ -16,6 +16,13 @@ export interface FormulaBarProps {
   onCommit: (input: string) => void;
   onCancel: () => void;
   onGoTo: (address: string) => boolean;
+  /** Lets the keyboard open the bar for the cell in focus (the frozen header row is edited here). */
+  barRef?: Ref<FormulaBarHandle>;
+}
+
+export interface FormulaBarHandle {
+  /** Focuses the bar: with a typed character it replaces the input, without one the caret goes to the end. */
+  edit(typed?: string): void;
 }
 
 export function FormulaBar(p: FormulaBarProps) {
@@ -25,6 +32,15 @@ export function FormulaBar(p: FormulaBarProps) {
   const text = draft ?? p.liveText ?? p.input;
   const suggestions = useFunctionSuggestions(draft ?? '', field);
   useEffect(() => setDraft(null), [p.address]);
+  const pendingCaret = useRef<string | null>(null);
+  useImperativeHandle(p.barRef, () => ({
+    edit(typed) {
+      const el = field.current;
+      if (!el || p.disabled) return;
+      pendingCaret.current = typed ?? p.input;
+      el.focus();
+    },
+  }));
 
   const problem = p.view?.kind === 'error' ? `${p.view.errorCode} ${p.view.errorMessage}` : null;
   return (
@@ -71,7 +87,15 @@ export function FormulaBar(p: FormulaBarProps) {
           className="h-6 min-w-0 flex-1 rounded-ctl border border-transparent bg-transparent px-1.5 font-mono text-ui text-ink focus:border-accent focus:bg-surface focus:outline-none disabled:text-ink-2"
           value={text}
           onChange={(e) => setDraft(e.target.value)}
-          onFocus={() => setDraft(p.input)}
+          onFocus={(e) => {
+            const start = pendingCaret.current;
+            pendingCaret.current = null;
+            setDraft(start ?? p.input);
+            if (start !== null) {
+              const el = e.currentTarget;
+              requestAnimationFrame(() => el.setSelectionRange(start.length, start.length));
+            }
+          }}
           onBlur={() => setDraft(null)}
           onKeyDown={(e) => {
             if (suggestions.handleKey(e, setDraft)) return;

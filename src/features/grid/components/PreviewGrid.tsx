@@ -1,9 +1,9 @@
 // The first screenful of a large workbook while its full engine is still being built: the same
 // look as the grid, read-only, with a note that the rest is on its way.
-import { columnName } from '../model/a1.js';
-import { defaultColumnWidthPx, readDisplaySettings } from '../model/displaySettings.js';
+import { columnName } from '../../../core/workbook/model/a1.js';
+import { defaultColumnWidthPx, readDisplaySettings } from '../../../core/workbook/model/displaySettings.js';
 import type { SheetSettings } from '../../../../shared/workbooks.js';
-import type { SheetPreview } from '../model/windowPreview.js';
+import type { SheetPreview } from '../../../core/workbook/model/windowPreview.js';
 
 const cellClass = (kind: string | undefined) => `orb-cell ${kind ? `orb-cell-${kind}` : ''}`;
 

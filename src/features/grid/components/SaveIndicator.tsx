@@ -1,6 +1,6 @@
 // Where the save queue stands, in words that are true at every moment: "Saved" only when the
 // server has acknowledged every change.
-import type { SaveStatus } from '../save/patchQueue.js';
+import type { SaveStatus } from '../../../core/workbook/save/patchQueue.js';
 
 const plural = (n: number, word: string) => `${n} ${word}${n === 1 ? '' : 's'}`;
 

@@ -5,7 +5,8 @@
 // column does on blur.
 import { memo, useLayoutEffect, useRef, useState } from 'react';
 import type { CellProps } from 'react-datasheet-grid';
-import type { CellView } from '../model/cellView.js';
+import type { CellView } from '../../../core/workbook/model/cellView.js';
+import { openedByTyping } from './editorOpening.js';
 import { FunctionSuggestions, useFunctionSuggestions } from './FunctionSuggestions.js';
 
 /** What every cell of a column shares; kept stable so cells do not re-render for nothing. */
@@ -38,11 +39,13 @@ function CellEditor({ rowData, setRowData, columnData }: SheetCellProps) {
   };
 
   useLayoutEffect(() => {
-    // Focus at once, before the key that opened the editor is delivered, so it replaces the text.
+    // Focus at once, before the key that opened the editor is delivered: a typed character replaces
+    // the text; F2, Enter or a double-click leave the text and put the caret at its end.
     const el = input.current!;
     el.value = state.current.value;
     el.focus();
-    el.select();
+    if (openedByTyping()) el.select();
+    else el.setSelectionRange(el.value.length, el.value.length);
     return () => close.current();
   }, []);
 
@@ -79,10 +82,12 @@ function CellEditor({ rowData, setRowData, columnData }: SheetCellProps) {
 function SheetCellImpl(props: SheetCellProps) {
   if (props.focus) return <CellEditor {...props} />;
   const view = props.rowData ?? null;
-  const title = view?.kind === 'error' ? `${view.errorCode}: ${view.errorMessage}` : view?.spilled ? 'Filled by an array formula (read-only)' : undefined;
+  const title = view?.kind === 'error' ? `${view.errorCode}: ${view.errorMessage}` : view?.spilled ? 'Filled by an array formula (read-only)' : view?.kind === 'number' ? String(view.value) : undefined;
+  // The text sits in its own box so that what does not fit ends in an ellipsis (a flex container
+  // would cut it off with no sign); a number's full value is in the tooltip.
   return (
     <div className={cellClass(view, props.disabled)} title={title} data-cell-kind={view?.kind} aria-selected={props.active || undefined}>
-      {view?.display}
+      {view?.display ? <span className="orb-cell-text">{view.display}</span> : null}
     </div>
   );
 }

@@ -7,10 +7,10 @@ import { useCallback, useEffect, useMemo, useRef, useState, type RefObject } fro
 import { DynamicDataSheetGrid, keyColumn, type Column, type DataSheetGridRef } from 'react-datasheet-grid';
 import 'react-datasheet-grid/dist/style.css';
 import '../grid.css';
-import type { CellView } from '../model/cellView.js';
-import { defaultColumnWidthPx } from '../model/displaySettings.js';
-import type { RowData, WorkbookModel } from '../model/workbookModel.js';
-import type { CellInput } from '../save/pendingStore.js';
+import type { CellView } from '../../../core/workbook/model/cellView.js';
+import { defaultColumnWidthPx } from '../../../core/workbook/model/displaySettings.js';
+import type { RowData, WorkbookModel } from '../../../core/workbook/model/workbookModel.js';
+import type { CellInput } from '../../../core/workbook/save/pendingStore.js';
 import { ColumnHeader } from './ColumnHeader.js';
 import { SheetCell, type CellColumnData } from './SheetCell.js';
 
@@ -74,6 +74,9 @@ export function SheetGrid(p: SheetGridProps) {
   onEditText.current = p.onEditText;
   const columnData = useMemo<CellColumnData[]>(
     () => Array.from({ length: p.colCount }, (_, col) => ({ col, onEditText: (t: string | null) => onEditText.current(t) })),
+    // The sheet is a dependency on purpose: another sheet gets new column objects, so the grid
+    // drops the previous sheet's cell state.
+    // eslint-disable-next-line react-hooks/exhaustive-deps
     [p.colCount, p.sheetId],
   );
 

@@ -1,7 +1,7 @@
 // The sheet toolbar: history, rows and columns, fill, sort and filter, display settings, panels.
 // Buttons do not take focus on click, so the grid keeps its active cell and the keyboard.
 import type { ReactNode } from 'react';
-import type { Precision } from '../model/cellView.js';
+import type { Precision } from '../../../core/workbook/model/cellView.js';
 
 export interface ToolbarProps {
   canEdit: boolean;

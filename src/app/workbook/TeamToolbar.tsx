@@ -1,19 +1,19 @@
 // The team controls of an open workbook, in its title bar: who else is here, and Share, Protect,
 // History and Audit (each shown only to roles that can use it; the API checks again).
 import { useNavigate } from 'react-router';
-import { can } from '../../../shared/permissions.js';
+import { allows } from '../../../shared/permissions.js';
 import { Button } from '../../components/ui/Button.js';
-import { AuditDialog } from '../audit/AuditDialog.js';
-import type { WorkbookModel } from '../grid/model/workbookModel.js';
-import { HistoryDialog } from '../history/HistoryDialog.js';
-import { ProtectDialog } from '../locks/ProtectDialog.js';
-import { ShareDialog } from '../sharing/ShareDialog.js';
-import { PresenceChips } from './PresenceChips.js';
-import type { WorkbookTeam } from './useWorkbookTeam.js';
+import { AuditDialog } from '../../features/audit/AuditDialog.js';
+import type { WorkbookModel } from '../../core/workbook/model/workbookModel.js';
+import { HistoryDialog } from '../../features/history/HistoryDialog.js';
+import { ProtectDialog } from '../../features/locks/ProtectDialog.js';
+import { ShareDialog } from '../../features/sharing/ShareDialog.js';
+import { PresenceChips } from '../../features/live/PresenceChips.js';
+import type { WorkbookTeam } from '../../features/live/useWorkbookTeam.js';
 
 export function TeamToolbar({ team, model, activeSheet, selectionRange }: { team: WorkbookTeam; model: WorkbookModel; activeSheet: { id: string; name: string }; selectionRange?: string }) {
   const navigate = useNavigate();
-  const { role, dialog, openDialog } = team;
+  const { role, actions, dialog, openDialog } = team;
   const close = () => openDialog(null);
   const isMember = role !== 'site-admin';
   return (
@@ -27,25 +27,25 @@ export function TeamToolbar({ team, model, activeSheet, selectionRange }: { team
       />
       <span aria-hidden="true" className="mx-1 h-4 w-px bg-line" />
       {isMember && (
-        <Button variant={can(role, 'manageMembers') ? 'primary' : 'secondary'} onClick={() => openDialog('share')}>
+        <Button variant={allows(actions, 'manageMembers') ? 'primary' : 'secondary'} onClick={() => openDialog('share')}>
           Share
         </Button>
       )}
       <Button variant="ghost" onClick={() => openDialog('protect')}>
         Protect
       </Button>
-      {can(role, 'viewHistory') && (
+      {allows(actions, 'viewHistory') && (
         <Button variant="ghost" onClick={() => openDialog('history')}>
           History
         </Button>
       )}
-      {can(role, 'viewAudit') && (
+      {allows(actions, 'viewAudit') && (
         <Button variant="ghost" onClick={() => openDialog('audit')}>
           Audit
         </Button>
       )}
       {isMember && (
-        <ShareDialog open={dialog === 'share'} onClose={close} workbookId={model.id} title={model.title} role={role} myId={team.myId} onLeft={() => navigate('/', { replace: true })} />
+        <ShareDialog open={dialog === 'share'} onClose={close} workbookId={model.id} title={model.title} actions={actions} myId={team.myId} onLeft={() => navigate('/', { replace: true })} />
       )}
       <ProtectDialog
         open={dialog === 'protect'}
@@ -53,12 +53,12 @@ export function TeamToolbar({ team, model, activeSheet, selectionRange }: { team
         workbookId={model.id}
         sheet={activeSheet}
         protection={team.protection}
-        role={role}
+        actions={actions}
         myId={team.myId}
         suggestedRange={selectionRange}
       />
-      {can(role, 'viewHistory') && <HistoryDialog open={dialog === 'history'} onClose={close} workbookId={model.id} role={role} />}
-      {can(role, 'viewAudit') && <AuditDialog open={dialog === 'audit'} onClose={close} workbookId={model.id} />}
+      {allows(actions, 'viewHistory') && <HistoryDialog open={dialog === 'history'} onClose={close} workbookId={model.id} actions={actions} />}
+      {allows(actions, 'viewAudit') && <AuditDialog open={dialog === 'audit'} onClose={close} workbookId={model.id} />}
     </div>
   );
 }

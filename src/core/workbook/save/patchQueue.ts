@@ -28,6 +28,8 @@ export interface PatchQueueOptions {
   firstRetryMs?: number;
   maxRetryMs?: number;
   maxCellsPerSend?: number;
+  /** Shows colleagues' inputs that were held back behind mine (the model's applyRemote). */
+  showRemote?: (inputs: CellInput[]) => void;
 }
 
 /** Network failures, 5xx and 429 are worth retrying; other refusals would only repeat themselves. */
@@ -55,10 +57,11 @@ export class PatchQueue {
   /** Asks the live feed for the revisions up to this one (set while the feed runs). */
   catchUp: ((revision: number) => void) | null = null;
   /** Shows colleagues' inputs that were held back behind mine, once mine is gone and theirs is newer. */
-  showRemote: (inputs: CellInput[]) => void = () => {};
+  private readonly showRemote: (inputs: CellInput[]) => void;
 
   constructor(private readonly opts: PatchQueueOptions) {
     this.ledger = new RevisionLedger(opts.baseRevision);
+    this.showRemote = opts.showRemote ?? (() => {});
     this.debounceMs = opts.debounceMs ?? 300;
     this.firstRetryMs = opts.firstRetryMs ?? 1000;
     this.maxRetryMs = opts.maxRetryMs ?? 30_000;

@@ -1,23 +1,14 @@
 // Opens a workbook: loads it once (TanStack Query, never refetched behind the user's back — the
 // engine is built from this one load), builds the model and the save queue, and takes over any
 // changes an earlier visit left unsent in local storage.
-import { queryOptions, useQuery } from '@tanstack/react-query';
+import { useQuery } from '@tanstack/react-query';
 import { useEffect, useRef, useState, useSyncExternalStore } from 'react';
-import type { PatchResult, WorkbookPayload } from '../../../../shared/workbooks.js';
-import { api, queryKeys } from '../../../lib/api.js';
+import type { WorkbookPayload } from '../../../../shared/workbooks.js';
+import { sendPatch, workbookQueryOptions } from '../api.js';
 import { WorkbookModel } from '../model/workbookModel.js';
 import { PatchQueue, type SaveStatus } from '../save/patchQueue.js';
 import { PendingStore, type KeyValueStorage } from '../save/pendingStore.js';
 import { buildPreview, type SheetPreview } from '../model/windowPreview.js';
-
-export const workbookQueryOptions = (id: string) =>
-  queryOptions({
-    queryKey: queryKeys.workbook(id),
-    queryFn: ({ signal }) => api<WorkbookPayload>(`/workbooks/${encodeURIComponent(id)}`, { signal }),
-    // Each visit loads afresh; while open, the engine is the source of truth.
-    staleTime: Infinity,
-    gcTime: 0,
-  });
 
 export interface WorkbookSession {
   model: WorkbookModel;
@@ -38,13 +29,16 @@ function browserStorage(): KeyValueStorage | null {
 export function openSession(payload: WorkbookPayload, storage: KeyValueStorage | null): WorkbookSession {
   // Timed for the open benchmark (bench/browser-open.ts reads this measure).
   const started = performance.now();
-  const model = new WorkbookModel(payload);
+  // The model hands every local change to the save queue; the queue shows colleagues' inputs it held
+  // back. Each is given the other's method at construction, called only once both exist.
+  const model: WorkbookModel = new WorkbookModel(payload, { onLocalChanges: (changes) => queue.enqueue(changes) });
   performance.measure('orbitab:build-engine', { start: started, end: performance.now() });
   const store = new PendingStore(storage, payload.id);
-  const queue = new PatchQueue({
+  const queue: PatchQueue = new PatchQueue({
     store,
     baseRevision: payload.revision,
-    transport: { send: (patch) => api<PatchResult>(`/workbooks/${encodeURIComponent(payload.id)}/patches`, { method: 'POST', body: patch }) },
+    transport: { send: (patch) => sendPatch(payload.id, patch) },
+    showRemote: (inputs) => model.applyRemote(inputs),
   });
   let restored = 0;
   const left = store.load();
@@ -55,8 +49,6 @@ export function openSession(payload: WorkbookPayload, storage: KeyValueStorage |
     queue.restore({ baseRevision: left.baseRevision, changes: known });
     restored = known.length;
   }
-  model.onLocalChanges = (changes) => queue.enqueue(changes);
-  queue.showRemote = (inputs) => model.applyRemote(inputs);
   return { model, queue, store, restored };
 }
 

@@ -1,11 +1,11 @@
 // The lines between the toolbar and the grid that concern other people: the sheet's protection,
 // inputs of mine set aside, and a stream that ended (workbook deleted, access removed, too far behind).
 import { Link } from 'react-router';
-import type { WorkbookModel } from '../grid/model/workbookModel.js';
-import { ProtectionBanner } from '../locks/ProtectionBanner.js';
-import { SetAsideNotice } from './SetAsideNotice.js';
-import type { EndReason } from './useLiveUpdates.js';
-import type { WorkbookTeam } from './useWorkbookTeam.js';
+import type { WorkbookModel } from '../../core/workbook/model/workbookModel.js';
+import { ProtectionBanner } from '../../features/locks/ProtectionBanner.js';
+import { SetAsideNotice } from '../../features/live/SetAsideNotice.js';
+import type { EndReason } from '../../features/live/useLiveUpdates.js';
+import type { WorkbookTeam } from '../../features/live/useWorkbookTeam.js';
 
 const endMessages: Record<EndReason, string> = {
   deleted: 'This workbook was deleted by its owner. What you see is no longer saved anywhere.',

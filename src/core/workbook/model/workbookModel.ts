@@ -7,7 +7,7 @@
 import { ExportedCellChange, type ExportedChange, type HyperFormula } from 'hyperformula';
 import { createEngine } from '../../../../functions/engine.js';
 import type { SheetPayload, WorkbookPayload } from '../../../../shared/workbooks.js';
-import { can, type AccessRole } from '../../../../shared/permissions.js';
+import { allows, type AccessRole, type WorkbookAction } from '../../../../shared/permissions.js';
 import type { CellView } from './cellView.js';
 import { buildSheetRows, EMPTY_ROW, groupCells, viewOfCell, withRowsReplaced, type RowData } from './sheetViews.js';
 import { readDisplaySettings, type DisplaySettings } from './displaySettings.js';
@@ -46,6 +46,8 @@ export class WorkbookModel {
   readonly id: string;
   title: string;
   role: AccessRole;
+  /** What the user may do here, as the server decided it (all their roles together). */
+  actions: WorkbookAction[];
   readonly engine: HyperFormula;
   readonly history = new History();
   private sheetsById = new Map<string, SheetState>();
@@ -55,14 +57,16 @@ export class WorkbookModel {
   structureRule: ((sheetId: string) => string | null) | null = null;
   /** Why a lock or protected range keeps me out of this cell (the rule alone: no views needed). */
   protectionReason = (sheetId: string, row: number, col: number): string | null => this.extraRule?.(sheetId, row, col) ?? null;
-  /** Called with every local change that must reach the server. */
-  onLocalChanges: (changes: CellInput[]) => void = () => {};
+  /** Called with every local change that must reach the server (the save queue's enqueue). */
+  readonly onLocalChanges: (changes: CellInput[]) => void;
   version = 0;
 
-  constructor(payload: WorkbookPayload) {
+  constructor(payload: WorkbookPayload, options: { onLocalChanges?: (changes: CellInput[]) => void } = {}) {
+    this.onLocalChanges = options.onLocalChanges ?? (() => {});
     this.id = payload.id;
     this.title = payload.title;
     this.role = payload.role;
+    this.actions = payload.actions;
     const ordered = [...payload.sheets].sort((a, b) => a.position - b.position);
     const inputs = new Map(ordered.map((s) => [s.id, SheetInputs.from(s.cells)]));
     // Built once from whole tables: no per-cell setCellContents on load. Undo lives in History
@@ -93,7 +97,7 @@ export class WorkbookModel {
   }
 
   get readOnly(): boolean {
-    return !can(this.role, 'editCells');
+    return !allows(this.actions, 'editCells');
   }
 
   input(sheetId: string, row: number, col: number): string {

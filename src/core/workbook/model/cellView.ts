@@ -25,9 +25,10 @@ export interface CellView {
 export type Precision = number | null;
 
 /**
- * The automatic format, as desktop spreadsheets' "general" format behaves (common practice): whole
- * numbers as they are, others to 10 significant digits with trailing zeros dropped, and scientific
- * notation for very large or very small magnitudes.
+ * The automatic format: whole numbers as they are, others to 6 significant digits with trailing zeros
+ * dropped (as many as a computed bond order, energy or wavelength is worth reading, and what fits a
+ * column), and scientific notation for very large or very small magnitudes. The full value stays in
+ * the cell: charts, sorting and the formula bar's tooltip use it.
  */
 export function formatNumber(x: number, precision: Precision): string {
   if (!Number.isFinite(x)) return String(x);
@@ -42,7 +43,8 @@ export function formatNumber(x: number, precision: Precision): string {
   if (x === 0) return '0';
   if (abs >= 1e11 || abs < 1e-4) return trimExponential(x.toExponential(5));
   if (Number.isInteger(x)) return String(x);
-  return trimFraction(x.toPrecision(10));
+  const text = x.toPrecision(6);
+  return text.includes('e') ? trimExponential(text) : trimFraction(text);
 }
 
 function trimFraction(s: string): string {

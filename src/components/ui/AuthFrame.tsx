@@ -1,5 +1,5 @@
 import type { ReactNode } from 'react';
-import { OrbitabMark } from '../../components/ui/icons.js';
+import { OrbitabMark } from './icons.js';
 
 /** The quiet frame around the sign-in and sign-up forms. */
 export function AuthFrame({ title, children, footer }: { title: string; children: ReactNode; footer: ReactNode }) {

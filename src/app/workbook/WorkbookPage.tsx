@@ -3,9 +3,9 @@ import { useEffect } from 'react';
 import { Link, useParams } from 'react-router';
 import { Notice } from '../../components/ui/Notice.js';
 import { ApiError } from '../../lib/api.js';
-import { useWorkbookSession } from './session/useWorkbookSession.js';
+import { useWorkbookSession } from '../../core/workbook/session/useWorkbookSession.js';
 import { Workspace } from './Workspace.js';
-import { PreviewGrid } from './components/PreviewGrid.js';
+import { PreviewGrid } from '../../features/grid/components/PreviewGrid.js';
 
 export function WorkbookPage() {
   const { id = '' } = useParams();

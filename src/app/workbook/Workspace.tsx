@@ -1,32 +1,30 @@
 // The open workbook: title and save state, toolbar, formula bar, the sheet, the side panel and the
 // sheet tabs. Holds the view state (active sheet, selection, filter, live column widths); the data
 // lives in the model.
-import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
+import { useEffect, useMemo, useRef, useState } from 'react';
 import type { DataSheetGridRef } from 'react-datasheet-grid';
-import { ChartPanel } from '../chart/ChartPanel.js';
-import { SafetyNote } from '../diagram/SafetyNote.js';
-import { StructurePanel } from '../diagram/StructurePanel.js';
-import { cellName, parseCellName, rangeName } from './model/a1.js';
-import type { DisplaySettings } from './model/displaySettings.js';
-import { fillPairs } from './model/rangeEdits.js';
-import { FilterMenu, type SheetFilter } from './components/FilterMenu.js';
-import { FormulaBar } from './components/FormulaBar.js';
-import { SaveIndicator } from './components/SaveIndicator.js';
-import { SheetGrid, type ViewCell } from './components/SheetGrid.js';
-import { SheetTabs } from './components/SheetTabs.js';
-import { StarterTemplate } from './StarterTemplate.js';
-import { Toolbar } from './components/Toolbar.js';
-import { useSheetKeys } from './components/useSheetKeys.js';
-import { addSheet, deleteSheet, moveSheet, renameSheet, saveDisplaySettings } from './session/sheetActions.js';
-import { useModelVersion, useSaveStatus, type WorkbookSession } from './session/useWorkbookSession.js';
-import { useSheetCommands, type ViewSelection } from './useSheetCommands.js';
-import { useSheetView } from './useSheetView.js';
-import { ConflictResolver } from '../live/ConflictResolver.js';
-import { lockSummary } from '../locks/SheetLockSection.js';
-import { TeamNotices } from '../live/TeamNotices.js';
-import { TeamToolbar } from '../live/TeamToolbar.js';
-import { useWorkbookTeam } from '../live/useWorkbookTeam.js';
-import { ExportMenu } from '../io/index.js';
+import { SafetyNote } from '../../features/diagram/SafetyNote.js';
+import { parseCellName } from '../../core/workbook/model/a1.js';
+import { fillPairs } from '../../core/workbook/model/rangeEdits.js';
+import { FilterMenu, type SheetFilter } from '../../features/grid/components/FilterMenu.js';
+import { FormulaBar, type FormulaBarHandle } from '../../features/grid/components/FormulaBar.js';
+import { SheetGrid, type ViewCell } from '../../features/grid/components/SheetGrid.js';
+import { SheetTabs } from '../../features/grid/components/SheetTabs.js';
+import { StarterTemplate } from '../../features/grid/StarterTemplate.js';
+import { Toolbar } from '../../features/grid/components/Toolbar.js';
+import { useSheetKeys } from '../../features/grid/components/useSheetKeys.js';
+import { addSheet, deleteSheet, moveSheet, renameSheet } from '../../core/workbook/api.js';
+import { useModelVersion, useSaveStatus, type WorkbookSession } from '../../core/workbook/session/useWorkbookSession.js';
+import { useSheetCommands, type ViewSelection } from '../../features/grid/useSheetCommands.js';
+import { useSheetView } from '../../features/grid/useSheetView.js';
+import { ConflictResolver } from '../../features/live/ConflictResolver.js';
+import { lockSummary } from '../../features/locks/SheetLockSection.js';
+import { TeamNotices } from './TeamNotices.js';
+import { SidePanel } from './SidePanel.js';
+import { useDisplaySaver } from './useDisplaySaver.js';
+import { useFocusedCell } from './useFocusedCell.js';
+import { MessageStrip, WorkbookBar } from './WorkbookBar.js';
+import { useWorkbookTeam } from '../../features/live/useWorkbookTeam.js';
 
 function gridSelection(grid: DataSheetGridRef | null): ViewSelection | null {
   const s = grid?.selection;
@@ -54,19 +52,10 @@ export function Workspace({ session }: { session: WorkbookSession }) {
   const [message, setMessage] = useState<string | null>(session.restored > 0 ? `${session.restored} unsent change${session.restored === 1 ? '' : 's'} from your last visit restored; sending now.` : null);
   const editing = useRef(false);
   const gridRef = useRef<DataSheetGridRef>(null);
+  const barRef = useRef<FormulaBarHandle>(null);
   const view = useSheetView(model, activeSheetId, display.freezeHeaderRow, filter);
 
-  // Display settings are saved on the sheet (debounced) so widths and precision follow the workbook.
-  const saveTimer = useRef<ReturnType<typeof setTimeout> | null>(null);
-  const setDisplay = useCallback(
-    (next: DisplaySettings) => {
-      model.setDisplay(activeSheetId, next);
-      if (saveTimer.current) clearTimeout(saveTimer.current);
-      const id = activeSheetId;
-      saveTimer.current = setTimeout(() => saveDisplaySettings(session, id, next).catch((e: Error) => setMessage(`Display settings not saved: ${e.message}`)), 500);
-    },
-    [model, session, activeSheetId],
-  );
+  const setDisplay = useDisplaySaver(session, activeSheetId, setMessage);
 
   const switchSheet = (id: string) => {
     setSheetId(id);
@@ -76,10 +65,7 @@ export function Workspace({ session }: { session: WorkbookSession }) {
     gridRef.current?.setActiveCell(null);
   };
 
-  const focus = frozenPick !== null ? { row: 0, col: frozenPick } : active ? { row: view.sheetRow(active.row), col: active.col } : null;
-  const focusView = focus ? model.view(activeSheetId, focus.row, focus.col) : undefined;
-  const focusInput = focus ? model.input(activeSheetId, focus.row, focus.col) : '';
-  const address = focus ? (selection && frozenPick === null && (selection.min.row !== selection.max.row || selection.min.col !== selection.max.col) ? rangeName({ top: view.sheetRow(selection.min.row), left: selection.min.col, bottom: view.sheetRow(selection.max.row), right: selection.max.col }) : cellName(focus.row, focus.col)) : '';
+  const { focus, focusView, focusInput, address, structureSource } = useFocusedCell(model, activeSheetId, view, { active, selection, frozenPick });
 
   // Colleagues: live revisions, presence (my cursor), locks and protected ranges as the grid's edit rule.
   const team = useWorkbookTeam(session, focus ? { sheetId: activeSheetId, row: focus.row, col: focus.col } : null);
@@ -109,46 +95,40 @@ export function Workspace({ session }: { session: WorkbookSession }) {
       return { row, col: Math.max(0, cols - 1) };
     },
     lastUsedColInRow: (r) => Math.max(0, ...Object.keys(view.data[r] ?? {}).map(Number)),
+    isFilled: (r, c) => (view.data[r]?.[c]?.display ?? '') !== '',
+    frozenCol: () => frozenPick,
+    hasFrozenRow: () => display.freezeHeaderRow,
+    pickFrozen: (col) => {
+      if (col === null) {
+        gridRef.current?.setActiveCell({ row: 0, col: frozenPick ?? 0 });
+        setFrozenPick(null);
+      } else {
+        gridRef.current?.setActiveCell(null);
+        setFrozenPick(col);
+      }
+    },
+    editInBar: (typed) => barRef.current?.edit(typed),
     pageRows: () => Math.max(1, Math.floor((document.querySelector('[data-testid="sheet-grid"]')?.clientHeight ?? 480) / 24) - 2),
     ...commands,
   });
 
-  const structureSource = useMemo(
-    () =>
-      focus
-        ? {
-            input: focusInput,
-            display: focusView?.kind === 'text' ? focusView.display : '',
-            textOf: (a1: string) => {
-              const ref = parseCellName(a1);
-              const v = ref ? model.view(activeSheetId, ref.row, ref.col) : undefined;
-              return v?.kind === 'text' ? v.display : null;
-            },
-          }
-        : null,
-    // eslint-disable-next-line react-hooks/exhaustive-deps
-    [focusInput, focusView, activeSheetId, focus?.row, focus?.col],
-  );
-
   const widths = useMemo(() => ({ ...display.columnWidths, ...dragWidths }), [display.columnWidths, dragWidths]);
   useEffect(() => setDragWidths({}), [display.columnWidths]);
-  const returnToGrid = () => {
-    if (active) gridRef.current?.setActiveCell(active);
+  // Leaving the formula bar: back to the cell in the grid; on the frozen header row, Enter moves
+  // down into the grid (as it would from any cell) and Escape stays on the header cell.
+  const returnToGrid = (committed = false) => {
+    if (frozenPick !== null) {
+      (document.activeElement as HTMLElement | null)?.blur();
+      if (committed) {
+        gridRef.current?.setActiveCell({ row: 0, col: frozenPick });
+        setFrozenPick(null);
+      }
+    } else if (active) gridRef.current?.setActiveCell(active);
   };
 
   return (
     <div className="flex h-full min-h-0 flex-col bg-canvas">
-      <div className="flex h-9 shrink-0 items-center gap-3 border-b border-line bg-surface px-3" data-grid-shield="">
-        <h1 className="truncate text-ui font-semibold" data-testid="workbook-title">
-          {model.title}
-        </h1>
-        {model.readOnly && <span className="rounded-ctl bg-raised px-1.5 text-caption text-ink-3">read-only</span>}
-        <span className="ml-auto" />
-        <TeamToolbar team={team} model={model} activeSheet={{ id: activeSheetId, name: sheet.name }} selectionRange={address || undefined} />
-        {/* Every role may export, viewers included (the API checks the same). */}
-        <ExportMenu workbookId={model.id} activeSheet={{ id: activeSheetId, name: sheet.name }} />
-        <SaveIndicator status={status} storageWorks={store.storageWorks} />
-      </div>
+      <WorkbookBar model={model} team={team} activeSheet={{ id: activeSheetId, name: sheet.name }} selectionRange={address || undefined} status={status} storageWorks={store.storageWorks} />
       <ConflictResolver session={session} status={status} onSetAside={team.addSetAside} />
       <Toolbar
         canEdit={!model.readOnly}
@@ -183,6 +163,7 @@ export function Workspace({ session }: { session: WorkbookSession }) {
         onPanel={setPanel}
       />
       <FormulaBar
+        barRef={barRef}
         address={address}
         input={focusInput}
         liveText={liveText}
@@ -193,13 +174,14 @@ export function Workspace({ session }: { session: WorkbookSession }) {
           if (!focus) return;
           const outcome = model.edit([{ sheetId: activeSheetId, row: focus.row, col: focus.col, input }]);
           setMessage(outcome.refused[0] ? `Not changed: ${outcome.refused[0].reason}.` : null);
-          returnToGrid();
+          returnToGrid(true);
         }}
-        onCancel={returnToGrid}
+        onCancel={() => returnToGrid()}
         onGoTo={(text) => {
           const ref = parseCellName(text);
           if (!ref) return false;
           if (display.freezeHeaderRow && ref.row === 0) {
+            gridRef.current?.setActiveCell(null);
             setFrozenPick(ref.col);
             return true;
           }
@@ -209,14 +191,7 @@ export function Workspace({ session }: { session: WorkbookSession }) {
           return true;
         }}
       />
-      {message && (
-        <div role="status" data-grid-shield="" className="flex shrink-0 items-center gap-2 border-b border-caution-line bg-caution-soft px-3 py-1 text-caption text-ink" data-testid="sheet-message">
-          {message}
-          <button type="button" className="ml-auto text-ink-3 hover:text-ink" aria-label="Dismiss" onClick={() => setMessage(null)}>
-            ×
-          </button>
-        </div>
-      )}
+      <MessageStrip message={message} onDismiss={() => setMessage(null)} />
       <TeamNotices team={team} model={model} activeSheetId={activeSheetId} />
       <StarterTemplate model={model} sheetId={activeSheetId} />
       <div className="flex min-h-0 flex-1">
@@ -255,22 +230,12 @@ export function Workspace({ session }: { session: WorkbookSession }) {
             }}
           />
         </div>
-        {panel && (
-          <aside aria-label={panel === 'structure' ? 'Structure of the selected cell' : 'Chart'} data-grid-shield="" onMouseDown={(e) => e.stopPropagation()} className="flex w-[26rem] shrink-0 flex-col overflow-y-auto border-l border-line bg-surface">
-            <div className="flex-1">
-              {panel === 'structure' ? (
-                <StructurePanel source={structureSource} address={address} />
-              ) : (
-                <ChartPanel rows={view.rows} colCount={sheet.colCount} firstRow={display.freezeHeaderRow ? 1 : 0} headerRow={view.frozenRow} initialX={focus?.col ?? 0} />
-              )}
-            </div>
-          </aside>
-        )}
+        {panel && <SidePanel panel={panel} structureSource={structureSource} address={address} view={view} colCount={sheet.colCount} firstRow={display.freezeHeaderRow ? 1 : 0} initialX={focus?.col ?? 0} />}
       </div>
       <SheetTabs
         sheets={sheets.map((s) => {
           const lock = team.protection.locks.find((l) => l.sheetId === s.id);
-          return { id: s.id, name: s.name, lock: lock && lockSummary(lock) };
+          return { id: s.id, name: s.name, lock: lock && lockSummary(lock, team.myId) };
         })}
         activeId={activeSheetId}
         canEdit={!model.readOnly}

@@ -1,9 +1,23 @@
-// Tab operations go straight to the server (they are rare and must not be lost or reordered with
-// cell patches), then to the engine once the server has accepted them.
-import type { SheetMutationResult } from '../../../../shared/workbooks.js';
-import { api } from '../../../lib/api.js';
-import { writeDisplaySettings, type DisplaySettings } from '../model/displaySettings.js';
-import type { WorkbookSession } from './useWorkbookSession.js';
+// Every request the open workbook makes: loading it, sending a patch of cell inputs, and tab
+// operations. Tab operations go straight to the server (they are rare and must not be lost or
+// reordered with cell patches), then to the engine once the server has accepted them.
+import { queryOptions } from '@tanstack/react-query';
+import type { PatchInput, PatchResult, SheetMutationResult, WorkbookPayload } from '../../../shared/workbooks.js';
+import { api, queryKeys } from '../../lib/api.js';
+import { writeDisplaySettings, type DisplaySettings } from './model/displaySettings.js';
+import type { WorkbookSession } from './session/useWorkbookSession.js';
+
+export const workbookQueryOptions = (id: string) =>
+  queryOptions({
+    queryKey: queryKeys.workbook(id),
+    queryFn: ({ signal }) => api<WorkbookPayload>(`/workbooks/${encodeURIComponent(id)}`, { signal }),
+    // Each visit loads afresh; while open, the engine is the source of truth.
+    staleTime: Infinity,
+    gcTime: 0,
+  });
+
+/** POST /api/workbooks/:id/patches: the save queue's one way to the server. */
+export const sendPatch = (workbookId: string, patch: PatchInput) => api<PatchResult>(`/workbooks/${encodeURIComponent(workbookId)}/patches`, { method: 'POST', body: patch });
 
 const base = (s: WorkbookSession) => `/workbooks/${encodeURIComponent(s.model.id)}/sheets`;
 

@@ -1,0 +1,137 @@
+// Three-dimensional structures for all-valence-electron methods, from the text in one cell:
+// - XYZ text: lines "El x y z" in ångström, optionally headed by the atom count and a comment line
+//   (the plain XYZ exchange format); lines may be separated by newlines or by ";" so that a short
+//   molecule fits on one line of a formula;
+// - a molfile or one SDF record (V2000/V3000) carrying 3D coordinates and every hydrogen;
+// - otherwise SMILES: openchemlib adds the hydrogens, builds one conformer with its ConformerGenerator
+//   (fixed seed, so the same text always gives the same geometry) and tidies it with its MMFF94s+
+//   force field (T. A. Halgren, J. Comput. Chem. 17, 490 (1996); J. Comput. Chem. 20, 720 (1999)).
+//   The conformer generator needs openchemlib's static resources, which are loaded by the environment
+//   (Node or browser) before use — never from here, so this file stays free of Node-only calls.
+import { ConformerGenerator, ForceFieldMMFF94, Molecule } from 'openchemlib';
+import { ChemError } from '../catalog/types.js';
+
+export type GeometrySource = 'xyz' | 'molfile' | 'smiles-conformer';
+
+export interface Geometry3d {
+  /** Element symbols, one per atom (hydrogens included). */
+  elements: string[];
+  /** Cartesian coordinates in ångström. */
+  coordinates: [number, number, number][];
+  /** Net charge from the structure (formal charges of SMILES/molfile; 0 for XYZ unless given). */
+  charge: number;
+  source: GeometrySource;
+  /** For SMILES: whether the MMFF94s+ minimisation ran (false when the force field has no types for an atom). */
+  forceFieldTidied?: boolean;
+}
+
+/** The seed of the conformer generator: one fixed number, so identical SMILES give identical geometry. */
+export const CONFORMER_SEED = 20260;
+
+export function geometrySourceOf(text: string): GeometrySource {
+  const t = text.trim();
+  if (/M {2}END|V[23]000/.test(t)) return 'molfile';
+  const firstLine = t.split(/\r?\n|;/)[0].trim();
+  // An element symbol followed by a number cannot start SMILES (a SMILES name follows a space but is
+  // not numeric), so such a line is read as XYZ and a malformed one gets the XYZ message.
+  if (/^\d+$/.test(firstLine) || /^[A-Za-z]{1,2}\s+[-+.\d]/.test(firstLine)) return 'xyz';
+  return 'smiles-conformer';
+}
+
+/** Reads a structure from cell text; see the header for the three accepted forms. */
+export function readGeometry(text: string): Geometry3d {
+  const t = text.trim();
+  if (t === '') throw new ChemError('empty structure: give SMILES, XYZ text ("O 0 0 0; H 0.96 0 0; …") or a molfile with 3D coordinates');
+  const source = geometrySourceOf(t);
+  if (source === 'xyz') return readXyz(t);
+  if (source === 'molfile') return readMolfile(t);
+  return conformerFromSmiles(t);
+}
+
+function normaliseSymbol(raw: string): string {
+  return raw.charAt(0).toUpperCase() + raw.slice(1).toLowerCase();
+}
+
+export function readXyz(text: string): Geometry3d {
+  let lines = text.split(/\r?\n|;/).map((l) => l.trim());
+  if (/^\d+$/.test(lines[0])) {
+    const count = Number(lines[0]);
+    // The comment line may be empty; atoms start on the third line.
+    const atomLines = lines.slice(2).filter((l) => l !== '');
+    if (atomLines.length !== count) throw new ChemError(`XYZ text announces ${count} atoms but lists ${atomLines.length}`);
+    lines = atomLines;
+  } else lines = lines.filter((l) => l !== '');
+  const elements: string[] = [];
+  const coordinates: [number, number, number][] = [];
+  lines.forEach((line, i) => {
+    const parts = line.split(/[\s,]+/);
+    const xyz = parts.slice(1, 4).map(Number);
+    if (parts.length < 4 || !/^[A-Za-z]{1,2}$/.test(parts[0]) || xyz.some((v) => !Number.isFinite(v)))
+      throw new ChemError(`XYZ line ${i + 1} "${line.slice(0, 40)}" is not "element x y z" (ångström)`);
+    elements.push(normaliseSymbol(parts[0]));
+    coordinates.push([xyz[0], xyz[1], xyz[2]]);
+  });
+  return { elements, coordinates, charge: 0, source: 'xyz' };
+}
+
+function fromOclMolecule(molecule: Molecule, source: GeometrySource): Geometry3d {
+  const elements: string[] = [];
+  const coordinates: [number, number, number][] = [];
+  let charge = 0;
+  for (let a = 0; a < molecule.getAllAtoms(); a++) {
+    elements.push(molecule.getAtomLabel(a));
+    coordinates.push([molecule.getAtomX(a), molecule.getAtomY(a), molecule.getAtomZ(a)]);
+    charge += molecule.getAtomCharge(a);
+  }
+  return { elements, coordinates, charge, source };
+}
+
+export function readMolfile(text: string): Geometry3d {
+  const record = text.split(/^\$\$\$\$/m)[0];
+  const header = record.split(/\r?\n/)[1] ?? '';
+  if (/^.{20}2D/.test(header)) throw new ChemError('the molfile holds 2D coordinates; all-valence methods need a 3D structure (or give SMILES to build one)');
+  let molecule: Molecule;
+  try {
+    molecule = Molecule.fromMolfile(record);
+  } catch (e) {
+    throw new ChemError(`cannot read the molfile: ${e instanceof Error ? e.message : String(e)}`);
+  }
+  if (molecule.getAllAtoms() === 0) throw new ChemError('the molfile holds no atoms');
+  molecule.ensureHelperArrays(Molecule.cHelperNeighbours);
+  for (let a = 0; a < molecule.getAtoms(); a++)
+    if (molecule.getImplicitHydrogens(a) > 0)
+      throw new ChemError(`atom ${a + 1} (${molecule.getAtomLabel(a)}) of the molfile has hydrogens without coordinates; write every hydrogen as an atom`);
+  return fromOclMolecule(molecule, 'molfile');
+}
+
+export function conformerFromSmiles(smiles: string): Geometry3d {
+  let molecule: Molecule;
+  try {
+    molecule = Molecule.fromSmiles(smiles);
+  } catch (e) {
+    const raw = e instanceof Error ? e.message : String(e);
+    throw new ChemError(`cannot read SMILES '${smiles}': ${raw.replace(/^.*?SmilesParser:\s*/, '').replace(/^Class\$\S+:\s*/, '')}`);
+  }
+  if (molecule.getAllAtoms() === 0) throw new ChemError(`cannot read SMILES '${smiles}': no atoms`);
+  let conformer: Molecule | null;
+  try {
+    conformer = new ConformerGenerator(CONFORMER_SEED).getOneConformerAsMolecule(molecule);
+  } catch (e) {
+    if (/resources must be registered/.test(String(e)))
+      throw new ChemError('3D structures from SMILES are not available here (the conformer data is not loaded); give XYZ text or a molfile with 3D coordinates');
+    throw e;
+  }
+  if (!conformer) throw new ChemError(`no 3D conformer could be built for '${smiles}'; give XYZ text or a molfile instead`);
+  // Single atoms and ions have nothing for a force field to move.
+  let forceFieldTidied = false;
+  if (conformer.getAllAtoms() > 1) {
+    try {
+      new ForceFieldMMFF94(conformer, 'MMFF94s+', {}).minimise({ maxIts: 4000 });
+      forceFieldTidied = true;
+    } catch {
+      // MMFF94 has no types for some atoms (e.g. unusual ions); the generator's geometry is kept and
+      // the geometry description says so.
+    }
+  }
+  return { ...fromOclMolecule(conformer, 'smiles-conformer'), forceFieldTidied };
+}

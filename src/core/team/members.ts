@@ -1,0 +1,14 @@
+// The members of one workbook (who they are, their roles): read by sharing, locks and the audit view.
+import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { MembersResponse } from '../../../shared/team.js';
+import { api, queryKeys } from '../../lib/api.js';
+
+const base = (id: string) => `/workbooks/${encodeURIComponent(id)}`;
+
+export const membersQueryOptions = (workbookId: string) =>
+  queryOptions({
+    queryKey: queryKeys.members(workbookId),
+    queryFn: ({ signal }) => api<MembersResponse>(`${base(workbookId)}/members`, { signal }).then((r) => r.members),
+  });
+
+export const useMembers = (workbookId: string, enabled = true) => useQuery({ ...membersQueryOptions(workbookId), enabled });

@@ -1,0 +1,140 @@
+// Desktop-spreadsheet habits of the hands, in Debian Chromium against the real server: F2 and a
+// double-click edit with the caret at the end, a click on the active cell only selects it,
+// Ctrl+Arrow stops at the edge of the data, and a double-click on the fill handle fills down beside
+// the data. Bond orders from MO theory: O2 2, N2 3, F2 1, CO 3 (Atkins & de Paula, Physical
+// Chemistry, MO theory of diatomics; recalled from memory).
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { gridCell, launchBrowser, screenshot, type TestBrowser } from './helpers/browser.js';
+import { startServer, type TestServer } from './helpers/server.js';
+
+let server: TestServer;
+let browser: TestBrowser;
+let page: Page;
+
+beforeAll(async () => {
+  server = await startServer();
+  browser = await launchBrowser();
+  page = browser.page;
+  page.setDefaultTimeout(15_000);
+  await page.goto(`${server.url}/sign-up`);
+  await page.getByLabel('Name').fill('Noor Haddad');
+  await page.getByLabel('Email').fill('noor@lab.example');
+  await page.getByLabel('Password').fill('pi-star-antibonding');
+  await page.getByRole('button', { name: 'Create account' }).click();
+}, 120_000);
+
+afterAll(async () => {
+  await browser?.close();
+  await server?.stop();
+});
+
+it('starts from a sheet of four species and a bond order', async () => {
+  await page.getByRole('button', { name: 'New workbook' }).click();
+  await page.getByRole('dialog').getByLabel('Title').fill('Habits');
+  await page.getByRole('button', { name: 'Create and open' }).click();
+  await page.waitForURL((u) => u.pathname.startsWith('/workbooks/'));
+  await page.getByTestId('workbook-title').waitFor();
+  // A1:A4 species, B1 a bond order.
+  await clickCell('A1');
+  for (const s of ['O2', 'N2', 'F2', 'CO']) {
+    await page.keyboard.type(s);
+    await page.keyboard.press('Enter');
+  }
+  await clickCell('B1');
+  await page.keyboard.type('=BONDORDER(A1)');
+  await page.keyboard.press('Enter');
+  await expectCell('B1', '2');
+}, 60_000);
+
+const cell = (a1: string) => gridCell(page, a1);
+const address = () => page.getByLabel('Cell address').inputValue();
+const editorOpen = () => page.locator('.orb-cell-input').count();
+
+async function expectCell(a1: string, text: string) {
+  await expect.poll(async () => (await cell(a1))?.text, { timeout: 10_000, message: `cell ${a1}` }).toBe(text);
+}
+
+async function clickCell(a1: string, clickCount = 1) {
+  const c = await cell(a1);
+  if (!c) throw new Error(`cell ${a1} is not on screen`);
+  await page.mouse.click(c.x, c.y, { clickCount });
+}
+
+describe('editing habits', () => {
+  it('F2 opens the cell with the caret at the end, so typing adds to the formula', async () => {
+    await clickCell('B1');
+    await page.keyboard.press('F2');
+    await page.keyboard.type('+1');
+    await page.keyboard.press('Enter');
+    await expectCell('B1', '3');
+  });
+
+  it('a double-click opens the cell with the caret at the end too', async () => {
+    await clickCell('B1', 2);
+    await expect.poll(editorOpen).toBe(1);
+    await page.keyboard.type('+1');
+    await page.keyboard.press('Enter');
+    await expectCell('B1', '4');
+  });
+
+  it('a single click on the active cell only selects it; typing then replaces the cell', async () => {
+    await clickCell('A4');
+    await clickCell('A4');
+    expect(await editorOpen()).toBe(0);
+    await page.keyboard.type('NO');
+    await page.keyboard.press('Enter');
+    await expectCell('A4', 'NO');
+  });
+});
+
+describe('data edges', () => {
+  it('Ctrl+ArrowDown stops at the last filled row and Ctrl+ArrowUp comes back', async () => {
+    await clickCell('A1');
+    await page.keyboard.press('Control+ArrowDown');
+    await expect.poll(address).toBe('A4');
+    await page.keyboard.press('Control+ArrowUp');
+    await expect.poll(address).toBe('A1');
+  });
+
+  it('double-clicking the fill handle fills down to the end of the neighbouring column’s data', async () => {
+    await clickCell('B1');
+    await page.keyboard.press('F2');
+    await page.keyboard.press('Control+a');
+    await page.keyboard.type('=BONDORDER(A1)');
+    await page.keyboard.press('Enter');
+    await clickCell('B1');
+    const handle = page.locator('.dsg-expand-rows-indicator');
+    await handle.dblclick();
+    await expectCell('B2', '3');
+    await expectCell('B3', '1');
+    await expectCell('B4', '2.5'); // NO: bond order 2.5 (same source)
+    await expectCell('B5', '');
+    await screenshot(page, 'grid-fill-handle-double-click');
+  });
+
+  it('reaches a frozen row 1 from the keyboard: ArrowUp from row 2, typing replaces, the address box goes there', async () => {
+    await page.getByRole('button', { name: 'Freeze row 1' }).click();
+    const frozen = (col: string) => page.locator(`.orb-col-header[data-col="${col}"] .orb-col-frozen`).textContent();
+    await expect.poll(() => frozen('A')).toBe('O2');
+    await clickCell('A2');
+    await page.keyboard.press('ArrowUp');
+    await expect.poll(address).toBe('A1');
+    await page.keyboard.type('Cl2');
+    await page.keyboard.press('Enter');
+    await expect.poll(() => frozen('A')).toBe('Cl2');
+    await expect.poll(address).toBe('A2'); // Enter moved down into the grid
+    await page.getByLabel('Cell address').click();
+    await page.getByLabel('Cell address').fill('C1');
+    await page.getByLabel('Cell address').press('Enter');
+    await expect.poll(address).toBe('C1');
+    await page.keyboard.type('=BONDORDER(A1)');
+    await page.keyboard.press('Enter');
+    await expect.poll(() => frozen('C')).toBe('1'); // Cl2: bond order 1 (same source)
+    await page.getByRole('button', { name: 'Freeze row 1' }).click();
+  });
+
+  it('raised no uncaught errors in the page', () => {
+    expect(browser.errors).toEqual([]);
+  });
+});

@@ -1,0 +1,113 @@
+// The extended-Hückel family through a real HyperFormula engine: spill shape and the scalar route,
+// a structure in a cell reference, one geometry and one solve per structure across a row of
+// functions, the charge argument, the size limit's message, and bad input as cell errors.
+import '../functions/openchemlibNode.js';
+import { DetailedCellError } from 'hyperformula';
+import { beforeEach, describe, expect, it } from 'vitest';
+import { EHT_MAX_BASIS } from '../functions/chem/eht.js';
+import { clearEhtCache, ehtCacheStats } from '../functions/chem/ehtCache.js';
+import { createEngine, type SheetInput } from '../functions/engine.js';
+
+function evaluate(rows: SheetInput) {
+  const engine = createEngine({ S: rows });
+  const values = engine.getSheetValues(engine.getSheetId('S')!);
+  engine.destroy();
+  return values;
+}
+const one = (formula: string, rows: SheetInput = []) => evaluate([...rows, [formula]])[rows.length][0];
+
+// Hydrogen fluoride at r = 0.917 Å (measured; recalled from memory): 5 basis functions, 8 electrons.
+const HF = 'H 0 0 0; F 0 0 0.917';
+
+beforeEach(() => clearEhtCache());
+
+describe('EHTLEVELS', () => {
+  it('spills one row per basis function, energy and occupancy, lowest first, leaving the cell below free', () => {
+    const values = evaluate([[`=EHTLEVELS("${HF}")`], [], [], [], [], ['below']]);
+    const energies = values.slice(0, 5).map((r) => r[0] as number);
+    const occupancy = values.slice(0, 5).map((r) => r[1]);
+    expect([...energies].sort((a, b) => a - b)).toEqual(energies);
+    expect(occupancy).toEqual([2, 2, 2, 2, 0]);
+    // The two π lone pairs of HF are F 2p alone: they sit exactly at H_pp(F) = −18.1 eV (ehtParams.ts).
+    expect(energies[2]).toBeCloseTo(-18.1, 9);
+    expect(energies[3]).toBeCloseTo(-18.1, 9);
+    expect(values[5][0]).toBe('below');
+  });
+
+  it('gives level k as one number (the scalar route), equal to the spilled row', () => {
+    const spilled = evaluate([[`=EHTLEVELS("${HF}")`]]);
+    expect(one(`=EHTLEVELS("${HF}",5)`)).toBeCloseTo(spilled[4][0] as number, 12);
+    const error = one(`=EHTLEVELS("${HF}",6)`) as DetailedCellError;
+    expect(error).toBeInstanceOf(DetailedCellError);
+    expect(error.message).toMatch(/level 6 is out of range: this system has 5 levels/);
+  });
+
+  it('still spills when k is left out before a charge: EHTLEVELS(s,,charge)', () => {
+    // HF+ (7 electrons): the π pair shares three electrons, 1.5 each.
+    const values = evaluate([[`=EHTLEVELS("${HF}",,1)`]]);
+    expect(values.slice(0, 5).map((r) => r[1])).toEqual([2, 2, 1.5, 1.5, 0]);
+  });
+
+  it('reads a structure from a cell reference into a fixed 50×2 area', () => {
+    const values = evaluate([[HF], ['=EHTLEVELS(A1)']]);
+    expect(values[1][1]).toBe(2);
+    expect(values[5][1]).toBe(0);
+    expect(values[6]?.[0] ?? null).toBeNull();
+  });
+
+  it('asks for k when a molecule has more levels than a spill may hold', () => {
+    // Benzene: 6 C × 4 + 6 H = 30 levels spill; hexane: 6 × 4 + 14 = 38; decane: 40 + 22 = 62 > 50.
+    const error = one('=EHTLEVELS(A1)', [['CCCCCCCCCC']]) as DetailedCellError;
+    expect(error).toBeInstanceOf(DetailedCellError);
+    expect(error.message).toMatch(/EHTLEVELS would spill 62 values.*EHTLEVELS\(structure, k\)/);
+  });
+});
+
+describe('one geometry and one solve per structure', () => {
+  it('builds the SMILES conformer once for a row of functions on the same molecule', () => {
+    const row = ['CC=O', '=EHTHOMO(A1)', '=EHTLUMO(A1)', '=EHTGAP(A1)', '=EHTCHARGE(A1,3)', '=EHTBONDPOP(A1,2,3)', '=EHTENERGY(A1)', '=EHTHOMOMAKEUP(A1)', '=EHTGEOMETRY(A1)'];
+    const values = evaluate([row, row]);
+    expect(ehtCacheStats()).toEqual({ geometryBuilds: 1, modelSolves: 1 });
+    const [, homo, lumo, gap, chargeO, popCO, , makeup, geometry] = values[0];
+    expect(gap as number).toBeCloseTo((lumo as number) - (homo as number), 9);
+    // Acetaldehyde: carbonyl O negative, C=O bonding; the HOMO is the oxygen lone pair (n_O).
+    expect(chargeO as number).toBeLessThan(-0.3);
+    expect(popCO as number).toBeGreaterThan(0.5);
+    expect(makeup).toMatch(/^O3 2p/);
+    expect(geometry).toMatch(/^SMILES: openchemlib conformer \(seed \d+\) tidied with MMFF94s\+, 7 atoms with hydrogens$/);
+    expect(values[1]).toEqual(values[0]);
+  });
+});
+
+describe('charge', () => {
+  it('takes the formal charge from SMILES, and the charge argument for XYZ text', () => {
+    // NH4+ as SMILES and as XYZ (N–H 1.03 Å, tetrahedral) with charge 1: 8 electrons, closed shell.
+    const s = 1.03 / Math.sqrt(3);
+    const xyz = `N 0 0 0; H ${s} ${s} ${s}; H ${-s} ${-s} ${s}; H ${-s} ${s} ${-s}; H ${s} ${-s} ${-s}`;
+    const [fromSmiles, neutralXyz, chargedXyz] = evaluate([['=EHTLEVELS("[NH4+]",4)', `=EHTLEVELS("${xyz}",4)`, `=EHTHOMO("${xyz}",1)`]])[0];
+    // With charge 1 the t2 set (levels 2–4) is the HOMO; neutral, level 4 is still t2 but a ninth electron sits above.
+    expect(chargedXyz as number).toBeCloseTo(neutralXyz as number, 9);
+    expect(Math.abs((fromSmiles as number) - (chargedXyz as number))).toBeLessThan(1.5);
+    expect(one(`=EHTHOMO("${xyz}")`) as number).toBeGreaterThan(chargedXyz as number);
+  });
+});
+
+describe('bad input comes back as a cell error naming the problem', () => {
+  const cases: [string, RegExp][] = [
+    ['=EHTHOMO("Fe 0 0 0; O 0 0 1.6")', /no extended-Hückel parameters for Fe \(atom 1\)/],
+    ['=EHTHOMO("")', /empty structure/],
+    ['=EHTCHARGE("O 0 0 0; H 0 0 0.96",3)', /atom 3 is out of range: the structure has 2 atoms/],
+    ['=EHTBONDPOP("O 0 0 0; H 0 0 0.96",1,1)', /both atom 1/],
+    ['=EHTHOMO("H 0 0 0",1)', /no valence electrons/],
+    ['=EHTLUMO("He 0 0 0")', /no extended-Hückel parameters for He/],
+    ['=EHTHOMO("C1CC")', /cannot read SMILES 'C1CC'/],
+    // 76 chlorine atoms 3 Å apart: 304 basis functions, over the limit before any solve starts.
+    [`=EHTHOMO("${Array.from({ length: 76 }, (_, i) => `Cl ${3 * i} 0 0`).join('; ')}")`, new RegExp(`needs 304 basis functions; extended-Hückel cells are limited to ${EHT_MAX_BASIS}`)],
+  ];
+  for (const [formula, message] of cases)
+    it(formula.slice(0, 60), () => {
+      const value = one(formula) as DetailedCellError;
+      expect(value).toBeInstanceOf(DetailedCellError);
+      expect(value.message).toMatch(message);
+    });
+});
