@@ -99,7 +99,7 @@ export function liveRouter(ctx: AppContext): Router {
         close(verdict.reason);
         return false;
       }
-      if (verdict.role !== role) send('role', { role: (role = verdict.role) });
+      if (verdict.role !== role) send('role', { role: (role = verdict.role), actions: allowedActions(verdict.roles) });
       return true;
     };
     const onEvent = (event: WorkbookEvent) => {

@@ -7,7 +7,7 @@ import type { AppContext } from '../context.js';
 import { sessions, users, workbooks } from '../db/schema.js';
 import { requireWorkbook } from './access.js';
 
-export type StreamVerdict = { ok: true; role: ReturnType<typeof requireWorkbook>['role'] } | { ok: false; reason: 'signed_out' | 'access_removed' | 'deleted' };
+export type StreamVerdict = { ok: true; role: ReturnType<typeof requireWorkbook>['role']; roles: ReturnType<typeof requireWorkbook>['roles'] } | { ok: false; reason: 'signed_out' | 'access_removed' | 'deleted' };
 
 export function streamVerdict(ctx: AppContext, sessionId: string, workbookId: string): StreamVerdict {
   const row = ctx.db
@@ -19,7 +19,8 @@ export function streamVerdict(ctx: AppContext, sessionId: string, workbookId: st
   // lucia keeps expires_at in seconds since the epoch.
   if (!row || row.disabled || row.expiresAt * 1000 <= Date.now()) return { ok: false, reason: 'signed_out' };
   try {
-    return { ok: true, role: requireWorkbook(ctx, { id: row.userId, siteRole: row.siteRole }, workbookId, 'view').role };
+    const access = requireWorkbook(ctx, { id: row.userId, siteRole: row.siteRole }, workbookId, 'view');
+    return { ok: true, role: access.role, roles: access.roles };
   } catch {
     // requireWorkbook answers 404 both for a deleted workbook and for one the user may not see.
     const exists = ctx.db.select({ id: workbooks.id }).from(workbooks).where(eq(workbooks.id, workbookId)).get();
