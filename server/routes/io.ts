@@ -84,7 +84,7 @@ export function ioRouter(ctx: AppContext): Router {
     const { id } = parse(z.object({ id: idSchema }), req.params, 'params');
     const query = parse(exportQuery, req.query, 'query');
     const access = requireWorkbook(ctx, currentUser(res), id, 'export');
-    const source = exportSource(ctx, access, currentUser(res));
+    const source = await exportSource(ctx, access, currentUser(res));
 
     let format: ExportFormat;
     if (query.format === 'csv') {

@@ -22,6 +22,7 @@ import { restoreRevision } from '../services/restore.js';
 import { getRevision, listRevisions } from '../services/revisionLog.js';
 import { addSheet, deleteSheet, updateSheet } from '../services/sheetStore.js';
 import { valuesFor, type ValuesBody } from '../services/valuesInWorker.js';
+import { loadWorkbookInSlices } from '../services/workbookSlices.js';
 import { SpreadsheetError } from '../xlsx/limits.js';
 import { computeRefusal } from '../xlsx/refusals.js';
 import { createWorkbook, deleteWorkbook, loadWorkbook, renameWorkbook, summarizeWorkbook } from '../services/workbookStore.js';
@@ -111,7 +112,7 @@ export function workbooksRouter(ctx: AppContext): Router {
   });
 
   router.get('/:id/values', async (req, res) => {
-    const workbook = loadWorkbook(ctx, access(req, res, 'view'));
+    const workbook = await loadWorkbookInSlices(ctx, access(req, res, 'view'));
     let body: ValuesBody;
     try {
       body = await valuesFor(workbook, currentUser(res).id);
