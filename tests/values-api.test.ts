@@ -131,7 +131,7 @@ describe('GET /api/workbooks/:id/values of a large workbook (computed in a worke
     const res = await request;
     expect(res.status).toBe(200);
     expect(res.headers['content-type']).toMatch(/^application\/json/);
-    const inProcess = computeValues(loadWorkbook(t.ctx, { workbook: { id }, role: 'owner' } as never));
+    const inProcess = computeValues(loadWorkbook(t.ctx, { workbook: { id }, role: 'owner', roles: ['owner'] } as never));
     expect(res.body).toEqual(JSON.parse(JSON.stringify(inProcess)));
     // O2 in row 8 of the invented list: bond order 2, two unpaired electrons (Atkins & de Paula, Physical Chemistry).
     const at = (r: number, c: number) => (res.body as ValuesPayload).sheets[0].values.find(([row, col]) => row === r && col === c)?.[2];
