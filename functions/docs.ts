@@ -13,6 +13,7 @@ const FAMILY_INTRO: Record<Family, string> = {
   LCAO: 'Two-centre LCAO: overlap of 1s orbitals, the H2+ potential curve, the 2×2 secular problem and HOMO–LUMO gaps. Atomic units (bohr, hartree) unless a unit argument says otherwise.',
   Hückel: 'Hückel π-electron theory for conjugated systems.',
   'Extended Hückel': 'All-valence-electron extended-Hückel theory (Hoffmann 1963) from a 3D structure: SMILES (a generated conformer), XYZ text or a molfile. Energies in eV; a qualitative, non-self-consistent model. Method, parameters and limits: docs/eht.md.',
+  'π spectra': 'π→π* excitation energies, wavelengths and oscillator strengths by the Pariser–Parr–Pople model with single-excitation CI, from SMILES. Model estimates for screening, not measured spectra: see docs/spectra.md for the error table.',
   Units: 'Conversions with CODATA 2018 constants, and bond-length relations.',
 };
 
@@ -61,8 +62,9 @@ export function renderFunctionsMarkdown(help: FunctionHelp[] = functionHelp()): 
     '',
     `**Cautions.** ${CAUTIONS}`,
     '',
-    'Errors are cell values: `#VALUE!` for a wrong kind of argument (unknown species or unit, text where a number belongs), ' +
-      '`#NUM!` for a number outside what the model allows (negative distance, |S| ≥ 1, too many electrons), each with a message naming what is wrong. ' +
+    'Errors are cell values: `#VALUE!` for a wrong kind of argument (unknown species or unit, text where a number belongs, an empty cell where a number is required) ' +
+      'and for an electron count the levels cannot hold (too many electrons, none, or every level full), ' +
+      '`#NUM!` for a number outside what the model allows (negative distance, |S| ≥ 1), each with a message naming what is wrong. ' +
       'A function that spills a table returns a single value when its trailing selector arguments are given.',
     '',
     '## Contents',

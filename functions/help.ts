@@ -38,7 +38,7 @@ export interface FunctionHelp {
 }
 
 /** Family order in the reference: structure first, then numbers built on it. */
-export const FAMILY_ORDER: Family[] = ['Diatomic', 'LCAO', 'Hückel', 'Extended Hückel', 'Units'];
+export const FAMILY_ORDER: Family[] = ['Diatomic', 'LCAO', 'Hückel', 'π spectra', 'Extended Hückel', 'Units'];
 
 export function formatSignature(entry: Pick<CatalogEntry, 'name' | 'params'>): string {
   const params = entry.params.map((p) => (p.optional ? `[${p.name}]` : p.name));

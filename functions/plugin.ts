@@ -59,13 +59,24 @@ function rangeToTable(value: unknown): Scalar[][] {
   return [[value as Scalar]];
 }
 
+/**
+ * HyperFormula's precision rounding turns numbers below about 1e-300 into NaN (even its own
+ * =1e-300*1), so magnitudes under this floor are returned as 0 — they are 0 to every digit a cell shows.
+ */
+const SMALLEST_CELL_NUMBER = 1e-290;
+
+function flushTiny(v: unknown): unknown {
+  return typeof v === 'number' && v !== 0 && Math.abs(v) < SMALLEST_CELL_NUMBER ? 0 : v;
+}
+
 function toCellValue(result: FunctionResult, entry: CatalogEntry): unknown {
   if (Array.isArray(result)) {
-    for (const row of result) for (const v of row) if (typeof v === 'number' && !Number.isFinite(v)) return new CellError(ErrorType.NUM, `${entry.name} gave a number out of range`);
-    return SimpleRangeValue.onlyValues(result as any);
+    const table = result.map((row) => row.map(flushTiny));
+    for (const row of table) for (const v of row) if (typeof v === 'number' && !Number.isFinite(v)) return new CellError(ErrorType.NUM, `${entry.name} gave a number out of range`);
+    return SimpleRangeValue.onlyValues(table as any);
   }
   if (typeof result === 'number' && !Number.isFinite(result)) return new CellError(ErrorType.NUM, `${entry.name} gave a number out of range`);
-  return result;
+  return flushTiny(result);
 }
 
 function spillArgs(ast: any): SpillArg[] {
@@ -91,13 +102,20 @@ function spillArgs(ast: any): SpillArg[] {
   });
 }
 
-/** Spreadsheet coercion of one number argument (text that reads as a number, TRUE/FALSE, an empty cell as 0). */
+/**
+ * Spreadsheet coercion of one number argument (text that reads as a number, TRUE/FALSE). An empty
+ * cell is not read as 0, which would silently give e.g. OVERLAP1S(empty) = 1: a required argument
+ * refuses it, naming the parameter, and an optional one takes its default.
+ */
 function toNumber(value: unknown, param: ParamSpec, entry: CatalogEntry): number | undefined {
   if (value === undefined) return undefined;
   let n: number;
   if (typeof value === 'number') n = value;
   else if (typeof value === 'boolean') n = value ? 1 : 0;
-  else if (value === null || typeof value === 'symbol') n = 0;
+  else if (value === null || typeof value === 'symbol') {
+    if (param.optional) return undefined;
+    throw new ChemError(`${entry.name}: ${param.name} is empty; give a number${param.unit ? ` (${param.unit})` : ''}`);
+  }
   else if (typeof value === 'object' && 'val' in (value as object)) n = Number((value as { val: unknown }).val); // dates, percents
   else {
     const text = String(value).trim();

@@ -4,12 +4,13 @@ import path from 'node:path';
 import express, { type Express } from 'express';
 import type { AppConfig } from './config.js';
 import type { Db } from './db/index.js';
-import { migrationStatus } from './db/index.js';
 import { createLucia } from './auth/lucia.js';
 import { checkOrigin, loadSession } from './auth/middleware.js';
 import type { AppContext } from './context.js';
 import { errorHandler, notFoundApi } from './errors.js';
-import { createSignInLimits } from './auth/rateLimit.js';
+import { createAccountLimits, type AttemptLimit, type LimitName } from './auth/rateLimit.js';
+import { securityHeaders } from './securityHeaders.js';
+import { healthRoute } from './routes/health.js';
 import { createHttpLogger, createLogger, resolveLogLevel } from './logging.js';
 import { authRouter } from './routes/auth.js';
 import { adminUsersRouter } from './routes/admin.js';
@@ -25,37 +26,28 @@ import { createStorageHealth } from './services/storageHealth.js';
 export interface CreateAppOptions {
   db: Db;
   config: AppConfig;
+  /** Tighter or looser attempt limits (tests). */
+  limits?: Partial<Record<LimitName, AttemptLimit>>;
 }
 
-export function createApp({ db, config }: CreateAppOptions): { app: Express; ctx: AppContext } {
+export function createApp({ db, config, limits }: CreateAppOptions): { app: Express; ctx: AppContext } {
   const logger = createLogger(config.logLevel ?? resolveLogLevel(process.env));
-  const ctx: AppContext = { db, config, lucia: createLucia(db), signInLimits: createSignInLimits(), logger, events: createEventHub((err) => logger.error({ err }, 'workbook event listener failed')), mail: createMailer({ db, smtpUrl: config.smtpUrl, from: config.mailFrom, logger }) };
+  const ctx: AppContext = { db, config, lucia: createLucia(db), limits: createAccountLimits(limits), logger, events: createEventHub((err) => logger.error({ err }, 'workbook event listener failed')), mail: createMailer({ db, smtpUrl: config.smtpUrl, from: config.mailFrom, logger }) };
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');
   app.use(createHttpLogger(logger));
+  app.use(securityHeaders(config));
   // Storage failures (full disk, I/O errors) noted by the error handler and reported by /api/health.
   const storage = createStorageHealth(config.databasePath);
   app.locals.storageHealth = storage;
 
   const api = express.Router();
   api.use(express.json({ limit: maxBodyBytes }));
-  api.use(checkOrigin(config.origin));
+  api.use(checkOrigin(config));
   api.use(loadSession(ctx.lucia));
 
-  api.get('/health', (_req, res) => {
-    let database = 'ok';
-    let migrations: unknown = null;
-    try {
-      db.$client.prepare('select 1').get();
-      migrations = migrationStatus(db);
-    } catch (e) {
-      database = `error: ${(e as Error).message}`;
-    }
-    const writes = storage.status();
-    const ok = database === 'ok' && (migrations as { current?: boolean })?.current === true && writes.writes === 'ok';
-    res.status(ok ? 200 : 503).json({ status: ok ? 'ok' : 'degraded', database, migrations, mail: ctx.mail.status(), storage: writes });
-  });
+  api.get('/health', healthRoute(ctx, storage));
 
   // Feature routers mount here.
   api.use('/auth', authRouter(ctx));

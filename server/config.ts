@@ -10,8 +10,8 @@ const envSchema = z.object({
   MAIL_FROM: z.string().min(3).optional(),
   ORBITAB_SEED: z.enum(['0', '1']).default('1'),
   ORBITAB_ADMIN_EMAIL: z.string().email().optional(),
-  /** The public origin, when the server sits behind a proxy; otherwise taken from each request's Host. */
-  ORBITAB_ORIGIN: z.string().url().optional(),
+  /** The public origin (scheme, host, port) people open; links in e-mail are built from it. */
+  ORBITAB_ORIGIN: z.string().url().refine((u) => URL.canParse(u) && /^https?:$/.test(new URL(u).protocol), 'must be an http or https URL').optional(),
   NODE_ENV: z.string().default('development'),
 });
 
@@ -22,8 +22,16 @@ export interface AppConfig {
   mailFrom?: string;
   seed: boolean;
   adminEmail?: string;
-  origin?: string;
+  /**
+   * The public origin: ORBITAB_ORIGIN, else http://localhost:PORT. E-mailed links are built from it
+   * and state-changing requests must come from it; request headers never decide either.
+   */
+  origin: string;
+  /** Whether ORBITAB_ORIGIN was set; when not, the Origin check also accepts 127.0.0.1 and [::1] for localhost. */
+  originConfigured: boolean;
   production: boolean;
+  /** Set by `npm run dev`: Vite's dev server shares the port, so the content security policy is left off. */
+  viteDevServer?: boolean;
   /** Where the built client lives (served in production). */
   clientDir: string;
   /** From LOG_LEVEL (default 'info'); 'silent' under test. Left out, createApp decides from process.env. */
@@ -44,10 +52,16 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
     mailFrom: e.MAIL_FROM,
     seed: e.ORBITAB_SEED === '1',
     adminEmail: e.ORBITAB_ADMIN_EMAIL?.toLowerCase(),
-    origin: e.ORBITAB_ORIGIN,
+    origin: e.ORBITAB_ORIGIN ? new URL(e.ORBITAB_ORIGIN).origin : `http://localhost:${e.PORT}`,
+    originConfigured: e.ORBITAB_ORIGIN !== undefined,
     production: e.NODE_ENV === 'production',
     // Beside the repository root, not the working directory, so `tsx server/main.ts` works from anywhere.
     clientDir: path.resolve(import.meta.dirname, '../dist'),
     logLevel: resolveLogLevel(env),
   };
+}
+
+/** An absolute link into the app for e-mail: always from the configured origin, never from a request. */
+export function publicLink(config: Pick<AppConfig, 'origin'>, path: string): string {
+  return `${config.origin.replace(/\/+$/, '')}${path}`;
 }

@@ -1,7 +1,7 @@
 import type { AppConfig } from './config.js';
 import type { Db } from './db/index.js';
 import type { OrbitabLucia } from './auth/lucia.js';
-import type { SignInLimits } from './auth/rateLimit.js';
+import type { AccountLimits } from './auth/rateLimit.js';
 import type { Logger } from 'pino';
 import type { EventHub } from './services/events.js';
 import type { Mailer } from './mail/mailer.js';
@@ -11,8 +11,8 @@ export interface AppContext {
   db: Db;
   config: AppConfig;
   lucia: OrbitabLucia;
-  /** Sign-in attempt counters (in memory, per app). */
-  signInLimits: SignInLimits;
+  /** Attempt counters for sign-in, sign-up, resets, verification mail and invitations (in memory, per app). */
+  limits: AccountLimits;
   logger: Logger;
   /** Workbook events (revisions, renames, deletions), published after each commit. */
   events: EventHub;

@@ -5,7 +5,7 @@ import { createApp } from './app.js';
 import { loadConfig } from './config.js';
 import { openDatabase } from './db/index.js';
 
-const config = { ...loadConfig(), production: false };
+const config = { ...loadConfig(), production: false, viteDevServer: true };
 const db = openDatabase(config.databasePath);
 const { app: api, ctx } = createApp({ db, config });
 ctx.mail.start().catch((err) => ctx.logger.error({ err }, 'mail transport did not start'));

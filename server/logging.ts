@@ -26,10 +26,10 @@ export function createLogger(level: LogLevel): Logger {
   return pino({ level, base: { app: 'orbitab' } });
 }
 
-/** Paths carry invitation tokens (/api/invitations/:token/accept); the query string may carry anything. */
+/** Paths carry invitation and reset tokens (/api/invitations/:token/accept, /api/auth/password-reset/:token); the query string may carry anything. */
 export function redactUrl(url: string): string {
   const path = url.split('?')[0];
-  return path.replace(/(\/invitations\/)[^/]+/, '$1[token]');
+  return path.replace(/(\/invitations\/)[^/]+/, '$1[token]').replace(/(\/(?:password-reset|reset-password|verify-email)\/)[^/]+/, '$1[token]');
 }
 
 // A request id from a trusted front proxy is kept when it looks like one; otherwise we make our own.

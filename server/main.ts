@@ -32,6 +32,8 @@ if (!fs.existsSync(config.clientDir)) {
 const server = app.listen(config.port);
 server.on('listening', () => {
   const { port } = server.address() as AddressInfo;
+  // PORT=0 lets the OS choose; the default public origin names the port actually taken.
+  if (!config.originConfigured) config.origin = `http://localhost:${port}`;
   log.info({ port, databasePath: config.databasePath }, 'listening');
   // Plain line for the person who ran `npm start` (and for scripts that start us on PORT=0).
   console.log(`Orbitab is serving on http://localhost:${port}`);

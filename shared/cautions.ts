@@ -7,7 +7,7 @@ export const cautionTitle = 'Model estimates, not measurements';
 
 /** The caution as separate sentences (an export writes one per row). */
 export const cautionLines: readonly string[] = [
-  'Results of Orbitab’s chemistry functions are model estimates (qualitative molecular-orbital filling, two-centre LCAO, simple Hückel theory, extended-Hückel theory), not measurements, and not a basis for safety decisions.',
+  'Results of Orbitab’s chemistry functions are model estimates (qualitative molecular-orbital filling, two-centre LCAO, simple Hückel theory, PPP π spectra, extended-Hückel theory), not measurements, and not a basis for safety decisions.',
   'For reactive or toxic species (for example fluorine, superoxides, peroxides), defer to safety data sheets, local regulations and qualified review.',
 ];
 

@@ -26,7 +26,10 @@ export const titleSchema = z
   .string({ error: required('text') })
   .trim()
   .min(1, 'required')
-  .max(200, 'at most 200 characters');
+  .max(200, 'at most 200 characters')
+  // A title goes into e-mail subjects and exports: a line break there could forge a header.
+  // eslint-disable-next-line no-control-regex -- control characters are exactly what this refuses
+  .refine((s) => !/[\u0000-\u001f\u007f]/.test(s), 'may not contain line breaks or other control characters');
 
 /**
  * Sheet names follow the usual spreadsheet rules (common practice), so formulas can name them and

@@ -20,7 +20,7 @@ describe('admin user list', () => {
     expect(res.status).toBe(200);
     expect(res.body.users.map((u: { email: string }) => u.email)).toEqual(['admin@lab.example', 'ada@lab.example']);
     const [first, second] = res.body.users;
-    expect(Object.keys(first).sort()).toEqual(['createdAt', 'disabled', 'email', 'id', 'name', 'siteRole']);
+    expect(Object.keys(first).sort()).toEqual(['createdAt', 'disabled', 'email', 'emailVerified', 'id', 'name', 'siteRole']);
     expect(first).toMatchObject({ name: 'Site Admin', siteRole: 'admin', disabled: false });
     expect(second).toMatchObject({ name: 'Ada', siteRole: 'member', disabled: false });
     expect(Math.abs(Date.parse(first.createdAt) - Date.now())).toBeLessThan(60_000);

@@ -13,7 +13,7 @@ describe('sign-up', () => {
     const client = t.agent();
     const res = await client.post('/api/auth/sign-up').send({ email: 'ada@lab.example', password: testPassword, name: 'Ada' });
     expect(res.status).toBe(201);
-    expect(res.body.user).toEqual({ id: expect.any(String), email: 'ada@lab.example', name: 'Ada', siteRole: 'admin' });
+    expect(res.body.user).toEqual({ id: expect.any(String), email: 'ada@lab.example', name: 'Ada', siteRole: 'admin', emailVerified: false });
     const me = await client.get('/api/auth/me');
     expect(me.status).toBe(200);
     expect(me.body.user).toEqual(res.body.user);
@@ -206,18 +206,23 @@ describe('cross-site request forgery', () => {
     expect((await client.get('/api/auth/me')).status).toBe(200);
   });
 
-  it('without ORBITAB_ORIGIN, accepts an Origin that matches the Host the request was sent to', async () => {
-    const t = makeTestApp({ config: { origin: undefined } });
-    const server = t.app.listen(0, '127.0.0.1');
-    try {
-      await new Promise((resolve) => server.once('listening', resolve));
-      const { port } = server.address() as { port: number };
-      const own = await request(server).post('/api/auth/sign-up').set('Origin', `http://127.0.0.1:${port}`).send(body);
-      expect(own.status).toBe(201);
-      const other = await request(server).post('/api/auth/sign-in').set('Origin', testOrigin).send(body);
-      expect(other.status).toBe(403);
-    } finally {
-      server.close();
+  it('without ORBITAB_ORIGIN, accepts only http://localhost:PORT (or its loopback aliases), whatever the Host header says', async () => {
+    const t = makeTestApp({ config: { origin: 'http://localhost:3000', originConfigured: false } });
+    await request(t.app).post('/api/auth/sign-up').set('Origin', 'http://localhost:3000').send(body).expect(201);
+    await request(t.app).post('/api/auth/sign-in').set('Origin', 'http://127.0.0.1:3000').send(body).expect(200);
+    // Host and Origin agreeing on a foreign name used to pass; the configured origin decides now.
+    const forged = await request(t.app).post('/api/auth/sign-in').set('Host', 'evil.example').set('Origin', 'http://evil.example').send(body);
+    expect(forged.status).toBe(403);
+    await request(t.app).post('/api/auth/sign-in').set('Origin', 'http://localhost:4000').send(body).expect(403);
+    await request(t.app).post('/api/auth/sign-in').set('Origin', 'https://localhost:3000').send(body).expect(403);
+  });
+
+  it('with ORBITAB_ORIGIN, compares scheme, host and port exactly', async () => {
+    const t = makeTestApp({ config: { origin: 'https://orbitab.lab.test', originConfigured: true } });
+    await request(t.app).post('/api/auth/sign-up').set('Origin', 'https://orbitab.lab.test').send(body).expect(201);
+    for (const other of ['http://orbitab.lab.test', 'https://orbitab.lab.test:8443', 'https://lab.test', 'https://orbitab.lab.test.evil.example', 'null']) {
+      expect((await request(t.app).post('/api/auth/sign-in').set('Origin', other).send(body)).status, other).toBe(403);
     }
   });
+
 });

@@ -91,7 +91,8 @@ describe('authorization matrix', () => {
   let t: Team;
   let server: Awaited<ReturnType<typeof listen>>;
   beforeAll(async () => {
-    t = await makeTeam();
+    // Every row builds fresh workbooks with invitations; the per-inviter limit is tested elsewhere.
+    t = await makeTeam({ limits: { invitationsPerInviter: { max: 10_000, windowMs: 60 * 60_000 } } });
     server = await listen(t.app);
   });
   afterAll(async () => {

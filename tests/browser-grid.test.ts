@@ -369,6 +369,24 @@ describe('the workbook grid in a browser', () => {
     expect(fs.readFileSync((await download.path())!).subarray(0, 2).toString('latin1')).toBe('PK');
   });
 
+  it('shows the predicted π→π* bands of a π system and the known disagreement of a diatomic species', async () => {
+    await page.getByRole('tab', { name: 'Limits' }).click();
+    await clickCell('A1');
+    await typeRow(['c1ccc2cccc2cc1']);
+    await typeRow(['BN']);
+    await clickCell('A1');
+    const bands = page.getByRole('img', { name: 'Predicted π→π* bands of c1ccc2cccc2cc1' });
+    await bands.waitFor();
+    // Azulene's visible band: PPP-CIS puts S1 near 610 nm (observed ≈ 580 nm; docs/spectra.md).
+    expect(await page.getByTestId('structure-panel').textContent()).toMatch(/S1\s*6\d\d nm/);
+    expect(await bands.locator('line[data-nm]').count()).toBeGreaterThan(3);
+    await screenshot(page, 'grid-ppp-bands');
+    await clickCell('A2');
+    await page.getByRole('img', { name: 'Molecular orbital diagram of BN' }).waitFor();
+    expect(await page.getByTestId('model-caveat').textContent()).toMatch(/Experiment: X ³Π/);
+    await page.getByRole('tab', { name: 'Sheet1' }).click();
+  });
+
   it('raised no uncaught errors in the page', () => {
     expect(browser.errors).toEqual([]);
   });

@@ -191,7 +191,7 @@ describe('HOMO–LUMO gaps', () => {
 
   it('gives 0 for open-shell degenerate shells: cyclobutadiene and the cyclopentadienyl radical', () => {
     expect(frontierGap(model('C1=CC=C1'), 4)).toMatchObject({ gap: 0, openShellDegenerate: true });
-    expect(frontierGap(model('c1cccc1'), 5)).toMatchObject({ gap: 0, openShellDegenerate: true });
+    expect(frontierGap(model('C1=CC=C[CH]1'), 5)).toMatchObject({ gap: 0, openShellDegenerate: true });
   });
 
   it('runs from a radical\'s singly filled level to the next empty one (allyl radical √2)', () =>

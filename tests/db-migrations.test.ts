@@ -68,3 +68,36 @@ describe('migration 0001: cells WITHOUT ROWID', () => {
     }
   });
 });
+
+describe('migration 0002: verified addresses', () => {
+  it('marks admins and members of shared workbooks verified, records earlier config promotions, and lower-cases addresses', () => {
+    const file = path.join(dir, 'accounts.db');
+    const old = new Database(file);
+    old.pragma('foreign_keys = ON');
+    migrate(drizzle(old), { migrationsFolder: olderMigrations(2) });
+    old.exec(`insert into users (id, email, name, password_hash, site_role) values
+      ('admin', 'root@lab.test', 'Root', 'x', 'admin'),
+      ('owner', 'Ann@Lab.test', 'Ann', 'x', 'member'),
+      ('peer', 'bob@lab.test', 'Bob', 'x', 'member'),
+      ('alone', 'solo@lab.test', 'Solo', 'x', 'member'),
+      ('ops', 'ops@lab.test', 'Ops', 'x', 'member')`);
+    old.exec(`insert into workbooks (id, title, owner_id) values ('shared', 'Shared', 'owner'), ('mine', 'Mine', 'alone')`);
+    old.exec(`insert into workbook_members (workbook_id, user_id, role) values ('shared', 'owner', 'owner'), ('shared', 'peer', 'editor'), ('mine', 'alone', 'owner')`);
+    old.exec(`insert into audit_log (actor_id, action, details) values ('ops', 'site.user_promoted_by_config', '{}')`);
+    old.close();
+
+    const db = openDatabase(file);
+    try {
+      const rows = db.$client.prepare('select id, email, email_verified_at, config_promoted_at from users order by id').all() as { id: string; email: string; email_verified_at: number | null; config_promoted_at: number | null }[];
+      const byId = Object.fromEntries(rows.map((r) => [r.id, r]));
+      expect(byId.admin.email_verified_at).not.toBeNull();
+      expect(byId.owner.email_verified_at).not.toBeNull();
+      expect(byId.peer.email_verified_at).not.toBeNull();
+      expect(byId.alone.email_verified_at).toBeNull(); // asked at the next sign-in
+      expect(byId.ops.config_promoted_at).not.toBeNull(); // the operator's promotion already happened
+      expect(byId.owner.email).toBe('ann@lab.test');
+    } finally {
+      db.$client.close();
+    }
+  });
+});

@@ -4,6 +4,7 @@ import { createHash } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Invitation } from '../shared/team.js';
 import type { WorkbookPayload } from '../shared/workbooks.js';
+import { createMailer } from '../server/mail/mailer.js';
 import { testOrigin } from './helpers/app.js';
 import { inbox, invitationToken, load, makeTeam, sharedWorkbook, signUpPerson, type Team } from './helpers/team.js';
 
@@ -39,8 +40,8 @@ describe('invitations by e-mail', () => {
     expect(message.text).toMatch(new RegExp(`^${testOrigin}/invitations/[A-Za-z0-9_-]{43}$`, 'm'));
 
     // The health route names the fake server the message went through.
-    const health = await t.agent().get('/api/health');
-    expect(health.body.mail).toMatch(/^fake smtp on 127\.0\.0\.1:\d+$/);
+    const health = await t.admin.agent.get('/api/health');
+    expect(health.body.details.mail).toMatch(/^fake smtp on 127\.0\.0\.1:\d+$/);
   });
 
   it('stores only the SHA-256 of the token, never the token itself', async () => {
@@ -171,14 +172,17 @@ describe('invitations by e-mail', () => {
 describe('when the mail server refuses', () => {
   it('answers 502 naming the address and stores no invitation', async () => {
     // Port 1 on the loopback interface: nothing listens, so the connection is refused at once.
-    const t = await makeTeam({ config: { smtpUrl: 'smtp://127.0.0.1:1' } });
+    const t = await makeTeam();
     const wb = await sharedWorkbook(t);
+    // The team signed up and verified through the dev inbox; from here on mail goes to a relay that refuses.
+    await t.ctx.mail.stop();
+    t.ctx.mail = createMailer({ db: t.db, smtpUrl: 'smtp://127.0.0.1:1', logger: t.ctx.logger });
     const res = await t.owner.agent.post(`/api/workbooks/${wb.id}/invitations`).send({ email: 'nia@lab.test', role: 'viewer' });
     expect(res.status).toBe(502);
     expect(res.body.error.code).toBe('mail_failed');
     expect(res.body.error.message).toMatch(/^the invitation e-mail to nia@lab\.test could not be sent \(.+\); nothing was saved/);
     expect((t.db.$client.prepare('select count(*) as n from invitations').get() as { n: number }).n).toBe(0);
-    expect((await t.agent().get('/api/health')).body.mail).toMatch(/^error: /);
+    expect((await t.admin.agent.get('/api/health')).body.details.mail).toMatch(/^error: /);
     await t.ctx.mail.stop();
   });
 });

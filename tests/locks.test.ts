@@ -10,7 +10,7 @@ import { createApp } from '../server/app.js';
 import { loadConfig } from '../server/config.js';
 import { openDatabase } from '../server/db/index.js';
 import type { WorkbookPayload } from '../shared/workbooks.js';
-import { testOrigin, testPassword } from './helpers/app.js';
+import { linkToken, mailedLink, testOrigin, testPassword } from './helpers/app.js';
 import { load, makeTeam, sharedWorkbook, type Agent, type Team } from './helpers/team.js';
 
 const edit = (agent: Agent, wb: WorkbookPayload, row: number, col: number, input: string, baseRevision = 0, sheetId = wb.sheets[0].id) =>
@@ -208,7 +208,7 @@ describe('after a restart on the same database file', () => {
 
   function boot() {
     const db = openDatabase(path.join(dir, 'orbitab.sqlite'));
-    const { app, ctx } = createApp({ db, config: { ...loadConfig({ NODE_ENV: 'test' }), seed: false, origin: testOrigin } });
+    const { app, ctx } = createApp({ db, config: { ...loadConfig({ NODE_ENV: 'test' }), seed: false, origin: testOrigin, originConfigured: true } });
     const signIn = async (email: string) => {
       const agent = request.agent(app).set('Origin', testOrigin);
       await agent.post('/api/auth/sign-in').send({ email, password: testPassword }).expect(200);
@@ -219,7 +219,12 @@ describe('after a restart on the same database file', () => {
 
   it('keeps locks and protected ranges, and keeps refusing the same edits', async () => {
     const first = boot();
-    const signUp = async (email: string, name: string) => (await first.agent().post('/api/auth/sign-up').send({ email, password: testPassword, name }).expect(201)).body.user;
+    const signUp = async (email: string, name: string) => {
+      const user = (await first.agent().post('/api/auth/sign-up').send({ email, password: testPassword, name }).expect(201)).body.user;
+      // Opens the mailed verification link, so the owner can add them directly.
+      await first.agent().post('/api/auth/verify').send({ token: linkToken(mailedLink(first.db, email, 'verify-email')!) }).expect(200);
+      return user;
+    };
     await signUp('root@lab.test', 'Root');
     await signUp('ann@lab.test', 'Ann Analyst');
     const bob = await signUp('bob@lab.test', 'Bob Bench');
@@ -233,6 +238,7 @@ describe('after a restart on the same database file', () => {
     await ann.put(`/api/workbooks/${id}/sheets/${sheet1}/lock`).send({ reason: 'signed off' }).expect(200);
     await ann.post(`/api/workbooks/${id}/sheets/${second}/protected-ranges`).send({ range: 'A1:B2', editors: [bob.id] }).expect(201);
     const before = (await ann.get(`/api/workbooks/${id}`)).body as WorkbookPayload;
+    await first.ctx.mail.stop();
     first.db.$client.close();
 
     const again = boot();

@@ -84,6 +84,9 @@ describe('log redaction', () => {
 
   it('masks only the token segment of an invitation path', () => {
     expect(redactUrl('/api/invitations/abc/accept')).toBe('/api/invitations/[token]/accept');
+    expect(redactUrl('/api/auth/password-reset/abc')).toBe('/api/auth/password-reset/[token]');
+    expect(redactUrl('/reset-password/abc')).toBe('/reset-password/[token]');
+    expect(redactUrl('/verify-email/abc?x=1')).toBe('/verify-email/[token]');
     expect(redactUrl('/api/workbooks/w1/invitations')).toBe('/api/workbooks/w1/invitations');
     expect(redactUrl('/api/workbooks/w1?sheet=2')).toBe('/api/workbooks/w1');
   });

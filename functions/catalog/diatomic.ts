@@ -19,10 +19,13 @@ import {
   termFormat,
 } from './diatomicArgs.js';
 import { analyseDiatomic } from '../chem/diatomic.js';
+import { KNOWN_GROUND_STATE_FAILURES, knownFailureFor } from '../chem/knownFailures.js';
 import { parseSpecies } from '../chem/species.js';
 import { ChemError, type CatalogEntry, type Scalar, type Table } from './types.js';
 
 const MOTABLE_COLUMNS = 3;
+
+const KNOWN_FAILURES_LIST = KNOWN_GROUND_STATE_FAILURES.map((f) => f.species).join(', ');
 
 function index(value: number, what: string, max: number): number {
   if (!Number.isInteger(value) || value < 1 || value > max) throw new ChemError(`${what} ${value} is outside 1 to ${max}`, 'REF');
@@ -58,7 +61,11 @@ export const diatomicFunctions: CatalogEntry[] = [
       { formula: '=MOCONFIG("OH","auto","full")', expected: '1σ² 2σ² 3σ² 1π³' },
       { formula: '=MOCONFIG("H2+")', expected: 'σg(1s)¹' },
     ],
-    source: MODEL_SOURCE + ' Labels: Mulliken numbering for heteronuclear species as in Huber & Herzberg (1979); KK core notation as in Herzberg (1950).',
+    source:
+      MODEL_SOURCE +
+      ' Labels: Mulliken numbering for heteronuclear species as in Huber & Herzberg (1979); KK core notation as in Herzberg (1950). The configuration is the simple Aufbau filling, which differs from experiment for ' +
+      KNOWN_FAILURES_LIST +
+      ' (see MODELCAVEAT).',
     implementation: (species, ordering, core) => {
       const analysis = analysisOf(species, ordering);
       return coreStyle(core) === 'full' ? analysis.configFull : analysis.configAbbreviated;
@@ -162,8 +169,32 @@ export const diatomicFunctions: CatalogEntry[] = [
       { formula: '=DEGENERACY("OH")', expected: 4 },
       { formula: '=DEGENERACY("N2")', expected: 1 },
     ],
-    source: 'g_el = (2S+1)(2 − δ0,Λ) for a term without resolved spin–orbit structure (McQuarrie, Statistical Mechanics, 1976). ' + TERM_SOURCE,
+    source:
+      'g_el = (2S+1)(2 − δ0,Λ) for a term without resolved spin–orbit structure (McQuarrie, Statistical Mechanics, 1976), of the model\'s ground term: wrong wherever that term is wrong (Si2, C2+, BN, SiC, AlN, P2+, Al2 — see MODELCAVEAT), so check before using it in a partition function. ' +
+      TERM_SOURCE,
     implementation: (species, ordering) => analysisOf(species, ordering).degeneracy,
+  },
+  {
+    name: 'MODELCAVEAT',
+    family: 'Diatomic',
+    summary: 'Where simple MO filling is known to disagree with experiment for this species: the experimental ground term and what the model gets wrong; empty text when no disagreement is known.',
+    params: [speciesParam],
+    returns: { description: 'caveat text, or "" when none is listed', kind: 'text' },
+    examples: [
+      { formula: '=MODELCAVEAT("O2")', expected: '' },
+      {
+        formula: '=MODELCAVEAT("BN")',
+        expected: 'experiment X ³Π (Huber & Herzberg 1979, recalled from memory): the model gives ¹Σ⁺ (closed 1π⁴ shell); 1π and 5σ lie close, so the open-shell ³Π is lowest',
+      },
+    ],
+    source:
+      'K. P. Huber & G. Herzberg, Constants of Diatomic Molecules (1979), experimental ground terms recalled from memory. Listed: ' +
+      KNOWN_FAILURES_LIST +
+      '. An empty result means no disagreement is listed, not that the model is confirmed for the species.',
+    implementation: (species) => {
+      const failure = knownFailureFor(parseSpecies(speciesText(species)));
+      return failure ? `experiment ${failure.experimentalTerm} (Huber & Herzberg 1979, recalled from memory): ${failure.note}` : '';
+    },
   },
   {
     name: 'HOMO',

@@ -1,5 +1,6 @@
 // Argument handling shared by the Diatomic family: the spreadsheet edge, where every value a cell
 // can hold is turned into a species text or a clear ChemError.
+import { knownFailuresSummary } from '../chem/knownFailures.js';
 import { analyseDiatomic, parseOrdering, type DiatomicAnalysis } from '../chem/diatomic.js';
 import { ORDERINGS, type OrderingChoice } from '../chem/moDiagram.js';
 import { ChemError, type ErrorKind, type ParamSpec, type Table } from './types.js';
@@ -78,11 +79,16 @@ export const MODEL_SOURCE =
   '(Atkins & de Paula, Physical Chemistry, "Molecular structure"). Ordering "auto": s–p mixed order (πu(2p) below σg(2p)) ' +
   'for species with ≤10 valence electrons (Li2…N2-like, CO, CN⁻, NO⁺; N2 photoelectron spectrum, Turner et al., ' +
   'Molecular Photoelectron Spectroscopy, 1970), unmixed from 11 (O2⁺, NO, O2, F2). Diatomic hydrides: H 1s meets the ' +
-  'partner\'s σ orbitals, the partner\'s p π pair is non-bonding. Third-row atoms: n = 3 shells over a neon core. ' +
+  'partner\'s σ orbitals, the partner\'s p π pair is non-bonding. Third-row atoms: n = 3 shells over a neon core, and the ' +
+  'same ≤10-electron auto rule, which was set from second-row evidence and is not established for them (Si2 and Al2 come out wrong with it; ' +
+  'try ordering "unmixed"). ' +
   'Single configuration, no spin–orbit coupling. Model estimates for screening, not measured data and not safety ' +
   'information: for reactive or toxic species (F2, ClO, NO…) defer to safety data sheets, local codes and qualified review.';
 
 export const TERM_SOURCE =
   'Ground term from the open shell by enumerating microstates and applying Hund\'s rules (highest S, then highest Λ); ' +
   'Σ⁺/Σ⁻ from the reflection through a plane containing the axis (Herzberg, Spectra of Diatomic Molecules, 2nd ed., 1950). ' +
-  'Checked against the ground states tabulated by Huber & Herzberg, Constants of Diatomic Molecules (1979).';
+  'Agrees with the ground states tabulated by Huber & Herzberg, Constants of Diatomic Molecules (1979), for the common ' +
+  'first- and second-row species (H2…F2, O2⁺, N2⁺, CO, CN, NO, OH, the hydrides) but not for all: simple filling gets these wrong — ' +
+  knownFailuresSummary() +
+  ' (experimental terms recalled from memory; MODELCAVEAT(species) returns the note for one species).';

@@ -1,12 +1,16 @@
 // The Hückel π-system family: levels, gaps, π energies, bond orders, charges, aromaticity and an
 // absorption estimate, from a SMILES string or a hand-built Hückel matrix. Science in functions/chem/.
 import { ChemError, type CatalogEntry, type ParamSpec, type Table } from './types.js';
-import { absorptionMaxNm, DEFAULT_BETA_EV, DEFAULT_OFFSET_EV } from '../chem/absorption.js';
-import { aromaticity } from '../chem/aromaticity.js';
+import { absorptionMaxNm, DEFAULT_BETA_EV, DEFAULT_OFFSET_EV, HC_EV_NM } from '../chem/absorption.js';
+import { pppAbsorptionNm } from './spectra.js';
+import { aromaticity, ringVerdicts } from '../chem/ringAromaticity.js';
 import { bondOrder, checkElectronCount, delocalizationEnergy, frontierGap, piCharge, piEnergy, type HuckelModel } from '../chem/huckel.js';
-import { huckelModelOf, requireSmiles } from '../chem/huckelCache.js';
+import { huckelModelOf, piSystemOf, requireSmiles } from '../chem/huckelCache.js';
 import { checkSpillLength, column, levelRowsFromText, pickIndex } from './huckelSpill.js';
 import { secularEntries } from './huckelSecular.js';
+
+/** Rows a RINGAROMATICITY spill may hold. */
+const MAX_RING_ROWS = 20;
 
 const STREITWIESER = 'A. Streitwieser, Molecular Orbital Theory for Organic Chemists (Wiley, 1961)';
 const PARAMS_NOTE =
@@ -171,7 +175,7 @@ const piEntries: CatalogEntry[] = [
   {
     name: 'AROMATICITY',
     family: 'Hückel',
-    summary: '"aromatic", "antiaromatic" or "non-aromatic" from the 4n+2 count on the closed conjugated ring systems.',
+    summary: '"aromatic", "antiaromatic" or "non-aromatic": the 4n+2 / 4n rule ring by ring; the molecule takes the verdict of its most stabilised ring.',
     params: [structure],
     returns: { description: 'verdict', kind: 'text' },
     examples: [
@@ -179,10 +183,53 @@ const piEntries: CatalogEntry[] = [
       { formula: '=AROMATICITY("C1=CC=C1")', expected: 'antiaromatic' },
       { formula: '=AROMATICITY("C1=CC=CC1")', expected: 'non-aromatic', note: 'cyclopentadiene: the CH2 breaks the ring' },
       { formula: '=AROMATICITY("C1=CC=C[CH-]1")', expected: 'aromatic', note: 'cyclopentadienide, 6 π electrons' },
+      { formula: '=AROMATICITY("O=C1c2ccccc2C(=O)c2ccccc12")', expected: 'aromatic', note: 'anthraquinone: the quinone ring is cross-conjugated, the two benzene rings are intact' },
+      { formula: '=AROMATICITY("c1ccc2c(c1)-c1ccccc1-2")', expected: 'aromatic', note: 'biphenylene: benzene rings aromatic, the 4-ring antiaromatic (see RINGAROMATICITY)' },
     ],
     source:
-      "Hückel (1931); R. Breslow, Acc. Chem. Res. 6, 393 (1973). Fused systems count their perimeter (J. R. Platt, J. Chem. Phys. 17, 484 (1949)); rings double-bonded outside (quinones, fulvenes) are non-aromatic; planarity is assumed, so cyclooctatetraene reads antiaromatic. Any antiaromatic ring system marks the molecule. SMILES input only.",
+      "Hückel (1931); R. Breslow, Acc. Chem. Res. 6, 393 (1973). Rings: openchemlib's smallest set of small rings; each ring's π electrons are its atoms' own (1 per C, 2 per pyrrole N or furan O). A ring with an sp3 atom, a ring double-bonded outside every ring (quinones, lactones, fulvenes) and every ring of a radical are non-aromatic; an odd ring is judged with the odd rings fused to it on their shared perimeter (azulene 10, pentalene 8; J. R. Platt, J. Chem. Phys. 17, 484 (1949)); rings of 8 or more count their perimeter. Precedence: aromatic if any ring is, else antiaromatic if any ring is, else non-aromatic. Planarity is assumed, so cyclooctatetraene reads antiaromatic. SMILES input only. See also RINGAROMATICITY for the verdict of each ring.",
     implementation: (s: Table) => aromaticity(requireSmiles(s, 'AROMATICITY')),
+  },
+  {
+    name: 'RINGAROMATICITY',
+    family: 'Hückel',
+    summary: 'Verdict of each ring: spills atoms, π electrons counted, verdict and reason per ring; or the verdict of ring k.',
+    params: [structure, { name: 'k', type: 'integer', optional: true, description: 'Ring number (order of the spilled table); omit to spill every ring.' }],
+    returns: { description: 'rows of (ring atoms, π electrons, verdict, reason), or one verdict', kind: 'array' },
+    examples: [
+      {
+        formula: '=RINGAROMATICITY("c1ccc2c(c1)-c1ccccc1-2")',
+        expected: [
+          ['1,2,3,4,5,6', 6, 'aromatic', '6 π electrons in the ring'],
+          ['4,5,7,12', 4, 'antiaromatic', '4 π electrons in the ring'],
+          ['7,8,9,10,11,12', 6, 'aromatic', '6 π electrons in the ring'],
+        ],
+        note: 'biphenylene',
+      },
+      { formula: '=RINGAROMATICITY("O=c1ccc2ccccc2o1",2)', expected: 'non-aromatic', note: 'coumarin: the lactone ring is cross-conjugated; ring 1 (benzo) is aromatic' },
+    ],
+    source: `Same rules as AROMATICITY. Atoms are numbered as the SMILES writes its heavy atoms; the π electrons column is empty for a ring that is not fully conjugated, and for an odd ring judged with its neighbours it shows the shared perimeter's count. A cell reference spills a fixed ${MAX_RING_ROWS} rows (unused rows empty).`,
+    spill: (args) => {
+      if (args.length >= 2) return { rows: 1, cols: 1 };
+      const arg = args[0];
+      if (arg?.kind === 'literal') {
+        if (typeof arg.value !== 'string') return { rows: 1, cols: 1 };
+        try {
+          const n = ringVerdicts(piSystemOf(arg.value)).length;
+          return n > 0 && n <= MAX_RING_ROWS ? { rows: n, cols: 4 } : { rows: 1, cols: 1 };
+        } catch {
+          return { rows: 1, cols: 1 };
+        }
+      }
+      return { rows: MAX_RING_ROWS, cols: 4 };
+    },
+    implementation: (s: Table, k?: number) => {
+      const verdicts = ringVerdicts(requireSmiles(s, 'RINGAROMATICITY'));
+      if (verdicts.length === 0) throw new ChemError('no rings in this structure, so no ring verdicts');
+      if (k !== undefined) return pickIndex(verdicts, k, 'ring', 'rings').verdict;
+      if (verdicts.length > MAX_RING_ROWS) throw new ChemError(`RINGAROMATICITY would spill ${verdicts.length} rings, more than ${MAX_RING_ROWS}; give the ring number k`);
+      return verdicts.map((r) => [r.atoms.join(','), r.electrons ?? '', r.verdict, r.reason]);
+    },
   },
   {
     name: 'ABSORPTION',
@@ -193,14 +240,26 @@ const piEntries: CatalogEntry[] = [
       { name: 'beta_eV', type: 'number', unit: 'eV', optional: true, default: DEFAULT_BETA_EV, description: 'Spectroscopic |β| in eV.' },
       { name: 'offset_eV', type: 'number', unit: 'eV', optional: true, default: DEFAULT_OFFSET_EV, description: 'Offset of the linear relation in eV.' },
       params,
+      {
+        name: 'model',
+        type: 'string',
+        optional: true,
+        choices: ['huckel', 'ppp'],
+        description:
+          '"huckel" (default, the linear gap relation; existing sheets keep their values) or "ppp": the PPP-CIS singlet with the most HOMO→LUMO character (beta_eV, offset_eV and params are then not used).',
+      },
     ],
     returns: { description: 'estimated λmax', unit: 'nm', kind: 'number' },
     examples: [
       { formula: '=ABSORPTION("C=CC=CC=C")', expected: 310.7, tolerance: 0.1, note: 'hexatriene; observed 258 nm — the one-line fit overestimates polyenes' },
       { formula: '=ABSORPTION("C=CC=CC=C",2.911,2.160)', expected: 261.0, tolerance: 0.1, note: 'with the polyene-only fit (observed 258 nm)' },
+      { formula: '=ABSORPTION("c1ccc2cccc2cc1",,,,"ppp")', expected: 610, tolerance: 2, note: 'azulene by PPP-CIS (observed ≈ 580 nm); the Hückel relation cannot go past ~632 nm and is not calibrated for azulene' },
     ],
-    source: `${STREITWIESER}, ch. 8 (spectroscopic β). Defaults |β| = ${DEFAULT_BETA_EV} eV, offset ${DEFAULT_OFFSET_EV} eV: least squares over butadiene 217, hexatriene 258, octatetraene 290, decapentaene 334 nm and the acene p bands of benzene 204, naphthalene 286, anthracene 375, tetracene 471, pentacene 580 nm (E. Clar, Polycyclic Hydrocarbons, 1964); RMS 0.68 eV, errors up to ~30 %. Polyene-only fit: 2.911, 2.160; acene-only: 2.496, 1.155.`,
-    implementation: (s: Table, betaEv: number = DEFAULT_BETA_EV, offsetEv: number = DEFAULT_OFFSET_EV, p?: string) => {
+    source: `${STREITWIESER}, ch. 8 (spectroscopic β). Defaults |β| = ${DEFAULT_BETA_EV} eV, offset ${DEFAULT_OFFSET_EV} eV: least squares over butadiene 217, hexatriene 258, octatetraene 290, decapentaene 334 nm and the acene p bands of benzene 204, naphthalene 286, anthracene 375, tetracene 471, pentacene 580 nm (E. Clar, Polycyclic Hydrocarbons, 1964); RMS 0.68 eV, errors up to ~30 %. Polyene-only fit: 2.911, 2.160; acene-only: 2.496, 1.155. Ceiling: with the default offset no gap gives more than 1239.84/${DEFAULT_OFFSET_EV} ≈ ${Math.round(HC_EV_NM / DEFAULT_OFFSET_EV)} nm, so deep-coloured dyes are out of reach. Calibrated only on alternant hydrocarbons: non-alternant molecules (azulene) and heteroatom molecules (dyes, carbonyls, azines) lie outside its calibration. For predicted spectra use model "ppp" or the π spectra family: PPPLAMBDA, PPPSTRONGEST, PPPSTATES.`,
+    implementation: (s: Table, betaEv: number = DEFAULT_BETA_EV, offsetEv: number = DEFAULT_OFFSET_EV, p?: string, which?: string) => {
+      const choice = (which ?? '').trim().toLowerCase();
+      if (choice === 'ppp') return pppAbsorptionNm(requireSmiles(s, 'ABSORPTION with model "ppp"').smiles);
+      if (choice !== '' && choice !== 'huckel' && choice !== 'hückel') throw new ChemError(`ABSORPTION: model must be "huckel" or "ppp", not "${which}"`);
       const model = huckelModelOf(s, p);
       return absorptionMaxNm(frontierGap(model, model.electrons).gap, betaEv, offsetEv);
     },

@@ -220,8 +220,10 @@ export const lcaoFunctions: CatalogEntry[] = [
       { formula: '=LEVELGAP({-2;-1;-1;0},6)', expected: 1, note: 'six electrons fill the lowest level and a degenerate pair' },
       { formula: '=LEVELGAP({-1;1},1)', expected: 2, note: 'one electron: the singly occupied lower orbital is the HOMO (SOMO)' },
       { formula: '=LEVELGAP({2;0;0;-2},4)', expected: 0, note: 'cyclobutadiene-like Hückel levels (units of |β|): two electrons in a degenerate pair, gap 0' },
+      { formula: '=LEVELGAP({-2.1799e-18;-5.4497e-19;-2.4221e-19},1)', expected: 1.63493e-18, tolerance: 1e-23, note: 'hydrogen n = 1, 2, 3 in joules: E2 − E1' },
     ],
-    source: 'Aufbau filling with the Pauli principle, two electrons per orbital (common practice); HOMO/LUMO frontier orbitals after Fukui, Yonezawa & Shingu, J. Chem. Phys. 20, 722 (1952).',
+    source:
+      'Aufbau filling with the Pauli principle, two electrons per orbital (common practice); HOMO/LUMO frontier orbitals after Fukui, Yonezawa & Shingu, J. Chem. Phys. 20, 722 (1952). Levels within 1e-9 of the spread of the list (at least 1e-12 of the largest |E|) count as degenerate, so any unit works, joules included. An electron count the levels cannot hold is #VALUE!, as in the other families.',
     implementation: (levels: unknown[][], electrons: number) => frontierLevels(orbitalEnergiesFromCells(levels), electrons).gap,
   },
 ];

@@ -1,8 +1,9 @@
 // The shape of one cell function, declared once. The HyperFormula plugin, the in-app help,
 // docs/functions.md and the example tests are all generated from these entries.
 
-export type Scalar = number | string | boolean;
-export type Table = Scalar[][];
+import type { Scalar, Table } from '../chem/errors.js';
+export type { Scalar, Table, ErrorKind } from '../chem/errors.js';
+export { ChemError } from '../chem/errors.js';
 export type FunctionResult = Scalar | Table;
 
 /** How a parameter arrives in the implementation. `range` gives a Table (a range, an inline array or a spilled result). */
@@ -37,7 +38,7 @@ export type SpillArg =
   | { kind: 'empty' }
   | { kind: 'other' };
 
-export type Family = 'Diatomic' | 'LCAO' | 'Units' | 'Hückel' | 'Extended Hückel';
+export type Family = 'Diatomic' | 'LCAO' | 'Units' | 'Hückel' | 'π spectra' | 'Extended Hückel';
 
 export interface CatalogEntry {
   name: string;
@@ -52,14 +53,4 @@ export interface CatalogEntry {
   spill?: (args: SpillArg[]) => { rows: number; cols: number };
   /** Pure implementation. Throw ChemError for bad input; never return NaN or Infinity. */
   implementation: (...args: any[]) => FunctionResult;
-}
-
-export type ErrorKind = 'VALUE' | 'NUM' | 'NA' | 'DIV_BY_ZERO' | 'REF';
-
-/** A domain error that becomes a spreadsheet error with this message (e.g. #VALUE! "unknown element 'Xq'"). */
-export class ChemError extends Error {
-  constructor(message: string, readonly kind: ErrorKind = 'VALUE') {
-    super(message);
-    this.name = 'ChemError';
-  }
 }

@@ -4,7 +4,7 @@
 // (CODATA 2018: h and c exact, e exact). This is a screening estimate, not a spectrum: simple Hückel
 // theory ignores bond alternation and electron repulsion, so polyenes and acenes fall on different
 // lines and one relation for both misses individual bands by up to about 30 % (see the fit below).
-import { ChemError } from '../catalog/types.js';
+import { ChemError } from './errors.js';
 
 export const HC_EV_NM = 1239.84198;
 

@@ -11,8 +11,8 @@
 // - a cross-conjugated ring, where a ring atom is double-bonded outside the ring system (quinones,
 //   fulvenes, tropone), is "non-aromatic": the 4n+2 count is defined here only for rings whose every
 //   π bond lies in the ring (common practice; tropone-type cases are borderline in the literature);
-// - the molecule is "antiaromatic" if any ring system is, else "aromatic" if any is, else
-//   "non-aromatic" — the destabilised ring decides a screening flag.
+// These whole-system verdicts are kept for the perimeter of large rings; the molecule's verdict
+// (AROMATICITY) is now given ring by ring in ringAromaticity.ts.
 // Planarity is assumed, as in all simple Hückel theory: cyclooctatetraene counts 8 and is reported
 // antiaromatic although the real molecule avoids this by puckering into a tub.
 import type { PiSystem } from './piSystem.js';
@@ -28,7 +28,7 @@ export interface RingSystemVerdict {
 }
 
 /** Biconnected components (Tarjan, edge-stack form) with at least three vertices: the ring systems. */
-function ringBlocks(n: number, edges: [number, number][]): Set<number>[] {
+export function ringBlocks(n: number, edges: [number, number][]): Set<number>[] {
   const adjacency: number[][] = Array.from({ length: n }, () => []);
   for (const [a, b] of edges) {
     adjacency[a].push(b);
@@ -66,9 +66,9 @@ function ringBlocks(n: number, edges: [number, number][]): Set<number>[] {
   return blocks;
 }
 
-const edgeKey = (a: number, b: number) => (a < b ? `${a}-${b}` : `${b}-${a}`);
+export const edgeKey = (a: number, b: number) => (a < b ? `${a}-${b}` : `${b}-${a}`);
 
-function verdictFor(electrons: number): AromaticityVerdict {
+export function verdictFor(electrons: number): AromaticityVerdict {
   if (electrons > 0 && electrons % 4 === 2) return 'aromatic';
   if (electrons > 0 && electrons % 4 === 0) return 'antiaromatic';
   return 'non-aromatic';
@@ -107,10 +107,4 @@ export function ringSystemVerdicts(pi: PiSystem): RingSystemVerdict[] {
   return verdicts;
 }
 
-/** One word for the molecule (see the aggregation rule above). */
-export function aromaticity(pi: PiSystem): AromaticityVerdict {
-  const verdicts = ringSystemVerdicts(pi).map((r) => r.verdict);
-  if (verdicts.includes('antiaromatic')) return 'antiaromatic';
-  if (verdicts.includes('aromatic')) return 'aromatic';
-  return 'non-aromatic';
-}
+

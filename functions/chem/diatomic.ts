@@ -10,7 +10,7 @@
 //
 // Results are cached per (ordering, species text): a screening column repeats a few species many
 // thousands of times, so a repeat costs two Map lookups.
-import { ChemError } from '../catalog/types.js';
+import { ChemError } from './errors.js';
 import { buildDiagram, ORDERINGS, type DiagramKind, type MoLevel, type OrderingChoice } from './moDiagram.js';
 import { parseSpecies, type Species } from './species.js';
 import { formatTerm, groundTerm, superscriptNumber, termDegeneracy, type MolecularTerm } from './terms.js';

@@ -6,7 +6,7 @@
 // and the generalized eigenproblem HC = SCE solved by Löwdin orthogonalization (eigen.ts).
 // No self-consistency: H does not depend on the charges, so charges come out exaggerated and
 // energies are qualitative. Populations: R. S. Mulliken, J. Chem. Phys. 23, 1833 (1955).
-import { ChemError } from '../catalog/types.js';
+import { ChemError } from './errors.js';
 import { solveSecular } from './eigen.js';
 import { elementParameters, PARAMETRISED_ELEMENTS, WOLFSBERG_HELMHOLZ_K } from './ehtParams.js';
 import type { Geometry3d } from './geometry3d.js';

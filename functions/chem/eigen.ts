@@ -4,7 +4,7 @@
 // symmetric orthogonalization: H' = S^-1/2 H S^-1/2, C = S^-1/2 C' (P.-O. Löwdin, J. Chem. Phys. 18,
 // 365 (1950)).
 import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
-import { ChemError } from '../catalog/types.js';
+import { ChemError } from './errors.js';
 
 export interface EigenSystem {
   /** Eigenvalues in the requested order. */

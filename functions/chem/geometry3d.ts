@@ -9,7 +9,7 @@
 //   The conformer generator needs openchemlib's static resources, which are loaded by the environment
 //   (Node or browser) before use — never from here, so this file stays free of Node-only calls.
 import { ConformerGenerator, ForceFieldMMFF94, Molecule } from 'openchemlib';
-import { ChemError } from '../catalog/types.js';
+import { ChemError } from './errors.js';
 
 export type GeometrySource = 'xyz' | 'molfile' | 'smiles-conformer';
 

@@ -2,7 +2,7 @@
 // Molecular Orbital Theory for Organic Chemists, 1961, chs. 2–5). Energies are E = α + xβ with β < 0,
 // so the matrix is written in β units (diagonal h_i, off-diagonal k_ij) and its eigenvalues x are
 // listed largest (most bonding) first.
-import { ChemError } from '../catalog/types.js';
+import { ChemError } from './errors.js';
 import { solveSymmetric } from './eigen.js';
 import { coulombParameter, resonanceParameter, type ParameterSetName } from './huckelParams.js';
 import type { PiSystem } from './piSystem.js';

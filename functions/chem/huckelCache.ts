@@ -2,7 +2,7 @@
 // and often repeats molecules, so parsed π systems and solved models are kept in small LRU maps keyed
 // by the SMILES text (and parameter set) or the matrix values. Failures are cached too, so a column
 // of one bad SMILES reports its message without re-parsing.
-import { ChemError, type Table } from '../catalog/types.js';
+import { ChemError, type Table } from './errors.js';
 import { modelFromMatrix, modelFromPiSystem, type HuckelModel } from './huckel.js';
 import { parseParameterSet, type ParameterSetName } from './huckelParams.js';
 import { readSymmetricMatrix } from './matrixInput.js';

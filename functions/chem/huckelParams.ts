@@ -15,7 +15,7 @@
 //   S1 thione S (1 e)                       S2 thiophene/thioether S (2 e)
 //   P1 phosphinine-type P (1 e)             P2 phosphole/phosphine P (2 e)
 //   B  trivalent boron, empty p (0 e)       F, Cl, Br halogens (2 e)           C carbon (0, 1 or 2 e)
-import { ChemError } from '../catalog/types.js';
+import { ChemError } from './errors.js';
 
 export type CentreType = 'C' | 'B' | 'N1' | 'N2' | 'N+' | 'O1' | 'O2' | 'O+' | 'S1' | 'S2' | 'P1' | 'P2' | 'F' | 'Cl' | 'Br';
 

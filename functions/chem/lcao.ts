@@ -6,10 +6,13 @@
 // (integrals over 1s orbitals in confocal elliptic coordinates); also Pauling & Wilson,
 // Introduction to Quantum Mechanics (1935), chapter on the hydrogen molecule-ion.
 // The tests check each closed form against a direct numerical integration.
-import { ChemError } from '../catalog/types.js';
+import { ChemError } from './errors.js';
 
 /** Energy of the hydrogen 1s orbital, −1/2 hartree (exact for a one-electron atom, Z = 1). */
 export const HYDROGEN_1S_ENERGY_HARTREE = -0.5;
+
+/** Beyond this ζR every e^(−ρ)·polynomial(ρ) here is below the smallest double (e^(−750) ≈ 1e-326). */
+const LARGE_RHO = 750;
 
 function requireDistanceBohr(distanceBohr: number, allowZero: boolean): void {
   if (!Number.isFinite(distanceBohr)) throw new ChemError(`distance must be a finite number, got ${distanceBohr}`);
@@ -26,6 +29,8 @@ export function overlap1s(distanceBohr: number, zeta = 1): number {
   requireDistanceBohr(distanceBohr, true);
   if (!(zeta > 0) || !Number.isFinite(zeta)) throw new ChemError(`orbital exponent zeta must be positive, got ${zeta}`, 'NUM');
   const rho = zeta * distanceBohr;
+  // Past ρ ≈ 750 e^(−ρ) underflows to 0 while ρ² may overflow to ∞ (0·∞ = NaN): S is 0 to double precision.
+  if (rho > LARGE_RHO) return 0;
   return Math.exp(-rho) * (1 + rho + (rho * rho) / 3);
 }
 
@@ -47,6 +52,7 @@ export function coulombIntegral1s(distanceBohr: number): number {
  */
 export function exchangeIntegral1s(distanceBohr: number): number {
   requireDistanceBohr(distanceBohr, false);
+  if (distanceBohr > LARGE_RHO) return 0;
   return Math.exp(-distanceBohr) * (1 + distanceBohr);
 }
 

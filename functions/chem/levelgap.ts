@@ -3,14 +3,16 @@
 // Conventions (common practice in LCAO and Hückel work):
 // - Levels are filled from the lowest energy up, two electrons per orbital (Pauli), whatever
 //   order they are listed in.
-// - Orbitals whose energies agree within a tolerance (1e-9 relative to the largest |E|, at least
-//   1e-12) form one degenerate level holding 2g electrons.
+// - Orbitals whose energies agree within a tolerance form one degenerate level holding 2g electrons.
+//   The tolerance is relative, so the unit does not matter (eV, hartree, |β| or joules ~1e-19):
+//   1e-9 of the spread of the levels, but never below 1e-12 of the largest |E| (rounding of the
+//   energies themselves); all-equal levels are one degenerate level.
 // - The HOMO level is the highest level holding an electron. If it is a degenerate level that is
 //   only partly filled, HOMO and LUMO lie in the same level and the gap is 0 (the Hückel reading
 //   of open-shell degenerate systems such as cyclobutadiene, 4 π electrons in two nonbonding MOs).
 // - A singly occupied non-degenerate orbital counts as the HOMO (SOMO); the LUMO is the next level.
 // The gap is E(LUMO) − E(HOMO) in the unit of the energies given.
-import { ChemError } from '../catalog/types.js';
+import { ChemError } from './errors.js';
 
 export interface DegenerateLevel {
   energy: number;
@@ -18,12 +20,14 @@ export interface DegenerateLevel {
 }
 
 const RELATIVE_TOLERANCE = 1e-9;
+const ROUNDING_TOLERANCE = 1e-12;
 
 /** Sorts and groups orbital energies into degenerate levels. */
 export function groupLevels(orbitalEnergies: number[]): DegenerateLevel[] {
   const sorted = [...orbitalEnergies].sort((x, y) => x - y);
-  const scale = Math.max(1e-3, ...sorted.map(Math.abs));
-  const tolerance = RELATIVE_TOLERANCE * scale;
+  const spread = sorted.length > 0 ? sorted[sorted.length - 1] - sorted[0] : 0;
+  const largest = Math.max(0, ...sorted.map(Math.abs));
+  const tolerance = Math.max(RELATIVE_TOLERANCE * spread, ROUNDING_TOLERANCE * largest);
   const levels: DegenerateLevel[] = [];
   for (const energy of sorted) {
     const last = levels[levels.length - 1];
@@ -61,13 +65,14 @@ export interface FrontierLevels {
 export function frontierLevels(orbitalEnergies: number[], electrons: number): FrontierLevels {
   if (orbitalEnergies.length === 0) throw new ChemError('no orbital energies given');
   if (!Number.isInteger(electrons)) throw new ChemError(`electrons must be a whole number, got ${electrons}`);
-  if (electrons < 1) throw new ChemError(`electrons must be at least 1 to have a HOMO, got ${electrons}`, 'NUM');
+  // Electron counts that do not fit are #VALUE!, as in the diatomic and Hückel families.
+  if (electrons < 1) throw new ChemError(`electrons must be at least 1 to have a HOMO, got ${electrons}`);
   const capacity = 2 * orbitalEnergies.length;
   if (electrons > capacity) {
-    throw new ChemError(`${electrons} electrons do not fit in ${orbitalEnergies.length} orbitals (room for ${capacity})`, 'NUM');
+    throw new ChemError(`${electrons} electrons do not fit in ${orbitalEnergies.length} orbitals (room for ${capacity})`);
   }
   if (electrons === capacity) {
-    throw new ChemError(`${electrons} electrons fill all ${orbitalEnergies.length} orbitals; there is no LUMO`, 'NUM');
+    throw new ChemError(`${electrons} electrons fill all ${orbitalEnergies.length} orbitals; there is no LUMO`);
   }
   const levels = groupLevels(orbitalEnergies);
   let remaining = electrons;
@@ -82,7 +87,7 @@ export function frontierLevels(orbitalEnergies: number[], electrons: number): Fr
     if (partlyFilledDegenerate) return { homo, lumo: homo, gap: 0 };
     const next = levels[i + 1];
     // Only a singly occupied top orbital can lack a level above (electrons < capacity).
-    if (!next) throw new ChemError(`the HOMO is the highest orbital given (singly occupied); there is no LUMO`, 'NUM');
+    if (!next) throw new ChemError(`the HOMO is the highest orbital given (singly occupied); there is no LUMO`);
     return { homo, lumo: next.energy, gap: next.energy - homo };
   }
   throw new ChemError('internal: electrons left over after filling'); // unreachable: capacity checked above

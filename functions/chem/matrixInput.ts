@@ -1,6 +1,6 @@
 // Reading a Hamiltonian or overlap matrix typed into a sheet range: every cell a number, the range
 // square and symmetric. Validate here, at the edge, so the solvers can trust their input.
-import { ChemError, type Table } from '../catalog/types.js';
+import { ChemError, type Table } from './errors.js';
 
 /** Tolerance for symmetry, relative to the largest element (typed values are rounded by hand). */
 const SYMMETRY_TOLERANCE = 1e-9;

@@ -16,7 +16,7 @@
 // pyrrole N, 1 for carbonyl O, 2 for ether O and 2 for a halogen (common practice, e.g. Streitwieser
 // 1961, ch. 5).
 import { Molecule } from 'openchemlib';
-import { ChemError } from '../catalog/types.js';
+import { ChemError } from './errors.js';
 import type { CentreType } from './huckelParams.js';
 
 export interface PiCentre {
@@ -38,6 +38,8 @@ export interface PiBond {
   b: number;
   /** Formal bond order in the Kekulé structure openchemlib assigned (1, 2 or 3). */
   order: number;
+  /** True when the bond lies in a ring of the molecule (an exocyclic bond has false). */
+  inRing: boolean;
 }
 
 export interface PiSystem {
@@ -55,6 +57,8 @@ export interface PiSystem {
   numberingFollowsSmiles: boolean;
   /** Small rings (as openchemlib perceives them) made only of π centres, as centre indices. */
   rings: number[][];
+  /** Every small ring of the molecule (openchemlib's ring set, up to 7 members), as 1-based atom numbers in ring order. */
+  smallRings: number[][];
 }
 
 const VALENCE_ELECTRONS: Record<string, number> = { B: 3, C: 4, Si: 4, N: 5, P: 5, O: 6, S: 6, Se: 6, F: 7, Cl: 7, Br: 7, I: 7 };
@@ -63,6 +67,7 @@ const VALENCE_ELECTRONS: Record<string, number> = { B: 3, C: 4, Si: 4, N: 5, P: 
 export function parseSmiles(smiles: string): Molecule {
   const text = smiles.trim();
   if (text === '') throw new ChemError('empty structure: give a SMILES string or a square range holding the Hückel matrix');
+  checkBranches(text);
   let molecule: Molecule;
   try {
     molecule = Molecule.fromSmiles(text, { noCoordinates: true, noStereo: true });
@@ -73,7 +78,83 @@ export function parseSmiles(smiles: string): Molecule {
   }
   if (molecule.getAllAtoms() === 0) throw new ChemError(`cannot read SMILES '${text}': no atoms`);
   molecule.ensureHelperArrays(Molecule.cHelperRings);
+  checkCharges(molecule, text);
+  checkAromaticRadicals(molecule, text);
   return molecule;
+}
+
+/** The atom tokens of a SMILES string in order: bracket atoms, Cl, Br and single organic-subset letters. */
+function atomTokens(text: string): string[] {
+  return text.match(/\[[^\]]*\]|Cl|Br|[BCNOPSFIbcnops]/g) ?? [];
+}
+
+/** SMILES text outside square brackets (bracket atoms replaced by a placeholder). */
+function outsideBrackets(text: string): string {
+  return text.replace(/\[[^\]]*\]/g, '*');
+}
+
+/**
+ * Branch syntax, which openchemlib's parser forgives (it reads 'C(((' as methane): every '(' must be
+ * closed, a ')' must close an open branch, and a branch may not be empty (OpenSMILES specification,
+ * "Branches").
+ */
+function checkBranches(text: string) {
+  const plain = outsideBrackets(text);
+  let depth = 0;
+  for (let i = 0; i < plain.length; i++) {
+    const ch = plain[i];
+    if (ch === '(') {
+      if (plain[i + 1] === ')') throw new ChemError(`SMILES syntax error in '${text}': empty branch '()'`);
+      if (i === 0) throw new ChemError(`SMILES syntax error in '${text}': a branch '(' needs an atom before it`);
+      depth++;
+    } else if (ch === ')') {
+      if (depth === 0) throw new ChemError(`SMILES syntax error in '${text}': ')' closes no open branch`);
+      depth--;
+    }
+  }
+  if (depth > 0) throw new ChemError(`SMILES syntax error in '${text}': ${depth} branch${depth === 1 ? '' : 'es'} opened with '(' never closed`);
+}
+
+const SECOND_ROW = new Set(['B', 'C', 'N', 'O', 'F']);
+
+/**
+ * Refuses charges no real atom can carry, which would otherwise drop the atom from the π system
+ * without a word: a charge that leaves fewer valence electrons than bonds ([CH2+5]), or, for B–F, more
+ * than an octet around the atom ([CH2-2] with three bonds).
+ */
+function checkCharges(molecule: Molecule, text: string) {
+  for (let i = 0; i < molecule.getAtoms(); i++) {
+    const element = molecule.getAtomLabel(i);
+    const valence = VALENCE_ELECTRONS[element];
+    const charge = molecule.getAtomCharge(i);
+    if (valence === undefined || charge === 0) continue;
+    let bondElectrons = molecule.getAllHydrogens(i);
+    for (let n = 0; n < molecule.getConnAtoms(i); n++) bondElectrons += molecule.getConnBondOrder(i, n);
+    const own = valence - charge;
+    const shown = `${charge > 0 ? '+' : '−'}${Math.abs(charge)}`;
+    if (own < bondElectrons)
+      throw new ChemError(`atom ${i + 1} (${element}) with charge ${shown} in '${text}' keeps ${own} valence electron${own === 1 ? '' : 's'} for ${bondElectrons} bonding electrons: no atom can carry that charge here`);
+    if (SECOND_ROW.has(element) && own + bondElectrons > 8)
+      throw new ChemError(`atom ${i + 1} (${element}) with charge ${shown} in '${text}' would hold ${own + bondElectrons} electrons, more than an octet: no such ${element} exists`);
+  }
+}
+
+/**
+ * Lowercase (aromatic) SMILES that cannot be kekulized as written make openchemlib put a radical on an
+ * atom (c1cccc1 becomes the cyclopentadienyl radical). Say so, rather than quietly compute a radical
+ * the user may not have meant.
+ */
+function checkAromaticRadicals(molecule: Molecule, text: string) {
+  if (!/[bcnops]/.test(outsideBrackets(text))) return;
+  const tokens = atomTokens(text);
+  for (let i = 0; i < molecule.getAtoms(); i++) {
+    if (molecule.getAtomRadical(i) === 0) continue;
+    // A radical the user wrote on purpose (an uppercase bracket atom such as [CH]) is kept.
+    if (!/^\[?\d*[a-z]/.test(tokens[i] ?? '')) continue;
+    throw new ChemError(
+      `'${text}' was read as a radical: its aromatic ring has no Kekulé structure without an unpaired electron on atom ${i + 1} (${molecule.getAtomLabel(i)}). Write the species meant explicitly, e.g. [cH-]1cccc1 for the anion, [cH+]1cccc1 for the cation or C1=CC=C[CH]1 for the radical`,
+    );
+  }
 }
 
 function chargeSuffix(q: number) {
@@ -130,7 +211,11 @@ function classifyAtom(molecule: Molecule, index: number): Candidate | undefined 
     if (doubleBonds >= 2)
       throw new ChemError(`${where} has two cumulated double bonds (allene-type): their π bonds are orthogonal, so it has no single p orbital for simple Hückel theory`);
     const electrons = valence - charge + sigma - (tripleBonds > 0 ? 5 : 6);
-    if (electrons < 0 || electrons > 2)
+    if (electrons < 0)
+      throw new ChemError(
+        `${where} has only ${sigma} σ bond${sigma === 1 ? '' : 's'} besides its multiple bond (under-coordinated): write its hydrogens (e.g. [CH]) or its charge, or leave the brackets off for the usual valence`,
+      );
+    if (electrons > 2)
       throw new ChemError(`${where} has ${sigma} σ bonds and a multiple bond (hypervalent); simple Hückel theory needs planar centres with at most three σ bonds`);
     return { index, element, charge, electrons, inMultipleBond: true };
   }
@@ -168,12 +253,14 @@ export function findPiSystem(smiles: string, molecule: Molecule = parseSmiles(sm
   for (let b = 0; b < molecule.getBonds(); b++) {
     const ca = centreOfAtom.get(molecule.getBondAtom(0, b) + 1);
     const cb = centreOfAtom.get(molecule.getBondAtom(1, b) + 1);
-    if (ca !== undefined && cb !== undefined) bonds.push({ a: ca, b: cb, order: molecule.getBondOrder(b) });
+    if (ca !== undefined && cb !== undefined) bonds.push({ a: ca, b: cb, order: molecule.getBondOrder(b), inRing: molecule.isRingBond(b) });
   }
 
   const ringSet = molecule.getRingSet();
   const rings: number[][] = [];
+  const smallRings: number[][] = [];
   for (let r = 0; r < ringSet.getSize(); r++) {
+    smallRings.push(ringSet.getRingAtoms(r).map((a) => a + 1));
     const members = ringSet.getRingAtoms(r).map((a) => centreOfAtom.get(a + 1));
     if (members.every((m) => m !== undefined)) rings.push(members as number[]);
   }
@@ -188,5 +275,6 @@ export function findPiSystem(smiles: string, molecule: Molecule = parseSmiles(sm
     centreOfAtom,
     numberingFollowsSmiles: molecule.getAllAtoms() === atomCount,
     rings,
+    smallRings,
   };
 }

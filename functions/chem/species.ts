@@ -1,7 +1,7 @@
 // Species notation: a diatomic molecule or ion written as text ("O2", "O2^2-", "CN-", "HeH+", "OH").
 // Parsed once per distinct text and cached, because a screening column repeats the same species
 // down thousands of rows. Every rejection is a ChemError whose message says what is wrong.
-import { ChemError } from '../catalog/types.js';
+import { ChemError } from './errors.js';
 import { elementBySymbol, isElementBeyondArgon, type Element } from './elements.js';
 import { TextMemo } from './textMemo.js';
 

@@ -13,7 +13,7 @@
 // integrals A_k(p) = ∫₁^∞ ξ^k e^(−pξ) dξ and B_k(t) = ∫₋₁¹ η^k e^(−tη) dη (ibid., eq. 7).
 // The local σ and π integrals are rotated to the molecular frame by treating p orbitals as the
 // components of a vector (J. C. Slater and G. F. Koster, Phys. Rev. 94, 1498 (1954), Table I).
-import { ChemError } from '../catalog/types.js';
+import { ChemError } from './errors.js';
 
 /** One valence shell of an atom: principal quantum number, l (0 = s, 1 = p) and Slater exponent (bohr⁻¹). */
 export interface StoShell {

@@ -3,7 +3,7 @@
 // Map lookup. Rejections (ChemError) are remembered too, since a column of the same typo is as
 // common as a column of the same species; any other error is a bug and is never cached. The map is
 // emptied when it reaches its limit, so a sheet of ever-different junk cannot grow it without bound.
-import { ChemError } from '../catalog/types.js';
+import { ChemError } from './errors.js';
 
 export class TextMemo<T> {
   private readonly entries = new Map<string, T | ChemError>();

@@ -5,7 +5,7 @@
 // Constants: 2018", Tiesinga et al., Rev. Mod. Phys. 93, 025010 (2021)). Since the 2019 SI
 // redefinition h, c, e, N_A and k_B are exact; the hartree energy and the Bohr radius are measured.
 // The thermochemical calorie is exactly 4.184 J by definition (NIST SP 811, 2008, B.8).
-import { ChemError } from '../catalog/types.js';
+import { ChemError } from './errors.js';
 
 export const PLANCK_CONSTANT_J_S = 6.62607015e-34; // exact
 export const SPEED_OF_LIGHT_M_PER_S = 299_792_458; // exact

@@ -16,7 +16,7 @@ export function createLucia(db: Db) {
       attributes: { sameSite: 'lax', secure: false },
     },
     // The adapter selects the Drizzle columns, so attributes arrive with the schema's property names.
-    getUserAttributes: (a) => ({ email: a.email, name: a.name, siteRole: a.siteRole, disabled: Boolean(a.disabled) }),
+    getUserAttributes: (a) => ({ email: a.email, name: a.name, siteRole: a.siteRole, disabled: Boolean(a.disabled), emailVerified: a.emailVerifiedAt !== null && a.emailVerifiedAt !== undefined }),
   });
 }
 
@@ -25,6 +25,6 @@ export type OrbitabLucia = ReturnType<typeof createLucia>;
 declare module 'lucia' {
   interface Register {
     Lucia: OrbitabLucia;
-    DatabaseUserAttributes: { email: string; name: string; siteRole: SiteRole; disabled: boolean };
+    DatabaseUserAttributes: { email: string; name: string; siteRole: SiteRole; disabled: boolean; emailVerifiedAt: number | null };
   }
 }

@@ -1,6 +1,6 @@
 import type { Request, RequestHandler, Response } from 'express';
 import type { Cookie, Session, User } from 'lucia';
-import { verifyRequestOrigin } from 'lucia';
+import type { AppConfig } from '../config.js';
 import { forbidden, HttpError, unauthorized } from '../errors.js';
 import type { OrbitabLucia } from './lucia.js';
 
@@ -49,13 +49,29 @@ export function loadSession(lucia: OrbitabLucia): RequestHandler {
   };
 }
 
-/** Refuses state-changing requests whose Origin is not this server's (CSRF). */
-export function checkOrigin(configuredOrigin?: string): RequestHandler {
+const loopbackNames = new Set(['localhost', '127.0.0.1', '[::1]']);
+
+/** Whether `origin` (an Origin header) is the app's public origin: same scheme, host and port. */
+export function isAppOrigin(origin: string, config: Pick<AppConfig, 'origin' | 'originConfigured'>): boolean {
+  let got: URL;
+  try {
+    got = new URL(origin);
+  } catch {
+    return false;
+  }
+  const want = new URL(config.origin);
+  if (got.origin === want.origin) return true;
+  // Unconfigured, the origin is http://localhost:PORT; the same server opened as 127.0.0.1 or [::1]
+  // is the same machine and port, so it passes too. A configured origin admits nothing else.
+  return !config.originConfigured && loopbackNames.has(want.hostname) && loopbackNames.has(got.hostname) && got.protocol === want.protocol && got.port === want.port;
+}
+
+/** Refuses state-changing requests whose Origin is not the app's configured public origin (CSRF). */
+export function checkOrigin(config: Pick<AppConfig, 'origin' | 'originConfigured'>): RequestHandler {
   return (req, _res, next) => {
     if (req.method === 'GET' || req.method === 'HEAD' || req.method === 'OPTIONS') return next();
     const origin = req.get('origin');
-    const host = configuredOrigin ? new URL(configuredOrigin).host : req.get('host');
-    if (!origin || !host || !verifyRequestOrigin(origin, [host])) {
+    if (!origin || !isAppOrigin(origin, config)) {
       return next(new HttpError(403, 'bad_origin', origin ? `request origin ${origin} is not this server's` : 'request has no Origin header; state-changing requests must come from the app'));
     }
     next();

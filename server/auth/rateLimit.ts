@@ -1,15 +1,18 @@
-// Sign-in attempt limits (and a sign-up limit per address), kept in this process's memory.
+// Attempt limits for the account routes, counted in this process's memory by rate-limiter-flexible.
 //
-// Why by hand: the rule we need is "count *failed* passwords per account (keyed by the normalised
-// email from the validated body) and *all* attempts per client address, check both before spending
-// an argon2 verification, forget an account's failures once it signs in, and answer both with one
-// JSON 429". A generic per-route request limiter would need two instances, body-derived keys and a
-// custom success test to approximate it; this file is the whole rule in about sixty lines.
+// Every limit is taken *before* the expensive or revealing work (an argon2 hash, an e-mail): the
+// counter moves synchronously when the request asks, so fifty requests arriving together cannot all
+// pass a check that is only recorded after their password was hashed. Sign-in gives the point back
+// when the password was right, so only failures count and a lab signing in behind one address after
+// a restart is never locked out by its own successes.
 //
 // In memory is correct for one server process (the supported deployment: one SQLite file on one
-// machine). Several servers behind a load balancer would each count separately; move the counters
-// into the database or a shared store then. One instance lives on each app's context, so tests that
-// build their own app never share counters.
+// machine). Several servers behind a load balancer would each count separately; the package's other
+// stores (a database or Redis) would share the counts then. One set lives on each app's context, so
+// tests that build their own app never share counters.
+import { RateLimiterMemory, RateLimiterRes } from 'rate-limiter-flexible';
+import type { RateLimitDetails } from '../../shared/auth.js';
+import { HttpError } from '../errors.js';
 
 export interface AttemptLimit {
   /** Attempts allowed inside one window; the next one is refused until the window ends. */
@@ -17,90 +20,82 @@ export interface AttemptLimit {
   windowMs: number;
 }
 
+const minutes = (n: number) => n * 60_000;
+
 /**
  * 5 failed passwords per account per 15 minutes slows a guesser on one account to 480 guesses a day
- * while a person who mistypes a few times is not locked out for long; 20 attempts per address per
- * 15 minutes covers a lab behind one NAT signing in after a restart yet stops spraying many accounts
- * from one address. Both in line with OWASP Authentication Cheat Sheet advice on throttling (common
- * practice; the numbers are our choice).
+ * while a person who mistypes a few times is not locked out for long; 20 failures per address per
+ * 15 minutes stops spraying many accounts from one address. Sign-ups: 30 an hour per address lets a
+ * lab behind one NAT onboard a group in one sitting. Resets and verification mails are limited per
+ * address and per account so the app cannot be used to flood someone's mailbox; invitations per
+ * inviter for the same reason. All in line with the OWASP Authentication and Forgot Password Cheat
+ * Sheets' advice on throttling (common practice; the numbers are our choice).
  */
-export const signInLimitDefaults = {
-  perAccount: { max: 5, windowMs: 15 * 60_000 },
-  perAddress: { max: 20, windowMs: 15 * 60_000 },
+export const limitDefaults = {
+  signInPerAccount: { max: 5, windowMs: minutes(15) },
+  signInPerAddress: { max: 20, windowMs: minutes(15) },
+  signUpPerAddress: { max: 30, windowMs: minutes(60) },
+  resetPerAccount: { max: 3, windowMs: minutes(60) },
+  resetPerAddress: { max: 20, windowMs: minutes(60) },
+  verifyMailPerUser: { max: 5, windowMs: minutes(60) },
+  passwordChangePerUser: { max: 5, windowMs: minutes(15) },
+  invitationsPerInviter: { max: 30, windowMs: minutes(60) },
 } satisfies Record<string, AttemptLimit>;
 
-/**
- * Sign-ups per client address: each costs an argon2 hash (tens of milliseconds of CPU) and makes an
- * account, so a script must not be able to repeat it freely. 30 an hour lets a lab behind one NAT
- * onboard a group in one sitting (common practice; the number is our choice).
- */
-export const signUpLimitDefault: AttemptLimit = { max: 30, windowMs: 60 * 60_000 };
+export type LimitName = keyof typeof limitDefaults;
 
-export type LimitCheck = { allowed: true } | { allowed: false; retryAfterMs: number };
-
-interface Window {
-  count: number;
-  endsAt: number;
-}
-
-/** A fixed window per key that opens at the key's first counted attempt. */
+/** One counter per key over a fixed window that opens at the key's first attempt. */
 export class AttemptLimiter {
-  private readonly windows = new Map<string, Window>();
+  private readonly counter: RateLimiterMemory;
 
   constructor(
     readonly limit: AttemptLimit,
-    private readonly now: () => number = Date.now,
-  ) {}
-
-  check(key: string): LimitCheck {
-    const w = this.current(key);
-    if (!w || w.count < this.limit.max) return { allowed: true };
-    return { allowed: false, retryAfterMs: w.endsAt - this.now() };
+    readonly name: string,
+  ) {
+    this.counter = new RateLimiterMemory({ keyPrefix: name, points: limit.max, duration: Math.ceil(limit.windowMs / 1000) });
   }
 
-  record(key: string): void {
-    const w = this.current(key);
-    if (w) w.count += 1;
-    else {
-      if (this.windows.size >= 10_000) this.sweep();
-      this.windows.set(key, { count: 1, endsAt: this.now() + this.limit.windowMs });
+  /**
+   * Takes one attempt for `key`, or throws the 429 that says when to come back. The memory store
+   * updates the count before its promise settles, so concurrent callers are counted one by one.
+   */
+  async take(key: string, scope: RateLimitDetails['scope'], what: string): Promise<void> {
+    try {
+      await this.counter.consume(key, 1);
+    } catch (e) {
+      if (e instanceof RateLimiterRes) throw rateLimited(e.msBeforeNext, scope, what);
+      throw e;
     }
   }
 
-  reset(key: string): void {
-    this.windows.delete(key);
+  /** Gives back an attempt that turned out not to count (a right password). */
+  async giveBack(key: string): Promise<void> {
+    await this.counter.reward(key, 1);
   }
 
-  private current(key: string): Window | undefined {
-    const w = this.windows.get(key);
-    if (w && w.endsAt <= this.now()) {
-      this.windows.delete(key);
-      return undefined;
-    }
-    return w;
-  }
-
-  /** Drops ended windows, so the map holds only keys seen within the last window. */
-  private sweep() {
-    const t = this.now();
-    for (const [key, w] of this.windows) if (w.endsAt <= t) this.windows.delete(key);
+  /** Forgets the key's attempts (an account's failures once its owner signs in or resets). */
+  async forget(key: string): Promise<void> {
+    await this.counter.delete(key);
   }
 }
 
-/** The sign-in limits, and the sign-up limit beside them (the same kind of counter). */
-export interface SignInLimits {
-  perAccount: AttemptLimiter;
-  perAddress: AttemptLimiter;
-  signUpPerAddress: AttemptLimiter;
+export function rateLimited(retryAfterMs: number, scope: RateLimitDetails['scope'], what: string): HttpError {
+  const retryAfterSeconds = Math.max(1, Math.ceil(retryAfterMs / 1000));
+  const mins = Math.ceil(retryAfterSeconds / 60);
+  const who = scope === 'account' ? 'this account' : scope === 'address' ? 'your address' : 'you';
+  return new HttpError(
+    429,
+    'rate_limited',
+    `too many ${what} for ${who}; try again in ${mins} minute${mins === 1 ? '' : 's'}`,
+    { retryAfterSeconds, retryAt: new Date(Date.now() + retryAfterSeconds * 1000).toISOString(), scope } satisfies RateLimitDetails,
+    { 'Retry-After': String(retryAfterSeconds) },
+  );
 }
 
-export function createSignInLimits(
-  limits: { perAccount?: AttemptLimit; perAddress?: AttemptLimit; signUpPerAddress?: AttemptLimit } = {},
-  now: () => number = Date.now,
-): SignInLimits {
-  return {
-    perAccount: new AttemptLimiter(limits.perAccount ?? signInLimitDefaults.perAccount, now),
-    perAddress: new AttemptLimiter(limits.perAddress ?? signInLimitDefaults.perAddress, now),
-    signUpPerAddress: new AttemptLimiter(limits.signUpPerAddress ?? signUpLimitDefault, now),
-  };
+export type AccountLimits = Record<LimitName, AttemptLimiter>;
+
+export function createAccountLimits(overrides: Partial<Record<LimitName, AttemptLimit>> = {}): AccountLimits {
+  return Object.fromEntries(
+    (Object.keys(limitDefaults) as LimitName[]).map((name) => [name, new AttemptLimiter(overrides[name] ?? limitDefaults[name], name)]),
+  ) as AccountLimits;
 }

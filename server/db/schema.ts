@@ -11,8 +11,32 @@ export const users = sqliteTable('users', {
   passwordHash: text('password_hash').notNull(),
   siteRole: text('site_role', { enum: ['admin', 'member'] }).notNull().default('member'),
   disabled: integer('disabled', { mode: 'boolean' }).notNull().default(false),
+  /** When the owner of the address proved it (a mailed link); null until then. */
+  emailVerifiedAt: integer('email_verified_at'),
+  /** When ORBITAB_ADMIN_EMAIL made this account admin; it happens once, so a later demotion sticks. */
+  configPromotedAt: integer('config_promoted_at'),
   createdAt: integer('created_at').notNull().default(now),
 });
+
+/**
+ * Single-use links sent by e-mail for an account: address verification and password reset. Only the
+ * SHA-256 of the token is kept, as for invitations.
+ */
+export const accountTokens = sqliteTable(
+  'account_tokens',
+  {
+    id: text('id').primaryKey(),
+    userId: text('user_id').notNull().references(() => users.id, { onDelete: 'cascade' }),
+    purpose: text('purpose', { enum: ['verify', 'reset'] }).notNull(),
+    /** The address the link was sent to; a verification proves only this one. */
+    email: text('email').notNull(),
+    tokenHash: text('token_hash').notNull().unique(),
+    expiresAt: integer('expires_at').notNull(),
+    usedAt: integer('used_at'),
+    createdAt: integer('created_at').notNull().default(now),
+  },
+  (t) => [index('account_tokens_user_idx').on(t.userId)],
+);
 
 // lucia's session table: expires_at in seconds since the epoch, as @lucia-auth/adapter-drizzle expects.
 export const sessions = sqliteTable('sessions', {

@@ -15,12 +15,19 @@ const querySchema = z.object({
   limit: z.coerce.number({ error: 'must be a whole number' }).int('must be a whole number').min(1, 'must be 1 or more').max(500, 'at most 500').default(100),
 });
 
+export const hiddenLinkText = '[link hidden: mail goes through SMTP_URL]';
+const withoutLinks = (text: string) => text.replace(/https?:\/\/\S+/g, hiddenLinkText);
+
 export function adminTeamRouter(ctx: AppContext): Router {
   const router = Router();
 
   router.get('/mail', requireAdmin, (req, res) => {
     const { limit } = parse(querySchema, req.query, 'query');
-    const messages = ctx.db.select().from(mailMessages).orderBy(desc(mailMessages.id)).limit(limit).all();
+    const rows = ctx.db.select().from(mailMessages).orderBy(desc(mailMessages.id)).limit(limit).all();
+    // Links are shown only while the dev inbox is the mail transport. With a real relay the
+    // messages here are leftovers, and their links belong to the people they were sent to: an
+    // admin must not be able to accept an invitation, confirm an address or reset a password.
+    const messages = ctx.config.smtpUrl ? rows.map((m) => ({ ...m, text: withoutLinks(m.text) })) : rows;
     res.json({ messages } satisfies MailOutboxResponse);
   });
 

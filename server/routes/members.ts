@@ -1,6 +1,6 @@
 // /api/workbooks/:id/members and /api/workbooks/:id/invitations: who belongs to a workbook, with
 // which role, and sharing by e-mail. Owners manage; any member may see the list and may leave.
-import { Router, type Request } from 'express';
+import { Router } from 'express';
 import { addMemberSchema, changeMemberRoleSchema, createInvitationSchema, type AddMemberResponse, type InvitationsResponse, type MemberRoleResult, type MembersResponse } from '../../shared/team.js';
 import { currentUser, requireUser } from '../auth/middleware.js';
 import type { AppContext } from '../context.js';
@@ -10,10 +10,6 @@ import { addMember, changeMemberRole, listMembers, removeMember } from '../servi
 import { findUserByEmail } from '../services/users.js';
 import { idParam, workbookAccess } from './workbookAccess.js';
 
-/** Where invitation links point: ORBITAB_ORIGIN when set (behind a proxy), else this request's own origin. */
-function publicOrigin(ctx: AppContext, req: Request): string {
-  return ctx.config.origin ?? `${req.protocol}://${req.get('host')}`;
-}
 
 export function membersRouter(ctx: AppContext): Router {
   const router = Router();
@@ -29,12 +25,16 @@ export function membersRouter(ctx: AppContext): Router {
     const a = access(req, res, 'manageMembers');
     const input = parse(addMemberSchema, req.body);
     const me = currentUser(res);
+    // Only an account whose owner proved the address joins at once. Anyone else, with or without an
+    // account, gets the same invitation and the same 202, so the answer does not tell whether the
+    // address has an account (and whoever registered it first cannot take the place of its owner).
     const account = findUserByEmail(ctx.db, input.email);
-    if (account) {
+    if (account && account.emailVerifiedAt !== null && !account.disabled) {
       res.status(201).json({ member: addMember(ctx, a.workbook.id, me.id, account, input.role) } satisfies AddMemberResponse);
       return;
     }
-    const invitation = await createInvitation(ctx, a.workbook.id, me, input, publicOrigin(ctx, req));
+    await ctx.limits.invitationsPerInviter.take(me.id, 'user', 'invitations');
+    const invitation = await createInvitation(ctx, a.workbook.id, me, input, ctx.config.origin);
     res.status(202).json({ invitation } satisfies AddMemberResponse);
   });
 
@@ -62,7 +62,9 @@ export function membersRouter(ctx: AppContext): Router {
   router.post('/:id/invitations', async (req, res) => {
     const a = access(req, res, 'manageMembers');
     const input = parse(createInvitationSchema, req.body);
-    const invitation = await createInvitation(ctx, a.workbook.id, currentUser(res), input, publicOrigin(ctx, req));
+    const me = currentUser(res);
+    await ctx.limits.invitationsPerInviter.take(me.id, 'user', 'invitations');
+    const invitation = await createInvitation(ctx, a.workbook.id, me, input, ctx.config.origin);
     res.status(201).json({ invitation });
   });
 

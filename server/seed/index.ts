@@ -67,7 +67,7 @@ export async function seedOnFirstStart(ctx: AppContext): Promise<SeedResult> {
     (): SeedResult => {
       // Checked again inside the transaction: someone may have signed up while we hashed.
       if (hasAccounts(ctx)) return { seeded: false, reason: 'the database already has accounts' };
-      const people = demoTeam.map((p, i) => ({ person: p, user: createUser(ctx.db, { email: p.email, name: p.name, passwordHash: hashes[i] }, ctx.config.adminEmail) }));
+      const people = demoTeam.map((p, i) => ({ person: p, user: createUser(ctx.db, { email: p.email, name: p.name, passwordHash: hashes[i], verified: true }, ctx.config.adminEmail) }));
       const owner = people.find((p) => p.person.role === 'owner')!.user;
       const others = people.filter((p) => p.person.role !== 'owner').map((p) => ({ user: p.user, role: p.person.role as 'editor' | 'viewer' }));
       const workbookIds = demoWorkbooks.map((book) => writeWorkbook(ctx, owner, others, book));

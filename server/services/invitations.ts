@@ -10,6 +10,8 @@ import { invitations, users, workbookMembers, workbooks } from '../db/schema.js'
 import { conflict, HttpError, notFound } from '../errors.js';
 import { recordAudit } from './audit.js';
 import { joinByInvitation } from './members.js';
+import { sameEmail } from './users.js';
+import type { Tx } from './cellStore.js';
 
 export const invitationLifetimeMs = 7 * 24 * 60 * 60 * 1000;
 
@@ -106,7 +108,7 @@ export async function createInvitation(
     .select({ role: workbookMembers.role })
     .from(workbookMembers)
     .innerJoin(users, eq(users.id, workbookMembers.userId))
-    .where(and(eq(workbookMembers.workbookId, workbookId), eq(users.email, input.email)))
+    .where(and(eq(workbookMembers.workbookId, workbookId), sameEmail(users.email, input.email)))
     .get();
   if (member) throw conflict(`${input.email} is already a member (${member.role}); change their role instead`);
 
@@ -125,7 +127,7 @@ export async function createInvitation(
       const replaced = tx
         .update(invitations)
         .set({ revokedAt: Date.now() })
-        .where(and(eq(invitations.workbookId, workbookId), eq(invitations.email, input.email), isNull(invitations.acceptedAt), isNull(invitations.revokedAt)))
+        .where(and(eq(invitations.workbookId, workbookId), sameEmail(invitations.email, input.email), isNull(invitations.acceptedAt), isNull(invitations.revokedAt)))
         .returning({ id: invitations.id })
         .all();
       tx.insert(invitations).values({ id, workbookId, email: input.email, role: input.role, tokenHash: hashInvitationToken(token), invitedBy: inviter.id, expiresAt }).run();
@@ -173,16 +175,44 @@ const refusals: Record<Exclude<InvitationStatus, 'pending'>, [code: string, mess
   expired: ['invitation_expired', 'this invitation has expired; ask the owner to send a new one'],
 };
 
-/** Accepts a link for the signed-in user: membership and the used mark are written together, once. */
-export function acceptInvitation(ctx: AppContext, user: { id: string; email: string }, token: string): AcceptInvitationResponse {
+/**
+ * Revokes every pending invitation to `email` in this workbook, inside the caller's transaction: a
+ * direct add, a removal or a role change settles that person's access, and an older link must not
+ * undo it (a removed member coming back, a viewer accepting an editor link sent before).
+ */
+export function revokePendingFor(tx: Tx, workbookId: string, actorId: string, email: string, why: string): void {
+  const revoked = tx
+    .update(invitations)
+    .set({ revokedAt: Date.now() })
+    .where(and(eq(invitations.workbookId, workbookId), sameEmail(invitations.email, email), isNull(invitations.acceptedAt), isNull(invitations.revokedAt)))
+    .returning({ id: invitations.id, role: invitations.role })
+    .all();
+  for (const r of revoked) recordAudit(tx, workbookId, actorId, 'invitation.revoked', { invitationId: r.id, email, role: r.role, because: why });
+}
+
+/** The pending invitation a link names, when it was sent to `email` (sign-up from a link proves that mailbox). */
+export function pendingInvitationFor(ctx: AppContext, token: string, email: string): boolean {
+  const row = ctx.db.select().from(invitations).where(eq(invitations.tokenHash, hashInvitationToken(token))).get();
+  return !!row && statusOf(row) === 'pending' && row.email.toLowerCase() === email.toLowerCase();
+}
+
+/**
+ * Accepts a link for the signed-in user: membership and the used mark are written together, once.
+ * Only a verified account with the invited address may: the link alone proves nothing about who
+ * holds it (a site admin reading the dev inbox, a forwarded mail).
+ */
+export function acceptInvitation(ctx: AppContext, user: { id: string; email: string; emailVerified: boolean }, token: string): AcceptInvitationResponse {
   const result = ctx.db.transaction(
     (tx) => {
       const row = tx.select().from(invitations).where(eq(invitations.tokenHash, hashInvitationToken(token))).get();
       if (!row) throw unknownToken();
       const status = statusOf(row);
       if (status !== 'pending') throw new HttpError(410, ...refusals[status]);
-      if (row.email !== user.email) {
+      if (row.email.toLowerCase() !== user.email.toLowerCase()) {
         throw new HttpError(403, 'invitation_for_another_email', `this invitation was sent to ${row.email}, but you are signed in as ${user.email}; sign in with ${row.email} to accept it`);
+      }
+      if (!user.emailVerified) {
+        throw new HttpError(403, 'email_not_verified', `confirm ${user.email} first: open the link in the verification e-mail (or ask for a new one), then accept the invitation`);
       }
       const role = joinByInvitation(tx, row.workbookId, user.id, row.role);
       tx.update(invitations).set({ acceptedAt: Date.now() }).where(eq(invitations.id, row.id)).run();

@@ -10,6 +10,7 @@ import { conflict, notFound } from '../errors.js';
 import { recordAudit } from './audit.js';
 import type { Tx } from './cellStore.js';
 import { dropFromEditorLists } from './locks.js';
+import { revokePendingFor } from './invitations.js';
 
 const roleOrder = sql`case ${workbookMembers.role} when 'owner' then 0 when 'editor' then 1 else 2 end`;
 
@@ -55,6 +56,7 @@ export function addMember(ctx: AppContext, workbookId: string, actorId: string, 
       const existing = memberOf(tx, workbookId, user.id);
       if (existing) throw conflict(`${user.email} is already a member (${existing.role}); change their role instead`);
       tx.insert(workbookMembers).values({ workbookId, userId: user.id, role }).run();
+      revokePendingFor(tx, workbookId, actorId, user.email, 'member.added');
       recordAudit(tx, workbookId, actorId, 'member.added', { userId: user.id, email: user.email, role });
       return requireMember(tx, workbookId, user.id);
     },
@@ -84,6 +86,7 @@ export function changeMemberRole(ctx: AppContext, workbookId: string, actorId: s
         return { member: requireMember(tx, workbookId, targetId), previousOwner: requireMember(tx, workbookId, actorId), changed: true };
       }
       setRole(tx, workbookId, targetId, role);
+      revokePendingFor(tx, workbookId, actorId, target.user.email, 'member.role_changed');
       recordAudit(tx, workbookId, actorId, 'member.role_changed', { userId: targetId, from: target.role, to: role });
       return { member: requireMember(tx, workbookId, targetId), changed: true };
     },
@@ -101,6 +104,7 @@ export function removeMember(ctx: AppContext, workbookId: string, actorId: strin
       if (target.role === 'owner') throw conflict(`${target.user.name} is the owner and cannot be removed; transfer ownership to another member first`);
       tx.delete(workbookMembers).where(and(eq(workbookMembers.workbookId, workbookId), eq(workbookMembers.userId, targetId))).run();
       dropFromEditorLists(tx, workbookId, targetId);
+      revokePendingFor(tx, workbookId, actorId, target.user.email, 'member.removed');
       recordAudit(tx, workbookId, actorId, 'member.removed', { userId: targetId, email: target.user.email, role: target.role, left: actorId === targetId });
     },
     { behavior: 'immediate' },

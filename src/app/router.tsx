@@ -5,6 +5,9 @@ import { AdminUsersPage } from '../features/admin/AdminUsersPage.js';
 import { MailOutbox } from '../features/admin/MailOutbox.js';
 import { SignInPage } from '../features/auth/SignInPage.js';
 import { SignUpPage } from '../features/auth/SignUpPage.js';
+import { AccountPage } from '../features/auth/AccountPage.js';
+import { ForgotPasswordPage, ResetPasswordPage } from '../features/auth/PasswordResetPages.js';
+import { VerifyEmailPage } from '../features/auth/VerifyEmailPage.js';
 import { InvitationPage } from '../features/sharing/InvitationPage.js';
 import { ImportButton } from '../features/io/index.js';
 import { WorkbookListPage } from '../features/workbooks/WorkbookListPage.js';
@@ -23,6 +26,10 @@ export const router = createBrowserRouter([
       { path: '/sign-up', loader: redirectIfSignedIn, Component: SignUpPage },
       // Open signed out too: an invitee reads who invited them before signing up or in.
       { path: '/invitations/:token', Component: InvitationPage },
+      // Links from e-mail: they work signed in or out (the token is what counts).
+      { path: '/verify-email/:token', Component: VerifyEmailPage },
+      { path: '/forgot-password', Component: ForgotPasswordPage },
+      { path: '/reset-password/:token', Component: ResetPasswordPage },
       {
         loader: requireSignedIn,
         Component: AppLayout,
@@ -37,6 +44,7 @@ export const router = createBrowserRouter([
             path: 'functions',
             lazy: async () => ({ Component: (await import('../features/reference/FunctionReferencePage.js')).FunctionReferencePage }),
           },
+          { path: 'account', Component: AccountPage },
           { path: 'admin', Component: AdminUsersPage },
           { path: 'admin/mail', Component: MailOutbox },
           { path: '*', Component: NotFoundPage },
@@ -49,6 +57,6 @@ export const router = createBrowserRouter([
 // When the server says the session is gone (401 on any call), go to sign-in and come back after.
 onSessionLost(() => {
   const { pathname, search } = router.state.location;
-  if (pathname === '/sign-in' || pathname === '/sign-up') return;
+  if (pathname === '/sign-in' || pathname === '/sign-up' || pathname === '/forgot-password' || /^\/(reset-password|verify-email)\//.test(pathname)) return;
   void router.navigate(signInPath(pathname, search), { replace: true });
 });

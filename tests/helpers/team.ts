@@ -14,11 +14,13 @@ export interface Person {
   cookie: string;
 }
 
-export async function signUpPerson(t: TestApp, email: string, name: string): Promise<Person> {
+/** Signs up through the API and, unless `verified: false`, opens the mailed verification link. */
+export async function signUpPerson(t: TestApp, email: string, name: string, options: { verified?: boolean } = {}): Promise<Person> {
   const agent = t.agent();
   const res = await agent.post('/api/auth/sign-up').send({ email, password: testPassword, name });
   if (res.status !== 201) throw new Error(`sign-up of ${email} failed: ${res.status} ${JSON.stringify(res.body)}`);
-  return { agent, user: res.body.user, cookie: sessionCookieOf(res)!.split(';')[0] };
+  const user = options.verified === false ? res.body.user : await t.verifyEmail(email);
+  return { agent, user, cookie: sessionCookieOf(res)!.split(';')[0] };
 }
 
 export async function makeTeam(options: TestAppOptions = {}) {

@@ -3,6 +3,7 @@ import { OrbitabMark } from '../../components/ui/icons.js';
 import { useMe } from '../../core/session/me.js';
 import { ThemeToggle } from '../theme/ThemeToggle.js';
 import { UserMenu } from './UserMenu.js';
+import { ConfirmAddress } from '../../features/auth/AccountPage.js';
 
 const navClass = ({ isActive }: { isActive: boolean }) =>
   `flex h-7 items-center rounded-ctl px-2.5 text-ui font-medium ${isActive ? 'bg-accent-soft text-accent' : 'text-ink-2 hover:bg-hover hover:text-ink'}`;
@@ -43,6 +44,11 @@ export function AppLayout() {
           {user && <UserMenu user={user} />}
         </div>
       </header>
+      {user && !user.emailVerified && (
+        <div className="shrink-0 border-b border-line bg-surface px-3 py-2">
+          <ConfirmAddress email={user.email} />
+        </div>
+      )}
       <main className="min-h-0 flex-1 overflow-auto">
         <Outlet />
       </main>

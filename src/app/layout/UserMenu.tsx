@@ -54,11 +54,22 @@ export function UserMenu({ user }: { user: PublicUser }) {
             <p className="truncate text-caption text-ink-3">{user.email}</p>
             <p className="mt-1 text-caption text-ink-3">Site role: {user.siteRole === 'admin' ? 'Admin' : 'Member'}</p>
           </div>
-          {signOut.isError && <p className="px-3 py-1.5 text-caption text-danger">{sentence(signOut.error.message)}</p>}
           <button
             type="button"
             role="menuitem"
             autoFocus
+            onClick={() => {
+              setOpen(false);
+              navigate('/account');
+            }}
+            className="mt-1 w-full px-3 py-1.5 text-left text-ui hover:bg-hover focus-visible:bg-hover"
+          >
+            Your account
+          </button>
+          {signOut.isError && <p className="px-3 py-1.5 text-caption text-danger">{sentence(signOut.error.message)}</p>}
+          <button
+            type="button"
+            role="menuitem"
             disabled={signOut.isPending}
             onClick={() => signOut.mutate(undefined, { onSuccess: () => navigate('/sign-in?signedOut=1', { replace: true }) })}
             className="mt-1 w-full px-3 py-1.5 text-left text-ui hover:bg-hover focus-visible:bg-hover"

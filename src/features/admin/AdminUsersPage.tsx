@@ -79,6 +79,11 @@ export function AdminUsersPage() {
                       ) : (
                         <span className="rounded-ctl bg-ok-soft px-1.5 py-0.5 text-caption font-medium text-ok">Active</span>
                       )}
+                      {!user.emailVerified && (
+                        <span className="ml-1 text-caption text-ink-3" title="The address has not been confirmed from the mailed link: no sharing, no admin rights until it is">
+                          address unconfirmed
+                        </span>
+                      )}
                     </td>
                     <td className="px-3 py-1.5 text-ink-3 tabular-nums">{dateFormat.format(new Date(user.createdAt))}</td>
                     <td className="px-3 py-1 text-right">

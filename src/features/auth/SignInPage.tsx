@@ -44,9 +44,13 @@ export function SignInPage() {
       <title>Sign in · Orbitab</title>
       <form noValidate onSubmit={submit} className="flex flex-col gap-3">
         {search.get('signedOut') && !errors.form && <Notice tone="success">You are signed out.</Notice>}
+        {search.get('passwordReset') && !errors.form && <Notice tone="success">Your new password is saved. Sign in with it.</Notice>}
         {errors.form && <Notice tone="error">{errors.form}</Notice>}
         <TextField label="Email" name="email" type="email" autoComplete="username" autoFocus required error={errors.fields.email} />
         <TextField label="Password" name="password" type="password" autoComplete="current-password" required error={errors.fields.password} />
+        <Link to="/forgot-password" className="-mt-1 self-end text-caption text-accent hover:underline">
+          Forgot your password?
+        </Link>
         <Button type="submit" variant="primary" busy={signIn.isPending} className="mt-1 h-8 w-full">
           {signIn.isPending ? 'Signing in…' : 'Sign in'}
         </Button>

@@ -20,7 +20,9 @@ export function SignUpPage() {
   function submit(event: FormEvent<HTMLFormElement>) {
     event.preventDefault();
     const form = new FormData(event.currentTarget);
-    const checked = checkForm(signUpSchema, { name: form.get('name'), email: form.get('email'), password: form.get('password') });
+    // Signing up from an invitation link: the token proves the invited mailbox, so no second mail is needed.
+    const invitationToken = /^\/invitations\/([A-Za-z0-9_-]{43})$/.exec(safeNext(search))?.[1];
+    const checked = checkForm(signUpSchema, { name: form.get('name'), email: form.get('email'), password: form.get('password'), ...(invitationToken ? { invitationToken } : {}) });
     if ('errors' in checked) return setErrors(checked.errors);
     setErrors({ fields: {} });
     signUp.mutate(checked.data, {

@@ -1,7 +1,12 @@
 // The side panel for the selected cell: the MO diagram of the diatomic species it names, or the
-// Hückel level ladder of the π system it describes, with the key numbers beside the picture.
+// Hückel level ladder of the π system it describes, with the key numbers beside the picture, the
+// predicted π→π* bands (PPP-CIS) of a π system, and the known disagreement with experiment of a
+// diatomic species where simple MO filling is known to fail.
 import { useMemo } from 'react';
 import { frontierGap } from '../../../functions/chem/huckel.js';
+import { knownFailureFor } from '../../../functions/chem/knownFailures.js';
+import { pppSpectrumOf, type PppSpectrum } from '../../../functions/chem/ppp.js';
+import { PppSpectrumSvg } from './PppSpectrumSvg.js';
 import { subjectOfCell, type SubjectSource } from './cellSubject.js';
 import { HuckelLadderSvg } from './HuckelLadderSvg.js';
 import { layoutMoDiagram } from './moLayout.js';
@@ -38,6 +43,7 @@ export function StructurePanel({ source, address }: { source: SubjectSource | nu
   if (subject.kind === 'diatomic') {
     const a = subject.analysis;
     const picture = layoutMoDiagram(a);
+    const failure = knownFailureFor(a.species);
     return (
       <div className="flex flex-col gap-2 p-3" data-testid="structure-panel">
         <h3 className="text-ui font-semibold">
@@ -51,6 +57,11 @@ export function StructurePanel({ source, address }: { source: SubjectSource | nu
           <Fact label="Valence electrons" value={String(a.species.valenceElectrons)} />
           <Fact label="Configuration" value={a.configAbbreviated} />
         </dl>
+        {failure && (
+          <p className="text-caption text-caution" data-testid="model-caveat">
+            Experiment: {failure.experimentalTerm} (Huber &amp; Herzberg 1979) — {failure.note}.
+          </p>
+        )}
         <p className="text-caption text-ink-3">Qualitative level order (spacing not to scale); atoms drawn neutral{a.species.charge !== 0 ? `, the molecule carries charge ${a.species.charge > 0 ? '+' : ''}${a.species.charge}` : ''}.</p>
       </div>
     );
@@ -63,6 +74,14 @@ export function StructurePanel({ source, address }: { source: SubjectSource | nu
   } catch (e) {
     gap = (e as Error).message;
   }
+  let spectrum: PppSpectrum | null = null;
+  let spectrumProblem = '';
+  try {
+    spectrum = pppSpectrumOf(subject.smiles);
+  } catch (e) {
+    spectrumProblem = (e as Error).message;
+  }
+  const strongest = spectrum?.singlets.filter((s) => s.wavelength > 200).reduce<PppSpectrum['singlets'][number] | null>((b, s) => (!b || s.f > b.f ? s : b), null);
   return (
     <div className="flex flex-col gap-2 p-3" data-testid="structure-panel">
       <h3 className="text-ui font-semibold">
@@ -74,6 +93,19 @@ export function StructurePanel({ source, address }: { source: SubjectSource | nu
         <Fact label="π electrons" value={String(model.electrons)} />
         <Fact label="HOMO–LUMO gap" value={gap} />
       </dl>
+      <h4 className="text-caption font-semibold">Predicted π→π* bands (PPP-CIS, a model estimate)</h4>
+      {spectrum ? (
+        <>
+          <PppSpectrumSvg states={spectrum.singlets} title={`Predicted π→π* bands of ${subject.smiles}`} />
+          <dl className="text-caption">
+            <Fact label="S1" value={`${Math.round(spectrum.singlets[0].wavelength)} nm, ${round(spectrum.singlets[0].energy, 2)} eV, f ${round(spectrum.singlets[0].f, 3)}`} />
+            {strongest && <Fact label="Strongest above 200 nm" value={`${Math.round(strongest.wavelength)} nm, f ${round(strongest.f, 2)}`} />}
+            <Fact label="T1" value={`${round(spectrum.triplets[0], 2)} eV`} />
+          </dl>
+        </>
+      ) : (
+        <p className="text-caption text-ink-3">{spectrumProblem}</p>
+      )}
     </div>
   );
 }

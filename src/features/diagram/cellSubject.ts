@@ -63,7 +63,7 @@ export function subjectOfCell(src: SubjectSource): CellSubject {
   let wantDiatomic = false;
   if (src.input.startsWith('=')) {
     const families = calledFamilies(src.input);
-    wantHuckel = families.has('Hückel');
+    wantHuckel = families.has('Hückel') || families.has('π spectra');
     wantDiatomic = families.has('Diatomic');
     tried.push(...stringLiterals(src.input));
     for (const ref of cellReferences(src.input)) {
