@@ -21,7 +21,9 @@ beforeAll(async () => {
 }, 60_000);
 
 afterAll(async () => {
-  if (server?.child.exitCode !== null || server?.child.signalCode !== null) console.log("SERVER EXITED", server.child.exitCode, server.child.signalCode, "\n", server?.output().slice(-6000)); if (false) console.log(server?.output().slice(-6000));
+  // A server that died mid-run: show what it printed last.
+  if (server && (server.child.exitCode !== null || server.child.signalCode !== null)) console.log(`server exited (${server.child.exitCode ?? server.child.signalCode}):
+${server.output().slice(-6000)}`);
   server?.child.kill('SIGTERM');
   await server?.exited;
   fs.rmSync(dir, { recursive: true, force: true });
