@@ -4,6 +4,8 @@
 // one HTTP request. Target: no stall longer than 250 ms in any phase (a user's other requests wait
 // at most that long). `npx tsx bench/event-loop.ts` runs it alone.
 import fs from 'node:fs';
+import http from 'node:http';
+import type { AddressInfo } from 'node:net';
 import os from 'node:os';
 import path from 'node:path';
 import { monitorEventLoopDelay } from 'node:perf_hooks';
@@ -12,7 +14,6 @@ import { createApp } from '../server/app.js';
 import { loadConfig } from '../server/config.js';
 import { openDatabase } from '../server/db/index.js';
 import { closeParsePool, warmParsePool } from '../server/xlsx/parseInWorker.js';
-import { listen } from '../tests/helpers/eventStream.js';
 import { screeningCells } from './ioWorkload.js';
 
 export interface StallPhase {
@@ -43,7 +44,12 @@ export async function runEventLoopBench(options: { rows?: number } = {}): Promis
   const db = openDatabase(path.join(dir, 'stall.sqlite'));
   const origin = 'http://orbitab.bench';
   const { app, ctx } = createApp({ db, config: { ...loadConfig({ NODE_ENV: 'production' }), seed: false, origin, logLevel: 'warn' } });
-  const server = await listen(app);
+  const httpServer = http.createServer(app);
+  await new Promise<void>((resolve) => httpServer.listen(0, '127.0.0.1', resolve));
+  const server = {
+    url: `http://127.0.0.1:${(httpServer.address() as AddressInfo).port}`,
+    close: () => new Promise<void>((resolve) => (httpServer.closeAllConnections(), httpServer.close(() => resolve()))),
+  };
   warmParsePool();
   try {
     const signUp = await fetch(`${server.url}/api/auth/sign-up`, {
