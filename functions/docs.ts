@@ -5,6 +5,8 @@ import { dirname, resolve } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import { FAMILY_ORDER, functionHelp, type FunctionHelp, type ParamHelp } from './help.js';
 import type { Family } from './catalog/types.js';
+import { count, evaluationLimits as L } from './limits.js';
+import { engineConfig } from './engine.js';
 
 export const FUNCTIONS_DOC_PATH = resolve(dirname(fileURLToPath(import.meta.url)), '..', 'docs', 'functions.md');
 
@@ -48,6 +50,7 @@ function renderFunction(h: FunctionHelp): string {
     lines.push(`- \`${e.formula}\` ${arrow} \`${e.expectedText}\`${e.note ? ` — ${e.note}` : ''}`);
   }
   lines.push('', `**Source:** ${h.source}`, '');
+  if (h.seeAlso.length > 0) lines.push(`**See also:** ${h.seeAlso.map((n) => `[${n}](#${n.toLowerCase()})`).join(', ')}`, '');
   return lines.join('\n');
 }
 
@@ -66,6 +69,13 @@ export function renderFunctionsMarkdown(help: FunctionHelp[] = functionHelp()): 
       'and for an electron count the levels cannot hold (too many electrons, none, or every level full), ' +
       '`#NUM!` for a number outside what the model allows (negative distance, |S| ≥ 1), each with a message naming what is wrong. ' +
       'A function that spills a table returns a single value when its trailing selector arguments are given.',
+    '',
+    `**Limits.** So that no cell can stall a colleague's tab or the server, a formula may spill at most ${count(L.maxSpillCells)} cells, ` +
+      `cover at most ${count(L.maxRangeCells)} cells with its ranges (a whole column counts as the full ${count(engineConfig.maxRows!)}-row grid, so write a bounded range such as \`B1:B5000\`), ` +
+      `make text of at most ${count(L.maxTextLength)} characters and chain at most ${count(L.maxFormulaOperators)} operators. ` +
+      `The Hückel family solves at most ${L.maxPiCentres} π centres (and reads SMILES of at most ${L.maxSmilesAtoms} heavy atoms); ` +
+      `SECULAR, ORBITAL and a Hückel matrix range take at most ${L.maxMatrixSize} × ${L.maxMatrixSize}. ` +
+      'Past a limit the cell shows `#VALUE!` with a message naming it; the rest of the workbook computes as usual.',
     '',
     '## Contents',
     '',

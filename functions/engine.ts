@@ -1,4 +1,6 @@
-import { HyperFormula, type ConfigParams } from 'hyperformula';
+import { DenseSparseChooseBasedOnThreshold, HyperFormula, type ConfigParams } from 'hyperformula';
+import { installEngineGuards } from './engineGuards.js';
+import { engineInput } from './formulaTokens.js';
 import { registerOrbitabPlugin } from './plugin.js';
 
 export type SheetInput = (string | number | boolean | null)[][];
@@ -12,9 +14,16 @@ export const engineConfig: Partial<ConfigParams> = {
   useArrayArithmetic: true,
   precisionRounding: 12,
   smartRounding: true,
+  // A sheet whose inputs fill under a tenth of their bounding box (one value far down, say) is kept
+  // in sparse maps rather than row arrays sized to that box.
+  chooseAddressMappingPolicy: new DenseSparseChooseBasedOnThreshold(0.1),
 };
 
 export function createEngine(sheets: Record<string, SheetInput>, options: Partial<ConfigParams> = {}): HyperFormula {
+  installEngineGuards();
   registerOrbitabPlugin();
-  return HyperFormula.buildFromSheets(sheets, { ...engineConfig, ...options });
+  // Stored formulas keep the exponent the user (or another program) wrote, 6.022E23 included; the
+  // engine reads only a lowercase e, so it is given that (functions/formulaTokens.ts).
+  const read = Object.fromEntries(Object.entries(sheets).map(([name, rows]) => [name, rows.map((row) => row.map(engineInput))]));
+  return HyperFormula.buildFromSheets(read, { ...engineConfig, ...options });
 }

@@ -1,5 +1,6 @@
 // The catalog as plain data for people: the in-app function reference, grid autocomplete and
 // docs/functions.md all read this shape, so they cannot disagree with the engine.
+import { seeAlso } from './catalog/seeAlso.js';
 import { catalog } from './catalog/index.js';
 import type { CatalogEntry, Family, FunctionResult, ParamType, Scalar } from './catalog/types.js';
 
@@ -35,6 +36,8 @@ export interface FunctionHelp {
   spills: boolean;
   examples: ExampleHelp[];
   source: string;
+  /** Related functions, linked from this one's help. */
+  seeAlso: string[];
 }
 
 /** Family order in the reference: structure first, then numbers built on it. */
@@ -82,6 +85,7 @@ export function toFunctionHelp(entry: CatalogEntry): FunctionHelp {
       ...(e.note !== undefined && { note: e.note }),
     })),
     source: entry.source,
+    seeAlso: [...(seeAlso[entry.name] ?? [])],
   };
 }
 

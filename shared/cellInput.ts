@@ -1,6 +1,7 @@
 // Checks on what a cell may hold beyond its length, found by fuzzing (tests/fuzz-cells.test.ts):
 // inputs the database or the formula engine cannot take as they are. The patch schema and the
 // importers refuse them with these messages instead of storing something else or failing later.
+import { formulaSizeProblem } from '../functions/limits.js';
 
 /**
  * Deepest nesting of parentheses and array braces a formula may have. The engine's parser recurses
@@ -45,6 +46,8 @@ export function cellInputProblem(input: string): string | null {
   if (input.startsWith('=')) {
     const depth = formulaNestingDepth(input);
     if (depth > maxFormulaNesting) return `the formula nests ${depth} levels of parentheses; at most ${maxFormulaNesting} are allowed`;
+    const size = formulaSizeProblem(input);
+    if (size) return size;
   }
   return null;
 }

@@ -1,6 +1,7 @@
 // Ranges in A1 notation for protected ranges: "B2", "A1:C3", whole columns "A:C" and whole rows
 // "2:5" (common practice in spreadsheet programs). Rows and columns count from 0 inside Orbitab;
 // bounds are inclusive. Shared so the server's check and the client's greyed cells agree exactly.
+import { columnIndex, columnName } from './a1.js';
 import { maxColIndex, maxRowIndex } from './workbooks.js';
 
 export interface CellBounds {
@@ -10,25 +11,13 @@ export interface CellBounds {
   right: number;
 }
 
-export function columnLabel(col: number): string {
-  let s = '';
-  for (let n = col + 1; n > 0; n = Math.floor((n - 1) / 26)) s = String.fromCharCode(65 + ((n - 1) % 26)) + s;
-  return s;
-}
-
-function columnIndex(letters: string): number {
-  let col = 0;
-  for (const ch of letters.toUpperCase()) col = col * 26 + (ch.charCodeAt(0) - 64);
-  return col - 1;
-}
-
 type Corner = { row: number | null; col: number | null };
 
 /** "B2" → both; "B" → column only; "2" → row only; null when it is none of these or off the grid. */
 function parseCorner(text: string): Corner | null {
   const m = /^\$?([A-Za-z]{1,3})?\$?(\d{1,7})?$/.exec(text);
   if (!m || (!m[1] && !m[2])) return null;
-  const col = m[1] ? columnIndex(m[1]) : null;
+  const col = m[1] ? columnIndex(m[1])! : null;
   const row = m[2] ? Number(m[2]) - 1 : null;
   if (row !== null && (row < 0 || row > maxRowIndex)) return null;
   if (col !== null && col > maxColIndex) return null;
@@ -57,10 +46,10 @@ export function parseCellRange(text: string): CellBounds | null {
 export function formatCellRange(b: CellBounds): string {
   const wholeColumns = b.top === 0 && b.bottom === maxRowIndex;
   const wholeRows = b.left === 0 && b.right === maxColIndex;
-  if (wholeColumns && !wholeRows) return `${columnLabel(b.left)}:${columnLabel(b.right)}`;
+  if (wholeColumns && !wholeRows) return `${columnName(b.left)}:${columnName(b.right)}`;
   if (wholeRows && !wholeColumns) return `${b.top + 1}:${b.bottom + 1}`;
-  const first = `${columnLabel(b.left)}${b.top + 1}`;
-  return b.top === b.bottom && b.left === b.right ? first : `${first}:${columnLabel(b.right)}${b.bottom + 1}`;
+  const first = `${columnName(b.left)}${b.top + 1}`;
+  return b.top === b.bottom && b.left === b.right ? first : `${first}:${columnName(b.right)}${b.bottom + 1}`;
 }
 
 export function boundsContain(b: CellBounds, row: number, col: number): boolean {

@@ -4,18 +4,17 @@ import { z } from 'zod';
 import type { AccessRole, WorkbookAction } from './permissions.js';
 import type { ProtectedRange, SheetLock, TeamEvent } from './team.js';
 import { cellInputProblem } from './cellInput.js';
+import { cellKey, maxColIndex, maxRowIndex } from './a1.js';
+import { sheetSettingsSchema, type SheetSettings } from './sheetSettings.js';
 
-/** Rows 1..1,000,000 and columns A..BXX (2,000), the engine's limits (functions/engine.ts). */
-export const maxRowIndex = 999_999;
-export const maxColIndex = 1_999;
+export { maxColIndex, maxRowIndex } from './a1.js';
 /** One cell's input; longer text is almost certainly a paste gone wrong. */
 export const maxInputLength = 32_768;
 export const maxCellsPerPatch = 10_000;
 /** The JSON body limit of the whole API (server/app.ts); a larger body is refused with 413. */
 export const maxBodyBytes = 2 * 1024 * 1024;
 export const maxSheetNameLength = 100;
-/** Column widths, frozen rows, number precision… kept small so a sheet row stays cheap to load. */
-export const maxSheetSettingsBytes = 16_384;
+export { maxSheetSettingsBytes, sheetSettingsSchema, type SheetSettings } from './sheetSettings.js';
 
 const required = (kind: string) => (issue: { input: unknown }) => (issue.input === undefined ? 'required' : `must be ${kind}`);
 const wholeNumber = () => z.int({ error: required('a whole number') });
@@ -44,11 +43,6 @@ export const sheetNameSchema = z
   .refine((s) => !s.startsWith("'") && !s.endsWith("'"), 'may not begin or end with an apostrophe')
   // eslint-disable-next-line no-control-regex -- control characters are exactly what this refuses
   .refine((s) => !/[\u0000-\u001f\u007f]/.test(s), 'may not contain control characters');
-
-export const sheetSettingsSchema = z
-  .record(z.string(), z.json())
-  .refine((s) => JSON.stringify(s).length <= maxSheetSettingsBytes, `at most ${maxSheetSettingsBytes} bytes of JSON`);
-export type SheetSettings = z.infer<typeof sheetSettingsSchema>;
 
 export const createWorkbookSchema = z.object({ title: titleSchema });
 export type CreateWorkbookInput = z.infer<typeof createWorkbookSchema>;
@@ -101,7 +95,7 @@ export const patchSchema = z
     // Two inputs for one cell in one patch would make the result depend on order: refuse it.
     const seen = new Map<string, number>();
     patch.changes.forEach((c, i) => {
-      const key = `${c.sheetId}\u0000${c.row}\u0000${c.col}`;
+      const key = cellKey(c);
       const first = seen.get(key);
       if (first !== undefined) ctx.addIssue({ code: 'custom', path: ['changes', i], message: `the same cell as changes.${first}; send one input per cell` });
       else seen.set(key, i);

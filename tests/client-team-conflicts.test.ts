@@ -10,7 +10,7 @@ import { resolveConflicts } from '../src/features/live/conflictResolution.js';
 import { settleConflicts } from '../src/features/live/settleConflicts.js';
 import { applyRemoteRevision, type RemoteRevision } from '../src/features/live/remoteRevision.js';
 import { addSetAside, loadSetAside, maxSetAside, saveSetAside } from '../src/features/live/setAside.js';
-import { cellAddressOf } from '../src/features/live/cellAddress.js';
+import { cellAddress as cellAddressOf } from '../shared/a1.js';
 import { snapshotSheets } from '../src/features/history/snapshotValues.js';
 import { describeAudit } from '../src/features/audit/describeAudit.js';
 import { memoryStorage, session } from './helpers/workbookSession.js';

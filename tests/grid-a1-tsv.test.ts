@@ -1,6 +1,7 @@
 // A1 naming and clipboard text, the two formats the grid shares with other spreadsheet programs.
 import { describe, expect, it } from 'vitest';
-import { cellName, columnIndex, columnName, parseCellName, parseRangeName, rangeName, sheetReference } from '../src/core/workbook/model/a1.js';
+import { cellAddress, cellKey, cellName, columnIndex, columnName, parseCellName, parseRangeName, rangeName, sheetReference } from '../shared/a1.js';
+import { parseCellRange } from '../shared/cellRange.js';
 import { formatTsv, parseTsv } from '../src/core/workbook/model/tsv.js';
 
 describe('A1 column letters (common practice: A…Z, then AA…ZZ, then AAA)', () => {
@@ -49,6 +50,23 @@ describe('A1 column letters (common practice: A…Z, then AA…ZZ, then AAA)', (
     expect(sheetReference('Sheet1')).toBe('Sheet1');
     expect(sheetReference('Screening set')).toBe("'Screening set'");
     expect(sheetReference("Ana's ions")).toBe("'Ana''s ions'");
+  });
+});
+
+describe('one A1 module for server, importers and grid', () => {
+  it('reads column names of at most three letters everywhere (XFD, the last xlsx column, fits)', () => {
+    expect(columnIndex('XFD')).toBe(16_383);
+    expect([columnIndex('AAAA'), parseCellName('AAAA1'), parseRangeName('A1:AAAA2'), parseCellRange('AAAA1')]).toEqual([null, null, null, null]);
+  });
+
+  it('writes a cell address for messages with the sheet quoted as in formulas', () => {
+    expect(cellAddress('Sheet1', 2, 1)).toBe('Sheet1!B3');
+    expect(cellAddress("Ana's ions", 0, 27)).toBe("'Ana''s ions'!AB1");
+  });
+
+  it('keys cells so that no two cells share a key', () => {
+    expect(cellKey({ sheetId: 's1', row: 1, col: 23 })).not.toBe(cellKey({ sheetId: 's1', row: 12, col: 3 }));
+    expect(cellKey({ sheetId: 's1', row: 1, col: 2 })).toBe(cellKey({ sheetId: 's1', row: 1, col: 2 }));
   });
 });
 

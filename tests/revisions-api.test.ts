@@ -119,11 +119,12 @@ describe('restoring a revision', () => {
       [ions.id, 'Ions', 1, {}, [[0, 0, 'NO+']]],
     ]);
 
-    // …and restoring 5 puts every tab back as it was before this restore.
+    // …and restoring 5 puts every tab back as it was before this restore (deleting Ions in revision 3
+    // had turned the reference to it into #REF!).
     await w.restore(5).expect(200);
     expect((await w.load()).sheets.map((s) => [s.name, s.position, s.settings, s.cells])).toEqual([
       ['Late', 0, {}, []],
-      ['Main', 1, { frozenRows: 1 }, [[0, 0, '=Ions!A1']]],
+      ['Main', 1, { frozenRows: 1 }, [[0, 0, '=#REF!']]],
     ]);
   });
 

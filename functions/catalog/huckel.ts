@@ -5,7 +5,7 @@ import { absorptionMaxNm, DEFAULT_BETA_EV, DEFAULT_OFFSET_EV, HC_EV_NM } from '.
 import { pppAbsorptionNm } from './spectra.js';
 import { aromaticity, ringVerdicts } from '../chem/ringAromaticity.js';
 import { bondOrder, checkElectronCount, delocalizationEnergy, frontierGap, piCharge, piEnergy, type HuckelModel } from '../chem/huckel.js';
-import { huckelModelOf, piSystemOf, requireSmiles } from '../chem/huckelCache.js';
+import { huckelModelOf, piSystemOf, requireSmiles } from './huckelLimits.js';
 import { checkSpillLength, column, levelRowsFromText, pickIndex } from './huckelSpill.js';
 import { secularEntries } from './huckelSecular.js';
 

@@ -4,7 +4,8 @@ import type { CatalogEntry, ParamSpec, Table } from './types.js';
 import { solveSecular, type EigenSystem } from '../chem/eigen.js';
 import { isBlankTable, readOverlapMatrix, readSymmetricMatrix } from '../chem/matrixInput.js';
 import { checkSpillLength, column, MAX_SPILL_ROWS, pickIndex } from './huckelSpill.js';
-import type { SpillArg } from './types.js';
+import { ChemError, type SpillArg } from './types.js';
+import { matrixProblem } from '../limits.js';
 
 const LOWDIN = 'P.-O. Löwdin, J. Chem. Phys. 18, 365 (1950): H′ = S^-1/2 H S^-1/2, C = S^-1/2 C′';
 
@@ -21,6 +22,8 @@ const overlap: ParamSpec = {
 };
 
 function solve(h: Table, s: Table | undefined): EigenSystem {
+  const tooBig = matrixProblem(h.length, h[0]?.length ?? 0);
+  if (tooBig) throw new ChemError(tooBig);
   const H = readSymmetricMatrix(h, 'the H range');
   const S = isBlankTable(s) ? undefined : readOverlapMatrix(s!, H.length);
   return solveSecular(H, S, 'ascending');

@@ -7,7 +7,7 @@
 // - and no function ever returns more than MAX_SPILL_ROWS rows: larger systems must use the index
 //   argument (one value per cell), which is what a screening column wants anyway.
 import { ChemError, type SpillArg } from './types.js';
-import { piSystemOf } from '../chem/huckelCache.js';
+import { piSystemOf } from './huckelLimits.js';
 
 export const MAX_SPILL_ROWS = 50;
 

@@ -2,7 +2,7 @@
 // functions/chem/ppp.ts, pppScf.ts and pppParams.ts; results are cached per structure text.
 import { ChemError, type CatalogEntry, type ParamSpec, type SpillArg } from './types.js';
 import { homoLumoBand, MAX_CIS_CONFIGURATIONS, MAX_PPP_CENTRES, nthSinglet, pppSpectrumOf, strongestBand, type ExcitedState, type PppSpectrum } from '../chem/ppp.js';
-import { piSystemOf } from '../chem/huckelCache.js';
+import { piSystemOf } from './huckelLimits.js';
 
 export const PPP_SOURCE =
   'Pariser–Parr–Pople π-electron SCF (R. Pariser & R. G. Parr, J. Chem. Phys. 21, 466 and 767 (1953); J. A. Pople, Trans. Faraday Soc. 49, 1375 (1953)) with Mataga–Nishimoto repulsion (Z. Phys. Chem. 13, 140 (1957)) and CI of single excitations (Pariser, J. Chem. Phys. 24, 250 (1956)); ' +

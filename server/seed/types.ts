@@ -29,6 +29,3 @@ export interface DemoWorkbook {
   title: string;
   sheets: DemoSheet[];
 }
-
-/** A1 column letters for 0-based column indexes up to Z, enough for the demo tables. */
-export const columnLetter = (col: number) => String.fromCharCode(65 + col);

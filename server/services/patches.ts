@@ -4,7 +4,7 @@
 import type { CellChangeRecord, CellConflict, PatchInput, PatchResult, RevisionPatch } from '../../shared/workbooks.js';
 import type { AppContext } from '../context.js';
 import { badRequest, conflict, HttpError } from '../errors.js';
-import { cellAddress } from './a1.js';
+import { cellAddress } from '../../shared/a1.js';
 import { readCell, writeCell } from './cellStore.js';
 import { currentRevision, nextRevision, recordRevision } from './revisionLog.js';
 import { assertMayEditCells } from './protection.js';

@@ -6,7 +6,7 @@ import { parseCellRange } from '../../shared/cellRange.js';
 import { editBlock, sheetLockedAgainst, type EditBlock, type Protection, type UserRef } from '../../shared/team.js';
 import { protectedRanges, sheetLocks, sheets, users } from '../db/schema.js';
 import { HttpError } from '../errors.js';
-import { cellAddress } from './a1.js';
+import { cellAddress, sheetReference } from '../../shared/a1.js';
 import type { Tx } from './cellStore.js';
 
 type Reader = Pick<Tx, 'select'>;
@@ -52,7 +52,6 @@ export function loadProtection(tx: Reader, workbookId: string): Protection {
 const listNames = (people: UserRef[]) => (people.length ? people.map((p) => p.name).join(', ') : 'nobody');
 const isoDay = (ms: number) => new Date(ms).toISOString().slice(0, 10);
 /** A sheet name as formulas write it: quoted unless it is letters, digits and underscores. */
-const sheetRef = (name: string) => (/^[A-Za-z_][A-Za-z0-9_]*$/.test(name) ? name : `'${name.replace(/'/g, "''")}'`);
 
 function blockMessage(where: string, block: EditBlock, sheetName: string): string {
   if (block.kind === 'lock') {
@@ -60,7 +59,7 @@ function blockMessage(where: string, block: EditBlock, sheetName: string): strin
     return `${where} is on sheet "${sheetName}", locked by ${l.lockedBy.name} on ${isoDay(l.createdAt)} ("${l.reason}"); only ${listNames(l.editors)} may change it`;
   }
   const r = block.range;
-  return `${where} is in the protected range ${sheetRef(sheetName)}!${r.range}, set by ${r.createdBy.name}; only ${listNames(r.editors)} may edit it`;
+  return `${where} is in the protected range ${sheetReference(sheetName)}!${r.range}, set by ${r.createdBy.name}; only ${listNames(r.editors)} may edit it`;
 }
 
 /** How many refused cells the 403 message names before "and n more" (details list them all). */
@@ -101,7 +100,7 @@ export function assertMayChangeSheet(tx: Reader, workbookId: string, userId: str
   if (!lock) {
     const range = opts.deleting && protection.protectedRanges.find((r) => r.sheetId === sheetId && !r.editors.some((e) => e.id === userId));
     if (!range) return;
-    throw new HttpError(403, 'protected', `sheet "${sheetName}" holds the protected range ${sheetRef(sheetName)}!${range.range}, set by ${range.createdBy.name}; only ${listNames(range.editors)} may edit it, so the sheet cannot be deleted`, { sheetId, rangeId: range.id });
+    throw new HttpError(403, 'protected', `sheet "${sheetName}" holds the protected range ${sheetReference(sheetName)}!${range.range}, set by ${range.createdBy.name}; only ${listNames(range.editors)} may edit it, so the sheet cannot be deleted`, { sheetId, rangeId: range.id });
   }
   throw new HttpError(403, 'locked', `sheet "${sheetName}" is locked by ${lock.lockedBy.name} since ${isoDay(lock.createdAt)} ("${lock.reason}"); only ${listNames(lock.editors)} may change it`, {
     sheetId,

@@ -7,6 +7,7 @@
 // added ones go), and finally every cell that differs from the computed state is written.
 import type { CellChangeRecord, RevisionPatch, SheetOp, SheetSettings } from '../../shared/workbooks.js';
 import type { AppContext } from '../context.js';
+import { cellKey } from '../../shared/a1.js';
 import { badRequest, notFound } from '../errors.js';
 import { sheetCells, writeCell, type Tx } from './cellStore.js';
 import { currentRevision, nextRevision, patchesAfter, recordRevision } from './revisionLog.js';
@@ -29,6 +30,17 @@ export interface Model {
 }
 
 const key = (row: number, col: number) => `${row},${col}`;
+
+/** One record per cell: the first `before`, the last `after`; a cell that ends as it began drops out. */
+function mergeChanges(...lists: CellChangeRecord[][]): CellChangeRecord[] {
+  const merged = new Map<string, CellChangeRecord>();
+  for (const c of lists.flat()) {
+    const k = cellKey(c);
+    const earlier = merged.get(k);
+    merged.set(k, earlier ? { ...earlier, after: c.after } : c);
+  }
+  return [...merged.values()].filter((c) => c.before !== c.after);
+}
 
 export function loadModel(tx: Tx, workbookId: string): Model {
   const tabs = workbookSheets(tx, workbookId);
@@ -75,17 +87,28 @@ function applyToModel(model: Model, op: SheetOp) {
   }
 }
 
-/** Undoes every revision after `target` in memory; returns the sheet operations that did it, in order. */
-export function undoLaterRevisions(tx: Tx, workbookId: string, model: Model, target: number): SheetOp[] {
+/**
+ * Undoes every revision after `target` in memory; returns the sheet operations that did it, in order.
+ * `rewrittenOnly` collects the cells whose undone changes all came from tab operations (formulas a
+ * rename or delete rewrote), which the restore may put back without cell-level permission.
+ */
+export function undoLaterRevisions(tx: Tx, workbookId: string, model: Model, target: number, rewrittenOnly = new Set<string>()): SheetOp[] {
   const undoOps: SheetOp[] = [];
+  const editedByUsers = new Set<string>();
   for (const { patch } of patchesAfter(tx, workbookId, target)) {
-    for (const c of [...patch.changes].reverse()) setModelCell(model, c.sheetId, c.row, c.col, c.before);
+    // A tab revision's cell changes are only ever the formula rewrites its operations caused.
+    const rewritesOnly = patch.restoredFrom === undefined && patch.sheetOps.length > 0;
+    for (const c of [...patch.changes].reverse()) {
+      setModelCell(model, c.sheetId, c.row, c.col, c.before);
+      (rewritesOnly ? rewrittenOnly : editedByUsers).add(cellKey(c));
+    }
     for (const op of [...patch.sheetOps].reverse()) {
       const inverse = invertSheetOp(op);
       applyToModel(model, inverse);
       undoOps.push(inverse);
     }
   }
+  for (const k of editedByUsers) rewrittenOnly.delete(k);
   return undoOps;
 }
 
@@ -112,7 +135,8 @@ export function restoreRevision(ctx: AppContext, workbookId: string, authorId: s
       if (target === current) throw badRequest(`revision ${target} is the current revision; there is nothing to restore`);
 
       const model = loadModel(tx, workbookId);
-      const undoOps = undoLaterRevisions(tx, workbookId, model, target);
+      const rewrittenOnly = new Set<string>();
+      const undoOps = undoLaterRevisions(tx, workbookId, model, target, rewrittenOnly);
       // A restore is an edit like any other: sheet locks and protected ranges hold against it too.
       const namesNow = new Map(workbookSheets(tx, workbookId).map((s) => [s.id, s.name]));
       for (const op of undoOps) {
@@ -122,10 +146,15 @@ export function restoreRevision(ctx: AppContext, workbookId: string, authorId: s
       const revision = nextRevision(tx, workbookId);
       // Tabs first, in the order history undid them (each step was once a valid state, so names
       // never collide on the way); a re-created tab starts empty and gets its cells below.
-      const sheetOps = undoOps.map((op) => applySheetOp(tx, workbookId, op.op === 'add' ? { ...op, cells: [] } : op, revision, authorId));
-      const changes = model.order.flatMap((id) => cellDifferences(tx, model.sheets.get(id)!));
-      assertMayEditCells(tx, workbookId, authorId, changes, new Map(workbookSheets(tx, workbookId).map((s) => [s.id, s.name])));
-      for (const c of changes) writeCell(ctx.db, c.sheetId, c.row, c.col, c.after, revision);
+      // Renames and deletes replayed here rewrite formulas again (rename back, or references to a
+      // re-created tab restored below from the model); those rewrites are part of this revision too.
+      const rewrites: CellChangeRecord[] = [];
+      const sheetOps = undoOps.map((op) => applySheetOp(tx, workbookId, op.op === 'add' ? { ...op, cells: [] } : op, revision, authorId, rewrites));
+      const differences = model.order.flatMap((id) => cellDifferences(tx, model.sheets.get(id)!));
+      const userLevel = differences.filter((c) => !rewrittenOnly.has(cellKey(c)));
+      assertMayEditCells(tx, workbookId, authorId, userLevel, new Map(workbookSheets(tx, workbookId).map((s) => [s.id, s.name])));
+      for (const c of differences) writeCell(ctx.db, c.sheetId, c.row, c.col, c.after, revision);
+      const changes = mergeChanges(rewrites, differences);
 
       const patch: RevisionPatch = { sheetOps, changes, restoredFrom: target };
       recordRevision(tx, workbookId, revision, authorId, 'restore', patch);

@@ -2,10 +2,11 @@
 // user edits to tabs and restores of old revisions go through the same, exactly undoable steps.
 // Positions stay dense (0..n-1): inserting shifts later tabs right, removing shifts them left.
 import { and, eq, gte, lte, sql } from 'drizzle-orm';
-import type { SheetOp, SheetSettings } from '../../shared/workbooks.js';
+import type { CellChangeRecord, SheetOp, SheetSettings } from '../../shared/workbooks.js';
 import { sheets } from '../db/schema.js';
 import { notFound } from '../errors.js';
 import { insertCells, sheetCells, type Tx } from './cellStore.js';
+import { rewriteSheetReferences } from './sheetReferences.js';
 
 export type SheetRow = typeof sheets.$inferSelect;
 
@@ -31,9 +32,17 @@ function requireSheetRow(tx: Tx, workbookId: string, sheetId: string): SheetRow 
 
 /**
  * Applies one operation and returns it as it is to be recorded: a 'delete' records the cells the
- * sheet held at that moment, so undoing it brings them back.
+ * sheet held at that moment, so undoing it brings them back. A rename or delete also rewrites the
+ * formulas that name the sheet; those cell changes are appended to `rewrites`, to be recorded in the
+ * same revision.
  */
-export function applySheetOp(tx: Tx, workbookId: string, op: SheetOp, revision: number, userId: string): SheetOp {
+export function applySheetOp(tx: Tx, workbookId: string, op: SheetOp, revision: number, userId: string, rewrites: CellChangeRecord[]): SheetOp {
+  const applied = applyToTabs(tx, workbookId, op, revision, userId);
+  rewrites.push(...rewriteSheetReferences(tx, workbookId, applied, revision));
+  return applied;
+}
+
+function applyToTabs(tx: Tx, workbookId: string, op: SheetOp, revision: number, userId: string): SheetOp {
   switch (op.op) {
     case 'add': {
       shift(tx, workbookId, 1, { from: op.position });

@@ -36,7 +36,8 @@ function commit(ctx: AppContext, workbookId: string, userId: string, build: (tx:
       const ops = build(tx, all);
       if (ops.length === 0) return { revision: currentRevision(tx, workbookId), patch: null };
       const revision = nextRevision(tx, workbookId);
-      const patch: RevisionPatch = { sheetOps: ops.map((op) => applySheetOp(tx, workbookId, op, revision, userId)), changes: [] };
+      const changes: RevisionPatch['changes'] = [];
+      const patch: RevisionPatch = { sheetOps: ops.map((op) => applySheetOp(tx, workbookId, op, revision, userId, changes)), changes };
       recordRevision(tx, workbookId, revision, userId, 'sheet', patch);
       return { revision, patch };
     },

@@ -6,7 +6,7 @@ import type Database from 'better-sqlite3';
 import { cellInputProblem } from '../../shared/cellInput.js';
 import { maxInputLength, maxSheetNameLength, type RevisionKind, type RevisionPatch, type SheetOp } from '../../shared/workbooks.js';
 import type { AppContext } from '../context.js';
-import { addressOf } from './a1.js';
+import { cellName } from '../../shared/a1.js';
 import { applySheetOp, workbookSheets } from '../services/sheetOps.js';
 import { nextRevision, recordRevision } from '../services/revisionLog.js';
 import { settingsFromParsed } from './sheetSettings.js';
@@ -87,7 +87,7 @@ export function importSheets(ctx: AppContext, workbookId: string, userId: string
           const input = cell[2];
           // The same checks a typed input meets in the patch schema: nothing is stored altered.
           const problem = input.length > maxInputLength ? `longer than ${maxInputLength.toLocaleString('en')} characters` : cellInputProblem(input);
-          if (problem) summary.skipped.push({ sheet: name, address: addressOf(cell[0], cell[1]), reason: problem });
+          if (problem) summary.skipped.push({ sheet: name, address: cellName(cell[0], cell[1]), reason: problem });
           else {
             cells.push(cell);
             if (input.charCodeAt(0) === 61 /* = */) formulas++;
@@ -102,15 +102,16 @@ export function importSheets(ctx: AppContext, workbookId: string, userId: string
       summary.formulas = formulas;
 
       const revision = nextRevision(tx, workbookId);
+      const rewrites: RevisionPatch['changes'] = [];
       const recorded = ops.map((op) => {
-        if (op.op !== 'add') return applySheetOp(tx, workbookId, op, revision, userId);
+        if (op.op !== 'add') return applySheetOp(tx, workbookId, op, revision, userId, rewrites);
         // The sheet row through the shared path; its cells in one prepared statement (a workbook of
         // 100,000 cells would otherwise pay the query builder per cell).
-        applySheetOp(tx, workbookId, { ...op, cells: [] }, revision, userId);
+        applySheetOp(tx, workbookId, { ...op, cells: [] }, revision, userId, rewrites);
         insertCells(op.sheetId, op.cells, revision);
         return op;
       });
-      const patch: RevisionPatch = { sheetOps: recorded, changes: [] };
+      const patch: RevisionPatch = { sheetOps: recorded, changes: rewrites };
       // 'import' is stored as its own kind so history can name it (shared RevisionKind lists the others).
       recordRevision(tx, workbookId, revision, userId, 'import' as RevisionKind, patch);
       return { revision, sheets: added, patch };

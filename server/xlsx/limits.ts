@@ -1,6 +1,7 @@
 // Upload limits and the one error type the reader throws. Every limit is named in the message a user
 // sees, so a refused file says what to change.
 import { maxUploadBytes } from '../../shared/io.js';
+import { maxMergedCells } from '../../shared/sheetSettings.js';
 
 export interface ImportLimits {
   /** The upload itself. */
@@ -29,7 +30,8 @@ export const defaultImportLimits: ImportLimits = {
   maxCompressionRatio: 200,
   ratioCheckFromBytes: 1 * MiB,
   maxCells: 500_000,
-  maxMergedCells: 2_000_000,
+  // The same bound the API puts on one sheet's stored merges, so an imported sheet can be saved back.
+  maxMergedCells,
 };
 
 export interface WorkerLimits {

@@ -4,7 +4,7 @@
 import { Readable } from 'node:stream';
 import ExcelJS from 'exceljs';
 import { engineConfig } from '../../functions/engine.js';
-import { addressOf } from './a1.js';
+import { cellName } from '../../shared/a1.js';
 import { SpreadsheetError, type ImportLimits } from './limits.js';
 import { extensionOf } from './sniff.js';
 import { decodeText, guessDelimiter } from './csvCount.js';
@@ -58,7 +58,7 @@ export async function readCsv(buffer: Buffer, filename: string, limits: ImportLi
       if (typeof input !== 'string' || input === '') return;
       const [r, c] = [rowNumber - 1, colNumber - 1];
       if (r >= engineConfig.maxRows! || c >= engineConfig.maxColumns!) {
-        skipped.push({ sheet: name, address: addressOf(r, c), reason: `outside Orbitab's grid of ${engineConfig.maxRows!.toLocaleString('en')} rows × ${engineConfig.maxColumns!.toLocaleString('en')} columns` });
+        skipped.push({ sheet: name, address: cellName(r, c), reason: `outside Orbitab's grid of ${engineConfig.maxRows!.toLocaleString('en')} rows × ${engineConfig.maxColumns!.toLocaleString('en')} columns` });
         return;
       }
       if (input.startsWith('=')) formulas++;

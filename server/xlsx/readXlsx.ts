@@ -1,7 +1,7 @@
 // .xlsx → sheets of cell inputs, after the zip guard has passed the file.
 import ExcelJS from 'exceljs';
 import { engineConfig } from '../../functions/engine.js';
-import { addressOf, parseRange, type RangeRef } from './a1.js';
+import { cellName, parseRangeName, type CellRange } from '../../shared/a1.js';
 import { readCell } from './cellInput.js';
 import { SpreadsheetError, type ImportLimits } from './limits.js';
 import { asTextInput, textsNeedingApostrophe } from './textLiterals.js';
@@ -48,7 +48,7 @@ export async function readXlsx(buffer: Buffer, limits: ImportLimits): Promise<Pa
     }
     if (ws.state && ws.state !== 'visible') notes.push(`sheet "${ws.name}" was hidden in the file; it is imported visible`);
     const sheet: ParsedSheet = { name: ws.name, cells: [], columnWidths: columnWidthsOf(ws), ...frozenPaneOf(ws), merged: mergedRangesOf(ws) };
-    const arrays: RangeRef[] = [];
+    const arrays: CellRange[] = [];
 
     ws.eachRow({ includeEmpty: false }, (row, rowNumber) => {
       row.eachCell({ includeEmpty: false }, (cell, colNumber) => {
@@ -59,24 +59,24 @@ export async function readXlsx(buffer: Buffer, limits: ImportLimits): Promise<Pa
         // Cells inside an array formula's area are its spilled results, recomputed by the engine.
         if (arrays.length && arrays.some((a) => r >= a.top && r <= a.bottom && c >= a.left && c <= a.right && !(r === a.top && c === a.left))) return;
         if (r >= maxRows || c >= maxColumns) {
-          skipped.push({ sheet: ws.name, address: addressOf(r, c), reason: `outside Orbitab's grid of ${maxRows.toLocaleString('en')} rows × ${maxColumns.toLocaleString('en')} columns` });
+          skipped.push({ sheet: ws.name, address: cellName(r, c), reason: `outside Orbitab's grid of ${maxRows.toLocaleString('en')} rows × ${maxColumns.toLocaleString('en')} columns` });
           return;
         }
         if (reading.kind === 'skip') {
-          skipped.push({ sheet: ws.name, address: addressOf(r, c), reason: reading.reason });
+          skipped.push({ sheet: ws.name, address: cellName(r, c), reason: reading.reason });
           return;
         }
         cellCount++;
         if (reading.kind === 'text') {
           pending.push({ sheet, index: sheet.cells.length, text: reading.text });
           sheet.cells.push([r, c, '']);
-          if (reading.note && notes.length < MAX_LISTED_NOTES) notes.push(`${ws.name}!${addressOf(r, c)}: ${reading.note}`);
+          if (reading.note && notes.length < MAX_LISTED_NOTES) notes.push(`${ws.name}!${cellName(r, c)}: ${reading.note}`);
           return;
         }
         if (reading.kind === 'formula') {
           formulas++;
           if (reading.arrayRef) {
-            const area = parseRange(reading.arrayRef);
+            const area = parseRangeName(reading.arrayRef);
             if (area) arrays.push(area);
           }
         }
@@ -121,5 +121,5 @@ function mergedRangesOf(ws: ExcelJS.Worksheet): string[] {
   const merges = (ws as unknown as { _merges?: Record<string, { range?: string }> })._merges ?? {};
   return Object.values(merges)
     .map((m) => m?.range)
-    .filter((r): r is string => typeof r === 'string' && parseRange(r) !== null);
+    .filter((r): r is string => typeof r === 'string' && parseRangeName(r) !== null);
 }

@@ -2,8 +2,8 @@
 // CSS pixels and a `freezeHeaderRow` flag (src/features/grid/model/displaySettings.ts); the file
 // stores widths in characters of the default font and a frozen pane of rows × columns. We keep the
 // grid's fields and add `frozenRows`, `frozenCols` and `merged` so an export gives back what came in.
-import { maxSheetSettingsBytes, type SheetSettings } from '../../shared/workbooks.js';
-import { parseRange } from './a1.js';
+import { maxColIndex, maxRowIndex, parseRangeName } from '../../shared/a1.js';
+import { maxColumnWidthPx, maxSheetSettingsBytes, sheetSettingsSchema, type SheetSettings } from '../../shared/sheetSettings.js';
 import type { ParsedSheet } from './types.js';
 
 // Column width ↔ pixels, ECMA-376 Part 1 §18.3.1.13 (from memory): pixels =
@@ -22,14 +22,25 @@ export function pxToExcelWidth(px: number): number {
 
 const wholeAtLeastZero = (n: unknown) => (typeof n === 'number' && Number.isInteger(n) && n > 0 ? n : 0);
 
-/** Stored settings for an imported sheet, within the size the API allows; what did not fit is noted. */
+/**
+ * Stored settings for an imported sheet, within what the API accepts (shared/sheetSettings.ts), so
+ * the grid can save them back unchanged; what did not fit is noted.
+ */
 export function settingsFromParsed(sheet: ParsedSheet, notes: string[]): SheetSettings {
   const columnWidths: Record<string, number> = {};
-  for (const [col, width] of Object.entries(sheet.columnWidths)) columnWidths[col] = excelWidthToPx(width);
+  for (const [col, width] of Object.entries(sheet.columnWidths)) {
+    if (Number(col) <= maxColIndex && width > 0) columnWidths[col] = Math.min(excelWidthToPx(width), maxColumnWidthPx);
+  }
   const settings: SheetSettings = { columnWidths, freezeHeaderRow: sheet.frozenRows >= 1 };
-  if (sheet.frozenRows) settings.frozenRows = sheet.frozenRows;
-  if (sheet.frozenCols) settings.frozenCols = sheet.frozenCols;
-  if (sheet.merged.length) settings.merged = [...sheet.merged];
+  if (sheet.frozenRows) settings.frozenRows = Math.min(sheet.frozenRows, maxRowIndex);
+  if (sheet.frozenCols) settings.frozenCols = Math.min(sheet.frozenCols, maxColIndex);
+  // Merges reaching past the grid cover cells the import skipped anyway.
+  const inGrid = sheet.merged.filter((m) => {
+    const r = parseRangeName(m);
+    return r !== null && r.bottom <= maxRowIndex && r.right <= maxColIndex;
+  });
+  if (inGrid.length < sheet.merged.length) notes.push(`sheet "${sheet.name}": ${sheet.merged.length - inGrid.length} merged ranges reaching past Orbitab's grid were dropped`);
+  if (inGrid.length) settings.merged = inGrid;
   const size = () => JSON.stringify(settings).length;
   if (size() > maxSheetSettingsBytes && Array.isArray(settings.merged)) {
     const merged = settings.merged as string[];
@@ -43,6 +54,12 @@ export function settingsFromParsed(sheet: ParsedSheet, notes: string[]): SheetSe
       delete columnWidths[col];
     }
     notes.push(`sheet "${sheet.name}": only the widths of the first ${Object.keys(columnWidths).length} columns were kept`);
+  }
+  // The reader's own limits (server/xlsx/limits.ts) keep merges within the schema's; a file that
+  // still slips past keeps its cells and loses its layout rather than storing what the API refuses.
+  if (!sheetSettingsSchema.safeParse(settings).success) {
+    notes.push(`sheet "${sheet.name}": column widths, frozen panes and merged ranges were not kept (they exceed what a sheet may hold)`);
+    return {};
   }
   return settings;
 }
@@ -66,6 +83,6 @@ export function fileLayoutOf(settings: SheetSettings | undefined): FileLayout {
     }
   }
   const frozenRows = typeof s.frozenRows === 'number' ? wholeAtLeastZero(s.frozenRows) : s.freezeHeaderRow === true ? 1 : 0;
-  const merged = Array.isArray(s.merged) ? s.merged.filter((m): m is string => typeof m === 'string' && parseRange(m) !== null) : [];
+  const merged = Array.isArray(s.merged) ? s.merged.filter((m): m is string => typeof m === 'string' && parseRangeName(m) !== null) : [];
   return { columnWidths, frozenRows: s.freezeHeaderRow === false ? 0 : frozenRows, frozenCols: wholeAtLeastZero(s.frozenCols), merged };
 }

@@ -3,7 +3,7 @@
 // ("values") only the values. The first sheet is the provenance page (frontSheet.ts).
 import type { Writable } from 'node:stream';
 import ExcelJS from 'exceljs';
-import { parseRange, rangeArea, rangeText, type RangeRef } from './a1.js';
+import { parseRangeName, rangeArea, rangeName, type CellRange } from '../../shared/a1.js';
 import { computeWorkbook, type ComputedCell, type ComputedWorkbook } from './engineValues.js';
 import { writeAboutSheet } from './frontSheet.js';
 import { applyProtection, describeProtection, type CellProtectionPlan } from './protection.js';
@@ -41,7 +41,7 @@ function cellValueFor(cell: ComputedCell, mode: ExportMode): { value: ExcelJS.Ce
     const formula: ExcelJS.CellFormulaValue & { shareType?: 'array'; ref?: string } = { formula: cell.input.slice(1), date1904: false, result: scalar.value ?? undefined } as never;
     if (cell.spill && (cell.spill.rows > 1 || cell.spill.cols > 1)) {
       formula.shareType = 'array';
-      formula.ref = rangeText({ top: cell.row, left: cell.col, bottom: cell.row + cell.spill.rows - 1, right: cell.col + cell.spill.cols - 1 });
+      formula.ref = rangeName({ top: cell.row, left: cell.col, bottom: cell.row + cell.spill.rows - 1, right: cell.col + cell.spill.cols - 1 });
     }
     return { value: formula as ExcelJS.CellValue, numFmt: scalar.numFmt, note };
   }
@@ -49,14 +49,14 @@ function cellValueFor(cell: ComputedCell, mode: ExportMode): { value: ExcelJS.Ce
 }
 
 /** Merges are kept unless an input sits in a non-anchor cell (a merge would hide it) or they overlap. */
-function writableMerges(sheet: ExportSheet, merged: string[], omissions: string[], fileName: string): RangeRef[] {
-  const kept: RangeRef[] = [];
+function writableMerges(sheet: ExportSheet, merged: string[], omissions: string[], fileName: string): CellRange[] {
+  const kept: CellRange[] = [];
   for (const text of merged) {
-    const r = parseRange(String(text));
+    const r = parseRangeName(String(text));
     if (!r || rangeArea(r) < 2) continue;
     const overlaps = kept.some((k) => k.top <= r.bottom && r.top <= k.bottom && k.left <= r.right && r.left <= k.right);
     const hides = sheet.cells.some(([row, col]) => row >= r.top && row <= r.bottom && col >= r.left && col <= r.right && (row !== r.top || col !== r.left));
-    if (overlaps || hides) omissions.push(`${fileName}!${rangeText(r)}: merge not written (${overlaps ? 'it overlaps another merge' : 'cells inside it hold values'})`);
+    if (overlaps || hides) omissions.push(`${fileName}!${rangeName(r)}: merge not written (${overlaps ? 'it overlaps another merge' : 'cells inside it hold values'})`);
     else kept.push(r);
   }
   return kept;

@@ -4,7 +4,7 @@
 // inflate each part with zlib under a hard output cap, which also catches headers that lie about size.
 import zlib from 'node:zlib';
 import JSZip from 'jszip';
-import { parseRange, rangeArea } from './a1.js';
+import { parseRangeName, rangeArea } from '../../shared/a1.js';
 import { formatBytes, SpreadsheetError, type ImportLimits } from './limits.js';
 
 export interface ZipInspection {
@@ -118,7 +118,7 @@ function checkExpansions(part: string, xml: Buffer, prefix: string, limits: Impo
   const mergeTag = `<${prefix}mergeCell `;
   for (let i = xml.indexOf(mergeTag); i !== -1; i = xml.indexOf(mergeTag, i + mergeTag.length)) {
     const element = xml.subarray(i, Math.min(xml.length, i + 512)).toString('latin1');
-    const r = parseRange(/\sref="([^"]*)"/.exec(element)?.[1] ?? '');
+    const r = parseRangeName(/\sref="([^"]*)"/.exec(element)?.[1] ?? '');
     if (r) expanded += rangeArea(r);
     if (expanded > limits.maxMergedCells) {
       throw new SpreadsheetError(

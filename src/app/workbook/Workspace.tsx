@@ -4,7 +4,7 @@
 import { useEffect, useMemo, useRef, useState } from 'react';
 import type { DataSheetGridRef } from 'react-datasheet-grid';
 import { SafetyNote } from '../../features/diagram/SafetyNote.js';
-import { parseCellName } from '../../core/workbook/model/a1.js';
+import { parseCellName } from '../../../shared/a1.js';
 import { fillPairs } from '../../core/workbook/model/rangeEdits.js';
 import { FilterMenu, type SheetFilter } from '../../features/grid/components/FilterMenu.js';
 import { FormulaBar, type FormulaBarHandle } from '../../features/grid/components/FormulaBar.js';

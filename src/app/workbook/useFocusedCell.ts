@@ -1,7 +1,7 @@
 // The cell the user is on (the grid's active cell, or a cell of the frozen header row), its address
 // or the selected range's, and what the structure panel reads of it.
 import { useMemo } from 'react';
-import { cellName, parseCellName, rangeName } from '../../core/workbook/model/a1.js';
+import { cellName, parseCellName, rangeName } from '../../../shared/a1.js';
 import type { WorkbookModel } from '../../core/workbook/model/workbookModel.js';
 import type { ViewCell } from '../../features/grid/components/SheetGrid.js';
 import type { ViewSelection } from '../../features/grid/useSheetCommands.js';

@@ -3,6 +3,7 @@
 // reordered with cell patches), then to the engine once the server has accepted them.
 import { queryOptions } from '@tanstack/react-query';
 import type { PatchInput, PatchResult, SheetMutationResult, WorkbookPayload } from '../../../shared/workbooks.js';
+import { removeSheetFromFormula, renameSheetInFormula } from '../../../shared/formulaText.js';
 import { api, queryKeys } from '../../lib/api.js';
 import { writeDisplaySettings, type DisplaySettings } from './model/displaySettings.js';
 import type { WorkbookSession } from './session/useWorkbookSession.js';
@@ -28,13 +29,18 @@ export async function addSheet(s: WorkbookSession): Promise<string> {
 }
 
 export async function renameSheet(s: WorkbookSession, sheetId: string, name: string): Promise<void> {
+  const before = s.model.sheet(sheetId).name;
   const { sheet } = await api<SheetMutationResult>(`${base(s)}/${encodeURIComponent(sheetId)}`, { method: 'PATCH', body: { name } });
+  // The server rewrote stored formulas naming the sheet; unsent ones and the shown text follow.
+  s.queue.rewritePending((input) => renameSheetInFormula(input, before, sheet.name));
   s.model.renameSheetState(sheetId, sheet.name);
 }
 
 export async function deleteSheet(s: WorkbookSession, sheetId: string): Promise<void> {
+  const name = s.model.sheet(sheetId).name;
   await api(`${base(s)}/${encodeURIComponent(sheetId)}`, { method: 'DELETE' });
   s.queue.dropSheet(sheetId);
+  s.queue.rewritePending((input) => removeSheetFromFormula(input, name));
   s.model.removeSheetState(sheetId);
   // The server keeps positions dense (0, 1, 2…): close the gap the same way.
   s.model.setPositions(s.model.sheets.map((x) => x.id));

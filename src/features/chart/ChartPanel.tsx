@@ -1,7 +1,7 @@
 // Plots two columns of the sheet against each other, as points or as a line (recharts).
 import { useMemo, useState } from 'react';
 import { CartesianGrid, Line, LineChart, ResponsiveContainer, Scatter, ScatterChart, Tooltip, XAxis, YAxis } from 'recharts';
-import { columnName } from '../../core/workbook/model/a1.js';
+import { columnName } from '../../../shared/a1.js';
 import type { RowData } from '../../core/workbook/model/workbookModel.js';
 import { numericPairs, sortedByX } from './chartData.js';
 

@@ -3,7 +3,7 @@
 import { useMemo, useState } from 'react';
 import type { RevisionSnapshot } from '../../../shared/team.js';
 import { Notice } from '../../components/ui/Notice.js';
-import { columnName } from '../../core/workbook/model/a1.js';
+import { columnName } from '../../../shared/a1.js';
 import { snapshotSheets } from './snapshotValues.js';
 
 export function RevisionSnapshotView({ snapshot }: { snapshot: RevisionSnapshot }) {

@@ -6,6 +6,7 @@ import type { RevisionSnapshot } from '../../../shared/team.js';
 import { cellView, type CellView } from '../../core/workbook/model/cellView.js';
 import { readDisplaySettings } from '../../core/workbook/model/displaySettings.js';
 import { SheetInputs } from '../../core/workbook/model/sheetInputs.js';
+import { blockValues, valueExtent } from '../../core/workbook/model/sheetViews.js';
 
 export interface SnapshotSheet {
   id: string;
@@ -30,12 +31,13 @@ export function snapshotSheets(snapshot: RevisionSnapshot, maxRows = snapshotMax
       const sheetInputs = inputs[i];
       const { rows: usedRows, cols: usedCols } = sheetInputs.extent();
       const engineId = engine.getSheetId(s.name)!;
-      const values = engine.getSheetValues(engineId);
       const precision = readDisplaySettings(s.settings).precision;
-      // Array formulas can spill past the last typed cell; a reduce, not a spread, for long sheets.
-      const valueCols = values.reduce((m, r) => Math.max(m, r.length), 0);
-      const rowCount = Math.min(maxRows, Math.max(usedRows, values.length));
-      const colCount = Math.min(maxCols, Math.max(usedCols, valueCols));
+      // Array formulas can spill past the last typed cell. Only the shown block is read: a formula
+      // such as =BXX1000000 makes the engine's sheet a million rows long.
+      const spilled = valueExtent(engine, { engineId, inputs: sheetInputs });
+      const rowCount = Math.min(maxRows, Math.max(usedRows, spilled.rows));
+      const colCount = Math.min(maxCols, Math.max(usedCols, spilled.cols));
+      const values = blockValues(engine, engineId, rowCount, colCount);
       const cells = Array.from({ length: rowCount }, (_, r) =>
         Array.from({ length: colCount }, (_, c) => {
           const input = sheetInputs.get(r, c);
@@ -43,7 +45,7 @@ export function snapshotSheets(snapshot: RevisionSnapshot, maxRows = snapshotMax
           return cellView(input, value, precision, input === '' && value !== null);
         }),
       );
-      return { id: s.id, name: s.name, cells, usedRows: Math.max(usedRows, values.length), usedCols: Math.max(usedCols, valueCols) };
+      return { id: s.id, name: s.name, cells, usedRows: spilled.rows, usedCols: spilled.cols };
     });
   } finally {
     engine.destroy();

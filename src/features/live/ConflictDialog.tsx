@@ -7,7 +7,7 @@ import { Button } from '../../components/ui/Button.js';
 import { Dialog } from '../../components/ui/Dialog.js';
 import type { SaveStatus } from '../../core/workbook/save/patchQueue.js';
 import type { WorkbookSession } from '../../core/workbook/session/useWorkbookSession.js';
-import { cellAddressOf } from './cellAddress.js';
+import { cellAddress } from '../../../shared/a1.js';
 import { conflictKey, describeInput, type ConflictChoice, type SetAsideInput } from './conflictResolution.js';
 import { settleConflicts } from './settleConflicts.js';
 
@@ -96,7 +96,7 @@ export function ConflictDialog({
       )}
       <ul aria-label="Conflicting cells" className="flex max-h-[20rem] flex-col divide-y divide-line overflow-y-auto rounded-ctl border border-line">
         {conflicts.map((c) => {
-          const address = cellAddressOf(sheetName(c.sheetId), c.row, c.col);
+          const address = cellAddress(sheetName(c.sheetId), c.row, c.col);
           const mine = latest.get(conflictKey(c)) ?? c.mine;
           return (
             <li key={conflictKey(c)} aria-label={`Conflict in ${address}`} className="flex items-end gap-3 px-2.5 py-2">

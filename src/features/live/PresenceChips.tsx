@@ -1,7 +1,7 @@
 // Who else has the workbook open and which cell they are on, as small initials chips, plus whether
 // this page is receiving live updates at all.
 import type { PresenceUser } from '../../../shared/team.js';
-import { cellName } from '../../core/workbook/model/a1.js';
+import { cellName } from '../../../shared/a1.js';
 import type { LiveConnection } from './useLiveUpdates.js';
 
 function initials(name: string) {

@@ -2,7 +2,7 @@
 // dismiss them: each with its cell, what replaced it and a copy button.
 import { useState } from 'react';
 import { Button } from '../../components/ui/Button.js';
-import { cellAddressOf } from './cellAddress.js';
+import { cellAddress } from '../../../shared/a1.js';
 import { describeInput, type SetAsideInput } from './conflictResolution.js';
 
 export function SetAsideNotice({ inputs, sheetName, onDismiss }: { inputs: SetAsideInput[]; sheetName: (sheetId: string) => string; onDismiss: () => void }) {
@@ -31,7 +31,7 @@ export function SetAsideNotice({ inputs, sheetName, onDismiss }: { inputs: SetAs
         <ul className="mt-1 mb-0.5 flex max-h-40 flex-col gap-0.5 overflow-y-auto">
           {inputs.map((c, i) => (
             <li key={`${c.sheetId}-${c.row}-${c.col}-${c.at}-${i}`} className="flex items-center gap-2">
-              <span className="w-28 shrink-0 font-mono font-semibold text-ink">{cellAddressOf(sheetName(c.sheetId), c.row, c.col)}</span>
+              <span className="w-28 shrink-0 font-mono font-semibold text-ink">{cellAddress(sheetName(c.sheetId), c.row, c.col)}</span>
               <code className="min-w-0 flex-1 truncate text-ink" title={c.input}>
                 {describeInput(c.input)}
               </code>

@@ -2,12 +2,13 @@
 // revision that beat it) or takes the other (shown here, their own input dropped from the queue).
 // Nothing is lost either way: a replaced colleague's input stays in the revision history, and my
 // own dropped input is set aside where I can still read and copy it.
+import { cellKey } from '../../../shared/a1.js';
 import type { CellConflict } from '../../../shared/workbooks.js';
 import type { CellInput } from '../../core/workbook/save/pendingStore.js';
 
 export type ConflictChoice = 'mine' | 'theirs';
 
-export const conflictKey = (c: { sheetId: string; row: number; col: number }) => `${c.sheetId}\u0000${c.row}\u0000${c.col}`;
+export const conflictKey = cellKey;
 
 /** An input of mine that lost to someone else's, kept so it can still be copied. */
 export interface SetAsideInput extends CellInput {

@@ -2,6 +2,8 @@
 // The rule that keeps work safe: a cell with my own input still waiting to be saved is never
 // overwritten by a remote change. It stays mine on screen, and my next patch meets the other input
 // as a 409 conflict, where I choose (ConflictDialog). Everything else is written at once.
+import { cellKey } from '../../../shared/a1.js';
+import { removeSheetFromFormula, renameSheetInFormula } from '../../../shared/formulaText.js';
 import type { LiveEvents } from '../../../shared/team.js';
 import type { RevisionDetail, SheetOp } from '../../../shared/workbooks.js';
 import { readDisplaySettings } from '../../core/workbook/model/displaySettings.js';
@@ -12,7 +14,6 @@ import type { PatchQueue } from '../../core/workbook/save/patchQueue.js';
 
 export type RemoteRevision = LiveEvents['revision'];
 
-const cellKey = (c: { sheetId: string; row: number; col: number }) => `${c.sheetId}\u0000${c.row}\u0000${c.col}`;
 
 /** The same shape whether a revision came over the event stream or was fetched to fill a gap. */
 export function fromRevisionDetail(d: RevisionDetail): RemoteRevision {
@@ -93,12 +94,16 @@ export function applyRemoteRevision(model: WorkbookModel, queue: PatchQueue, rev
         if (model.hasSheet(op.sheetId)) {
           orphaned.push(...queue.waiting.filter((c) => c.sheetId === op.sheetId));
           queue.dropSheet(op.sheetId);
+          queue.rewritePending((input) => removeSheetFromFormula(input, op.name));
           model.removeSheetState(op.sheetId);
           model.setPositions(order());
         }
         break;
       case 'rename':
-        if (model.hasSheet(op.sheetId)) model.renameSheetState(op.sheetId, op.after);
+        if (model.hasSheet(op.sheetId)) {
+          queue.rewritePending((input) => renameSheetInFormula(input, op.before, op.after));
+          model.renameSheetState(op.sheetId, op.after);
+        }
         break;
       case 'move':
         if (model.hasSheet(op.sheetId)) model.setPositions(reorder(order(), op.sheetId, op.to));

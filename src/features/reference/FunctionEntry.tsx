@@ -92,6 +92,19 @@ export function FunctionEntry({ fn }: { fn: FunctionHelp }) {
           <h4 className="mb-1 text-caption font-semibold tracking-wide text-ink-3 uppercase">Method and source</h4>
           <p className="text-caption text-ink-2">{fn.source}</p>
         </section>
+        {fn.seeAlso.length > 0 && (
+          <p className="text-caption text-ink-2">
+            See also:{' '}
+            {fn.seeAlso.map((name, i) => (
+              <span key={name}>
+                {i > 0 && ', '}
+                <a href={`#fn-${name}`} className="font-mono text-accent hover:underline">
+                  {name}
+                </a>
+              </span>
+            ))}
+          </p>
+        )}
       </div>
     </article>
   );

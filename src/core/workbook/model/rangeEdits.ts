@@ -5,7 +5,7 @@
 // spilled cell refuses the lot, since half a sort or half a paste would scramble the block.
 import type { SimpleCellRange } from 'hyperformula';
 import type { CellInput } from '../save/pendingStore.js';
-import type { CellRange } from './a1.js';
+import type { CellRange } from '../../../../shared/a1.js';
 import { sortPermutation, type SortDirection, type SortValue } from './sortFilter.js';
 import type { EditOutcome, WorkbookModel } from './workbookModel.js';
 

@@ -1,6 +1,8 @@
 // The inputs of one sheet exactly as people typed them ("1.50" stays "1.50"), kept beside the engine
 // because the engine normalises what it stores. Sparse: only non-empty cells have an entry.
 
+import { engineInput } from '../../../../functions/formulaTokens.js';
+
 const COLUMN_SPAN = 4096; // > the engine's 2,000 columns, so row * span + col never collides
 
 export interface InputEntry {
@@ -72,11 +74,11 @@ export class SheetInputs {
     return { rows, cols };
   }
 
-  /** A dense table for the engine's buildFromSheets (null for empty cells). */
+  /** A dense table for the engine (null for empty cells), in the text the engine reads (engineInput). */
   toTable(): (string | null)[][] {
     const { rows, cols } = this.extent();
     const table: (string | null)[][] = Array.from({ length: rows }, () => new Array<string | null>(cols).fill(null));
-    for (const { row, col, input } of this.entries()) table[row][col] = input;
+    for (const { row, col, input } of this.entries()) table[row][col] = engineInput(input);
     return table;
   }
 }

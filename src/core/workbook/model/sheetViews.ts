@@ -26,9 +26,37 @@ export function viewOfCell(engine: HyperFormula, s: SheetLike, row: number, col:
   return reason ? { ...view, readOnlyReason: reason } : view;
 }
 
+/**
+ * The block of a sheet that holds values: the typed cells, widened to take in what array formulas
+ * spill. Not the engine's own sheet size: a formula such as =BXX1000000 stretches that to a million
+ * rows by two thousand columns, and reading it whole would stall the tab.
+ */
+export function valueExtent(engine: HyperFormula, s: Pick<SheetLike, 'engineId' | 'inputs'>): { rows: number; cols: number } {
+  let { rows, cols } = s.inputs.extent();
+  const inArray = (row: number, col: number) => engine.isCellPartOfArray({ sheet: s.engineId, row, col });
+  for (const { row, col, input } of s.inputs.entries()) {
+    if (!input.startsWith('=') || !inArray(row, col)) continue;
+    // A spill is at most functions/limits.ts maxSpillCells, so these walks stay short.
+    let r = row;
+    while (inArray(r + 1, col)) r++;
+    let c = col;
+    while (inArray(row, c + 1)) c++;
+    rows = Math.max(rows, r + 1);
+    cols = Math.max(cols, c + 1);
+  }
+  return { rows, cols };
+}
+
+/** Values of the top-left block of a sheet, as getSheetValues gives them for the whole sheet. */
+export function blockValues(engine: HyperFormula, engineId: number, rows: number, cols: number) {
+  if (rows === 0 || cols === 0) return [];
+  return engine.getRangeValues({ start: { sheet: engineId, row: 0, col: 0 }, end: { sheet: engineId, row: rows - 1, col: cols - 1 } });
+}
+
 /** Every row of a sheet; rows without content share one frozen empty object. */
 export function buildSheetRows(engine: HyperFormula, s: SheetLike, readOnly: ReadOnlyLabel): RowData[] {
-  const values = engine.getSheetValues(s.engineId);
+  const { rows: valueRows, cols: valueCols } = valueExtent(engine, s);
+  const values = blockValues(engine, s.engineId, valueRows, valueCols);
   const rows = new Array<RowData>(Math.max(s.rowCount, values.length)).fill(EMPTY_ROW);
   for (let r = 0; r < values.length; r++) {
     const line = values[r];

@@ -6,12 +6,14 @@
 // recomputes once at the end.
 import { ExportedCellChange, type ExportedChange, type HyperFormula } from 'hyperformula';
 import { createEngine } from '../../../../functions/engine.js';
+import { engineInput } from '../../../../functions/formulaTokens.js';
 import type { SheetPayload, WorkbookPayload } from '../../../../shared/workbooks.js';
 import { allows, type AccessRole, type WorkbookAction } from '../../../../shared/permissions.js';
 import type { CellView } from './cellView.js';
 import { buildSheetRows, EMPTY_ROW, groupCells, viewOfCell, withRowsReplaced, type RowData } from './sheetViews.js';
 import { readDisplaySettings, type DisplaySettings } from './displaySettings.js';
 import { SheetInputs } from './sheetInputs.js';
+import { removeSheetFromFormula, renameSheetInFormula } from '../../../../shared/formulaText.js';
 import { lastInputPerCell, type CellInput } from '../save/pendingStore.js';
 import { History } from './history.js';
 
@@ -184,7 +186,7 @@ export class WorkbookModel {
     try {
       for (const c of changes) {
         const s = this.sheet(c.sheetId);
-        const result = this.engine.setCellContents({ sheet: s.engineId, row: c.row, col: c.col }, [[c.input === '' ? null : c.input]]);
+        const result = this.engine.setCellContents({ sheet: s.engineId, row: c.row, col: c.col }, [[c.input === '' ? null : engineInput(c.input)]]);
         if (!bulk) engineChanges = result;
         s.inputs.set(c.row, c.col, c.input);
         written.push(c);
@@ -277,8 +279,21 @@ export class WorkbookModel {
     const s = this.sheet(sheetId);
     if (s.name === name) return;
     this.engine.renameSheet(s.engineId, name);
+    // The engine has re-pointed its formulas already; the typed text follows, as the server
+    // rewrites the stored text in the same revision (shared/formulaText.ts).
+    const before = s.name;
     s.name = name;
+    this.rewriteFormulaText((input) => renameSheetInFormula(input, before, name));
     this.invalidateViews(); // formulas naming the sheet now show the new name
+  }
+
+  /** Rewrites formula text in every sheet's inputs (the engine already holds the same formulas). */
+  private rewriteFormulaText(rewrite: (input: string) => string) {
+    for (const sheet of this.sheetsById.values()) {
+      for (const { row, col, input } of [...sheet.inputs.entries()]) {
+        if (input.startsWith('=')) sheet.inputs.set(row, col, rewrite(input));
+      }
+    }
   }
 
   removeSheetState(sheetId: string) {
@@ -286,6 +301,8 @@ export class WorkbookModel {
     if (!s) return;
     this.engine.removeSheet(s.engineId);
     this.sheetsById.delete(sheetId);
+    // The engine now reads references to the sheet as #REF!; the text says so too, as on the server.
+    this.rewriteFormulaText((input) => removeSheetFromFormula(input, s.name));
     this.history.forgetSheet(sheetId);
     this.invalidateViews();
   }

@@ -161,6 +161,22 @@ export class PatchQueue {
   keepMine = () => void this.resolveConflicts(() => 'mine');
   takeTheirs = (): CellInput[] => this.resolveConflicts(() => 'theirs');
 
+  /**
+   * Unsent formulas follow a renamed or deleted sheet as stored ones do (shared/formulaText.ts); one
+   * already on its way is sent again with the new text once acknowledged.
+   */
+  rewritePending(rewrite: (input: string) => string) {
+    let changed = false;
+    for (const [key, c] of this.pending) {
+      const input = rewrite(c.input);
+      if (input !== c.input) {
+        this.pending.set(key, { ...c, input });
+        changed = true;
+      }
+    }
+    if (changed) this.persist();
+  }
+
   /** A deleted sheet's unsent changes have nowhere to go. */
   dropSheet(sheetId: string) {
     for (const [key, c] of this.pending) if (c.sheetId === sheetId) this.pending.delete(key);

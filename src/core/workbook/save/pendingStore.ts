@@ -1,6 +1,7 @@
 // Unsent cell changes kept in the browser's local storage, one entry per workbook, so that a reload,
 // a crash or a closed laptop lid loses nothing typed. The entry is rewritten on every change and
 // removed only when the server has acknowledged every change in it.
+import { cellKey } from '../../../../shared/a1.js';
 
 export interface CellInput {
   sheetId: string;
@@ -14,7 +15,7 @@ export interface CellInput {
 export function lastInputPerCell(changes: readonly CellInput[]): CellInput[] {
   const map = new Map<string, CellInput>();
   for (const c of changes) {
-    const key = `${c.sheetId}\u0000${c.row}\u0000${c.col}`;
+    const key = cellKey(c);
     map.delete(key);
     map.set(key, c);
   }

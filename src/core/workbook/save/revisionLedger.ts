@@ -9,6 +9,7 @@
 //
 // An acknowledgement that skips revisions I have not seen yet leaves the base where it was; those
 // revisions arrive over the live feed (or are fetched) and the base then catches up.
+import { cellKey, cellKeyPrefix } from '../../../../shared/a1.js';
 import type { CellInput } from './pendingStore.js';
 
 export interface CellRef {
@@ -17,7 +18,7 @@ export interface CellRef {
   col: number;
 }
 
-export const cellKey = (c: CellRef) => `${c.sheetId}\u0000${c.row}\u0000${c.col}`;
+export { cellKey };
 
 interface Block {
   /** The last revision the block covers (a snapshot restored from an earlier visit covers several). */
@@ -113,7 +114,7 @@ export class RevisionLedger {
 
   /** A deleted sheet's cells have nothing left to overwrite. */
   dropSheet(sheetId: string): void {
-    const prefix = `${sheetId}\u0000`;
+    const prefix = cellKeyPrefix(sheetId);
     for (const key of this.known.keys()) if (key.startsWith(prefix)) this.known.delete(key);
     for (const block of this.blocks.values()) for (const key of block.held.keys()) if (key.startsWith(prefix)) block.held.delete(key);
     this.advance();

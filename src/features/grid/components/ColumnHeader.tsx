@@ -1,7 +1,7 @@
 // A column's header: its A1 letter, a drag handle on the right edge for the width, and, when the
 // header row is frozen, the first row's value under the letter (click it to edit in the bar).
 import { useRef, useState, type MouseEvent } from 'react';
-import { columnName } from '../../../core/workbook/model/a1.js';
+import { columnName } from '../../../../shared/a1.js';
 import { clampWidth } from '../../../core/workbook/model/displaySettings.js';
 import type { CellView } from '../../../core/workbook/model/cellView.js';
 

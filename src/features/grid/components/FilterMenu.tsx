@@ -1,7 +1,7 @@
 // Filter rows by a value of the active column: pick one of the column's values or type text the
 // cells must contain. The filter hides rows in this view only; nothing is changed or sent.
 import { useMemo, useRef, useState } from 'react';
-import { columnName } from '../../../core/workbook/model/a1.js';
+import { columnName } from '../../../../shared/a1.js';
 import { distinctValues, type FilterCriterion } from '../../../core/workbook/model/sortFilter.js';
 
 export interface SheetFilter {

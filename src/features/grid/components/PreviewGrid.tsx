@@ -1,6 +1,6 @@
 // The first screenful of a large workbook while its full engine is still being built: the same
 // look as the grid, read-only, with a note that the rest is on its way.
-import { columnName } from '../../../core/workbook/model/a1.js';
+import { columnName } from '../../../../shared/a1.js';
 import { defaultColumnWidthPx, readDisplaySettings } from '../../../core/workbook/model/displaySettings.js';
 import type { SheetSettings } from '../../../../shared/workbooks.js';
 import type { SheetPreview } from '../../../core/workbook/model/windowPreview.js';

@@ -1,0 +1,66 @@
+// A colleague opens, in Chromium, a workbook holding the formulas that used to stall a tab or run a
+// server out of memory: the page loads, those cells show #VALUE! with a message naming the limit, and
+// another cell can still be edited and recomputes. Needs `npm run build` first.
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { gridCell, launchBrowser, screenshot, type TestBrowser } from './helpers/browser.js';
+import { startServer, type TestServer } from './helpers/server.js';
+
+let server: TestServer;
+let browser: TestBrowser;
+let page: Page;
+
+beforeAll(async () => {
+  server = await startServer();
+  browser = await launchBrowser();
+  page = browser.page;
+  page.setDefaultTimeout(15_000);
+});
+
+afterAll(async () => {
+  await browser?.close();
+  await server?.stop();
+});
+
+const cell = (a1: string) => gridCell(page, a1);
+async function expectCell(a1: string, text: string) {
+  await expect.poll(async () => (await cell(a1))?.text, { timeout: 15_000, message: `cell ${a1}` }).toBe(text);
+}
+
+describe('a workbook holding hostile formulas in a browser', () => {
+  it('opens with those cells in error and the rest editable', async () => {
+    await page.goto(`${server.url}/sign-up`);
+    await page.getByLabel('Name').fill('Ines Duarte');
+    await page.getByLabel('Email').fill('ines@lab.example');
+    await page.getByLabel('Password').fill('sigma-pi-sigma-star');
+    await page.getByRole('button', { name: 'Create account' }).click();
+    await page.getByRole('button', { name: 'New workbook' }).click();
+    await page.getByRole('dialog').getByLabel('Title').fill('Spill screen');
+    await page.getByRole('button', { name: 'Create and open' }).click();
+    await page.waitForURL((u) => u.pathname.startsWith('/workbooks/'));
+    const id = new URL(page.url()).pathname.split('/')[2];
+
+    // Saved as a colleague's patch would be, then the page is reloaded to open the workbook afresh.
+    const headers = { origin: server.url };
+    const wb = await (await page.request.get(`${server.url}/api/workbooks/${id}`, { headers })).json();
+    const sheetId = wb.sheets[0].id;
+    const hostile = ['=SEQUENCE(1000000,2000)', '=SUM(A2:BXX1000000)', '=REPT("ab",200000000)', '=BXX1000000', '=SUM(B:B)', '=B1:B1000000*2'];
+    const changes = [...hostile.map((input, row) => ({ sheetId, row, col: 3, input })), { sheetId, row: 0, col: 0, input: '2' }, { sheetId, row: 0, col: 1, input: '=A1*21' }];
+    const saved = await page.request.post(`${server.url}/api/workbooks/${id}/patches`, { headers, data: { baseRevision: wb.revision, changes } });
+    expect(saved.status()).toBe(200);
+    await page.reload();
+    await page.getByTestId('workbook-title').waitFor();
+
+    await expectCell('B1', '42');
+    for (const a1 of ['D1', 'D2', 'D3', 'D5', 'D6']) await expectCell(a1, '#VALUE!');
+    expect((await cell('D1'))?.title).toMatch(/spills 2,000,000,000 cells; at most 100,000/);
+    expect((await cell('D5'))?.title).toMatch(/reads 1,000,000 cells \(B:B\); at most 100,000 per formula/);
+
+    const a1 = await cell('A1');
+    await page.mouse.click(a1!.x, a1!.y);
+    await page.keyboard.type('3');
+    await page.keyboard.press('Enter');
+    await expectCell('B1', '63');
+    await screenshot(page, 'eval-limits-hostile-workbook');
+  });
+});
