@@ -12,7 +12,7 @@ import { sheets, workbookMembers, workbooks } from '../db/schema.js';
 import { HttpError } from '../errors.js';
 import { nextRevision, recordRevision } from '../services/revisionLog.js';
 import { workbookSheets } from '../services/sheetOps.js';
-import { addressOf } from './a1.js';
+import { cellName } from '../../shared/a1.js';
 import { cellInserter, importedSheetName, type ImportOutcome } from './importStore.js';
 import { settingsFromParsed } from './sheetSettings.js';
 import type { CellTriple, ImportSummary, ParsedWorkbook } from './types.js';
@@ -43,7 +43,7 @@ async function checkedSheets(parsed: ParsedWorkbook, summary: ImportSummary) {
     for (const cell of sheet.cells) {
       const input = cell[2];
       const problem = input.length > maxInputLength ? `longer than ${maxInputLength.toLocaleString('en')} characters` : cellInputProblem(input);
-      if (problem) summary.skipped.push({ sheet: sheet.name, address: addressOf(cell[0], cell[1]), reason: problem });
+      if (problem) summary.skipped.push({ sheet: sheet.name, address: cellName(cell[0], cell[1]), reason: problem });
       else {
         cells.push(cell);
         if (input.charCodeAt(0) === 61 /* = */) formulas++;
