@@ -2,7 +2,7 @@
 // targets each issue set, a section per benchmark, and the machine it ran on. Pure: run-all.ts runs
 // the benchmarks; tests/bench-report.test.ts checks the wording from made-up outcomes.
 
-export type BenchKey = 'functions' | 'huckel' | 'open' | 'patches' | 'io';
+export type BenchKey = 'functions' | 'huckel' | 'open' | 'patches' | 'io' | 'stalls';
 
 export interface BenchOutcome {
   key: BenchKey;
@@ -166,7 +166,18 @@ function ioRows(r: Loose): SummaryRow[] {
   return [...part('export'), ...part('import'), ...parts];
 }
 
-const rowsFor: Record<BenchKey, (r: Loose) => SummaryRow[]> = { functions: functionsRows, huckel: huckelRows, open: openRows, patches: patchRows, io: ioRows };
+function stallRows(r: Loose): SummaryRow[] {
+  const phases = (Array.isArray(r.phases) ? r.phases : []) as Loose[];
+  return phases.map((p) => ({
+    bench: 'Event-loop stalls',
+    measure: `longest stall during the ${p.phase} of ${num(r.cells, 0)} cells (request ${ms(p.elapsedMs)}, status ${p.status})`,
+    value: ms(p.maxStallMs),
+    target: `≤ ${num(r.targetMs, 0)} ms`,
+    met: typeof p.maxStallMs === 'number' && typeof r.targetMs === 'number' ? p.maxStallMs <= r.targetMs : null,
+  }));
+}
+
+const rowsFor: Record<BenchKey, (r: Loose) => SummaryRow[]> = { functions: functionsRows, huckel: huckelRows, open: openRows, patches: patchRows, io: ioRows, stalls: stallRows };
 
 export function summaryRows(report: BenchReport): SummaryRow[] {
   return report.outcomes.flatMap((o): SummaryRow[] => {

@@ -21,6 +21,7 @@ import { teamRouter } from './routes/team.js';
 import { invitationLinksRouter } from './routes/invitations.js';
 import { adminTeamRouter } from './routes/adminTeam.js';
 import { ioRouter } from './routes/io.js';
+import { createStorageHealth } from './services/storageHealth.js';
 
 export interface CreateAppOptions {
   db: Db;
@@ -37,13 +38,16 @@ export function createApp({ db, config, limits }: CreateAppOptions): { app: Expr
   app.set('trust proxy', 'loopback');
   app.use(createHttpLogger(logger));
   app.use(securityHeaders(config));
+  // Storage failures (full disk, I/O errors) noted by the error handler and reported by /api/health.
+  const storage = createStorageHealth(config.databasePath);
+  app.locals.storageHealth = storage;
 
   const api = express.Router();
   api.use(express.json({ limit: maxBodyBytes }));
   api.use(checkOrigin(config));
   api.use(loadSession(ctx.lucia));
 
-  api.get('/health', healthRoute(ctx));
+  api.get('/health', healthRoute(ctx, storage));
 
   // Feature routers mount here.
   api.use('/auth', authRouter(ctx));

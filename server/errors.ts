@@ -1,5 +1,6 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import { z } from 'zod';
+import { storageFailureOf, type StorageHealth } from './services/storageHealth.js';
 
 /** One error shape for the whole API: { error: { code, message, details? } }. */
 export class HttpError extends Error {
@@ -50,6 +51,13 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   }
   if (status >= 400 && status < 500) {
     res.status(status).json({ error: { code: 'bad_request', message: String(err?.message ?? 'bad request') } });
+    return;
+  }
+  // A full disk or an I/O error: say so (and let /api/health say so) rather than "internal error".
+  const storage = (req.app?.locals?.storageHealth as StorageHealth | undefined)?.noteFailure(err) ?? storageFailureOf(err);
+  if (storage) {
+    (req as any).log?.error({ err }, 'storage failure');
+    res.status(storage.status).json({ error: { code: storage.code, message: storage.message } });
     return;
   }
   (req as any).log?.error({ err }, 'unhandled error');

@@ -6,6 +6,9 @@ import { createApp } from './app.js';
 import { loadConfig } from './config.js';
 import { openDatabase } from './db/index.js';
 import { seedBanner, seedOnFirstStart } from './seed/index.js';
+import { beginShutdown } from './services/shutdown.js';
+import { sweepStagedImports } from './xlsx/importStaged.js';
+import { warmParsePool } from './xlsx/parseInWorker.js';
 
 const config = { ...loadConfig(), production: true };
 const db = openDatabase(config.databasePath); // applies any pending migrations before we listen
@@ -15,6 +18,10 @@ const log = ctx.logger;
 // banner with the demo passwords is printed this once.
 const seedReport = config.seed ? seedBanner(await seedOnFirstStart(ctx)) : null;
 if (seedReport) console.log(seedReport);
+// Imports a crash or a full disk left half-stored (never visible to anyone) are removed now.
+await sweepStagedImports(ctx).catch((err) => log.error({ err }, 'removing unfinished imports failed'));
+// One worker per pool started now, so the first /values or upload does not wait for one.
+warmParsePool();
 // The built-in fake SMTP server (when SMTP_URL is unset) starts now, so /api/health names its port.
 ctx.mail.start().catch((err) => log.error({ err }, 'mail transport did not start; invitations cannot be e-mailed until it does'));
 
@@ -45,6 +52,7 @@ let stopping = false;
 function shutdown(signal: NodeJS.Signals) {
   if (stopping) return;
   stopping = true;
+  beginShutdown(); // an import being stored answers 503 at its next step
   log.info({ signal }, 'shutting down');
   void ctx.mail.stop();
   server.close(() => {

@@ -230,7 +230,7 @@ export interface LiveEvents {
   /** More revisions were missed than the server replays: load the workbook again. */
   reload: { revision: number };
   /** The workbook was deleted or the caller lost access; the server closes the stream after this. */
-  closed: { reason: 'deleted' | 'access_removed' };
+  closed: { reason: 'deleted' | 'access_removed' | 'signed_out' };
 }
 export type LiveEventName = keyof LiveEvents;
 

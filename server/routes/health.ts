@@ -7,6 +7,7 @@ import type { RequestHandler } from 'express';
 import type { SessionUser } from '../auth/middleware.js';
 import type { AppContext } from '../context.js';
 import { migrationStatus } from '../db/index.js';
+import type { StorageHealth } from '../services/storageHealth.js';
 
 export const appVersion: string = (JSON.parse(fs.readFileSync(path.resolve(import.meta.dirname, '../../package.json'), 'utf8')) as { version: string }).version;
 
@@ -14,6 +15,8 @@ export interface HealthDetails {
   database: string;
   migrations: ReturnType<typeof migrationStatus> | null;
   mail: string;
+  /** Whether writes fail (a full disk, an I/O error): see services/storageHealth.ts. */
+  storage?: ReturnType<StorageHealth['status']>;
 }
 
 export interface HealthResponse {
@@ -23,7 +26,7 @@ export interface HealthResponse {
   details?: HealthDetails;
 }
 
-export function healthRoute(ctx: AppContext): RequestHandler {
+export function healthRoute(ctx: AppContext, storage?: StorageHealth): RequestHandler {
   return (_req, res) => {
     let database = 'ok';
     let migrations: HealthDetails['migrations'] = null;
@@ -33,10 +36,11 @@ export function healthRoute(ctx: AppContext): RequestHandler {
     } catch (e) {
       database = `error: ${(e as Error).message}`;
     }
-    const ok = database === 'ok' && migrations?.current === true;
+    const writes = storage?.status();
+    const ok = database === 'ok' && migrations?.current === true && (writes === undefined || writes.writes === 'ok');
     const body: HealthResponse = { status: ok ? 'ok' : 'degraded', version: appVersion };
     const user = res.locals.user as SessionUser | null;
-    if (user?.siteRole === 'admin') body.details = { database, migrations, mail: ctx.mail.status() };
+    if (user?.siteRole === 'admin') body.details = { database, migrations, mail: ctx.mail.status(), ...(writes ? { storage: writes } : {}) };
     res.status(ok ? 200 : 503).json(body);
   };
 }

@@ -9,13 +9,13 @@ import { currentUser, requireUser } from '../auth/middleware.js';
 import type { AppContext } from '../context.js';
 import { badRequest, HttpError, parse } from '../errors.js';
 import { requireWorkbook } from '../services/access.js';
-import { createWorkbook, deleteWorkbook } from '../services/workbookStore.js';
-import { workbookSheets } from '../services/sheetOps.js';
+import { shutdownRefusal } from '../services/shutdown.js';
 import { exportInWorker, type ExportFormat } from '../xlsx/exportInWorker.js';
 import { exportSource } from '../xlsx/exportSource.js';
-import { importSheets } from '../xlsx/importStore.js';
+import { importStaged } from '../xlsx/importStaged.js';
 import { defaultImportLimits, formatBytes, SpreadsheetError } from '../xlsx/limits.js';
 import { parseInWorker } from '../xlsx/parseInWorker.js';
+import { computeRefusal } from '../xlsx/refusals.js';
 import { sheetNameFromFilename } from '../xlsx/readCsv.js';
 
 const importBody = z.object({ workbookId: idSchema.optional() });
@@ -59,38 +59,32 @@ export function ioRouter(ctx: AppContext): Router {
   router.post('/imports', requireUser, receiveUpload, async (req: Request, res: Response) => {
     const user = currentUser(res);
     const { workbookId } = parse(importBody, req.body ?? {});
+    const stopping = shutdownRefusal();
+    if (stopping) throw stopping;
     const file = req.file;
     if (!file) throw badRequest('file: required; send the spreadsheet as multipart/form-data in the field "file"');
     // Refuse before reading when the user may not add sheets there.
     if (workbookId) requireWorkbook(ctx, user, workbookId, 'editSheets');
 
-    const parsed = await parseInWorker(file.buffer, file.originalname || 'upload').catch((e) => {
+    const parsed = await parseInWorker(file.buffer, file.originalname || 'upload', { owner: user.id }).catch((e) => {
       throw asHttp(e);
     });
 
-    if (workbookId) {
-      requireWorkbook(ctx, user, workbookId, 'editSheets'); // still allowed after the read
-      const outcome = importSheets(ctx, workbookId, user.id, parsed);
-      res.status(201).json({ workbookId, revision: outcome.revision, sheets: outcome.sheets, summary: outcome.summary });
-      return;
-    }
+    if (workbookId) requireWorkbook(ctx, user, workbookId, 'editSheets'); // still allowed after the read
     const title = titleSchema.safeParse(sheetNameFromFilename(file.originalname || '').replace(/_/g, ' '));
-    const newId = createWorkbook(ctx, user, title.success ? title.data : 'Imported workbook');
-    try {
-      const [emptyFirst] = workbookSheets(ctx.db, newId);
-      const outcome = importSheets(ctx, newId, user.id, parsed, { replaceSheetId: emptyFirst?.id });
-      res.status(201).json({ workbookId: newId, revision: outcome.revision, sheets: outcome.sheets, summary: outcome.summary });
-    } catch (e) {
-      deleteWorkbook(ctx, newId); // no half-made workbook is left behind
-      throw e;
-    }
+    // Stored in short steps into sheets no one sees until the last one (importStaged.ts): a large
+    // import neither holds the event loop nor leaves anything behind when it fails.
+    const outcome = await importStaged(ctx, workbookId ? { workbookId } : { newWorkbook: { title: title.success ? title.data : 'Imported workbook' } }, user.id, parsed, {
+      stopReason: shutdownRefusal,
+    });
+    res.status(201).json({ workbookId: outcome.workbookId, revision: outcome.revision, sheets: outcome.sheets, summary: outcome.summary });
   });
 
   router.get('/workbooks/:id/export', requireUser, async (req: Request, res: Response, next: NextFunction) => {
     const { id } = parse(z.object({ id: idSchema }), req.params, 'params');
     const query = parse(exportQuery, req.query, 'query');
     const access = requireWorkbook(ctx, currentUser(res), id, 'export');
-    const source = exportSource(ctx, access, currentUser(res));
+    const source = await exportSource(ctx, access, currentUser(res));
 
     let format: ExportFormat;
     if (query.format === 'csv') {
@@ -114,12 +108,13 @@ export function ioRouter(ctx: AppContext): Router {
     const { sheetIds: _ids, ...workbook } = source;
     try {
       // Computed and written in a worker: the engine's work on a large workbook never holds this thread.
-      await exportInWorker(res, workbook, format);
+      await exportInWorker(res, workbook, format, { owner: currentUser(res).id });
     } catch (e) {
       if (!res.headersSent) {
         res.removeHeader('Content-Disposition');
+        res.removeHeader('Content-Type'); // the error is JSON, not the file
         // The workbook is already stored, so a failure here is the server's limit, not a bad request.
-        if (e instanceof SpreadsheetError) return next(new HttpError(503, 'export_failed', `export: ${e.message}; try values only, or split the workbook`));
+        if (e instanceof SpreadsheetError) return next(computeRefusal('export', e, '; try values only, or split the workbook'));
         return next(e);
       }
       // Past the first byte there is no JSON error to send; a cut-off download is the honest signal.

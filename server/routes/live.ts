@@ -7,18 +7,27 @@ import { Router, type Response } from 'express';
 import { allowedActions } from '../../shared/permissions.js';
 import { presenceSchema, type LiveEventName, type LiveEvents } from '../../shared/team.js';
 import type { RevisionKind, RevisionPatch, WorkbookEvent } from '../../shared/workbooks.js';
-import { currentUser, requireUser } from '../auth/middleware.js';
+import { currentSession, currentUser, requireUser } from '../auth/middleware.js';
 import type { AppContext } from '../context.js';
 import { revisions, sheets } from '../db/schema.js';
 import { notFound, parse } from '../errors.js';
 import { requireWorkbook } from '../services/access.js';
 import { PresenceBoard, type LiveConnection } from '../services/presence.js';
+import { streamVerdict } from '../services/streamGuard.js';
 import { workbookAccess } from './workbookAccess.js';
 
 /** Comment lines keep proxies and browsers from closing an idle stream (many cut at 30–60 s; common practice). */
 export const heartbeatMs = 25_000;
 /** A client that missed more than this many revisions is told to reload instead of being replayed. */
 export const maxReplayedRevisions = 500;
+/**
+ * A stream whose unsent bytes pass this is cut: its reader has stopped reading, and holding every
+ * later event for it would grow the server without bound. The client reconnects with Last-Event-ID
+ * and is replayed what it missed (or told to reload).
+ */
+export const maxUnsentBytes = 1024 * 1024;
+/** How often an open stream re-checks its session and access, besides before every event. */
+export const recheckMs = 500;
 
 function revisionData(r: { revision: number; kind: RevisionKind; authorId: string | null; patch: RevisionPatch }): LiveEvents['revision'] {
   return { revision: r.revision, kind: r.kind, authorId: r.authorId ?? '', changes: r.patch.changes, sheetOps: r.patch.sheetOps, ...(r.patch.restoredFrom !== undefined ? { restoredFrom: r.patch.restoredFrom } : {}) };
@@ -49,7 +58,11 @@ function openStream(res: Response, user: { id: string; name: string }): LiveConn
     userId: user.id,
     name: user.name,
     send(event, data, id) {
-      if (res.writableEnded) return;
+      if (res.writableEnded || res.destroyed) return;
+      if (res.writableLength > maxUnsentBytes) {
+        res.destroy();
+        return;
+      }
       res.write(`${id !== undefined ? `id: ${id}\n` : ''}event: ${event}\ndata: ${JSON.stringify(data)}\n\n`);
     },
     end() {
@@ -67,6 +80,7 @@ export function liveRouter(ctx: AppContext): Router {
   router.get('/:id/events', (req, res) => {
     const a = access(req, res, 'view');
     const user = currentUser(res);
+    const sessionId = currentSession(res).id;
     const workbookId = a.workbook.id;
     const connection = openStream(res, user);
     const send = <E extends LiveEventName>(event: E, data: LiveEvents[E], id?: number) => connection.send(event, data, id);
@@ -76,7 +90,20 @@ export function liveRouter(ctx: AppContext): Router {
       send('closed', { reason });
       connection.end();
     };
+    // Sign-out, a disabled account, a password change (sessions invalidated) or a demotion end the
+    // stream here, before the next event and within `recheckMs`, whichever route made the change.
+    const stillAllowed = () => {
+      if (res.writableEnded || res.destroyed) return false;
+      const verdict = streamVerdict(ctx, sessionId, workbookId);
+      if (!verdict.ok) {
+        close(verdict.reason);
+        return false;
+      }
+      if (verdict.role !== role) send('role', { role: (role = verdict.role), actions: allowedActions(verdict.roles) });
+      return true;
+    };
     const onEvent = (event: WorkbookEvent) => {
+      if (event.type !== 'deleted' && !stillAllowed()) return;
       switch (event.type) {
         case 'revision':
           return send('revision', revisionData(event), event.revision);
@@ -112,10 +139,16 @@ export function liveRouter(ctx: AppContext): Router {
     board.join(workbookId, connection);
     board.broadcast(workbookId);
 
-    const heartbeat = setInterval(() => res.write(': keep-alive\n\n'), heartbeatMs);
+    const heartbeat = setInterval(() => {
+      if (res.writableLength > maxUnsentBytes) res.destroy();
+      else if (!res.writableEnded && !res.destroyed) res.write(': keep-alive\n\n');
+    }, heartbeatMs);
     heartbeat.unref();
+    const recheck = setInterval(stillAllowed, recheckMs);
+    recheck.unref();
     res.on('close', () => {
       clearInterval(heartbeat);
+      clearInterval(recheck);
       unsubscribe();
       board.leave(workbookId, connection);
       board.broadcast(workbookId);

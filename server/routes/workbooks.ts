@@ -22,7 +22,9 @@ import { restoreRevision } from '../services/restore.js';
 import { getRevision, listRevisions } from '../services/revisionLog.js';
 import { addSheet, deleteSheet, updateSheet } from '../services/sheetStore.js';
 import { valuesFor, type ValuesBody } from '../services/valuesInWorker.js';
+import { loadWorkbookInSlices } from '../services/workbookSlices.js';
 import { SpreadsheetError } from '../xlsx/limits.js';
+import { computeRefusal } from '../xlsx/refusals.js';
 import { createWorkbook, deleteWorkbook, loadWorkbook, renameWorkbook, summarizeWorkbook } from '../services/workbookStore.js';
 
 const workbookParams = z.object({ id: idSchema });
@@ -110,16 +112,15 @@ export function workbooksRouter(ctx: AppContext): Router {
   });
 
   router.get('/:id/values', async (req, res) => {
-    const workbook = loadWorkbook(ctx, access(req, res, 'view'));
+    const workbook = await loadWorkbookInSlices(ctx, access(req, res, 'view'));
     let body: ValuesBody;
     try {
-      body = await valuesFor(workbook);
+      body = await valuesFor(workbook, currentUser(res).id);
     } catch (e) {
-      if (e instanceof SpreadsheetError) throw new HttpError(503, 'values_failed', `values: ${e.message}`);
+      if (e instanceof SpreadsheetError) throw computeRefusal('values', e);
       throw e;
     }
-    if ('json' in body) res.json(body.json);
-    else res.type('application/json').send(Buffer.from(body.bytes.buffer, body.bytes.byteOffset, body.bytes.byteLength));
+    res.type('application/json').send(Buffer.from(body.bytes.buffer, body.bytes.byteOffset, body.bytes.byteLength));
   });
 
   return router;

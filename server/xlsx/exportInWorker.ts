@@ -2,10 +2,15 @@
 // as they come: the engine's recalculation of a large workbook (a second or more for 100,000 cells)
 // then never holds the server's event loop.
 import type { Writable } from 'node:stream';
-import { recalcWorkerLimits, type WorkerLimits } from './limits.js';
+import { formatBytes, recalcWorkerLimits, SpreadsheetError, type WorkerLimits } from './limits.js';
 import type { ExportMode, ExportWorkbook } from './types.js';
 import { packSheets } from './packedCells.js';
-import { ioPool } from './workerPool.js';
+import { computePool } from './workerPool.js';
+
+/** An export larger than this is stopped: no workbook of 500,000 cells comes near it, a formula making huge texts does. */
+export const maxExportBytes = 256 * 1024 * 1024;
+/** Bytes the response may hold unsent before the export is stopped (the client stopped reading). */
+export const maxUnsentExportBytes = 64 * 1024 * 1024;
 
 export type ExportFormat = { kind: 'xlsx'; mode: ExportMode } | { kind: 'csv'; sheetIndex: number };
 
@@ -22,21 +27,31 @@ export interface ExportStats {
  * Streams the file into `output` and ends it. `onFirstByte` runs before the first write, so a
  * caller can still answer with a JSON error when the export fails before any byte is sent.
  */
-export async function exportInWorker(output: Writable, workbook: ExportWorkbook, format: ExportFormat, options: { workerLimits?: WorkerLimits; onFirstByte?: () => void } = {}): Promise<ExportStats> {
+export async function exportInWorker(output: Writable, workbook: ExportWorkbook, format: ExportFormat, options: { workerLimits?: WorkerLimits; onFirstByte?: () => void; owner?: string } = {}): Promise<ExportStats> {
   let bytes = 0;
+  const stop = new AbortController();
   // Cells go packed (packedCells.ts): cloning 100,000 small arrays into the worker costs more than packing them.
   const { packed, transfer } = packSheets(workbook);
   const job = format.kind === 'xlsx' ? { kind: 'xlsx', workbook: packed, mode: format.mode } : { kind: 'csv', workbook: packed, sheetIndex: format.sheetIndex };
-  const outcome = await ioPool.run<{ engineMs: number; writeMs: number }>(job, transfer, {
+  const outcome = await computePool.run<{ engineMs: number; writeMs: number }>(job, transfer, {
+    owner: options.owner,
+    signal: stop.signal,
     limits: options.workerLimits ?? recalcWorkerLimits,
     doing: 'writing the export',
     onProgress: (m) => {
       const chunk = (m as { chunk?: Uint8Array }).chunk;
-      if (!chunk || output.destroyed) return;
+      if (!chunk || output.destroyed || stop.signal.aborted) return;
+      if (bytes + chunk.byteLength > maxExportBytes) {
+        return stop.abort(new SpreadsheetError('too_complex', `the export came to more than ${formatBytes(maxExportBytes)} (for example formulas that make very long texts)`));
+      }
+      if (output.writableLength > maxUnsentExportBytes) {
+        return stop.abort(new SpreadsheetError('too_complex', `the download was not being read; ${formatBytes(output.writableLength)} were waiting`));
+      }
       if (bytes === 0) options.onFirstByte?.();
       bytes += chunk.byteLength;
       // No backpressure to the worker: an export is bounded by its compressed size (a few MB for
-      // 100,000 cells), which the response buffers when the network is slower than the writer.
+      // 100,000 cells), which the response buffers when the network is slower than the writer; the
+      // two bounds above stop the rest.
       output.write(chunk);
     },
   });

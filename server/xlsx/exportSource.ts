@@ -4,11 +4,12 @@ import type { User } from 'lucia';
 import type { AppContext } from '../context.js';
 import type { WorkbookAccess } from '../services/access.js';
 import { loadProtection } from '../services/protection.js';
-import { loadWorkbook } from '../services/workbookStore.js';
+import { loadWorkbookInSlices } from '../services/workbookSlices.js';
 import type { ExportWorkbook } from './types.js';
 
-export function exportSource(ctx: AppContext, access: WorkbookAccess, user: Pick<User, 'name' | 'email'>, now = new Date()): ExportWorkbook & { sheetIds: string[] } {
-  const workbook = loadWorkbook(ctx, access);
+export async function exportSource(ctx: AppContext, access: WorkbookAccess, user: Pick<User, 'name' | 'email'>, now = new Date()): Promise<ExportWorkbook & { sheetIds: string[] }> {
+  // Read a page at a time (workbookSlices.ts): a large workbook's cells never hold the event loop long.
+  const workbook = await loadWorkbookInSlices(ctx, access);
   const protection = loadProtection(ctx.db, workbook.id);
   return {
     title: workbook.title,

@@ -3,7 +3,8 @@
 import { Writable } from 'node:stream';
 import { parentPort } from 'node:worker_threads';
 import { computeWorkbook } from './engineValues.js';
-import { computeValues } from '../services/values.js';
+import { capComputedWorkbook, capValuesPayload } from './longTexts.js';
+import { computeValuesIsolated } from '../services/valuesIsolated.js';
 import { packSheets, unpackCells, unpackSheets, type PackedCells, type PackedExportWorkbook } from './packedCells.js';
 import { SpreadsheetError, type ImportLimits } from './limits.js';
 import { readSpreadsheet } from './read.js';
@@ -17,6 +18,9 @@ export type IoJob =
   | { kind: 'csv'; workbook: PackedExportWorkbook; sheetIndex: number }
   /** GET …/values of a large workbook (services/valuesInWorker.ts): answered as UTF-8 JSON bytes. */
   | { kind: 'values'; revision: number; sheets: { id: string; name: string; packed: PackedCells }[] };
+
+/** The longest /values answer, in characters of JSON. */
+const maxValuesChars = 64_000_000;
 
 /** Bytes for the parent, moved rather than copied; the parent writes them to the response. */
 function chunkPoster(): Writable {
@@ -42,7 +46,7 @@ async function run(job: IoJob): Promise<{ result: unknown; transfer?: ArrayBuffe
     case 'xlsx': {
       const started = performance.now();
       const workbook: ExportWorkbook = unpackSheets(job.workbook);
-      const computed = computeWorkbook(workbook.sheets.map((s) => ({ name: s.name, cells: s.cells })));
+      const computed = capComputedWorkbook(computeWorkbook(workbook.sheets.map((s) => ({ name: s.name, cells: s.cells }))));
       const computedAt = performance.now();
       const out = chunkPoster();
       await writeComputedXlsx(out, workbook, computed, { mode: job.mode });
@@ -50,14 +54,19 @@ async function run(job: IoJob): Promise<{ result: unknown; transfer?: ArrayBuffe
       return { result: { engineMs: computedAt - started, writeMs: performance.now() - computedAt } };
     }
     case 'values': {
-      const payload = computeValues({ revision: job.revision, sheets: job.sheets.map((s) => ({ id: s.id, name: s.name, cells: unpackCells(s.packed) })) });
-      const bytes = new TextEncoder().encode(JSON.stringify(payload));
+      const payload = capValuesPayload(computeValuesIsolated({ revision: job.revision, sheets: job.sheets.map((s) => ({ id: s.id, name: s.name, cells: unpackCells(s.packed) })) }));
+      const json = JSON.stringify(payload);
+      // Bytes are at most three per UTF-16 unit; checked on the text, before encoding it.
+      if (json.length > maxValuesChars) {
+        throw new SpreadsheetError('too_complex', `the values come to ${(json.length / 1e6).toFixed(0)} million characters, more than the ${maxValuesChars / 1e6} million one answer may hold (for example formulas that make very long texts)`);
+      }
+      const bytes = new TextEncoder().encode(json);
       return { result: bytes, transfer: [bytes.buffer as ArrayBuffer] };
     }
     case 'csv': {
       const started = performance.now();
       const workbook: ExportWorkbook = unpackSheets(job.workbook);
-      const computed = computeWorkbook(workbook.sheets.map((s) => ({ name: s.name, cells: s.cells })));
+      const computed = capComputedWorkbook(computeWorkbook(workbook.sheets.map((s) => ({ name: s.name, cells: s.cells }))));
       const computedAt = performance.now();
       await writeSheetCsv(chunkPoster(), computed.sheets[job.sheetIndex].cells);
       return { result: { engineMs: computedAt - started, writeMs: performance.now() - computedAt } };
@@ -74,7 +83,9 @@ parentPort!.on('message', async (job: IoJob) => {
       e instanceof SpreadsheetError
         ? { code: e.code, message: e.message }
         : // Only the file varies between jobs, so an exception in the reader or writer is the file's doing.
-          { code: 'damaged_file', message: `the file could not be ${job.kind === 'parse' ? 'read' : 'written'} (${e instanceof Error ? e.message : String(e)})` };
+          job.kind === 'values'
+          ? { code: 'too_complex', message: `the workbook could not be computed (${e instanceof Error ? e.message : String(e)})` }
+          : { code: 'damaged_file', message: `the file could not be ${job.kind === 'parse' ? 'read' : 'written'} (${e instanceof Error ? e.message : String(e)})` };
     parentPort!.postMessage({ done: true, ok: false, error, heapUsedBytes: process.memoryUsage().heapUsed });
   }
 });

@@ -48,8 +48,25 @@ export const defaultWorkerLimits: WorkerLimits = {
   timeoutMs: 60_000,
 };
 
-/** For recalculating a whole workbook (exports, large /values): the same heap, twice the time. */
-export const recalcWorkerLimits: WorkerLimits = { ...defaultWorkerLimits, timeoutMs: 120_000 };
+/** A positive whole number from the environment, or the default (operators tune limits without a rebuild). */
+function envNumber(name: string, fallback: number): number {
+  const n = Number(process.env[name]);
+  return Number.isFinite(n) && n > 0 ? Math.floor(n) : fallback;
+}
+
+/**
+ * For recalculating a whole workbook (exports and every /values): every evaluation runs in a worker
+ * under these limits, so no formula can take the server down. ORBITAB_COMPUTE_HEAP_MB and
+ * ORBITAB_COMPUTE_TIMEOUT_MS set them (README "Operations").
+ */
+export const recalcWorkerLimits: WorkerLimits = {
+  maxOldGenerationSizeMb: envNumber('ORBITAB_COMPUTE_HEAP_MB', 1024),
+  maxYoungGenerationSizeMb: 64,
+  timeoutMs: envNumber('ORBITAB_COMPUTE_TIMEOUT_MS', 60_000),
+};
+
+/** Jobs (uploads, exports, /values) one person may have queued or running at once. */
+export const maxJobsPerUser = envNumber('ORBITAB_JOBS_PER_USER', 3);
 
 export type SpreadsheetErrorCode =
   | 'not_a_spreadsheet'
@@ -58,27 +75,31 @@ export type SpreadsheetErrorCode =
   | 'file_too_large'
   | 'decompression_bomb'
   | 'too_many_cells'
+  | 'too_many_columns'
   | 'too_complex'
   | 'parse_timeout'
   | 'parse_out_of_memory'
-  | 'busy';
+  | 'busy'
+  | 'too_many_jobs';
 
-const statusOf: Record<SpreadsheetErrorCode, 400 | 413 | 503> = {
+const statusOf: Record<SpreadsheetErrorCode, 400 | 413 | 429 | 503> = {
   not_a_spreadsheet: 400,
   damaged_file: 400,
   encrypted_or_legacy: 400,
   file_too_large: 413,
   decompression_bomb: 413,
   too_many_cells: 413,
+  too_many_columns: 413,
   too_complex: 413,
   parse_timeout: 413,
   parse_out_of_memory: 413,
   busy: 503,
+  too_many_jobs: 429,
 };
 
 /** A refusal of the uploaded file; routes turn it into `{ error: { code, message } }` with its status. */
 export class SpreadsheetError extends Error {
-  readonly status: 400 | 413 | 503;
+  readonly status: 400 | 413 | 429 | 503;
   constructor(
     readonly code: SpreadsheetErrorCode,
     message: string,

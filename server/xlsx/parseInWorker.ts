@@ -2,9 +2,11 @@
 // Cheap refusals (size, magic bytes) happen here first, so an obviously wrong upload costs no worker.
 import { defaultImportLimits, defaultWorkerLimits, type ImportLimits, type WorkerLimits } from './limits.js';
 import { unpackSheets, type PackedParsedWorkbook } from './packedCells.js';
-import { sniffSpreadsheet } from './sniff.js';
+import { maxColIndex } from '../../shared/workbooks.js';
+import { checkCsvShape, decodeText, guessDelimiter } from './csvCount.js';
+import { extensionOf, sniffSpreadsheet } from './sniff.js';
 import type { ParsedWorkbook } from './types.js';
-import { ioPool } from './workerPool.js';
+import { computePool, ioPool } from './workerPool.js';
 
 export interface ParseResult extends ParsedWorkbook {
   stats: { elapsedMs: number; workerHeapUsedBytes: number; /** Packing the cells for the trip back (packedCells.ts). */ packMs: number };
@@ -13,28 +15,33 @@ export interface ParseResult extends ParsedWorkbook {
 export async function parseInWorker(
   buffer: Uint8Array,
   filename: string,
-  options: { limits?: ImportLimits; workerLimits?: WorkerLimits } = {},
+  options: { limits?: ImportLimits; workerLimits?: WorkerLimits; owner?: string } = {},
 ): Promise<ParseResult> {
   const limits = options.limits ?? defaultImportLimits;
-  sniffSpreadsheet(buffer, filename, limits);
+  if (sniffSpreadsheet(buffer, filename, limits) === 'csv') {
+    const head = decodeText(buffer.subarray(0, 64 * 1024), []);
+    checkCsvShape(buffer, guessDelimiter(head, extensionOf(filename)), limits, maxColIndex + 1);
+  }
   // A private copy, moved (not copied again) into the worker.
   const copy = new Uint8Array(buffer);
   // The worker sends each sheet's cells packed (packedCells.ts): cheaper to move than 100,000 small arrays.
   const outcome = await ioPool.run<PackedParsedWorkbook & { packMs: number }>({ kind: 'parse', buffer: copy, filename, limits }, [copy.buffer], {
     limits: options.workerLimits ?? defaultWorkerLimits,
     doing: 'reading the file',
+    owner: options.owner,
   });
   const { packMs, ...packed } = outcome.result;
   const parsed: ParsedWorkbook = unpackSheets(packed);
   return { ...parsed, stats: { elapsedMs: outcome.elapsedMs, workerHeapUsedBytes: outcome.workerHeapUsedBytes, packMs } };
 }
 
-/** Stops the idle workers (tests, shutdown). */
-export function closeParsePool(): Promise<void> {
-  return ioPool.close();
+/** Stops the idle workers of both pools (tests, shutdown). */
+export async function closeParsePool(): Promise<void> {
+  await Promise.all([ioPool.close(), computePool.close()]);
 }
 
-/** Starts a worker now rather than at the first upload (server start, benchmarks). */
+/** Starts a worker of each pool now rather than at the first upload or /values (server start, benchmarks). */
 export function warmParsePool(): void {
   ioPool.warm();
+  computePool.warm();
 }

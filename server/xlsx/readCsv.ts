@@ -7,6 +7,7 @@ import { engineConfig } from '../../functions/engine.js';
 import { cellName } from '../../shared/a1.js';
 import { SpreadsheetError, type ImportLimits } from './limits.js';
 import { extensionOf } from './sniff.js';
+import { decodeText, guessDelimiter } from './csvCount.js';
 import type { CellTriple, ParsedWorkbook, SkippedCell } from './types.js';
 
 export function sheetNameFromFilename(filename: string): string {
@@ -16,29 +17,6 @@ export function sheetNameFromFilename(filename: string): string {
   return cleaned || 'Sheet1';
 }
 
-function decodeText(buffer: Buffer, notes: string[]): string {
-  try {
-    return new TextDecoder('utf-8', { fatal: true, ignoreBOM: false }).decode(buffer);
-  } catch {
-    notes.push('the file is not valid UTF-8; it was read as Windows-1252');
-    return new TextDecoder('windows-1252').decode(buffer);
-  }
-}
-
-/** The delimiter that splits the first line into the most fields (outside quotes). */
-function guessDelimiter(text: string, ext: string): string {
-  if (ext === 'tsv') return '\t';
-  const counts: Record<string, number> = { ',': 0, ';': 0, '\t': 0 };
-  let quoted = false;
-  for (const ch of text.slice(0, 64 * 1024)) {
-    if (ch === '"') quoted = !quoted;
-    else if (!quoted && (ch === '\n' || ch === '\r')) break;
-    else if (!quoted && ch in counts) counts[ch]++;
-  }
-  const [best, count] = Object.entries(counts).sort((a, b) => b[1] - a[1])[0];
-  return count > 0 ? best : ',';
-}
-
 export async function readCsv(buffer: Buffer, filename: string, limits: ImportLimits): Promise<ParsedWorkbook> {
   const notes: string[] = [];
   const text = decodeText(buffer, notes);
@@ -46,12 +24,20 @@ export async function readCsv(buffer: Buffer, filename: string, limits: ImportLi
   if (delimiter !== ',') notes.push(`fields are separated by ${delimiter === '\t' ? 'tabs' : `"${delimiter}"`}`);
 
   let nonEmpty = 0;
+  let strayMarks = 0;
   const workbook = new ExcelJS.Workbook();
   let ws: ExcelJS.Worksheet;
   try {
     ws = await workbook.csv.read(Readable.from([text]), {
       // Keep the raw text; past the cell limit keep nothing more (the count alone decides the answer).
-      map: (datum: string) => (datum === '' || ++nonEmpty > limits.maxCells ? undefined : datum),
+      // A byte-order mark inside the text (files joined end to end, say) is no character anyone typed.
+      map: (datum: string) => {
+        if (datum.includes('\uFEFF')) {
+          strayMarks++;
+          datum = datum.replace(/\uFEFF/g, '');
+        }
+        return datum === '' || ++nonEmpty > limits.maxCells ? undefined : datum;
+      },
       parserOptions: { delimiter },
     } as never);
   } catch (e) {
@@ -61,6 +47,7 @@ export async function readCsv(buffer: Buffer, filename: string, limits: ImportLi
     throw new SpreadsheetError('too_many_cells', `the file has ${nonEmpty.toLocaleString('en')} cells with content; the limit is ${limits.maxCells.toLocaleString('en')}`);
   }
 
+  if (strayMarks > 0) notes.push(`${strayMarks.toLocaleString('en')} field${strayMarks === 1 ? '' : 's'} held a byte-order mark (U+FEFF) inside the text; it was removed`);
   const name = sheetNameFromFilename(filename);
   const cells: CellTriple[] = [];
   const skipped: SkippedCell[] = [];

@@ -2,14 +2,36 @@
 // so no file can stall or crash the server: a worker that runs out of memory dies alone, one that
 // runs too long is terminated and replaced. Workers are reused between jobs (the reader and writer
 // keep nothing of a job), because starting one — loading exceljs and the engine — takes about a second.
+//
+// Two pools, so one kind of work cannot starve the other: `ioPool` reads uploads, `computePool` runs the
+// engine (every /values and export). Each person may have only `maxJobsPerUser` jobs queued or running
+// over both, so one client's burst of uploads is refused (429) rather than making everyone wait.
 import { Worker } from 'node:worker_threads';
-import { defaultWorkerLimits, SpreadsheetError, type WorkerLimits } from './limits.js';
+import { defaultWorkerLimits, maxJobsPerUser, recalcWorkerLimits, SpreadsheetError, type WorkerLimits } from './limits.js';
 
 const bootUrl = new URL('./ioWorkerBoot.mjs', import.meta.url);
 const entryUrl = new URL('./ioWorker.ts', import.meta.url);
 const STARTUP_TIMEOUT_MS = 60_000;
 const MAX_CONCURRENT = 2; // the machine's cores
 const MAX_WAITING = 16;
+
+/** Jobs queued or running per person, over every pool. */
+const jobsByOwner = new Map<string, number>();
+
+function claimOwnerSlot(owner: string | undefined, what: string) {
+  if (!owner) return () => undefined;
+  const n = jobsByOwner.get(owner) ?? 0;
+  if (n >= maxJobsPerUser) throw new SpreadsheetError('too_many_jobs', `you already have ${n} uploads, exports or recalculations under way; ${what} can start when one of them has finished`);
+  jobsByOwner.set(owner, n + 1);
+  let released = false;
+  return () => {
+    if (released) return;
+    released = true;
+    const left = (jobsByOwner.get(owner) ?? 1) - 1;
+    if (left <= 0) jobsByOwner.delete(owner);
+    else jobsByOwner.set(owner, left);
+  };
+}
 /** A worker is retired after this many jobs, so slow heap growth cannot build up. */
 const JOBS_PER_WORKER = 50;
 
@@ -68,8 +90,8 @@ function withTimeout<T>(promise: Promise<T>, ms: number, onTimeout: () => Error)
   });
 }
 
-function outOfMemory(limits: WorkerLimits) {
-  return new SpreadsheetError('parse_out_of_memory', `the work needed more than the ${limits.maxOldGenerationSizeMb} MB of memory a file may use`);
+function outOfMemory(limits: WorkerLimits, doing = 'the work') {
+  return new SpreadsheetError('parse_out_of_memory', `${doing} needed more than the ${limits.maxOldGenerationSizeMb} MB of memory ${doing.startsWith('reading') ? 'a file' : 'one calculation'} may use`);
 }
 
 export interface JobOptions {
@@ -77,6 +99,10 @@ export interface JobOptions {
   /** What the work is, for the timeout message ("reading the file", "writing the export"). */
   doing: string;
   onProgress?: (message: unknown) => void;
+  /** Who asked (a user id), for the per-person cap; jobs without one (benchmarks, CLI) are not counted. */
+  owner?: string;
+  /** Stops the job (its worker is ended); the job fails with the signal's reason when that is a SpreadsheetError. */
+  signal?: AbortSignal;
 }
 
 /** One job in one worker. `reusable` is false when the worker must not serve again. */
@@ -88,22 +114,28 @@ function runJob(slot: Slot, message: unknown, transfer: ArrayBuffer[], options: 
       worker.off('message', onMessage);
       worker.off('error', onError);
       worker.off('exit', onExit);
+      options.signal?.removeEventListener('abort', onAbort);
       resolve({ done, reusable });
     };
     const timer = setTimeout(() => {
       const seconds = +(options.limits.timeoutMs / 1000).toFixed(2);
-      settle(new SpreadsheetError('parse_timeout', `${options.doing} took longer than ${seconds} s and was stopped (for example a rule or range the reader expands cell by cell)`), false);
+      settle(new SpreadsheetError('parse_timeout', `${options.doing} took longer than ${seconds} s and was stopped (${options.doing.startsWith('reading') ? 'for example a rule or range the reader expands cell by cell' : 'for example a formula over a very large range, or a very large spill'})`), false);
     }, options.limits.timeoutMs);
     const onMessage = (m: JobDone | unknown) => {
       if ((m as JobDone)?.done === true) settle(m as JobDone, true);
       else options.onProgress?.(m);
     };
     const onError = (e: Error & { code?: string }) =>
-      settle(e.code === 'ERR_WORKER_OUT_OF_MEMORY' ? outOfMemory(options.limits) : new SpreadsheetError('damaged_file', `${options.doing} failed (${e.message})`), false);
+      settle(e.code === 'ERR_WORKER_OUT_OF_MEMORY' ? outOfMemory(options.limits, options.doing) : new SpreadsheetError('damaged_file', `${options.doing} failed (${e.message})`), false);
     const onExit = (code: number) => settle(new SpreadsheetError('damaged_file', `${options.doing} failed (the worker stopped with code ${code})`), false);
     worker.on('message', onMessage);
     worker.on('error', onError);
     worker.on('exit', onExit);
+    const onAbort = () => {
+      const reason = options.signal?.reason;
+      settle(reason instanceof SpreadsheetError ? reason : new SpreadsheetError('too_complex', `${options.doing} was stopped`), false);
+    };
+    options.signal?.addEventListener('abort', onAbort);
     worker.postMessage(message, transfer);
   });
 }
@@ -114,12 +146,15 @@ export class WorkerPool {
   private waiting: (() => void)[] = [];
   private keepWarm = true;
 
+  /** `warmLimits`: the limits of the workers kept idle between jobs (others are ended after theirs). */
+  constructor(private readonly warmLimits: WorkerLimits = defaultWorkerLimits) {}
+
   private async acquire() {
     if (this.running < MAX_CONCURRENT) {
       this.running++;
       return;
     }
-    if (this.waiting.length >= MAX_WAITING) throw new SpreadsheetError('busy', 'the server is busy with other files; try again in a minute');
+    if (this.waiting.length >= MAX_WAITING) throw new SpreadsheetError('busy', 'the server is busy with other work; try again in a minute');
     await new Promise<void>((resolve) => this.waiting.push(resolve));
   }
 
@@ -136,7 +171,7 @@ export class WorkerPool {
   }
 
   private giveBack(slot: Slot) {
-    if (this.keepWarm && sameLimits(slot.limits, defaultWorkerLimits) && slot.jobs < JOBS_PER_WORKER && this.idle.length < MAX_CONCURRENT) {
+    if (this.keepWarm && sameLimits(slot.limits, this.warmLimits) && slot.jobs < JOBS_PER_WORKER && this.idle.length < MAX_CONCURRENT) {
       slot.worker.unref();
       this.idle.push(slot);
     } else void slot.worker.terminate();
@@ -146,20 +181,26 @@ export class WorkerPool {
   warm() {
     this.keepWarm = true;
     if (this.idle.length > 0) return;
-    const slot = spawn(defaultWorkerLimits);
+    const slot = spawn(this.warmLimits);
     slot.ready.catch(() => (this.idle = this.idle.filter((s) => s !== slot)));
     this.idle.push(slot);
   }
 
   async run<T>(message: unknown, transfer: ArrayBuffer[], options: JobOptions): Promise<JobOutcome<T>> {
-    await this.acquire();
+    const releaseOwner = claimOwnerSlot(options.owner, options.doing);
+    try {
+      await this.acquire();
+    } catch (e) {
+      releaseOwner();
+      throw e;
+    }
     const started = performance.now();
     const slot = this.take(options.limits);
     slot.worker.ref();
     let reusable = false;
     try {
       await withTimeout(slot.ready, STARTUP_TIMEOUT_MS, () => new Error('worker did not start in time')).catch((e: Error & { code?: string }) => {
-        throw e.code === 'ERR_WORKER_OUT_OF_MEMORY' ? outOfMemory(options.limits) : e;
+        throw e.code === 'ERR_WORKER_OUT_OF_MEMORY' ? outOfMemory(options.limits, options.doing) : e;
       });
       slot.jobs++;
       const job = await runJob(slot, message, transfer, options);
@@ -169,8 +210,14 @@ export class WorkerPool {
       return { result: job.done.result as T, elapsedMs: performance.now() - started, workerHeapUsedBytes: job.done.heapUsedBytes };
     } finally {
       if (reusable) this.giveBack(slot);
-      else void slot.worker.terminate();
+      else {
+        void slot.worker.terminate();
+        // A worker ended by a limit is replaced at once: starting one takes seconds, which the next
+        // request would otherwise wait for.
+        if (this.keepWarm) this.warm();
+      }
       this.release();
+      releaseOwner();
     }
   }
 
@@ -183,5 +230,7 @@ export class WorkerPool {
   }
 }
 
-/** The process's one pool: uploads and exports share its two workers. */
-export const ioPool = new WorkerPool();
+/** Reading uploads. */
+export const ioPool = new WorkerPool(defaultWorkerLimits);
+/** Running the engine: /values and exports, which people wait on, never queue behind uploads. */
+export const computePool = new WorkerPool(recalcWorkerLimits);

@@ -10,6 +10,7 @@ import type { WorkbookTeam } from '../../features/live/useWorkbookTeam.js';
 const endMessages: Record<EndReason, string> = {
   deleted: 'This workbook was deleted by its owner. What you see is no longer saved anywhere.',
   access_removed: 'You no longer have access to this workbook. Changes you make here will not be saved.',
+  signed_out: 'Your session has ended. Sign in again to keep working; changes you make here will not be saved.',
   too_far_behind: 'Many changes were made while this page was away. Reload to see the workbook as it is now.',
   refused: 'Live updates could not be started. Reload to try again; your own changes still save.',
 };
@@ -21,7 +22,7 @@ export function TeamNotices({ team, model, activeSheetId }: { team: WorkbookTeam
       {ended && (
         <div role="alert" data-grid-shield="" className="flex shrink-0 items-center gap-3 border-b border-danger-line bg-danger-soft px-3 py-1 text-caption text-ink">
           <span className="flex-1">{endMessages[ended]}</span>
-          {ended === 'deleted' || ended === 'access_removed' ? (
+          {ended === 'deleted' || ended === 'access_removed' || ended === 'signed_out' ? (
             <Link to="/" className="font-medium text-accent hover:underline">
               Back to the workbook list
             </Link>

@@ -1,0 +1,118 @@
+// Live-update streams end when the session or access that opened them ends (sign-out, a disabled
+// account, sessions invalidated as a password change does, a site admin demoted), within a second and
+// whichever route made the change; and a reader that stops reading is cut off instead of making the
+// server hold every later event for it.
+import net from 'node:net';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { WorkbookPayload } from '../shared/workbooks.js';
+import { maxUnsentBytes } from '../server/routes/live.js';
+import { listen, openEventStream, type EventStreamClient } from './helpers/eventStream.js';
+import { makeTeam, sharedWorkbook, signUpPerson, type Person, type Team } from './helpers/team.js';
+import { testOrigin } from './helpers/app.js';
+
+describe('live-update streams and the session behind them', () => {
+  let t: Team;
+  let wb: WorkbookPayload;
+  let server: Awaited<ReturnType<typeof listen>>;
+  const open: EventStreamClient[] = [];
+  beforeAll(async () => {
+    t = await makeTeam();
+    wb = await sharedWorkbook(t, 'Stream ends');
+    server = await listen(t.app);
+  });
+  afterAll(async () => {
+    open.forEach((s) => s.close());
+    await server.close();
+    await t.ctx.mail.stop();
+  });
+
+  async function stream(person: Person) {
+    const s = await openEventStream(`${server.url}/api/workbooks/${wb.id}/events`, { Cookie: person.cookie });
+    open.push(s);
+    await s.next((e) => e.event === 'ready');
+    return s;
+  }
+
+  /** The stream's 'closed' event and its end, within a second of `at`. */
+  async function endsSoon(s: EventStreamClient, reason: string) {
+    const closed = await s.next((e) => e.event === 'closed', 1000);
+    expect(closed.data.reason).toBe(reason);
+    await s.ended;
+  }
+
+  /** A later revision does not reach a stream that has ended. */
+  async function noMoreChanges(s: EventStreamClient) {
+    const saved = await t.owner.agent.post(`/api/workbooks/${wb.id}/patches`).send({ baseRevision: (await t.owner.agent.get(`/api/workbooks/${wb.id}`)).body.revision, changes: [{ sheetId: wb.sheets[0].id, row: 0, col: 0, input: String(Math.random()) }] });
+    expect(saved.status).toBe(200);
+    expect(s.events.some((e) => e.event === 'revision' && e.data.revision === saved.body.revision)).toBe(false);
+  }
+
+  it('ends a stream within a second of its session signing out', async () => {
+    const person = await signUpPerson(t, 'sal@lab.test', 'Sal Signout');
+    await t.owner.agent.post(`/api/workbooks/${wb.id}/members`).send({ email: person.user.email, role: 'viewer' }).expect(201);
+    const s = await stream(person);
+    await person.agent.post('/api/auth/sign-out').expect(204);
+    await endsSoon(s, 'signed_out');
+    await noMoreChanges(s);
+  });
+
+  it('ends a stream within a second of its account being disabled', async () => {
+    const s = await stream(t.editor2);
+    await t.admin.agent.patch(`/api/admin/users/${t.editor2.user.id}`).send({ disabled: true }).expect(200);
+    await endsSoon(s, 'signed_out');
+    await noMoreChanges(s);
+  });
+
+  it("ends a stream within a second of the user's sessions being invalidated (as a password change does)", async () => {
+    const s = await stream(t.viewer);
+    await t.ctx.lucia.invalidateUserSessions(t.viewer.user.id);
+    await endsSoon(s, 'signed_out');
+  });
+
+  it('ends a demoted site admin\'s stream on a workbook they are no member of', async () => {
+    const second = await signUpPerson(t, 'dee@lab.test', 'Dee Deputy');
+    await t.admin.agent.patch(`/api/admin/users/${second.user.id}`).send({ siteRole: 'admin' }).expect(200);
+    const s = await stream(second);
+    await t.admin.agent.patch(`/api/admin/users/${second.user.id}`).send({ siteRole: 'member' }).expect(200);
+    await endsSoon(s, 'access_removed');
+    await noMoreChanges(s);
+  });
+
+  it('cuts a stream whose reader stopped reading, and keeps serving the others', async () => {
+    const reader = await stream(t.owner);
+    // A client that opens the stream and then never reads a byte: the kernel's buffers fill, then the server's.
+    const port = Number(new URL(server.url).port);
+    const stalled = net.connect({ port, host: '127.0.0.1' });
+    // It reads the response's head (so we know it is subscribed), then nothing more.
+    const head = new Promise<string>((resolve) => stalled.once('data', (chunk: Buffer) => (stalled.pause(), resolve(chunk.toString()))));
+    const cut = new Promise<void>((resolve) => stalled.once('close', () => resolve()));
+    stalled.on('error', () => undefined);
+    await new Promise<void>((resolve) => stalled.once('connect', () => resolve()));
+    stalled.write(`GET /api/workbooks/${wb.id}/events HTTP/1.1\r\nHost: 127.0.0.1\r\nOrigin: ${testOrigin}\r\nCookie: ${t.owner.cookie}\r\nAccept: text/event-stream\r\n\r\n`);
+    expect(await head).toMatch(/^HTTP\/1\.1 200/);
+
+    // Large patches: 1,500 cells of 1,000 characters each, about 1.5 MB per event.
+    const text = 'x'.repeat(1000);
+    const listening = () => t.ctx.events.listenerCount(wb.id);
+    expect(listening()).toBe(2);
+    let sent = 0;
+    let base = (await t.owner.agent.get(`/api/workbooks/${wb.id}`)).body.revision;
+    for (let round = 0; round < 40 && listening() === 2; round++) {
+      const changes = Array.from({ length: 1500 }, (_, i) => ({ sheetId: wb.sheets[0].id, row: 100 + i, col: round % 5, input: `${round}${text}` }));
+      const saved = await t.owner.agent.post(`/api/workbooks/${wb.id}/patches`).send({ baseRevision: base, changes });
+      expect(saved.status).toBe(200);
+      base = saved.body.revision;
+      sent += 1500 * 1000;
+      await reader.next((e) => e.event === 'revision' && e.data.revision === saved.body.revision, 5000);
+    }
+    // The server let go of the stalled stream; once the client reads again it finds the stream ended.
+    expect(listening()).toBe(1);
+    stalled.resume();
+    await cut;
+    // Cut once its unsent bytes passed the bound plus what the kernel's buffers hold, not after everything.
+    expect(sent).toBeLessThan(40 * 1500 * 1000);
+    expect(maxUnsentBytes).toBeLessThan(sent);
+    // The reading client still gets each revision.
+    expect(reader.events.filter((e) => e.event === 'revision').length).toBeGreaterThan(0);
+  });
+});
