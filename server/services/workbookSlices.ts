@@ -10,7 +10,7 @@ import type { AppContext } from '../context.js';
 import { workbooks } from '../db/schema.js';
 import type { WorkbookAccess } from './access.js';
 import { loadProtection } from './protection.js';
-import { parseSettings, workbookSheets } from './sheetOps.js';
+import { workbookSheets } from './sheetOps.js';
 import { loadWorkbook } from './workbookStore.js';
 
 const PAGE = 20_000;
@@ -48,7 +48,7 @@ export async function loadWorkbookInSlices(ctx: AppContext, access: WorkbookAcce
       revision: before.revision,
       role: access.role,
       actions: allowedActions(access.roles),
-      sheets: before.tabs.map((s) => ({ id: s.id, name: s.name, position: s.position, settings: parseSettings(s.settings), cells: bySheet.get(s.id) ?? [] })),
+      sheets: before.tabs.map((s) => ({ id: s.id, name: s.name, position: s.position, settings: s.settings, cells: bySheet.get(s.id) ?? [] })),
       ...before.protection,
     };
   }

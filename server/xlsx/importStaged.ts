@@ -102,7 +102,7 @@ export async function importStaged(ctx: AppContext, target: ImportTarget, userId
     ctx.db.transaction((tx) => {
       tx.insert(workbooks).values({ id: stagingId, title: stagingTitle, ownerId: userId }).run();
       for (const [i, s] of staged.entries()) {
-        tx.insert(sheets).values({ id: s.id, workbookId: stagingId, name: s.stagingName, position: i, settings: JSON.stringify(settingsFromParsed(s.sheet, [])), createdBy: userId }).run();
+        tx.insert(sheets).values({ id: s.id, workbookId: stagingId, name: s.stagingName, position: i, settings: settingsFromParsed(s.sheet, []), createdBy: userId }).run();
       }
     });
     const insert = cellInserter(ctx.db.$client);
