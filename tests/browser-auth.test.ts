@@ -122,7 +122,7 @@ describe('Orbitab in a browser', () => {
   it('lists the cell functions by family with the safety cautions, and filters them by search', async () => {
     await page.getByRole('link', { name: 'Functions' }).click();
     await heading('Functions').waitFor();
-    await page.getByText('Model estimates, not measurements').waitFor();
+    await page.getByText('Model estimates, not measurements', { exact: true }).waitFor();
     await page.getByText(/defer to safety data sheets, local regulations and qualified review/).waitFor();
     await heading('OVERLAP1S').waitFor();
     await screenshot(page, 'functions-light');

@@ -87,14 +87,12 @@ export function FormulaBar(p: FormulaBarProps) {
           className="h-6 min-w-0 flex-1 rounded-ctl border border-transparent bg-transparent px-1.5 font-mono text-ui text-ink focus:border-accent focus:bg-surface focus:outline-none disabled:text-ink-2"
           value={text}
           onChange={(e) => setDraft(e.target.value)}
-          onFocus={(e) => {
+          onFocus={() => {
+            // Opened from the keyboard: the typed character (or the input) becomes the draft; a value
+            // set on a focused field leaves the caret at its end, so keys typed next follow it.
             const start = pendingCaret.current;
             pendingCaret.current = null;
             setDraft(start ?? p.input);
-            if (start !== null) {
-              const el = e.currentTarget;
-              requestAnimationFrame(() => el.setSelectionRange(start.length, start.length));
-            }
           }}
           onBlur={() => setDraft(null)}
           onKeyDown={(e) => {
