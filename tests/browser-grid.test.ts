@@ -300,6 +300,12 @@ describe('the workbook grid in a browser', () => {
     // B and C hold numbers together in rows 1 and 2 only (B3 is an error, C4 is empty).
     await expect.poll(() => panel.textContent()).toMatch(/2 points; 2 rows without two numbers left out/);
     await screenshot(page, 'grid-chart');
+    // Y against X with the line of agreement, and how far apart they lie: rows 1–2 hold (2, 2) and (3, 0),
+    // so Y − X is 0 and −3: mean −1.5, RMS √4.5 = 2.12.
+    await panel.getByLabel('Chart type').selectOption('compare');
+    await expect.poll(() => panel.getByTestId('chart-agreement').textContent()).toMatch(/mean -1\.50, RMS 2\.12/);
+    await screenshot(page, 'grid-chart-compare');
+    await panel.getByLabel('Chart type').selectOption('scatter');
     await page.getByRole('button', { name: 'Structure' }).click();
   });
 
@@ -380,6 +386,12 @@ describe('the workbook grid in a browser', () => {
     // Azulene's visible band: PPP-CIS puts S1 near 610 nm (observed ≈ 580 nm; docs/spectra.md).
     expect(await page.getByTestId('structure-panel').textContent()).toMatch(/S1\s*6\d\d nm/);
     expect(await bands.locator('line[data-nm]').count()).toBeGreaterThan(3);
+    // The broadened curve follows the width the user sets.
+    const curve = bands.getByTestId('ppp-curve');
+    const narrow = await curve.getAttribute('d');
+    await page.getByLabel('Band width (FWHM)').fill('0.8');
+    await expect.poll(() => curve.getAttribute('data-width-ev')).toBe('0.8');
+    expect(await curve.getAttribute('d')).not.toBe(narrow);
     await screenshot(page, 'grid-ppp-bands');
     await clickCell('A2');
     await page.getByRole('img', { name: 'Molecular orbital diagram of BN' }).waitFor();

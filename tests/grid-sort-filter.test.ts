@@ -87,3 +87,15 @@ describe('number display', () => {
     expect(formatNumber(0.5, 0)).toBe('1');
   });
 });
+
+describe('predicted against measured in the chart panel', () => {
+  it('reports the mean and RMS of Y − X and the farthest point (worked by hand)', async () => {
+    const { agreement } = await import('../src/features/chart/chartData.js');
+    // Differences 10, −20, 30: mean 20/3, RMS √((100 + 400 + 900)/3) = √(1400/3).
+    const fit = agreement([{ x: 400, y: 410 }, { x: 500, y: 480 }, { x: 600, y: 630 }])!;
+    expect(fit.mean).toBeCloseTo(20 / 3, 12);
+    expect(fit.rms).toBeCloseTo(Math.sqrt(1400 / 3), 12);
+    expect(fit.worst).toEqual({ x: 600, y: 630 });
+    expect(agreement([])).toBeNull();
+  });
+});

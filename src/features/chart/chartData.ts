@@ -26,3 +26,21 @@ export function numericPairs(rows: readonly RowData[], xCol: number, yCol: numbe
 export function sortedByX(points: readonly ChartPoint[]): ChartPoint[] {
   return [...points].sort((a, b) => a.x - b.x || a.row - b.row);
 }
+
+/**
+ * How far Y lies from X over the points, for a column of predictions plotted against measurements:
+ * the mean signed difference (Y − X), its root mean square, and the worst point.
+ */
+export function agreement(points: readonly { x: number; y: number }[]): { mean: number; rms: number; worst: { x: number; y: number } } | null {
+  if (points.length === 0) return null;
+  let sum = 0;
+  let squares = 0;
+  let worst = points[0];
+  for (const p of points) {
+    const d = p.y - p.x;
+    sum += d;
+    squares += d * d;
+    if (Math.abs(d) > Math.abs(worst.y - worst.x)) worst = p;
+  }
+  return { mean: sum / points.length, rms: Math.sqrt(squares / points.length), worst };
+}

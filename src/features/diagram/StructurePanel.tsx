@@ -6,7 +6,7 @@ import { useMemo } from 'react';
 import { frontierGap } from '@functions/chem/huckel.js';
 import { knownFailureFor } from '@functions/chem/knownFailures.js';
 import { pppSpectrumOf, type PppSpectrum } from '@functions/chem/ppp.js';
-import { PppSpectrumSvg } from './PppSpectrumSvg.js';
+import { PppSpectrumView } from './PppSpectrumSvg.js';
 import { subjectOfCell, type SubjectSource } from './cellSubject.js';
 import { HuckelLadderSvg } from './HuckelLadderSvg.js';
 import { layoutMoDiagram } from './moLayout.js';
@@ -96,7 +96,7 @@ export function StructurePanel({ source, address }: { source: SubjectSource | nu
       <h4 className="text-caption font-semibold">Predicted π→π* bands (PPP-CIS, a model estimate)</h4>
       {spectrum ? (
         <>
-          <PppSpectrumSvg states={spectrum.singlets} title={`Predicted π→π* bands of ${subject.smiles}`} />
+          <PppSpectrumView states={spectrum.singlets} title={`Predicted π→π* bands of ${subject.smiles}`} />
           <dl className="text-caption">
             <Fact label="S1" value={`${Math.round(spectrum.singlets[0].wavelength)} nm, ${round(spectrum.singlets[0].energy, 2)} eV, f ${round(spectrum.singlets[0].f, 3)}`} />
             {strongest && <Fact label="Strongest above 200 nm" value={`${Math.round(strongest.wavelength)} nm, f ${round(strongest.f, 2)}`} />}
