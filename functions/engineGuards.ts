@@ -89,6 +89,18 @@ function rangeCells(ast: Ast, at: Address, maxRows: number, maxColumns: number) 
 
 let installed = false;
 
+/** Told of each formula as the engine starts reading or evaluating it (sheet id, row, column), or null. */
+type EvaluationWatcher = (sheet: number, row: number, col: number) => void;
+let watcher: EvaluationWatcher | null = null;
+
+/**
+ * Lets a worker say which cell it was computing when a memory or time limit ended it: the compute
+ * pool's workers write each formula's address to memory the server can still read afterwards.
+ */
+export function watchEvaluation(next: EvaluationWatcher | null): void {
+  watcher = next;
+}
+
 /** Patches HyperFormula once so every engine built afterwards enforces the evaluation limits. */
 export function installEngineGuards() {
   if (installed) return;
@@ -119,6 +131,7 @@ export function installEngineGuards() {
   const predictors = new WeakMap<object, { checkArraySize(ast: Ast, at: Address): ArraySize }>();
   const parse = parserProto.parse;
   parserProto.parse = function (this: any, text: string, at: Address) {
+    if (watcher && at) watcher(at.sheet, at.row, at.col);
     const tooBig = formulaSizeProblem(text.startsWith('=') ? text : '=' + text);
     if (tooBig) return refused(tooBig);
     const result = parse.call(this, text, at);
@@ -137,7 +150,9 @@ export function installEngineGuards() {
 
   // Whatever a formula computes, the cell keeps at most this much.
   const evaluate = evaluatorProto.evaluateAstToCellValue;
-  evaluatorProto.evaluateAstToCellValue = function (this: unknown, ast: Ast, state: unknown) {
+  evaluatorProto.evaluateAstToCellValue = function (this: unknown, ast: Ast, state: { formulaAddress?: { sheet: number; row: number; col: number } }) {
+    const at = state?.formulaAddress;
+    if (watcher && at) watcher(at.sheet, at.row, at.col);
     const value = evaluate.call(this, ast, state);
     if (typeof value === 'string') {
       const problem = textProblem(value.length);

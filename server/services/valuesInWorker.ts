@@ -2,6 +2,7 @@
 // under its memory and time limits, whatever the workbook's size: a formula that spills a billion
 // cells or sums a million-row range then costs one worker, never the server's event loop or heap.
 // The worker answers with the finished JSON as bytes (moved, not copied), which the route sends as is.
+import { cellAddress } from '../../shared/a1.js';
 import { recalcWorkerLimits } from '../xlsx/limits.js';
 import { packCells, packedTransfer } from '../xlsx/packedCells.js';
 import { computePool } from '../xlsx/workerPool.js';
@@ -16,6 +17,7 @@ export async function valuesFor(workbook: ValuesInput, owner?: string): Promise<
     limits: recalcWorkerLimits,
     doing: 'computing the values',
     owner,
+    describeCell: (sheet, row, col) => (workbook.sheets[sheet] ? cellAddress(workbook.sheets[sheet].name, row, col) : `a cell of sheet ${sheet + 1}`),
   });
   return { bytes: outcome.result };
 }

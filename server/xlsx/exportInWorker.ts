@@ -1,6 +1,7 @@
 // Computing and writing an export in a worker of the shared pool, streaming its bytes to `output`
 // as they come: the engine's recalculation of a large workbook (a second or more for 100,000 cells)
 // then never holds the server's event loop.
+import { cellAddress } from '../../shared/a1.js';
 import type { Writable } from 'node:stream';
 import { formatBytes, recalcWorkerLimits, SpreadsheetError, type WorkerLimits } from './limits.js';
 import type { ExportMode, ExportWorkbook } from './types.js';
@@ -38,6 +39,7 @@ export async function exportInWorker(output: Writable, workbook: ExportWorkbook,
     signal: stop.signal,
     limits: options.workerLimits ?? recalcWorkerLimits,
     doing: 'writing the export',
+    describeCell: (sheet, row, col) => (workbook.sheets[sheet] ? cellAddress(workbook.sheets[sheet].name, row, col) : `a cell of sheet ${sheet + 1}`),
     onProgress: (m) => {
       const chunk = (m as { chunk?: Uint8Array }).chunk;
       if (!chunk || output.destroyed || stop.signal.aborted) return;

@@ -2,6 +2,7 @@
 // and streams its bytes back. Any failure is answered as a refusal; the parent enforces the limits.
 import { Writable } from 'node:stream';
 import { parentPort } from 'node:worker_threads';
+import { watchEvaluation } from '../../functions/engineGuards.js';
 import { computeWorkbook } from './engineValues.js';
 import { capComputedWorkbook, capValuesPayload } from './longTexts.js';
 import { computeValuesIsolated } from '../services/valuesIsolated.js';
@@ -74,7 +75,18 @@ async function run(job: IoJob): Promise<{ result: unknown; transfer?: ArrayBuffe
   }
 }
 
-parentPort!.on('message', async (job: IoJob) => {
+parentPort!.on('message', async (job: IoJob & { evaluating?: SharedArrayBuffer }) => {
+  // The pool reads this after a memory or time limit has ended the worker: the cell it was on.
+  const evaluating = job.evaluating ? new Int32Array(job.evaluating) : null;
+  watchEvaluation(
+    evaluating &&
+      ((sheet, row, col) => {
+        Atomics.store(evaluating, 1, sheet);
+        Atomics.store(evaluating, 2, row);
+        Atomics.store(evaluating, 3, col);
+        Atomics.store(evaluating, 0, 1);
+      }),
+  );
   try {
     const { result, transfer } = await run(job);
     parentPort!.postMessage({ done: true, ok: true, result, heapUsedBytes: process.memoryUsage().heapUsed }, transfer ?? []);

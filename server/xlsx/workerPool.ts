@@ -103,7 +103,15 @@ export interface JobOptions {
   owner?: string;
   /** Stops the job (its worker is ended); the job fails with the signal's reason when that is a SpreadsheetError. */
   signal?: AbortSignal;
+  /**
+   * For jobs that compute formulas: names a cell from the engine's sheet id, row and column. When a
+   * memory or time limit ends the job, its message then says which cell was being computed.
+   */
+  describeCell?: (sheet: number, row: number, col: number) => string;
 }
+
+/** Room for the address of the formula being computed: [set, sheet, row, column]. */
+const evaluatingSlots = 4;
 
 /** One job in one worker. `reusable` is false when the worker must not serve again. */
 function runJob(slot: Slot, message: unknown, transfer: ArrayBuffer[], options: JobOptions) {
@@ -203,9 +211,18 @@ export class WorkerPool {
         throw e.code === 'ERR_WORKER_OUT_OF_MEMORY' ? outOfMemory(options.limits, options.doing) : e;
       });
       slot.jobs++;
-      const job = await runJob(slot, message, transfer, options);
+      // Written by the worker before each formula; still readable here after a limit ended it.
+      const evaluating = options.describeCell ? new Int32Array(new SharedArrayBuffer(evaluatingSlots * 4)) : null;
+      const job = await runJob(slot, evaluating ? { ...(message as object), evaluating: evaluating.buffer } : message, transfer, options);
       reusable = job.reusable;
-      if (job.done instanceof SpreadsheetError) throw job.done;
+      if (job.done instanceof SpreadsheetError) {
+        const limitHit = job.done.code === 'parse_timeout' || job.done.code === 'parse_out_of_memory';
+        if (limitHit && evaluating && Atomics.load(evaluating, 0) === 1) {
+          const where = options.describeCell!(Atomics.load(evaluating, 1), Atomics.load(evaluating, 2), Atomics.load(evaluating, 3));
+          throw new SpreadsheetError(job.done.code, `${job.done.message}; the engine was at ${where}`);
+        }
+        throw job.done;
+      }
       if (!job.done.ok) throw new SpreadsheetError(job.done.error!.code, job.done.error!.message);
       return { result: job.done.result as T, elapsedMs: performance.now() - started, workerHeapUsedBytes: job.done.heapUsedBytes };
     } finally {
