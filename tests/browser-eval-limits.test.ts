@@ -3,7 +3,7 @@
 // another cell can still be edited and recomputes. Needs `npm run build` first.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { gridCell, launchBrowser, screenshot, type TestBrowser } from './helpers/browser.js';
+import { gridCell, launchBrowser, signUpWithNewWorkbook, screenshot, type TestBrowser } from './helpers/browser.js';
 import { startServer, type TestServer } from './helpers/server.js';
 
 let server: TestServer;
@@ -29,15 +29,7 @@ async function expectCell(a1: string, text: string) {
 
 describe('a workbook holding hostile formulas in a browser', () => {
   it('opens with those cells in error and the rest editable', async () => {
-    await page.goto(`${server.url}/sign-up`);
-    await page.getByLabel('Name').fill('Ines Duarte');
-    await page.getByLabel('Email').fill('ines@lab.example');
-    await page.getByLabel('Password').fill('sigma-pi-sigma-star');
-    await page.getByRole('button', { name: 'Create account' }).click();
-    await page.getByRole('button', { name: 'New workbook' }).click();
-    await page.getByRole('dialog').getByLabel('Title').fill('Spill screen');
-    await page.getByRole('button', { name: 'Create and open' }).click();
-    await page.waitForURL((u) => u.pathname.startsWith('/workbooks/'));
+    await signUpWithNewWorkbook(page, server.url, { name: 'Ines Duarte', email: 'ines@lab.example', password: 'sigma-pi-sigma-star' }, 'Spill screen');
     const id = new URL(page.url()).pathname.split('/')[2];
 
     // Saved as a colleague's patch would be, then the page is reloaded to open the workbook afresh.

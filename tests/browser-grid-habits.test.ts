@@ -5,7 +5,7 @@
 // Chemistry, MO theory of diatomics; recalled from memory).
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { gridCell, launchBrowser, screenshot, type TestBrowser } from './helpers/browser.js';
+import { gridCell, launchBrowser, screenshot, signUpWithNewWorkbook, type TestBrowser } from './helpers/browser.js';
 import { startServer, type TestServer } from './helpers/server.js';
 
 let server: TestServer;
@@ -17,11 +17,6 @@ beforeAll(async () => {
   browser = await launchBrowser();
   page = browser.page;
   page.setDefaultTimeout(15_000);
-  await page.goto(`${server.url}/sign-up`);
-  await page.getByLabel('Name').fill('Noor Haddad');
-  await page.getByLabel('Email').fill('noor@lab.example');
-  await page.getByLabel('Password').fill('pi-star-antibonding');
-  await page.getByRole('button', { name: 'Create account' }).click();
 }, 120_000);
 
 afterAll(async () => {
@@ -30,10 +25,7 @@ afterAll(async () => {
 });
 
 it('starts from a sheet of four species and a bond order', async () => {
-  await page.getByRole('button', { name: 'New workbook' }).click();
-  await page.getByRole('dialog').getByLabel('Title').fill('Habits');
-  await page.getByRole('button', { name: 'Create and open' }).click();
-  await page.waitForURL((u) => u.pathname.startsWith('/workbooks/'));
+  await signUpWithNewWorkbook(page, server.url, { name: 'Noor Haddad', email: 'noor@lab.example', password: 'pi-star-antibonding' }, 'Habits');
   await page.getByTestId('workbook-title').waitFor();
   // A1:A4 species, B1 a bond order.
   await clickCell('A1');

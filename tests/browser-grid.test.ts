@@ -6,7 +6,7 @@
 import fs from 'node:fs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { gridCell, launchBrowser, screenshot, type TestBrowser } from './helpers/browser.js';
+import { gridCell, launchBrowser, signUpWithNewWorkbook, screenshot, type TestBrowser } from './helpers/browser.js';
 import { startServer, type TestServer } from './helpers/server.js';
 
 let server: TestServer;
@@ -58,15 +58,7 @@ async function reloadWorkbook() {
 
 describe('the workbook grid in a browser', () => {
   it('creates a workbook from the list and opens an empty sheet', async () => {
-    await page.goto(`${server.url}/sign-up`);
-    await page.getByLabel('Name').fill('Ines Duarte');
-    await page.getByLabel('Email').fill('ines@lab.example');
-    await page.getByLabel('Password').fill('sigma-pi-sigma-star');
-    await page.getByRole('button', { name: 'Create account' }).click();
-    await page.getByRole('button', { name: 'New workbook' }).click();
-    await page.getByRole('dialog').getByLabel('Title').fill('Diatomic screen, grid test');
-    await page.getByRole('button', { name: 'Create and open' }).click();
-    await page.waitForURL((u) => u.pathname.startsWith('/workbooks/'));
+    await signUpWithNewWorkbook(page, server.url, { name: 'Ines Duarte', email: 'ines@lab.example', password: 'sigma-pi-sigma-star' }, 'Diatomic screen, grid test');
     await expect.poll(() => page.getByTestId('workbook-title').textContent()).toBe('Diatomic screen, grid test');
     await expectCell('A1', '');
     await waitSaved();

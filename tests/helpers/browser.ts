@@ -113,3 +113,16 @@ export async function gridCell(page: Page, a1: string): Promise<GridCell | null>
     return null;
   }, a1);
 }
+
+/** Signs a new person up through the page and opens a new workbook of theirs with this title. */
+export async function signUpWithNewWorkbook(page: Page, serverUrl: string, person: { name: string; email: string; password: string }, title: string): Promise<void> {
+  await page.goto(`${serverUrl}/sign-up`);
+  await page.getByLabel('Name').fill(person.name);
+  await page.getByLabel('Email').fill(person.email);
+  await page.getByLabel('Password').fill(person.password);
+  await page.getByRole('button', { name: 'Create account' }).click();
+  await page.getByRole('button', { name: 'New workbook' }).click();
+  await page.getByRole('dialog').getByLabel('Title').fill(title);
+  await page.getByRole('button', { name: 'Create and open' }).click();
+  await page.waitForURL((u) => u.pathname.startsWith('/workbooks/'));
+}
