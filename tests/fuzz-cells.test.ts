@@ -8,7 +8,7 @@ import { describe, expect, it } from 'vitest';
 import { createEngine } from '../functions/engine.js';
 import { cellInputProblem, formulaNestingDepth, maxFormulaNesting } from '../shared/cellInput.js';
 import { maxInputLength, type CellEntry } from '../shared/workbooks.js';
-import { denseSheet } from '../server/services/values.js';
+import { denseSheet } from '../functions/workbookEngine.js';
 import { makeTestApp } from './helpers/app.js';
 import { cellInput, seededRandom } from './helpers/fuzzInputs.js';
 

@@ -1,42 +1,14 @@
-// Values computed on the server with the same engine the browser uses (functions/engine.ts), for
+// Values computed on the server with the engine the browser builds too (functions/workbookEngine.ts), for
 // integrations and export. Only non-empty values are returned, as [row, col, value] per sheet.
-import { CellType, DenseSparseChooseBasedOnThreshold, DetailedCellError, ErrorType, type CellValue, type HyperFormula } from 'hyperformula';
+import { CellType, DetailedCellError, type CellValue, type HyperFormula } from 'hyperformula';
+import { explainCellError } from '../../functions/cellErrors.js';
 import '../../functions/openchemlibNode.js';
-import { createEngine, type SheetInput } from '../../functions/engine.js';
+import { buildWorkbookEngine } from '../../functions/workbookEngine.js';
 import type { ComputedValue, SheetPayload, ValueEntry, ValuesPayload, WorkbookPayload } from '../../shared/workbooks.js';
-
-// Rows without cells share one empty array, so a lone cell in row 900,000 costs one pointer per row
-// rather than a dense block (the engine only reads its input).
-const emptyRow: SheetInput[number] = Object.freeze([]) as unknown as SheetInput[number];
-
-/** Builds the engine's input for one sheet from its sparse cells. */
-export function denseSheet(cells: WorkbookPayload['sheets'][number]['cells']): SheetInput {
-  const rows: SheetInput = [];
-  for (const [row, col, input] of cells) {
-    while (rows.length <= row) rows.push(emptyRow);
-    if (rows[row] === emptyRow) rows[row] = [];
-    const cellsOfRow = rows[row];
-    while (cellsOfRow.length < col) cellsOfRow.push(null);
-    cellsOfRow[col] = input;
-  }
-  return rows;
-}
-
-/** What the engine's own errors mean, for those it raises without a message (common practice). */
-const errorMeaning: Partial<Record<ErrorType, string>> = {
-  [ErrorType.DIV_BY_ZERO]: 'division by zero',
-  [ErrorType.NA]: 'a value is not available',
-  [ErrorType.NAME]: 'unknown function or name',
-  [ErrorType.NUM]: 'a number out of range',
-  [ErrorType.REF]: 'a reference to a cell that does not exist',
-  [ErrorType.VALUE]: 'an argument of the wrong type',
-  [ErrorType.CYCLE]: 'a circular reference',
-  [ErrorType.SPILL]: 'the result cannot spill: other cells are in the way',
-};
 
 function toComputed(value: CellValue): ComputedValue | null {
   if (value === null || value === undefined) return null;
-  if (value instanceof DetailedCellError) return { error: value.value, message: value.message || errorMeaning[value.type] || 'error' };
+  if (value instanceof DetailedCellError) return { error: value.value, message: explainCellError(value) };
   return value;
 }
 
@@ -74,11 +46,7 @@ export interface ValuesInput {
 }
 
 export function computeValues(workbook: ValuesInput): ValuesPayload {
-  // The engine's default address map is dense per sheet; a sparse sheet (one cell far down) would
-  // then allocate its whole bounding box, so sheets less than a tenth filled are stored sparse.
-  const engine = createEngine(Object.fromEntries(workbook.sheets.map((s) => [s.name, denseSheet(s.cells)])), {
-    chooseAddressMappingPolicy: new DenseSparseChooseBasedOnThreshold(0.1),
-  });
+  const engine = buildWorkbookEngine(workbook.sheets);
   try {
     return {
       revision: workbook.revision,

@@ -1,10 +1,9 @@
 // Computes a workbook once with the shared engine (functions/engine.ts), for export and `cli recalc`:
 // each input cell's value, the cells array formulas spill into, and which chemistry functions are used.
-import { CellType, DenseSparseChooseBasedOnThreshold, DetailedCellError, type CellValue, type HyperFormula } from 'hyperformula';
+import { CellType, DetailedCellError, type CellValue, type HyperFormula } from 'hyperformula';
 import '../../functions/openchemlibNode.js';
-import { createEngine } from '../../functions/engine.js';
 import { catalogByName } from '../../functions/index.js';
-import { denseSheet } from '../services/values.js';
+import { buildWorkbookEngine } from '../../functions/workbookEngine.js';
 import type { CellTriple } from './types.js';
 import { literalNumber } from './xlsxValues.js';
 
@@ -110,10 +109,7 @@ function computeSheet(engine: HyperFormula, sheet: number, name: string, cells: 
 }
 
 export function computeWorkbook(sheets: { name: string; cells: CellTriple[] }[]): ComputedWorkbook {
-  // Sparse sheets (less than a tenth filled) get the engine's sparse address map, as in services/values.ts.
-  const engine = createEngine(Object.fromEntries(sheets.map((s) => [s.name, denseSheet(s.cells)])), {
-    chooseAddressMappingPolicy: new DenseSparseChooseBasedOnThreshold(0.1),
-  });
+  const engine = buildWorkbookEngine(sheets);
   try {
     const computed = sheets.map((s) => computeSheet(engine, engine.getSheetId(s.name)!, s.name, s.cells));
     return { sheets: computed, functionsUsed: functionsUsedIn(sheets) };

@@ -1,7 +1,7 @@
 // The workbook as it was right after a revision, computed for reading: its inputs go into a scratch
-// engine (the same createEngine the grid and server use), the values come out as the grid would show
+// engine (built as the grid and server build theirs, functions/workbookEngine.ts), the values come out as the grid would show
 // them, and the engine is thrown away. Nothing here can be edited or sent.
-import { createEngine } from '@functions/engine.js';
+import { buildWorkbookEngine, inTabOrder } from '@functions/workbookEngine.js';
 import type { RevisionSnapshot } from '@shared/team.js';
 import { cellView, type CellView } from '../../core/workbook/model/cellView.js';
 import { readDisplaySettings } from '../../core/workbook/model/displaySettings.js';
@@ -23,9 +23,9 @@ export const snapshotMaxRows = 300;
 export const snapshotMaxCols = 40;
 
 export function snapshotSheets(snapshot: RevisionSnapshot, maxRows = snapshotMaxRows, maxCols = snapshotMaxCols): SnapshotSheet[] {
-  const ordered = [...snapshot.sheets].sort((a, b) => a.position - b.position);
+  const ordered = inTabOrder(snapshot.sheets);
   const inputs = ordered.map((s) => SheetInputs.from(s.cells));
-  const engine = createEngine(Object.fromEntries(ordered.map((s, i) => [s.name, inputs[i].toTable()])), { undoLimit: 0 });
+  const engine = buildWorkbookEngine(ordered.map((s, i) => ({ name: s.name, table: inputs[i].toTable() })), { undoLimit: 0 });
   try {
     return ordered.map((s, i) => {
       const sheetInputs = inputs[i];

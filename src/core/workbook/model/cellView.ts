@@ -1,6 +1,7 @@
 // What one grid cell shows: the stored input, the computed value formatted for reading, and for an
 // error its message ("unknown element 'Xq'"). Pure, so display rules are tested without a browser.
 import { DetailedCellError, type CellValue } from 'hyperformula';
+import { explainCellError } from '@functions/cellErrors.js';
 
 export type CellKind = 'number' | 'text' | 'boolean' | 'error' | 'empty';
 
@@ -70,19 +71,7 @@ export function cellView(input: string, value: CellValue, precision: Precision, 
   return { input, display: value, kind: 'text', value, spilled };
 }
 
-const errorExplanations: Record<string, string> = {
-  '#DIV/0!': 'division by zero',
-  '#NAME?': 'unknown function or name',
-  '#REF!': 'the formula refers to a cell that no longer exists',
-  '#CYCLE!': 'the formula depends on itself (a circular reference)',
-  '#SPILL!': 'the array result has no room to spill: clear the cells it needs',
-  '#N/A': 'no value available',
-  '#NUM!': 'a number is out of range',
-  '#VALUE!': 'a value has the wrong type',
-};
-
-/** The engine's message when it has one, otherwise a plain explanation of the code. */
+/** The engine's message when it has one, otherwise a plain explanation of the code (one wording for grid and server). */
 export function errorMessage(error: DetailedCellError): string {
-  const message = error.message?.trim();
-  return message ? message : (errorExplanations[error.value] ?? error.value);
+  return explainCellError(error);
 }

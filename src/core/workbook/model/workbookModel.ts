@@ -1,11 +1,11 @@
-// One open workbook in the browser: one HyperFormula engine (functions/engine.ts createEngine) fed
+// One open workbook in the browser: one HyperFormula engine (functions/workbookEngine.ts) fed
 // with the server's inputs, the typed inputs beside it, and the cell views the grid draws. Edits
 // apply to the engine at once; the model reports the input changes so they can be sent as patches.
 // Bulk writes run with evaluation suspended: many setCellContents calls inside HyperFormula's
 // batch() grow quadratically in 3.3–3.5 (see the workbook issue), while a suspended evaluation
 // recomputes once at the end.
 import { ExportedCellChange, type ExportedChange, type HyperFormula } from 'hyperformula';
-import { createEngine } from '@functions/engine.js';
+import { buildWorkbookEngine, inTabOrder } from '@functions/workbookEngine.js';
 import { engineInput } from '@functions/formulaTokens.js';
 import type { SheetPayload, WorkbookPayload } from '@shared/workbooks.js';
 import { allows, type AccessRole, type WorkbookAction } from '@shared/permissions.js';
@@ -69,11 +69,11 @@ export class WorkbookModel {
     this.title = payload.title;
     this.role = payload.role;
     this.actions = payload.actions;
-    const ordered = [...payload.sheets].sort((a, b) => a.position - b.position);
+    const ordered = inTabOrder(payload.sheets);
     const inputs = new Map(ordered.map((s) => [s.id, SheetInputs.from(s.cells)]));
     // Built once from whole tables: no per-cell setCellContents on load. Undo lives in History
     // (our own, mirrored in patches), so the engine keeps no undo stack of its own.
-    this.engine = createEngine(Object.fromEntries(ordered.map((s) => [s.name, inputs.get(s.id)!.toTable()])), { undoLimit: 0 });
+    this.engine = buildWorkbookEngine(ordered.map((s) => ({ name: s.name, table: inputs.get(s.id)!.toTable() })), { undoLimit: 0 });
     for (const s of ordered) this.addSheetState(s, inputs.get(s.id)!);
   }
 
