@@ -3,6 +3,7 @@
 // operands, a burst of 20 MB CSV uploads. Throughout, /api/health answers within a second (measured
 // by polling while the hostile work runs); every bad cell carries an error or the answer is a clear
 // 503/4xx (never a 500); the workbook still opens and exports, and the process stays up.
+import { spawn } from 'node:child_process';
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
@@ -29,23 +30,37 @@ ${server.output().slice(-6000)}`);
   fs.rmSync(dir, { recursive: true, force: true });
 });
 
-/** Runs `work` while polling /api/health; returns its result and the slowest health answer (ms). */
+/**
+ * Runs `work` while another process polls /api/health; returns its result and the slowest health
+ * answer (ms). The poller is a process of its own so that this one's busy event loop (building and
+ * sending the test's uploads) is not counted against the server.
+ */
 async function whilePolling<T>(work: Promise<T>): Promise<{ result: T; slowestHealthMs: number }> {
-  let done = false;
-  let slowest = 0;
-  const poller = (async () => {
-    while (!done) {
-      const started = performance.now();
-      const res = await fetch(`${server.url}/api/health`, { signal: AbortSignal.timeout(15_000) });
-      await res.arrayBuffer();
-      slowest = Math.max(slowest, performance.now() - started);
-      await new Promise((r) => setTimeout(r, 50));
-    }
-  })();
-  const result = await work.finally(() => (done = true));
-  await poller;
-  return { result, slowestHealthMs: slowest };
+  const poller = spawn(process.execPath, ['-e', pollerScript, `${server.url}/api/health`], { stdio: ['pipe', 'pipe', 'inherit'] });
+  let out = '';
+  poller.stdout.on('data', (c: Buffer) => (out += c.toString()));
+  const exited = new Promise<void>((resolve) => poller.once('exit', () => resolve()));
+  await new Promise<void>((resolve) => poller.stdout.once('data', () => resolve())); // its first answer: polling
+  const result = await work.finally(() => poller.stdin.end());
+  await exited;
+  const times = out.trim().split(/\s+/).map(Number).filter(Number.isFinite);
+  return { result, slowestHealthMs: Math.max(...times) };
 }
+
+/** Polls the URL every 50 ms until stdin closes, printing each answer's time in ms. */
+const pollerScript = `
+let done = false;
+process.stdin.on('end', () => (done = true)).resume();
+(async () => {
+  while (!done) {
+    const started = performance.now();
+    const res = await fetch(process.argv[1], { signal: AbortSignal.timeout(15000) });
+    await res.arrayBuffer();
+    process.stdout.write((performance.now() - started).toFixed(1) + ' ');
+    await new Promise((r) => setTimeout(r, 50));
+  }
+})();
+`;
 
 /** The workbook's id; or null when the inputs were refused on the way in with a clear 400 (a formula too large to store, say). */
 async function workbookWith(title: string, cells: { row: number; col: number; input: string }[]): Promise<string | null> {
@@ -135,10 +150,9 @@ describe('a burst of huge CSV uploads', () => {
     const other = apiClient(server.url);
     expect((await other.post('/api/auth/sign-up', { email: 'theo.brandt@example.com', password: 'a long test password', name: 'Theo Brandt' })).status).toBe(201);
     const { result, slowestHealthMs } = await whilePolling(Promise.all([...[1, 2, 3, 4].map((i) => upload(big, `tiny-${i}.csv`, i % 2 ? client : other)), upload('Species,Bond order\nO2,2\nN2,3\n', 'small.csv', other)]));
-    // Receiving 80 MB of multipart bodies is main-thread work (the form parser, the byte count): on a
-    // busy machine health may take longer here, so this part asserts only that it keeps answering.
+    // Health is polled from a process of its own (this one is busy sending 80 MB).
     console.log(`slowest /api/health during four 20 MB uploads: ${slowestHealthMs.toFixed(0)} ms`);
-    expect(slowestHealthMs).toBeLessThan(15_000);
+    expect(slowestHealthMs).toBeLessThan(1000);
     for (const r of result.slice(0, 4)) expect([r.status, r.body.error.code]).toEqual([413, 'too_many_cells']);
     expect(result[4].status).toBe(201);
     expect(server.child.exitCode).toBeNull();
