@@ -11,7 +11,6 @@ import { currentSession, currentUser, requireUser } from '../auth/middleware.js'
 import type { AppContext } from '../context.js';
 import { revisions, sheets } from '../db/schema.js';
 import { notFound, parse } from '../errors.js';
-import { requireWorkbook } from '../services/access.js';
 import { PresenceBoard, type LiveConnection } from '../services/presence.js';
 import { streamVerdict } from '../services/streamGuard.js';
 import { workbookAccess } from './workbookAccess.js';
@@ -113,17 +112,10 @@ export function liveRouter(ctx: AppContext): Router {
           return close('deleted');
         case 'protection':
           return send('protection', event.protection);
-        case 'members': {
-          // Someone removed or re-roled mid-stream hears no more than their access now allows.
-          let now: ReturnType<typeof requireWorkbook>;
-          try {
-            now = requireWorkbook(ctx, user, workbookId, 'view');
-          } catch {
-            return close('access_removed');
-          }
-          if (now.role !== role) send('role', { role: (role = now.role), actions: allowedActions(now.roles) });
+        case 'members':
+          // Someone removed or re-roled mid-stream: stillAllowed() above has already closed the
+          // stream or told them their new role, from the session and memberships as they are now.
           return;
-        }
       }
     };
     // Subscribing, the first event and any replay happen in one synchronous step: no commit can
