@@ -59,7 +59,7 @@ function trimExponential(s: string): string {
 
 export function cellView(input: string, value: CellValue, precision: Precision, spilled = false): CellView | undefined {
   if (value instanceof DetailedCellError) {
-    return { input, display: value.value, kind: 'error', value: value.value, errorCode: value.value, errorMessage: errorMessage(value), spilled };
+    return { input, display: value.value, kind: 'error', value: value.value, errorCode: value.value, errorMessage: explainCellError(value), spilled };
   }
   if (value === null || value === undefined) {
     if (input === '') return undefined;
@@ -69,9 +69,4 @@ export function cellView(input: string, value: CellValue, precision: Precision, 
   if (typeof value === 'number') return { input, display: formatNumber(value, precision), kind: 'number', value, spilled };
   if (typeof value === 'boolean') return { input, display: value ? 'TRUE' : 'FALSE', kind: 'boolean', value, spilled };
   return { input, display: value, kind: 'text', value, spilled };
-}
-
-/** The engine's message when it has one, otherwise a plain explanation of the code (one wording for grid and server). */
-export function errorMessage(error: DetailedCellError): string {
-  return explainCellError(error);
 }
