@@ -2,7 +2,7 @@
 
 /** The upload limit of POST /api/imports; the client checks it before sending. */
 export const maxUploadBytes = 20 * 1024 * 1024;
-export const acceptedUploadTypes = '.xlsx,.csv,.tsv,.txt,application/vnd.openxmlformats-officedocument.spreadsheetml.sheet,text/csv';
+export const acceptedUploadTypes = '.xlsx,.csv,.tsv,.txt,.sdf,.sd,.mol,.xyz,application/vnd.openxmlformats-officedocument.spreadsheetml.sheet,text/csv';
 
 export interface SkippedCell {
   sheet: string;

@@ -1,4 +1,4 @@
-// "Import…": pick or drop an .xlsx or .csv file, watch it upload, read what was taken. Without a
+// "Import…": pick or drop an .xlsx or .csv file, or structures (.sdf, .mol, .xyz), watch it upload, read what was taken. Without a
 // workbookId the file becomes a new workbook; with one, its sheets are added to that workbook.
 import { useQueryClient } from '@tanstack/react-query';
 import { useRef, useState, type DragEvent } from 'react';
@@ -93,7 +93,7 @@ export function ImportButton({ workbookId, label = 'Import…', onImported }: { 
               onDrop={onDrop}
               className={`flex flex-col items-center gap-2 rounded-panel border border-dashed px-4 py-6 text-center ${dragging ? 'border-accent bg-accent-soft' : 'border-line-strong bg-raised'}`}
             >
-              <p className="text-ink">Drop an .xlsx or .csv file here</p>
+              <p className="text-ink">Drop an .xlsx or .csv file, or structures (.sdf, .mol, .xyz), here</p>
               <Button disabled={uploading} onClick={() => input.current?.click()}>
                 Choose a file…
               </Button>
