@@ -12,6 +12,7 @@ import { requireWorkbook } from '../services/access.js';
 import { shutdownRefusal } from '../services/shutdown.js';
 import { exportInWorker, type ExportFormat } from '../xlsx/exportInWorker.js';
 import { exportSource } from '../xlsx/exportSource.js';
+import { jobStructures } from '../structures/structureService.js';
 import { importStaged } from '../xlsx/importStaged.js';
 import { defaultImportLimits, formatBytes, SpreadsheetError } from '../xlsx/limits.js';
 import { parseInWorker } from '../xlsx/parseInWorker.js';
@@ -108,7 +109,7 @@ export function ioRouter(ctx: AppContext): Router {
     const { sheetIds: _ids, ...workbook } = source;
     try {
       // Computed and written in a worker: the engine's work on a large workbook never holds this thread.
-      await exportInWorker(res, workbook, format, { owner: currentUser(res).id });
+      await exportInWorker(res, workbook, format, { owner: currentUser(res).id, structures: jobStructures(ctx, id) });
     } catch (e) {
       if (!res.headersSent) {
         res.removeHeader('Content-Disposition');

@@ -22,6 +22,7 @@ import { restoreRevision } from '../services/restore.js';
 import { getRevision, listRevisions } from '../services/revisionLog.js';
 import { addSheet, deleteSheet, updateSheet } from '../services/sheetStore.js';
 import { valuesFor, type ValuesBody } from '../services/valuesInWorker.js';
+import { jobStructures } from '../structures/structureService.js';
 import { loadWorkbookInSlices } from '../services/workbookSlices.js';
 import { SpreadsheetError } from '../xlsx/limits.js';
 import { computeRefusal } from '../xlsx/refusals.js';
@@ -115,7 +116,7 @@ export function workbooksRouter(ctx: AppContext): Router {
     const workbook = await loadWorkbookInSlices(ctx, access(req, res, 'view'));
     let body: ValuesBody;
     try {
-      body = await valuesFor(workbook, currentUser(res).id);
+      body = await valuesFor(workbook, currentUser(res).id, jobStructures(ctx, workbook.id));
     } catch (e) {
       if (e instanceof SpreadsheetError) throw computeRefusal('values', e);
       throw e;

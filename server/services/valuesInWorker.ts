@@ -7,17 +7,21 @@ import { recalcWorkerLimits } from '../xlsx/limits.js';
 import { packCells, packedTransfer } from '../xlsx/packedCells.js';
 import { computePool } from '../xlsx/workerPool.js';
 import type { ValuesInput } from './values.js';
+import type { FreshStructure } from '../structures/workerResults.js';
+import type { JobStructures } from '../structures/structureService.js';
 
 export type ValuesBody = { bytes: Uint8Array };
 
 /** `owner`: the user asking, for the per-person cap on queued jobs. */
-export async function valuesFor(workbook: ValuesInput, owner?: string): Promise<ValuesBody> {
+export async function valuesFor(workbook: ValuesInput, owner?: string, structures?: JobStructures): Promise<ValuesBody> {
   const sheets = workbook.sheets.map((s) => ({ id: s.id, name: s.name, packed: packCells(s.cells) }));
-  const outcome = await computePool.run<Uint8Array>({ kind: 'values', revision: workbook.revision, sheets }, sheets.flatMap((s) => packedTransfer(s.packed)), {
+  // Extended-Hückel results go along as stored; the worker computes (and we then store) only the missing ones.
+  const outcome = await computePool.run<{ bytes: Uint8Array; fresh: FreshStructure[] }>({ kind: 'values', revision: workbook.revision, sheets, structures: structures?.stored }, sheets.flatMap((s) => packedTransfer(s.packed)), {
     limits: recalcWorkerLimits,
     doing: 'computing the values',
     owner,
     describeCell: (sheet, row, col) => (workbook.sheets[sheet] ? cellAddress(workbook.sheets[sheet].name, row, col) : `a cell of sheet ${sheet + 1}`),
   });
-  return { bytes: outcome.result };
+  structures?.save(outcome.result.fresh);
+  return { bytes: outcome.result.bytes };
 }
