@@ -12,6 +12,27 @@ export interface StructureRequest {
   charge?: number;
   /** ehtKeyText(structure, charge): what the result is stored under. */
   key: string;
+  /** The formula cell being evaluated (engine sheet id, row, col), when known: a waiting cell is re-evaluated when its result arrives. */
+  cell?: FormulaCell;
+}
+
+export interface FormulaCell {
+  sheet: number;
+  row: number;
+  col: number;
+}
+
+let evaluating: FormulaCell | undefined;
+
+/** Runs `f` with `cell` as the formula being evaluated (the plugin wraps every call with it). */
+export function whileEvaluating<T>(cell: FormulaCell | undefined, f: () => T): T {
+  const outer = evaluating;
+  evaluating = cell;
+  try {
+    return f();
+  } finally {
+    evaluating = outer;
+  }
 }
 
 /** A result, or 'pending' when it is being computed elsewhere and the cell should wait. */
@@ -55,7 +76,7 @@ export function clearLocalResults() {
 export function ehtSummaryOf(structure: string, charge?: number): EhtSummary {
   const key = ehtKeyText(structure, charge);
   if (resolver) {
-    const answer = resolver({ structure: normaliseStructure(structure), charge, key });
+    const answer = resolver({ structure: normaliseStructure(structure), charge, key, cell: evaluating });
     if (answer === 'pending') throw new PendingResult();
     return summaryOrThrow(answer);
   }

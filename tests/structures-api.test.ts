@@ -73,6 +73,7 @@ describe('structure results shared by a workbook’s members', () => {
   });
 
   it('serves /values and exports from the stored results and stores what they compute', async () => {
+    await askUntilStored(t.owner, id, [{ structure: 'C=C' }]);
     const sheetId = (await t.owner.agent.get(`/api/workbooks/${id}`)).body.sheets[0].id;
     const base = (await t.owner.agent.get(`/api/workbooks/${id}`)).body.revision;
     const patch = await t.owner.agent.post(`/api/workbooks/${id}/patches`).send({

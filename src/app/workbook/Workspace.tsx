@@ -15,6 +15,7 @@ import { Toolbar } from '../../features/grid/components/Toolbar.js';
 import { useSheetKeys } from '../../features/grid/components/useSheetKeys.js';
 import { addSheet, deleteSheet, moveSheet, renameSheet } from '../../core/workbook/api.js';
 import { useModelVersion, useSaveStatus, type WorkbookSession } from '../../core/workbook/session/useWorkbookSession.js';
+import { StructureProgress } from '../../features/structures/StructureProgress.js';
 import { useSheetCommands, type ViewSelection } from '../../features/grid/useSheetCommands.js';
 import { useSheetView } from '../../features/grid/useSheetView.js';
 import { ConflictResolver } from '../../features/live/ConflictResolver.js';
@@ -130,6 +131,7 @@ export function Workspace({ session }: { session: WorkbookSession }) {
     <div className="flex h-full min-h-0 flex-col bg-canvas">
       <WorkbookBar model={model} team={team} activeSheet={{ id: activeSheetId, name: sheet.name }} selectionRange={address || undefined} status={status} storageWorks={store.storageWorks} />
       <ConflictResolver session={session} status={status} onSetAside={team.addSetAside} />
+      <StructureProgress store={session.structures} />
       <Toolbar
         canEdit={!model.readOnly}
         canUndo={model.history.canUndo}

@@ -4,6 +4,8 @@
 import { queryOptions } from '@tanstack/react-query';
 import type { PatchInput, PatchResult, SheetMutationResult, WorkbookPayload } from '@shared/workbooks.js';
 import { removeSheetFromFormula, renameSheetInFormula } from '@shared/formulaText.js';
+import type { StructuresRequest, StructuresResponse } from '@shared/structures.js';
+import type { EhtResult } from '@functions/chem/ehtSummary.js';
 import { api, queryKeys } from '../../lib/api.js';
 import { writeDisplaySettings, type DisplaySettings } from './model/displaySettings.js';
 import type { WorkbookSession } from './session/useWorkbookSession.js';
@@ -16,6 +18,10 @@ export const workbookQueryOptions = (id: string) =>
     staleTime: Infinity,
     gcTime: 0,
   });
+
+/** POST /api/workbooks/:id/structures: stored extended-Hückel results, null for those still being computed. */
+export const fetchStructures = (workbookId: string, inputs: StructuresRequest['inputs']) =>
+  api<StructuresResponse<EhtResult>>(`/workbooks/${encodeURIComponent(workbookId)}/structures`, { method: 'POST', body: { inputs } });
 
 /** POST /api/workbooks/:id/patches: the save queue's one way to the server. */
 export const sendPatch = (workbookId: string, patch: PatchInput) => api<PatchResult>(`/workbooks/${encodeURIComponent(workbookId)}/patches`, { method: 'POST', body: patch });

@@ -82,7 +82,7 @@ function CellEditor({ rowData, setRowData, columnData }: SheetCellProps) {
 function SheetCellImpl(props: SheetCellProps) {
   if (props.focus) return <CellEditor {...props} />;
   const view = props.rowData ?? null;
-  const title = view?.kind === 'error' ? `${view.errorCode}: ${view.errorMessage}` : view?.spilled ? 'Filled by an array formula (read-only)' : view?.kind === 'number' ? String(view.value) : undefined;
+  const title = view?.kind === 'pending' ? 'Computing on the server; the value appears here when it is ready' : view?.kind === 'error' ? `${view.errorCode}: ${view.errorMessage}` : view?.spilled ? 'Filled by an array formula (read-only)' : view?.kind === 'number' ? String(view.value) : undefined;
   // The text sits in its own box so that what does not fit ends in an ellipsis (a flex container
   // would cut it off with no sign); a number's full value is in the tooltip.
   return (
