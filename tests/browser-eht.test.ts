@@ -79,6 +79,18 @@ describe('extended-Hückel formulas in the browser', () => {
     await screenshot(page, 'eht-values');
   }, 300_000);
 
+  it('shows the level ladder of the selected molecule with each level’s largest contributions', async () => {
+    const b1 = await gridCell(page, 'B1');
+    await page.mouse.click(b1!.x, b1!.y);
+    const ladder = page.getByTestId('eht-ladder');
+    await ladder.waitFor();
+    expect(await page.getByTestId('structure-panel').textContent()).toMatch(/Extended-Hückel levels of C=C/);
+    // Ethylene's HOMO is the C=C π bond: the two carbons' 2p, half each (as EHTHOMOMAKEUP says).
+    expect(await ladder.locator('[data-role="HOMO"]').textContent()).toMatch(/HOMO\s*C1 2p 0\.50; C2 2p 0\.50/);
+    expect(await ladder.locator('[data-role="LUMO"]').count()).toBe(1);
+    await screenshot(page, 'eht-ladder');
+  });
+
   it('shows the stored values again after a reload', async () => {
     await page.reload();
     await page.getByTestId('workbook-title').waitFor();
