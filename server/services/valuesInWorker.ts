@@ -3,12 +3,15 @@
 // cells or sums a million-row range then costs one worker, never the server's event loop or heap.
 // The worker answers with the finished JSON as bytes (moved, not copied), which the route sends as is.
 import { cellAddress } from '../../shared/a1.js';
-import { recalcWorkerLimits } from '../xlsx/limits.js';
+import type { AppContext } from '../context.js';
+import { recalcWorkerLimits, refusalAbout } from '../xlsx/limits.js';
 import { packCells, packedTransfer } from '../xlsx/packedCells.js';
 import { computePool } from '../xlsx/workerPool.js';
+import type { WorkbookAccess } from './access.js';
 import type { ValuesInput } from './values.js';
 import type { FreshStructure } from '../structures/workerResults.js';
-import type { JobStructures } from '../structures/structureService.js';
+import { jobStructures, type JobStructures } from '../structures/structureService.js';
+import { loadWorkbookInSlices } from './workbookSlices.js';
 
 export type ValuesBody = { bytes: Uint8Array };
 
@@ -24,4 +27,11 @@ export async function valuesFor(workbook: ValuesInput, owner?: string, structure
   });
   structures?.save(outcome.result.fresh);
   return { bytes: outcome.result.bytes };
+}
+
+/** The stored workbook's computed values as the JSON body of /values; a refusal is about the values. */
+export async function workbookValues(ctx: AppContext, access: WorkbookAccess, owner: string): Promise<Buffer> {
+  const workbook = await loadWorkbookInSlices(ctx, access);
+  const { bytes } = await valuesFor(workbook, owner, jobStructures(ctx, access.workbook.id)).catch(refusalAbout('values'));
+  return Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength);
 }

@@ -157,3 +157,9 @@ export interface JobStructures {
 export function jobStructures(ctx: AppContext, workbookId: string): JobStructures {
   return { stored: storedStructuresOf(ctx, workbookId), save: (fresh) => saveFreshStructures(ctx, workbookId, fresh) };
 }
+
+/** The JSON body of POST /structures; stored results are JSON text already, joined rather than parsed and serialised again. */
+export function structuresAnswer(ctx: AppContext, workbookId: string, inputs: StructureInput[]): string {
+  const { results } = requestStructures(ctx, workbookId, inputs);
+  return `{"results":[${results.map((r) => r ?? 'null').join(',')}],"underWay":${structuresUnderWay(workbookId)}}`;
+}
