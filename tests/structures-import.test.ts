@@ -82,7 +82,7 @@ describe('reading structure files', () => {
   });
 });
 
-describe('structure upload, values and export round trip', async () => {
+describe('structure upload, values and export round trip', { timeout: 300_000 }, async () => {
   const t = makeTestApp();
   const owner = await t.signUp('owner@example.com', 'Olive Owner');
   const created = await owner.agent.post('/api/workbooks').send({ title: 'Ligand screen' });

@@ -23,6 +23,10 @@ export async function valuesFor(workbook: ValuesInput, owner?: string, structure
     limits: recalcWorkerLimits,
     doing: 'computing the values',
     owner,
+    onProgress: (m) => {
+      const structure = (m as { structure?: FreshStructure }).structure;
+      if (structure) structures?.save([structure]);
+    },
     describeCell: (sheet, row, col) => (workbook.sheets[sheet] ? cellAddress(workbook.sheets[sheet].name, row, col) : `a cell of sheet ${sheet + 1}`),
   });
   structures?.save(outcome.result.fresh);

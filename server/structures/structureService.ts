@@ -17,7 +17,7 @@ export interface StructureInput {
 }
 
 /** Structures one worker job computes: small enough that results arrive steadily, large enough to amortise the trip. */
-const BATCH = 4;
+const BATCH = 2;
 /** Jobs in the compute pool at once for background structures: one per core, leaving /values and exports room to queue. */
 const MAX_RUNNING = 2;
 /** Structures waiting over the whole server; past it a request is told to come back later. */
@@ -38,6 +38,9 @@ const underWay = new Set<string>();
 let running = 0;
 /** Structures computed by the background queue since start (tests count recomputations with it). */
 let computed = 0;
+/** Times a structure alone ran past the worker's limits; a busy machine gets a second chance before the failure is stored. */
+const overLimit = new Map<string, number>();
+const TRIES = 2;
 
 export function structureComputations(): number {
   return computed;
@@ -93,8 +96,17 @@ async function runBatch(batch: Job[]) {
       for (const job of batch) await runBatch([job]);
       return;
     }
+    const hash = batch[0].hash;
+    const tries = (overLimit.get(hash) ?? 0) + 1;
+    // Busy or slow for now: not stored, so the next request queues it again.
+    if (e instanceof SpreadsheetError && e.code !== 'parse_out_of_memory' && tries < TRIES) {
+      overLimit.set(hash, tries);
+      return;
+    }
+    overLimit.delete(hash);
     const message = e instanceof SpreadsheetError ? `the structure could not be computed within the server's limits (${e.message})` : 'the structure could not be computed';
-    save(ctx, workbookId, [{ hash: batch[0].hash, json: JSON.stringify({ error: { kind: 'VALUE', message } }), computeMs: 0 }]);
+    save(ctx, workbookId, [{ hash, json: JSON.stringify({ error: { kind: 'VALUE', message } }), computeMs: 0 }]);
+    computed++;
   }
 }
 

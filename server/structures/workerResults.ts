@@ -18,8 +18,12 @@ export interface StructureSession {
   fresh: FreshStructure[];
 }
 
-/** Registers a resolver for one job; call the returned `end` when the job is done. */
-export function useStructures(stored: StoredStructures | undefined): StructureSession & { end: () => void } {
+/**
+ * Registers a resolver for one job; call the returned `end` when the job is done. Each structure
+ * computed anew is handed to `post` at once (the parent stores it), so a job stopped at its time
+ * limit still keeps what it finished, and asking again goes further.
+ */
+export function useStructures(stored: StoredStructures | undefined, post?: (fresh: FreshStructure) => void): StructureSession & { end: () => void } {
   const session: StructureSession = { fresh: [] };
   const parsed = new Map<string, ReturnType<typeof computeEhtResult>>();
   setStructureResolver(({ structure, charge, key }) => {
@@ -32,7 +36,9 @@ export function useStructures(stored: StoredStructures | undefined): StructureSe
     else {
       const started = performance.now();
       result = computeEhtResult(structure, charge);
-      session.fresh.push({ hash, json: JSON.stringify(result), computeMs: Math.round(performance.now() - started) });
+      const fresh = { hash, json: JSON.stringify(result), computeMs: Math.round(performance.now() - started) };
+      if (post) post(fresh);
+      else session.fresh.push(fresh);
     }
     parsed.set(hash, result);
     return result;

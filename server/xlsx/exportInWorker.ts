@@ -44,6 +44,8 @@ export async function exportInWorker(output: Writable, workbook: ExportWorkbook,
     doing: 'writing the export',
     describeCell: (sheet, row, col) => (workbook.sheets[sheet] ? cellAddress(workbook.sheets[sheet].name, row, col) : `a cell of sheet ${sheet + 1}`),
     onProgress: (m) => {
+      const structure = (m as { structure?: FreshStructure }).structure;
+      if (structure) return options.structures?.save([structure]);
       const chunk = (m as { chunk?: Uint8Array }).chunk;
       if (!chunk || output.destroyed || stop.signal.aborted) return;
       if (bytes + chunk.byteLength > maxExportBytes) {

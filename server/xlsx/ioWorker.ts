@@ -95,7 +95,7 @@ parentPort!.on('message', async (job: IoJob & { evaluating?: SharedArrayBuffer }
       }),
   );
   // Stored structure results for this job; what the job computes anew goes back with its result.
-  structures = useStructures('structures' in job ? job.structures : undefined);
+  structures = useStructures('structures' in job ? job.structures : undefined, (structure) => parentPort!.postMessage({ structure }));
   try {
     const { result, transfer } = await run(job);
     parentPort!.postMessage({ done: true, ok: true, result, heapUsedBytes: process.memoryUsage().heapUsed }, transfer ?? []);
