@@ -42,7 +42,7 @@ function libraryCells(smiles: string[]): [number, number, string][] {
   return cells;
 }
 
-/** Installed before the page's own scripts: long tasks and the longest gap between animation frames. */
+/** Installed before the page's own scripts: long tasks and the longest delay of a 50 ms timer. */
 function stallProbe() {
   const w = window as unknown as { __stall: { longest: number; over250: number; gap: number } };
   w.__stall = { longest: 0, over250: 0, gap: 0 };
