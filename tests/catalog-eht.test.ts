@@ -111,3 +111,16 @@ describe('bad input comes back as a cell error naming the problem', () => {
       expect(value.message).toMatch(message);
     });
 });
+
+describe('model limits in help and docs', () => {
+  it('states in every entry and in docs/eht.md: no self-consistency, exaggerated charges, qualitative energies, and the usual caution', async () => {
+    const { catalog } = await import('../functions/catalog/index.js');
+    const fs = await import('node:fs');
+    const entries = catalog.filter((e) => e.family === 'Extended Hückel' && e.name !== 'EHTGEOMETRY');
+    expect(entries.length).toBeGreaterThanOrEqual(8);
+    const docs = fs.readFileSync(new URL('../docs/eht.md', import.meta.url), 'utf8').replace(/\s+/g, ' ');
+    for (const text of [...entries.map((e) => e.source), docs]) {
+      for (const words of ['no self-consistency', 'exaggerated', 'qualitative', 'safety data sheets', 'qualified review']) expect(text).toContain(words);
+    }
+  });
+});
