@@ -83,7 +83,11 @@ export function standingMessage(sheetName: string, s: SheetStanding): string {
 }
 
 function blockMessage(where: string, block: EditBlock, sheetName: string): string {
-  if (block.kind === 'sheet') return `${where}: ${standingMessage(sheetName, block.standing)}`;
+  if (block.kind === 'sheet') {
+    const { lock, source } = block.standing;
+    if (source === 'lock' && lock) return `${where} is on sheet "${sheetName}", locked by ${lock.lockedBy.name} on ${isoDay(lock.createdAt)} ("${lock.reason}"); only ${listNames(lock.editors)} may change it`;
+    return `${where} is on sheet "${sheetName}": ${standingMessage(sheetName, block.standing)}`;
+  }
   const r = block.range;
   return `${where} is in the protected range ${sheetReference(sheetName)}!${r.range}, set by ${r.createdBy.name}; only ${listNames(r.editors)} may edit it`;
 }
