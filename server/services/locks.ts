@@ -141,3 +141,10 @@ export function dropFromEditorLists(tx: Tx, workbookId: string, userId: string):
     tx.update(protectedRanges).set({ editors: without(r.editors) }).where(eq(protectedRanges.id, r.id)).run();
   }
 }
+
+/** Takes a member off the editor names of every lock in the workbook (they were made a viewer). */
+export function dropLockNamesOf(tx: Tx, workbookId: string, userId: string): void {
+  const sheetIds = tx.select({ id: sheets.id }).from(sheets).where(eq(sheets.workbookId, workbookId)).all().map((s) => s.id);
+  if (sheetIds.length === 0) return;
+  tx.delete(sheetRoles).where(and(inArray(sheetRoles.sheetId, sheetIds), eq(sheetRoles.userId, userId), eq(sheetRoles.viaLock, true))).run();
+}

@@ -23,16 +23,16 @@ function names(people: readonly UserRef[]): string {
 
 /** Why a sheet is view-only for me, in words (the tab's hover, a greyed cell, a disabled control). */
 export function standingReason(s: SheetStanding): string {
-  if (s.source === 'lock' && s.lock) return `View only: locked by ${s.lock.lockedBy.name} (“${s.lock.reason}”). Editors of this sheet: ${names(s.lock.editors)}.`;
-  if (s.source === 'override' && s.override) return `View only: ${s.override.setBy.name} made you a viewer of this sheet. An owner can change it in the team panel.`;
-  return 'View only: your role in this workbook is viewer. An owner can give you a sheet in the team panel.';
+  if (s.source === 'lock' && s.lock) return `View only — ${s.lock.lockedBy.name} locked this sheet: “${s.lock.reason}”. Editors here: ${names(s.lock.editors)}.`;
+  if (s.source === 'override' && s.override) return `View only — ${s.override.setBy.name} made you a viewer of this sheet; an owner can change that in the team panel.`;
+  return 'View only — you view this workbook; an owner can open a sheet to you in the team panel.';
 }
 
 /** The sentence a greyed cell shows on hover and a refused edit reports. */
 export function blockReason(block: EditBlock): string {
   if (block.kind === 'sheet') return standingReason(block.standing);
   const { range } = block;
-  return `View only: ${range.range} is protected by ${range.createdBy.name}. Editors of it: ${names(range.editors)}.`;
+  return `View only — ${range.range} is protected by ${range.createdBy.name}. Editors of the range: ${names(range.editors)}.`;
 }
 
 /**
@@ -40,6 +40,8 @@ export function blockReason(block: EditBlock): string {
  * null. Standing is looked up once per sheet, so the grid's per-cell calls stay cheap.
  */
 export function editRuleFor(protection: Protection, who: SheetActor): ((sheetId: string, row: number, col: number) => string | null) | null {
+  const nothingSet = protection.locks.length === 0 && protection.sheetRoles.length === 0 && protection.protectedRanges.length === 0;
+  if (nothingSet && (who.role === 'owner' || who.role === 'editor')) return null;
   const bySheet = new Map<string, string | null>();
   return (sheetId, row, col) => {
     if (!bySheet.has(sheetId)) {
