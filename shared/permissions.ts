@@ -142,3 +142,24 @@ const sourceWords: Record<SheetRoleSource, string> = {
 export function sheetRefusalReason(sheetName: string, effective: EffectiveSheetRole, action: SheetAction): string {
   return `you are a viewer of sheet "${sheetName}" (${sourceWords[effective.source]}), so you cannot ${sheetActions[action]} it`;
 }
+
+/**
+ * Why a user may not lock, protect ranges on or set roles on a sheet, or null when they may: owners
+ * on any sheet; editors on sheets they created and still edit, and only what they set themselves
+ * (`setBy`, when replacing or lifting). Without a sheet, checks the workbook role alone. The server
+ * refuses with this reason and the client disables its controls with it.
+ */
+export function sheetManageRefusal(
+  roles: readonly AccessRole[],
+  userId: string,
+  sheet?: { name: string; createdBy: string | null | undefined },
+  opts: { setBy?: string; myRoleOnSheet?: SheetRole } = {},
+): string | null {
+  if (canAny(roles, 'lockAnySheet')) return null;
+  if (!canAny(roles, 'lockOwnSheet')) return refusalReason(roles[0] ?? 'viewer', 'lockAnySheet');
+  if (!sheet) return null;
+  if (sheet.createdBy !== userId) return `as an editor you can lock, protect or give roles only on sheets you created, and "${sheet.name}" is someone else's; ask an owner`;
+  if (opts.myRoleOnSheet && opts.myRoleOnSheet !== 'editor') return `you are a viewer of "${sheet.name}" now, so you cannot change who may edit it; ask an owner`;
+  if (opts.setBy !== undefined && opts.setBy !== userId) return `as an editor you cannot change or lift what someone else set on "${sheet.name}"; ask them or an owner`;
+  return null;
+}

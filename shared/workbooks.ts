@@ -120,6 +120,8 @@ export interface SheetPayload {
   position: number;
   settings: SheetSettings;
   cells: CellEntry[];
+  /** Who added the sheet (in the workbook load): editors manage roles only on sheets they created. */
+  createdBy?: string | null;
 }
 
 export interface WorkbookSummary {

@@ -146,7 +146,7 @@ describe('roles per sheet', () => {
     });
     expect(res.status).toBe(200);
     const book = new ExcelJS.Workbook();
-    await book.xlsx.load(res.body as Buffer);
+    await book.xlsx.load(res.body as unknown as ArrayBuffer);
     const protectedSheet = (name: string) => (book.getWorksheet(name) as unknown as { sheetProtection?: { sheet?: boolean } }).sheetProtection?.sheet ?? false;
     expect(protectedSheet('Sheet1')).toBe(true); // Bob only views it
     expect(protectedSheet('Open')).toBe(false); // opening a sheet to one more person closes it to nobody

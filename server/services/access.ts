@@ -4,7 +4,7 @@
 // Sharing, roles, sheet roles and locks widen these checks here, never in the routes.
 import { and, desc, eq } from 'drizzle-orm';
 import type { User } from 'lucia';
-import { accessRoles, allowedActions, canAny, refusalReason, type AccessRole, type WorkbookAction, type WorkbookRole } from '../../shared/permissions.js';
+import { accessRoles, allowedActions, canAny, refusalReason, sheetManageRefusal, type AccessRole, type WorkbookAction, type WorkbookRole } from '../../shared/permissions.js';
 import { editsSomeSheet, sheetStanding, type Protection, type SheetActor, type SheetStanding } from '../../shared/team.js';
 import type { WorkbookPayload, WorkbookSummary } from '../../shared/workbooks.js';
 import type { AppContext } from '../context.js';
@@ -128,10 +128,6 @@ export function listVisibleWorkbooks(ctx: AppContext, user: AccessUser): Workboo
  * the role alone (before a request body is read).
  */
 export function requireLockRight(access: WorkbookAccess, userId: string, sheet?: { name: string; createdBy: string | null }, setBy?: string, standing?: SheetStanding): void {
-  if (canAny(access.roles, 'lockAnySheet')) return;
-  if (!canAny(access.roles, 'lockOwnSheet')) throw forbidden(refusalReason(access.role, 'lockAnySheet'));
-  if (!sheet) return;
-  if (sheet.createdBy !== userId) throw forbidden(`as an editor you can lock, protect or give roles only on sheets you created, and "${sheet.name}" is someone else's; ask an owner`);
-  if (standing && standing.role !== 'editor') throw forbidden(`you are a viewer of "${sheet.name}" now, so you cannot change who may edit it; ask an owner`);
-  if (setBy !== undefined && setBy !== userId) throw forbidden(`as an editor you cannot change or lift what someone else set on "${sheet.name}"; ask them or an owner`);
+  const refusal = sheetManageRefusal(access.roles, userId, sheet, { setBy, myRoleOnSheet: standing?.role });
+  if (refusal) throw forbidden(refusal);
 }

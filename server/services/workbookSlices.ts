@@ -57,7 +57,7 @@ export async function loadWorkbookInSlices(ctx: AppContext, access: WorkbookAcce
       revision: before.revision,
       role: access.role,
       actions: before.actions,
-      sheets: before.tabs.map((s) => ({ id: s.id, name: s.name, position: s.position, settings: s.settings, cells: bySheet.get(s.id) ?? [] })),
+      sheets: before.tabs.map((s) => ({ id: s.id, name: s.name, position: s.position, settings: s.settings, cells: bySheet.get(s.id) ?? [], createdBy: s.createdBy })),
       ...before.protection,
       mySheetRoles: before.mySheetRoles,
     };

@@ -43,7 +43,7 @@ export function loadWorkbook(ctx: AppContext, access: WorkbookAccess): WorkbookP
       revision,
       role: access.role,
       actions: actionsFor(tx, workbook.id, access.userId, access.roles),
-      sheets: tabs.map((s) => ({ id: s.id, name: s.name, position: s.position, settings: s.settings, cells: bySheet.get(s.id) ?? [] })),
+      sheets: tabs.map((s) => ({ id: s.id, name: s.name, position: s.position, settings: s.settings, cells: bySheet.get(s.id) ?? [], createdBy: s.createdBy })),
       ...protection,
       mySheetRoles: mySheetRoles(tx, workbook.id, access.userId, protection, tabs),
     };
