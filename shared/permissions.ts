@@ -152,7 +152,7 @@ export function sheetRefusalReason(sheetName: string, effective: EffectiveSheetR
 export function sheetManageRefusal(
   roles: readonly AccessRole[],
   userId: string,
-  sheet?: { name: string; createdBy: string | null | undefined },
+  sheet?: { name: string; createdBy?: string | null },
   opts: { setBy?: string; myRoleOnSheet?: SheetRole } = {},
 ): string | null {
   if (canAny(roles, 'lockAnySheet')) return null;

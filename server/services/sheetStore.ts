@@ -50,7 +50,7 @@ function commit(ctx: AppContext, workbookId: string, userId: string, build: (tx:
 
 function sheetResult(ctx: AppContext, workbookId: string, sheetId: string, revision: number): SheetMutationResult {
   const sheet = sheetOf(workbookSheets(ctx.db, workbookId), sheetId);
-  return { revision, sheet: { id: sheet.id, name: sheet.name, position: sheet.position, settings: sheet.settings } };
+  return { revision, sheet: { id: sheet.id, name: sheet.name, position: sheet.position, settings: sheet.settings, createdBy: sheet.createdBy } };
 }
 
 export function addSheet(ctx: AppContext, workbookId: string, userId: string, input: CreateSheetInput): SheetMutationResult {

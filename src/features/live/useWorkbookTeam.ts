@@ -18,7 +18,7 @@ import { LatestThrottle } from './presenceThrottle.js';
 import { addSetAside, loadSetAside, saveSetAside } from './setAside.js';
 import { useLiveUpdates, type LiveState } from './useLiveUpdates.js';
 
-export type TeamDialog = 'share' | 'protect' | 'history' | 'audit' | null;
+export type TeamDialog = 'team' | 'protect' | 'history' | 'audit' | null;
 
 export interface WorkbookTeam {
   myId: string;
