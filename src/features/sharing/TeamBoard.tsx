@@ -10,6 +10,7 @@ import { sheetStanding, type Invitation, type Member, type PresenceUser, type Pr
 import { Button } from '../../components/ui/Button.js';
 import { memberColour } from './memberColour.js';
 
+
 export interface BoardSheet {
   id: string;
   name: string;
@@ -79,6 +80,8 @@ export function TeamBoard(p: {
   onWithdraw: (invitation: Invitation) => void;
 }) {
   const me = p.members.find((m) => m.user.id === p.myId);
+  // Colours by place on the board, so no two rows share one.
+  const colourOf = (userId: string) => memberColour(Math.max(0, p.members.findIndex((m) => m.user.id === userId)));
   const here = new Map(p.presence.map((u) => [u.userId, u]));
   const sheetName = (id: string) => p.sheets.find((s) => s.id === id)?.name;
   return (
@@ -97,7 +100,7 @@ export function TeamBoard(p: {
               return (
                 <th key={s.id} scope="col" className="min-w-28 px-2 py-1.5 text-center font-semibold">
                   <span className="font-mono text-ink-2">{s.name}</span>
-                  {count > 0 && <span className="ml-1 font-normal text-accent">· {count} here</span>}
+                  {count > 0 && <span className="font-normal text-accent">{` · ${count} here`}</span>}
                 </th>
               );
             })}
@@ -118,7 +121,7 @@ export function TeamBoard(p: {
               <tr key={m.user.id} aria-label={m.user.name} aria-busy={p.busyMember === m.user.id || undefined} className="hover:bg-hover/40">
                 <th scope="row" className="sticky left-0 z-10 bg-surface px-3 py-1.5 text-left font-normal">
                   <span className="flex items-center gap-2">
-                    <span aria-hidden="true" className="size-2.5 shrink-0 rounded-full" style={{ background: memberColour(m.user.id) }} />
+                    <span aria-hidden="true" className="size-2.5 shrink-0 rounded-full" style={{ background: colourOf(m.user.id) }} />
                     <span className="min-w-0">
                       <span className="block truncate font-medium text-ink">
                         {m.user.name}
@@ -159,7 +162,7 @@ export function TeamBoard(p: {
                           aria-hidden="true"
                           title={`${m.user.name} is here`}
                           className="absolute top-1 right-1.5 size-2 rounded-full ring-2 ring-surface"
-                          style={{ background: memberColour(m.user.id) }}
+                          style={{ background: colourOf(m.user.id) }}
                         />
                       )}
                     </td>
@@ -169,7 +172,7 @@ export function TeamBoard(p: {
                   {mine ? (
                     <span className="text-ink-3">this page</span>
                   ) : at ? (
-                    <span className="font-mono" style={{ color: memberColour(m.user.id) }}>
+                    <span className="font-mono" style={{ color: colourOf(m.user.id) }}>
                       {atSheet && at.cell ? `${atSheet}!${cellName(at.cell.row, at.cell.col)}` : 'open'}
                     </span>
                   ) : (

@@ -1,11 +1,5 @@
-// Each member's own colour on the team board and beside their position: picked from the member's
-// id, so it stays the same on every page and for every colleague.
+// Each member's colour on the team board (their dot, where they are now): by their place in the
+// member list, so no two rows of one board share a colour while there are fewer than eight.
 const hues = [200, 28, 152, 280, 340, 96, 236, 12];
 
-export function memberHue(userId: string): number {
-  let h = 0;
-  for (let i = 0; i < userId.length; i++) h = (h * 31 + userId.charCodeAt(i)) >>> 0;
-  return hues[h % hues.length];
-}
-
-export const memberColour = (userId: string) => `hsl(${memberHue(userId)} 55% 42%)`;
+export const memberColour = (place: number) => `hsl(${hues[place % hues.length]} 55% 42%)`;
