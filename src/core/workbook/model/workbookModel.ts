@@ -141,7 +141,7 @@ export class WorkbookModel {
   readOnlyReason(sheetId: string, row: number, col: number): string | null {
     if (this.readOnly) return 'View only — you view this workbook.';
     const rows = this.sheetsById.get(sheetId)?.rows;
-    if (rows ? rows[row]?.[col]?.spilled : this.isSpilled(sheetId, row, col)) return 'filled by an array formula in another cell';
+    if (rows ? rows[row]?.[col]?.spilled : this.isSpilled(sheetId, row, col)) return 'View only — filled by an array formula in another cell.';
     return this.extraRule?.(sheetId, row, col) ?? null;
   }
 
