@@ -1,17 +1,18 @@
 // The one place that decides whether a user may see or act on a workbook, and with which role on
-// each sheet. Routes call requireWorkbook(); services that write call sheetActor() inside their
-// transaction. The rules themselves are the table and effectiveSheetRole() in shared/permissions.ts.
-// Sharing, roles, sheet roles and locks widen these checks here, never in the routes.
+// each sheet. Routes reach it through the access() middleware (server/routes/access.ts), services
+// through requireWorkbook() and, inside their writing transaction, sheetActor(). The rules themselves
+// are the table and effectiveSheetRole() in shared/permissions.ts. Sharing, roles, sheet roles and
+// locks widen these checks here, never in the routes.
 import { and, desc, eq } from 'drizzle-orm';
 import type { User } from 'lucia';
-import { accessRoles, allowedActions, canAny, refusalReason, sheetManageRefusal, type AccessRole, type WorkbookAction, type WorkbookRole } from '../../shared/permissions.js';
+import { accessRoles, allowedActions, canAny, refusalReason, sheetManageRefusal, type AccessRole, type SheetRole, type SheetRoleSource, type WorkbookAction, type WorkbookRole } from '../../shared/permissions.js';
 import { editsSomeSheet, sheetStanding, type Protection, type SheetActor, type SheetStanding } from '../../shared/team.js';
 import type { WorkbookPayload, WorkbookSummary } from '../../shared/workbooks.js';
 import type { AppContext } from '../context.js';
-import { users, workbookMembers, workbooks } from '../db/schema.js';
+import { sheets, users, workbookMembers, workbooks } from '../db/schema.js';
 import { forbidden, notFound } from '../errors.js';
 import type { Tx } from './cellStore.js';
-import { loadProtection } from './protection.js';
+import { assertMayChangeSheet, loadProtection } from './protection.js';
 
 type Reader = Pick<Tx, 'select'>;
 
@@ -23,6 +24,8 @@ export interface WorkbookAccess {
   role: AccessRole;
   roles: AccessRole[];
   userId: string;
+  /** On a route about one sheet: the user's role on it, and why. */
+  sheet?: { id: string; role: SheetRole; source: SheetRoleSource };
 }
 
 type AccessUser = Pick<User, 'id' | 'siteRole'>;
@@ -43,19 +46,32 @@ export function memberRoleIn(tx: Reader, workbookId: string, userId: string): Wo
 }
 
 /**
- * Loads a workbook for a user about to do `action`. Someone with no right to see the workbook at all
- * gets 404 (its existence is not revealed); someone who can see it but not do this gets 403 with why.
+ * Loads a workbook for a user about to do `action` (or, given a list, any one of them; a refusal
+ * names the first). Someone with no right to see the workbook at all gets 404 (its existence is not
+ * revealed); someone who can see it but not do this gets 403 with why.
  */
-export function requireWorkbook(ctx: AppContext, user: AccessUser, workbookId: string, action: WorkbookAction): WorkbookAccess {
+export function requireWorkbook(ctx: AppContext, user: AccessUser, workbookId: string, action: WorkbookAction | readonly WorkbookAction[], opts: { sheetId?: string } = {}): WorkbookAccess {
   const workbook = ctx.db.select().from(workbooks).where(eq(workbooks.id, workbookId)).get();
   if (!workbook) throw notFound('workbook');
   const member = memberRole(ctx, workbookId, user.id);
   const roles = accessRoles(member, user.siteRole);
   if (!canAny(roles, 'view')) throw notFound('workbook');
   const role = roles[0];
-  if (!canAny(roles, action) && !(action === 'editCells' && editsThroughSheetRole(ctx.db, workbookId, { id: user.id, role: member }))) throw forbidden(refusalReason(role, action));
-  return { workbook, role, roles, userId: user.id };
+  const actions: readonly WorkbookAction[] = typeof action === 'string' ? [action] : action;
+  const who: SheetActor = { id: user.id, role: member };
+  const allowed = actions.some((a) => canAny(roles, a) || (a === 'editCells' && editsThroughSheetRole(ctx.db, workbookId, who)));
+  if (!allowed) throw forbidden(refusalReason(role, actions[0]));
+  if (opts.sheetId === undefined) return { workbook, role, roles, userId: user.id };
+  // A route about one sheet: the user's role on it decides too, in the words the service would use.
+  const sheet = ctx.db.select({ id: sheets.id, name: sheets.name }).from(sheets).where(and(eq(sheets.id, opts.sheetId), eq(sheets.workbookId, workbookId))).get();
+  if (!sheet) throw notFound('sheet');
+  const standing = sheetStanding(loadProtection(ctx.db, workbookId), who, sheet.id);
+  if (actions.some((a) => sheetScoped.includes(a))) assertMayChangeSheet(ctx.db, workbookId, who, sheet.id, sheet.name);
+  return { workbook, role, roles, userId: user.id, sheet: { id: sheet.id, role: standing.role, source: standing.source } };
 }
+
+/** Actions that, on a route about one sheet, also need the editor role on that sheet. */
+const sheetScoped: readonly WorkbookAction[] = ['editCells', 'editSheets'];
 
 /**
  * A workbook viewer whom some sheet names editor may send cell changes: which cells is decided
