@@ -221,3 +221,43 @@ describe('presence throttling', () => {
   });
 });
 
+
+// ---- the rule for a member's role on one sheet ----
+
+import { effectiveSheetRole } from '../shared/permissions.js';
+
+describe("a member's role on a sheet", () => {
+  // Written out by hand from the rule as the team agreed it: an override wins either way; otherwise a
+  // workbook viewer views, a lock makes everyone else a viewer, and the workbook role holds.
+  //               workbook role  locked  override   → role, source
+  const table: [('owner' | 'editor' | 'viewer' | null), boolean, ('editor' | 'viewer' | null), string, string][] = [
+    ['owner', false, null, 'editor', 'workbook'],
+    ['owner', true, null, 'viewer', 'lock'],
+    ['owner', true, 'editor', 'editor', 'override'],
+    ['editor', false, null, 'editor', 'workbook'],
+    ['editor', false, 'viewer', 'viewer', 'override'],
+    ['editor', true, null, 'viewer', 'lock'],
+    ['editor', true, 'editor', 'editor', 'override'],
+    ['viewer', false, null, 'viewer', 'workbook'],
+    ['viewer', false, 'editor', 'editor', 'override'],
+    ['viewer', true, null, 'viewer', 'workbook'],
+    ['viewer', true, 'editor', 'editor', 'override'],
+    [null, false, null, 'viewer', 'workbook'], // a site admin looking in
+  ];
+  it.each(table)('%s, locked %s, override %s → %s (%s)', (role, locked, override, expectedRole, source) => {
+    expect(effectiveSheetRole(role, { locked, override })).toEqual({ role: expectedRole, source });
+  });
+
+  it('greys every cell of a sheet that makes a workbook editor its viewer, and opens one to a workbook viewer', () => {
+    const p: Protection = {
+      locks: [],
+      sheetRoles: [{ sheetId: 's1', overrides: [{ user: cy, role: 'viewer', setBy: ada, viaLock: false, since: 0 }, { user: ben, role: 'editor', setBy: ada, viaLock: false, since: 0 }] }],
+      protectedRanges: [],
+    };
+    expect(isCellEditable(p, { id: cy.id, role: 'editor' }, 's1', 3, 3)).toBe(false);
+    expect(isCellEditable(p, { id: cy.id, role: 'editor' }, 's2', 3, 3)).toBe(true);
+    expect(isCellEditable(p, { id: ben.id, role: 'viewer' }, 's1', 3, 3)).toBe(true);
+    expect(isCellEditable(p, { id: ben.id, role: 'viewer' }, 's2', 3, 3)).toBe(false);
+    expect(editRuleFor(p, { id: cy.id, role: 'editor' })!('s1', 0, 0)).toBe('View only — Ada Okafor made you a viewer of this sheet; an owner can change that in the team panel.');
+  });
+});
