@@ -220,6 +220,13 @@ describe('two people on one workbook', () => {
     // Deleting or renaming the tab would be refused: disabled, saying why.
     const del = b.getByRole('button', { name: 'Delete', exact: true });
     expect([await del.isDisabled(), await del.getAttribute('title')]).toEqual([true, why]);
+    // Unlocking would be refused (an editor lifts only locks on sheets they created): disabled, saying why.
+    await b.getByRole('button', { name: 'Protect', exact: true }).click();
+    const theirs = b.getByRole('dialog', { name: 'Protect “Sheet1”' });
+    const unlock = theirs.getByRole('button', { name: 'Unlock' });
+    expect(await unlock.isDisabled()).toBe(true);
+    expect(await unlock.locator('xpath=..').getAttribute('title')).toMatch(/only on sheets you created, and "Sheet1" is someone else's/);
+    await theirs.getByRole('button', { name: 'Done' }).click();
     expect(await saveState(b).getAttribute('data-state')).toBe('saved');
     await screenshot(b, 'team-locked-sheet-other-window');
     expect(editor.errors).toEqual([]);
