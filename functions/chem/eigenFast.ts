@@ -1,80 +1,113 @@
 // A dense real symmetric eigensolver on flat Float64Arrays for the PPP model, whose SCF diagonalises a
-// small Fock matrix dozens of times and whose CIS matrix reaches a few hundred rows: Householder
+// small Fock matrix a dozen times and whose CIS matrix reaches a few hundred rows: Householder
 // reduction to tridiagonal form followed by the QL algorithm with implicit shifts (the EISPACK
 // routines tred2/tql2 as given in W. H. Press et al., Numerical Recipes, 2nd ed. (1992), §11.2–11.3).
-// eigen.ts keeps ml-matrix for the Hückel family; tests/chem-ppp-eigen.test.ts checks that this
-// solver agrees with it.
+// The arithmetic is theirs; the loops are reordered so every inner loop walks a row (contiguous
+// memory): the product A·u of tred2 is taken from the stored lower triangle row by row, the
+// accumulation of the Householder matrices gathers a whole row of sums at once, and the QL rotations
+// act on the transposed transformation, so they combine two rows instead of two columns.
+// eigen.ts keeps ml-matrix for the Hückel family; tests/chem-ppp-eigen.test.ts checks this solver
+// against mathjs.
 import { ChemError } from './errors.js';
 
 export interface FlatEigen {
   /** Eigenvalues ascending. */
   values: Float64Array;
-  /** Eigenvector k is column k: vectors[i * n + k]. */
+  /** Eigenvector k is row k: vectors[k * n + i] (empty with valuesOnly). */
   vectors: Float64Array;
 }
 
-/** Eigen-decomposition of the symmetric n×n matrix `a` (row-major; overwritten). With valuesOnly the vectors are not accumulated (about three times faster) and `vectors` is empty. */
-export function symmetricEigen(a: Float64Array, n: number, valuesOnly = false): FlatEigen {
-  const d = new Float64Array(n);
-  const e = new Float64Array(n);
-  const z = a; // Householder transforms accumulate into z in place
-  // tred2
+/** Householder tridiagonalisation (tred2) of the lower triangle of `z`, in place: diagonal to d, sub-diagonal to e[1..], the orthogonal transformation (unless valuesOnly) left in z. */
+function tridiagonalise(z: Float64Array, n: number, d: Float64Array, e: Float64Array, valuesOnly: boolean) {
   for (let i = n - 1; i > 0; i--) {
     const l = i - 1;
+    const ri = i * n;
     let h = 0;
     if (l > 0) {
       let scale = 0;
-      for (let k = 0; k <= l; k++) scale += Math.abs(z[i * n + k]);
-      if (scale === 0) e[i] = z[i * n + l];
+      for (let k = 0; k <= l; k++) scale += Math.abs(z[ri + k]);
+      if (scale === 0) e[i] = z[ri + l];
       else {
         for (let k = 0; k <= l; k++) {
-          z[i * n + k] /= scale;
-          h += z[i * n + k] * z[i * n + k];
+          z[ri + k] /= scale;
+          h += z[ri + k] * z[ri + k];
         }
-        let f = z[i * n + l];
+        let f = z[ri + l];
         const g = f >= 0 ? -Math.sqrt(h) : Math.sqrt(h);
         e[i] = scale * g;
         h -= f * g;
-        z[i * n + l] = f - g;
+        z[ri + l] = f - g;
+        // p = A·u/h with A the leading (l+1)×(l+1) block held in its lower triangle: row j gives
+        // Σ_{k≤j} A_jk u_k to p_j and A_jk u_j to every p_k, k < j.
+        for (let j = 0; j <= l; j++) e[j] = 0;
+        for (let j = 0; j <= l; j++) {
+          const rj = j * n;
+          const uj = z[ri + j];
+          z[rj + i] = uj / h; // u/h kept in column i for the accumulation below
+          let s = 0;
+          for (let k = 0; k < j; k++) {
+            const ajk = z[rj + k];
+            s += ajk * z[ri + k];
+            e[k] += ajk * uj;
+          }
+          e[j] += s + z[rj + j] * uj;
+        }
         f = 0;
         for (let j = 0; j <= l; j++) {
-          z[j * n + i] = z[i * n + j] / h;
-          let gg = 0;
-          for (let k = 0; k <= j; k++) gg += z[j * n + k] * z[i * n + k];
-          for (let k = j + 1; k <= l; k++) gg += z[k * n + j] * z[i * n + k];
-          e[j] = gg / h;
-          f += e[j] * z[i * n + j];
+          e[j] /= h;
+          f += e[j] * z[ri + j];
         }
         const hh = f / (h + h);
         for (let j = 0; j <= l; j++) {
-          const ff = z[i * n + j];
+          const ff = z[ri + j];
           const gj = (e[j] -= hh * ff);
-          for (let k = 0; k <= j; k++) z[j * n + k] -= ff * e[k] + gj * z[i * n + k];
+          const rj = j * n;
+          for (let k = 0; k <= j; k++) z[rj + k] -= ff * e[k] + gj * z[ri + k];
         }
       }
-    } else e[i] = z[i * n + l];
+    } else e[i] = z[ri + l];
     d[i] = h;
   }
   d[0] = 0;
   e[0] = 0;
+  if (valuesOnly) {
+    for (let i = 0; i < n; i++) d[i] = z[i * n + i];
+    return;
+  }
+  const g = new Float64Array(n);
   for (let i = 0; i < n; i++) {
-    const l = i - 1;
-    if (valuesOnly) {
-      d[i] = z[i * n + i];
-      continue;
-    }
+    const ri = i * n;
     if (d[i] !== 0) {
-      for (let j = 0; j <= l; j++) {
-        let g = 0;
-        for (let k = 0; k <= l; k++) g += z[i * n + k] * z[k * n + j];
-        for (let k = 0; k <= l; k++) z[k * n + j] -= g * z[k * n + i];
+      // g_j = Σ_k z_ik z_kj and z_kj −= g_j z_ki for all j < i at once, row by row.
+      g.fill(0, 0, i);
+      for (let k = 0; k < i; k++) {
+        const zik = z[ri + k];
+        const rk = k * n;
+        for (let j = 0; j < i; j++) g[j] += zik * z[rk + j];
+      }
+      for (let k = 0; k < i; k++) {
+        const rk = k * n;
+        const zki = z[rk + i];
+        for (let j = 0; j < i; j++) z[rk + j] -= g[j] * zki;
       }
     }
-    d[i] = z[i * n + i];
-    z[i * n + i] = 1;
-    for (let j = 0; j <= l; j++) z[j * n + i] = z[i * n + j] = 0;
+    d[i] = z[ri + i];
+    z[ri + i] = 1;
+    for (let j = 0; j < i; j++) z[j * n + i] = z[ri + j] = 0;
   }
-  // tqli
+}
+
+function transpose(z: Float64Array, n: number) {
+  for (let i = 0; i < n; i++)
+    for (let j = 0; j < i; j++) {
+      const t = z[i * n + j];
+      z[i * n + j] = z[j * n + i];
+      z[j * n + i] = t;
+    }
+}
+
+/** QL with implicit shifts (tqli) on the tridiagonal d, e; rotations applied to the rows of zt (the transposed transformation) unless valuesOnly. */
+function diagonaliseTridiagonal(d: Float64Array, e: Float64Array, n: number, zt: Float64Array, valuesOnly: boolean) {
   for (let i = 1; i < n; i++) e[i - 1] = e[i];
   e[n - 1] = 0;
   for (let l = 0; l < n; l++) {
@@ -95,7 +128,7 @@ export function symmetricEigen(a: Float64Array, n: number, valuesOnly = false): 
         let p = 0;
         let i: number;
         for (i = m - 1; i >= l; i--) {
-          let f = s * e[i];
+          const f = s * e[i];
           const b = c * e[i];
           e[i + 1] = r = Math.hypot(f, g);
           if (r === 0) {
@@ -109,12 +142,16 @@ export function symmetricEigen(a: Float64Array, n: number, valuesOnly = false): 
           r = (d[i] - g) * s + 2 * c * b;
           d[i + 1] = g + (p = s * r);
           g = c * r - b;
-          if (!valuesOnly)
+          if (!valuesOnly) {
+            const ri = i * n;
+            const rn = ri + n;
             for (let k = 0; k < n; k++) {
-              f = z[k * n + i + 1];
-              z[k * n + i + 1] = s * z[k * n + i] + c * f;
-              z[k * n + i] = c * z[k * n + i] - s * f;
+              const zn = zt[rn + k];
+              const zi = zt[ri + k];
+              zt[rn + k] = s * zi + c * zn;
+              zt[ri + k] = c * zi - s * zn;
             }
+          }
         }
         if (r === 0 && i >= l) continue;
         d[l] -= p;
@@ -123,13 +160,21 @@ export function symmetricEigen(a: Float64Array, n: number, valuesOnly = false): 
       }
     } while (m !== l);
   }
-  // sort ascending
+}
+
+/** Eigen-decomposition of the symmetric n×n matrix `a` (row-major, only its lower triangle is read; overwritten). With valuesOnly the vectors are not accumulated (about three times faster) and `vectors` is empty. */
+export function symmetricEigen(a: Float64Array, n: number, valuesOnly = false): FlatEigen {
+  const d = new Float64Array(n);
+  const e = new Float64Array(n);
+  tridiagonalise(a, n, d, e, valuesOnly);
+  if (!valuesOnly) transpose(a, n);
+  diagonaliseTridiagonal(d, e, n, a, valuesOnly);
   const order = Array.from({ length: n }, (_, k) => k).sort((x, y) => d[x] - d[y]);
   const values = new Float64Array(n);
   const vectors = new Float64Array(valuesOnly ? 0 : n * n);
-  order.forEach((k, col) => {
-    values[col] = d[k];
-    if (!valuesOnly) for (let i = 0; i < n; i++) vectors[i * n + col] = z[i * n + k];
+  order.forEach((k, row) => {
+    values[row] = d[k];
+    if (!valuesOnly) vectors.set(a.subarray(k * n, k * n + n), row * n);
   });
   return { values, vectors };
 }
