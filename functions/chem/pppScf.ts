@@ -33,9 +33,9 @@ const MAX_ITERATIONS = 200;
 const COMMUTATOR_TOLERANCE = 1e-7;
 const DIIS_DEPTH = 8;
 
-/** FP − PF for symmetric F and P (n×n row-major): FP − (FP)ᵀ. */
-function commutator(f: Float64Array, p: Float64Array, n: number): Float64Array {
-  const fp = new Float64Array(n * n);
+/** FP − PF for symmetric F and P (n×n row-major): FP − (FP)ᵀ, with FP formed in `scratch`. */
+function commutator(f: Float64Array, p: Float64Array, n: number, scratch: Float64Array): Float64Array {
+  const fp = scratch.fill(0);
   for (let i = 0; i < n; i++) {
     const ri = i * n;
     for (let k = 0; k < n; k++) {
@@ -132,9 +132,9 @@ function planarGeometry(pi: PiSystem): [number, number][] {
   return positions;
 }
 
-/** P = 2 Σ_occ c c ᵀ from the orbitals in rows of `vectors`. */
-function density(vectors: Float64Array, occupied: number, n: number): Float64Array {
-  const p = new Float64Array(n * n);
+/** P = 2 Σ_occ c cᵀ into `p`, from the orbitals in rows of `vectors`. */
+function density(vectors: Float64Array, occupied: number, n: number, p: Float64Array): Float64Array {
+  p.fill(0);
   for (let k = 0; k < occupied; k++) {
     const c = k * n;
     for (let i = 0; i < n; i++) {
@@ -146,9 +146,9 @@ function density(vectors: Float64Array, occupied: number, n: number): Float64Arr
   return p;
 }
 
-/** Orbital energies and coefficients (rows), each orbital's largest coefficient made positive so results are reproducible (eigenvectors are defined up to sign). */
+/** Orbital energies and coefficients (rows) of `fock` (consumed), each orbital's largest coefficient made positive so results are reproducible (eigenvectors are defined up to sign). */
 function diagonalise(fock: Float64Array, n: number): { energies: number[]; vectors: Float64Array } {
-  const { values, vectors } = symmetricEigen(fock.slice(), n);
+  const { values, vectors } = symmetricEigen(fock, n);
   for (let k = 0; k < n; k++) {
     const row = vectors.subarray(k * n, k * n + n);
     let largest = 0;
@@ -210,14 +210,15 @@ export function pppScf(pi: PiSystem): PppScf {
   const guess = new Float64Array(n * n);
   pi.centres.forEach((c, i) => (guess[i * n + i] = c.electrons));
   for (const b of pi.bonds) guess[b.a * n + b.b] = guess[b.b * n + b.a] = 2 / 3;
-  let p: Float64Array | undefined;
+  const p = new Float64Array(n * n);
+  const scratch = new Float64Array(n * n);
   let orbitals = diagonalise(fockOf(guess), n);
   let iterations = 1;
   const diis = new Diis();
   for (; iterations < MAX_ITERATIONS; iterations++) {
-    p = density(orbitals.vectors, occupied, n);
+    density(orbitals.vectors, occupied, n, p);
     const fock = fockOf(p);
-    const error = commutator(fock, p, n);
+    const error = commutator(fock, p, n, scratch);
     let size = 0;
     for (const v of error) size = Math.max(size, Math.abs(v));
     if (size < COMMUTATOR_TOLERANCE) {
@@ -225,8 +226,9 @@ export function pppScf(pi: PiSystem): PppScf {
       break;
     }
     diis.push(fock, error);
-    orbitals = diagonalise(diis.extrapolate() ?? fock, n);
+    // The extrapolated matrix is fresh and may be consumed; F stays in the DIIS history, so a copy.
+    orbitals = diagonalise(diis.extrapolate() ?? fock.slice(), n);
   }
-  if (iterations >= MAX_ITERATIONS || !p) throw new ChemError(`the PPP SCF for '${pi.smiles}' did not converge in ${MAX_ITERATIONS} iterations`);
+  if (iterations >= MAX_ITERATIONS) throw new ChemError(`the PPP SCF for '${pi.smiles}' did not converge in ${MAX_ITERATIONS} iterations`);
   return { pi, positions, gamma, energies: orbitals.energies, vectors: orbitals.vectors, occupied, bondOrders: p, iterations };
 }
