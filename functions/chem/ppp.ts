@@ -8,7 +8,7 @@
 // whose diagonals are ΔE + 2K − J and ΔE − J. Transition dipole of a singlet with amplitudes X_ia:
 //   μ = √2 Σ_ia X_ia Σ_μ c_μi c_μa r_μ,     oscillator strength f = (2/3) ΔE(Eh) |μ|²(a.u.).
 import { symmetricEigen } from './eigenFast.js';
-import { ChemError } from './errors.js';
+import { ChemError, oneBasedIndex } from './errors.js';
 import { piSystemOf } from './huckelCache.js';
 import type { PiSystem } from './piSystem.js';
 import { TextMemo } from './textMemo.js';
@@ -193,9 +193,7 @@ export function pppSpectrum(pi: PiSystem, maxConfigurations = MAX_CIS_CONFIGURAT
 /** The n-th singlet (1-based), naming the valid range. */
 export function nthSinglet(spectrum: PppSpectrum, k: number): ExcitedState {
   const list = spectrum.singlets;
-  if (!Number.isInteger(k) || k < 1 || k > list.length)
-    throw new ChemError(`singlet ${k} is out of range: the PPP-CIS of '${spectrum.scf.pi.smiles}' has ${list.length} singlet states (use 1 to ${list.length})`);
-  return list[k - 1];
+  return list[oneBasedIndex(k, list.length, { item: 'singlet', items: 'singlet states', holder: `the PPP-CIS of '${spectrum.scf.pi.smiles}'` })];
 }
 
 /** The band with the largest oscillator strength at wavelengths above `aboveNm`. */
