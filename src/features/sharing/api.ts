@@ -11,13 +11,13 @@ import type {
 } from '@shared/team.js';
 import type { WorkbookRole } from '@shared/permissions.js';
 import { api, queryKeys } from '../../lib/api.js';
+import { workbookPath } from '@shared/workbooks.js';
 
-const base = (id: string) => `/workbooks/${encodeURIComponent(id)}`;
 
 export const invitationsQueryOptions = (workbookId: string) =>
   queryOptions({
     queryKey: queryKeys.invitations(workbookId),
-    queryFn: ({ signal }) => api<InvitationsResponse>(`${base(workbookId)}/invitations`, { signal }).then((r) => r.invitations),
+    queryFn: ({ signal }) => api<InvitationsResponse>(workbookPath(workbookId, 'invitations'), { signal }).then((r) => r.invitations),
   });
 
 export const invitationLinkQueryOptions = (token: string) =>
@@ -45,7 +45,7 @@ function useRefreshSharing(workbookId: string) {
 export function useAddMember(workbookId: string) {
   const refresh = useRefreshSharing(workbookId);
   return useMutation({
-    mutationFn: (input: AddMemberInput) => api<AddMemberResponse>(`${base(workbookId)}/members`, { method: 'POST', body: input }),
+    mutationFn: (input: AddMemberInput) => api<AddMemberResponse>(workbookPath(workbookId, 'members'), { method: 'POST', body: input }),
     onSuccess: refresh,
   });
 }
@@ -54,7 +54,7 @@ export function useChangeMemberRole(workbookId: string) {
   const refresh = useRefreshSharing(workbookId);
   return useMutation({
     mutationFn: ({ userId, role }: { userId: string; role: WorkbookRole }) =>
-      api<MemberRoleResult>(`${base(workbookId)}/members/${encodeURIComponent(userId)}`, { method: 'PATCH', body: { role } }),
+      api<MemberRoleResult>(workbookPath(workbookId, 'members', userId), { method: 'PATCH', body: { role } }),
     onSuccess: refresh,
   });
 }
@@ -62,7 +62,7 @@ export function useChangeMemberRole(workbookId: string) {
 export function useRemoveMember(workbookId: string) {
   const refresh = useRefreshSharing(workbookId);
   return useMutation({
-    mutationFn: (userId: string) => api<void>(`${base(workbookId)}/members/${encodeURIComponent(userId)}`, { method: 'DELETE' }),
+    mutationFn: (userId: string) => api<void>(workbookPath(workbookId, 'members', userId), { method: 'DELETE' }),
     onSuccess: refresh,
   });
 }
@@ -70,7 +70,7 @@ export function useRemoveMember(workbookId: string) {
 export function useRevokeInvitation(workbookId: string) {
   const refresh = useRefreshSharing(workbookId);
   return useMutation({
-    mutationFn: (invitationId: string) => api<void>(`${base(workbookId)}/invitations/${encodeURIComponent(invitationId)}`, { method: 'DELETE' }),
+    mutationFn: (invitationId: string) => api<void>(workbookPath(workbookId, 'invitations', invitationId), { method: 'DELETE' }),
     onSuccess: refresh,
   });
 }
