@@ -3,17 +3,7 @@
 import { eigs } from 'mathjs';
 import { describe, expect, it } from 'vitest';
 import { symmetricEigen } from '../functions/chem/eigenFast.js';
-
-/** Small deterministic generator (mulberry32) so a failure can be reproduced. */
-function random(seed: number) {
-  let t = seed >>> 0;
-  return () => {
-    t = (t + 0x6d2b79f5) >>> 0;
-    let r = Math.imul(t ^ (t >>> 15), 1 | t);
-    r = (r + Math.imul(r ^ (r >>> 7), 61 | r)) ^ r;
-    return ((r ^ (r >>> 14)) >>> 0) / 4294967296;
-  };
-}
+import { seededRandom as random } from './helpers/quadrature.js';
 
 function randomSymmetric(n: number, next: () => number): number[][] {
   const m = Array.from({ length: n }, () => new Array<number>(n).fill(0));
