@@ -35,6 +35,12 @@ export interface ExportLock {
   editorNames: string[];
 }
 
+/** Roles set on the sheet one by one (a lock's own names are in ExportLock). */
+export interface ExportSheetRoles {
+  editorNames: string[];
+  viewerNames: string[];
+}
+
 export interface ExportProtectedRange {
   range: string;
   editorNames: string[];
@@ -45,6 +51,7 @@ export interface ExportSheet {
   cells: CellTriple[];
   settings: SheetSettings;
   lock?: ExportLock | null;
+  sheetRoles?: ExportSheetRoles | null;
   protectedRanges?: ExportProtectedRange[];
 }
 
