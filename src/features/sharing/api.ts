@@ -92,7 +92,7 @@ export function useSetSheetRole(workbookId: string) {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: ({ sheetId, email, role }: { sheetId: string; email: string; role: SheetRole | null }) =>
-      api<SheetRolesResponse>(`${base(workbookId)}/sheets/${encodeURIComponent(sheetId)}/roles`, { method: 'PUT', body: { email, role } }),
+      api<SheetRolesResponse>(workbookPath(workbookId, 'sheets', sheetId, 'roles'), { method: 'PUT', body: { email, role } }),
     // The live `protection` event brings the new roles to every open page, this one included.
     onSuccess: () => void queryClient.invalidateQueries({ queryKey: queryKeys.audit(workbookId) }),
   });
