@@ -38,7 +38,7 @@ describe('workbooks', () => {
 
     const wb = (await t.ann.agent.get(`/api/workbooks/${summary.id}`)).body as WorkbookPayload;
     expect(wb).toMatchObject({ id: summary.id, title: 'Radicals and ions', revision: 0, role: 'owner' });
-    expect(wb.sheets).toEqual([{ id: expect.any(String), name: 'Sheet1', position: 0, settings: {}, cells: [] }]);
+    expect(wb.sheets).toEqual([{ id: expect.any(String), name: 'Sheet1', position: 0, settings: {}, cells: [], createdBy: t.ann.user.id }]);
   });
 
   it('lists only the workbooks the user belongs to', async () => {
