@@ -15,7 +15,7 @@ import { Toolbar } from '../../features/grid/components/Toolbar.js';
 import { useSheetKeys } from '../../features/grid/components/useSheetKeys.js';
 import { addSheet, deleteSheet, moveSheet, renameSheet } from '../../core/workbook/api.js';
 import { useModelVersion, useSaveStatus, type WorkbookSession } from '../../core/workbook/session/useWorkbookSession.js';
-import { useSheetCommands, type ViewSelection } from '../../features/grid/useSheetCommands.js';
+import { useSheetCommands, type Notice, type ViewSelection } from '../../features/grid/useSheetCommands.js';
 import { useSheetView } from '../../features/grid/useSheetView.js';
 import { ConflictResolver } from '../../features/live/ConflictResolver.js';
 import { lockSummary } from '../../features/locks/SheetLockSection.js';
@@ -49,7 +49,7 @@ export function Workspace({ session }: { session: WorkbookSession }) {
   const [frozenPick, setFrozenPick] = useState<number | null>(null);
   const [liveText, setLiveText] = useState<string | null>(null);
   const [panel, setPanel] = useState<'structure' | 'chart' | null>('structure');
-  const [message, setMessage] = useState<string | null>(session.restored > 0 ? `${session.restored} unsent change${session.restored === 1 ? '' : 's'} from your last visit restored; sending now.` : null);
+  const [message, setMessage] = useState<Notice>(session.restored > 0 ? `${session.restored} unsent change${session.restored === 1 ? '' : 's'} from your last visit restored; sending now.` : null);
   const editing = useRef(false);
   const gridRef = useRef<DataSheetGridRef>(null);
   const barRef = useRef<FormulaBarHandle>(null);
@@ -223,8 +223,8 @@ export function Workspace({ session }: { session: WorkbookSession }) {
               gridRef.current?.setActiveCell(null);
             }}
             onCells={(changes, fills) => {
-              const a = model.edit(changes);
-              const b = fillPairs(model, activeSheetId, fills);
+              // Typed and drag-filled cells of one gesture are one undo step.
+              const [a, b] = model.history.action(() => [model.edit(changes), fillPairs(model, activeSheetId, fills)]);
               const refused = [...a.refused, ...b.refused];
               setMessage(refused.length ? `${refused.length} cell${refused.length === 1 ? '' : 's'} left unchanged: ${refused[0].reason}.` : null);
             }}
