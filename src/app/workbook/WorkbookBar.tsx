@@ -29,7 +29,8 @@ export function MessageStrip({ message, onDismiss }: { message: Notice; onDismis
   const text = typeof message === 'string' ? message : message.text;
   const action = typeof message === 'string' ? null : message.action;
   return (
-    <div role="status" data-grid-shield="" className="flex shrink-0 items-center gap-2 border-b border-caution-line bg-caution-soft px-3 py-1 text-caption text-ink" data-testid="sheet-message">
+    // Clicks here keep the grid's active cell (the grid treats a click outside it as leaving it).
+    <div role="status" data-grid-shield="" onMouseDown={(e) => e.stopPropagation()} className="flex shrink-0 items-center gap-2 border-b border-caution-line bg-caution-soft px-3 py-1 text-caption text-ink" data-testid="sheet-message">
       {text}
       {action && (
         <button
