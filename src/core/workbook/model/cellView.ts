@@ -59,7 +59,7 @@ function trimExponential(s: string): string {
 
 export function cellView(input: string, value: CellValue, precision: Precision, spilled = false): CellView | undefined {
   if (value instanceof DetailedCellError) {
-    return { input, display: value.value, kind: 'error', value: value.value, errorCode: value.value, errorMessage: explainCellError(value), spilled };
+    return { input, display: value.value, kind: 'error', value: value.value, errorCode: value.value, errorMessage: explainCellError(value, input), spilled };
   }
   if (value === null || value === undefined) {
     if (input === '') return undefined;
