@@ -2,7 +2,9 @@
 // here as well as in the cell), and, for an error or a read-only cell, the reason in plain words.
 import { useEffect, useImperativeHandle, useRef, useState, type Ref } from 'react';
 import type { CellView } from '../../../core/workbook/model/cellView.js';
+import { closeBrackets } from '@functions/formulaShape.js';
 import { FunctionSuggestions, useFunctionSuggestions } from './FunctionSuggestions.js';
+import { ArgumentHint } from './ArgumentHint.js';
 
 export interface FormulaBarProps {
   address: string;
@@ -28,6 +30,7 @@ export interface FormulaBarHandle {
 export function FormulaBar(p: FormulaBarProps) {
   const [draft, setDraft] = useState<string | null>(null);
   const [addressDraft, setAddressDraft] = useState<string | null>(null);
+  const [caret, setCaret] = useState(0);
   const field = useRef<HTMLInputElement>(null);
   const text = draft ?? p.liveText ?? p.input;
   const suggestions = useFunctionSuggestions(draft ?? '', field);
@@ -76,8 +79,9 @@ export function FormulaBar(p: FormulaBarProps) {
             }
           }}
         />
-        <span aria-hidden="true" className="font-mono text-caption text-ink-3 italic">
-          fx
+        {/* Orbitab's own mark for "this cell holds": the defining-equals sign (≔). */}
+        <span aria-hidden="true" title="The cell holds: a value, or a formula starting with =" className="flex h-5 items-center rounded-sm bg-raised px-1 font-mono text-caption text-accent" data-testid="input-mark">
+          ≔
         </span>
         <input
           ref={field}
@@ -86,7 +90,11 @@ export function FormulaBar(p: FormulaBarProps) {
           disabled={p.disabled}
           className="h-6 min-w-0 flex-1 rounded-ctl border border-transparent bg-transparent px-1.5 font-mono text-ui text-ink focus:border-accent focus:bg-surface focus:outline-none disabled:text-ink-2"
           value={text}
-          onChange={(e) => setDraft(e.target.value)}
+          onChange={(e) => {
+            setDraft(e.target.value);
+            setCaret(e.target.selectionStart ?? e.target.value.length);
+          }}
+          onSelect={(e) => setCaret(e.currentTarget.selectionStart ?? 0)}
           onFocus={() => {
             // Opened from the keyboard: the typed character (or the input) becomes the draft; a value
             // set on a focused field leaves the caret at its end, so keys typed next follow it.
@@ -99,7 +107,7 @@ export function FormulaBar(p: FormulaBarProps) {
             if (suggestions.handleKey(e, setDraft)) return;
             if (e.key === 'Enter') {
               e.preventDefault();
-              if (draft !== null && draft !== p.input) p.onCommit(draft);
+              if (draft !== null && closeBrackets(draft) !== p.input) p.onCommit(closeBrackets(draft));
               else p.onCancel();
               setDraft(null);
             } else if (e.key === 'Escape') {
@@ -110,6 +118,7 @@ export function FormulaBar(p: FormulaBarProps) {
           }}
         />
         <FunctionSuggestions state={suggestions} anchor={field} apply={setDraft} />
+        {draft !== null && <ArgumentHint text={draft} caret={caret} anchor={field} hidden={suggestions.items.length > 0} />}
       </div>
       {(problem || p.readOnlyReason) && (
         <p role="status" className="flex items-center gap-2 border-t border-line bg-raised px-3 py-1 text-caption">

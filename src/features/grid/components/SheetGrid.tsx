@@ -12,6 +12,7 @@ import { defaultColumnWidthPx } from '../../../core/workbook/model/displaySettin
 import type { RowData, WorkbookModel } from '../../../core/workbook/model/workbookModel.js';
 import type { CellInput } from '../../../core/workbook/save/pendingStore.js';
 import { ColumnHeader } from './ColumnHeader.js';
+import { cellName } from '@shared/a1.js';
 import { SheetCell, type CellColumnData } from './SheetCell.js';
 
 /** The grid's change notice (its type is not exported from the package index). */
@@ -51,6 +52,15 @@ export interface SheetGridProps {
   onCells: (changes: CellInput[], fills: FillPair[]) => void;
 }
 
+/**
+ * Marks the cell a formula being typed points at. Done on the element itself: the pointed cell
+ * changes with every arrow key, and re-rendering the grid's cells for it would be wasted work.
+ */
+function markPointed(cell: { row: number; col: number } | null) {
+  for (const el of document.querySelectorAll('.orb-cell-pointed')) el.classList.remove('orb-cell-pointed');
+  if (cell) document.querySelector(`[data-testid="sheet-grid"] [data-view-row="${cell.row}"][data-col="${cell.col}"]`)?.classList.add('orb-cell-pointed');
+}
+
 function RowNumber({ rowIndex, columnData }: { rowIndex: number; columnData: number[] | null }) {
   return <>{(columnData ? columnData[rowIndex] : rowIndex) + 1}</>;
 }
@@ -72,8 +82,12 @@ export function SheetGrid(p: SheetGridProps) {
 
   const onEditText = useRef(p.onEditText);
   onEditText.current = p.onEditText;
-  const columnData = useMemo<CellColumnData[]>(
-    () => Array.from({ length: p.colCount }, (_, col) => ({ col, onEditText: (t: string | null) => onEditText.current(t) })),
+  const extent = useRef({ rows: p.data.length, cols: p.colCount });
+  extent.current = { rows: p.data.length, cols: p.colCount };
+  const columnData = useMemo<CellColumnData[]>(() => {
+    const refFor = (viewRow: number, col: number) => cellName(sheetRow(viewRow), col);
+    return Array.from({ length: p.colCount }, (_, col) => ({ col, onEditText: (t: string | null) => onEditText.current(t), refFor, extent: () => extent.current, onPoint: markPointed }));
+  },
     // The sheet is a dependency on purpose: another sheet gets new column objects, so the grid
     // drops the previous sheet's cell state.
     // eslint-disable-next-line react-hooks/exhaustive-deps
