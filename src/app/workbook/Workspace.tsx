@@ -6,6 +6,7 @@ import type { DataSheetGridRef } from 'react-datasheet-grid';
 import { SafetyNote } from '../../features/diagram/SafetyNote.js';
 import { parseCellName } from '@shared/a1.js';
 import { fillPairs } from '../../core/workbook/model/rangeEdits.js';
+import { defaultColumnWidthPx } from '../../core/workbook/model/displaySettings.js';
 import { FilterMenu, type SheetFilter } from '../../features/grid/components/FilterMenu.js';
 import { FormulaBar, type FormulaBarHandle } from '../../features/grid/components/FormulaBar.js';
 import { SheetGrid, type ViewCell } from '../../features/grid/components/SheetGrid.js';
@@ -20,15 +21,32 @@ import { useSheetView } from '../../features/grid/useSheetView.js';
 import { ConflictResolver } from '../../features/live/ConflictResolver.js';
 import { lockSummary } from '../../features/locks/SheetLockSection.js';
 import { TeamNotices } from './TeamNotices.js';
+import { GridMenu } from './GridMenu.js';
 import { SidePanel } from './SidePanel.js';
 import { useDisplaySaver } from './useDisplaySaver.js';
 import { useFocusedCell } from './useFocusedCell.js';
 import { MessageStrip, WorkbookBar } from './WorkbookBar.js';
 import { useWorkbookTeam } from '../../features/live/useWorkbookTeam.js';
+import { ImportButton } from '../../features/io/index.js';
+import { allows } from '@shared/permissions.js';
 
 function gridSelection(grid: DataSheetGridRef | null): ViewSelection | null {
   const s = grid?.selection;
   return s ? { min: { row: s.min.row, col: s.min.col }, max: { row: s.max.row, col: s.max.col } } : null;
+}
+
+/**
+ * After a jump the grid scrolls the cell into view but lets the sticky row numbers cover the left of
+ * it (column A half hidden): once it has scrolled, scroll back so the cell's left edge clears them.
+ */
+function revealBesideRowNumbers(col: number, widths: Record<number, number>) {
+  let left = 0;
+  for (let c = 0; c < col; c++) left += widths[c] ?? defaultColumnWidthPx;
+  const fix = () => {
+    const scroller = document.querySelector<HTMLElement>('[data-testid="sheet-grid"] .dsg-container');
+    if (scroller && scroller.scrollLeft > left) scroller.scrollLeft = left;
+  };
+  requestAnimationFrame(() => requestAnimationFrame(fix));
 }
 
 export function Workspace({ session }: { session: WorkbookSession }) {
@@ -56,6 +74,15 @@ export function Workspace({ session }: { session: WorkbookSession }) {
   const view = useSheetView(model, activeSheetId, display.freezeHeaderRow, filter);
 
   const setDisplay = useDisplaySaver(session, activeSheetId, setMessage);
+
+  // Sheets added from a file arrive over the live stream; the first one is shown once it is here.
+  const [importedSheet, setImportedSheet] = useState<string | null>(null);
+  useEffect(() => {
+    if (importedSheet && model.hasSheet(importedSheet)) {
+      setImportedSheet(null);
+      switchSheet(importedSheet);
+    }
+  });
 
   const switchSheet = (id: string) => {
     setSheetId(id);
@@ -188,6 +215,7 @@ export function Workspace({ session }: { session: WorkbookSession }) {
           const v = view.viewRowOf(ref.row);
           if (v === null) return false;
           gridRef.current?.setActiveCell({ row: v, col: ref.col });
+          revealBesideRowNumbers(ref.col, widths);
           return true;
         }}
       />
@@ -246,12 +274,31 @@ export function Workspace({ session }: { session: WorkbookSession }) {
         onDelete={(id) => deleteSheet(session, id)}
         footer={
           <span className="flex items-center gap-2 px-2 text-ink-3">
+            <ImportButton
+              workbookId={model.id}
+              label="Sheets from a file…"
+              variant="ghost"
+              className="h-6 px-1.5 text-caption"
+              disabled={!allows(team.actions, 'editSheets')}
+              title="Add the sheets of an .xlsx or .csv file (or a structure file) to this workbook"
+              onImported={(result) => setImportedSheet(result.sheets[0]?.id ?? null)}
+            />
             {view.data.length.toLocaleString('en')} rows
             <button type="button" className="rounded-ctl px-1.5 text-ink-2 hover:bg-hover hover:text-ink" onClick={() => model.addDisplayRows(activeSheetId, 1000)}>
               Add 1,000 rows
             </button>
           </span>
         }
+      />
+      <GridMenu
+        gridRef={gridRef}
+        commands={commands}
+        extent={() => ({ rows: view.data.length, cols: sheet.colCount })}
+        editBlocked={model.readOnly ? 'You can view this workbook but not edit it' : null}
+        structureBlocked={model.structureRule?.(activeSheetId) ?? null}
+        canUndo={model.history.canUndo}
+        canRedo={model.history.canRedo}
+        say={setMessage}
       />
       {/* Once per workbook page, whatever panel is open: the grid itself presents computed results. */}
       <SafetyNote />

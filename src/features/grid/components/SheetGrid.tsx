@@ -62,7 +62,7 @@ function markPointed(cell: { row: number; col: number } | null) {
 }
 
 function RowNumber({ rowIndex, columnData }: { rowIndex: number; columnData: number[] | null }) {
-  return <>{(columnData ? columnData[rowIndex] : rowIndex) + 1}</>;
+  return <span data-gutter-row={rowIndex}>{(columnData ? columnData[rowIndex] : rowIndex) + 1}</span>;
 }
 
 export function SheetGrid(p: SheetGridProps) {
