@@ -58,10 +58,11 @@ describe('a jump to a cell', () => {
   it('leaves column A in full view beside the row numbers after coming back from far right', async () => {
     await jump('Z40');
     await jump('A2');
+    // Read from the grid's own boxes: column A's header cell and the row numbers' column.
     const [cellLeft, gutterRight] = await page.evaluate(() => {
-      const target = document.querySelector('[data-testid="sheet-grid"] [data-view-row="1"][data-col="0"]')!.getBoundingClientRect();
-      const gutter = document.querySelector('[data-testid="sheet-grid"] [data-gutter-row="1"]')!.closest('.dsg-cell')!.getBoundingClientRect();
-      return [target.left, gutter.right];
+      const header = document.querySelector('.orb-col-header[data-col="A"]')!.closest('.dsg-cell')!.getBoundingClientRect();
+      const row = [...document.querySelectorAll('[data-testid="sheet-grid"] .dsg-row:not(.dsg-row-header)')].find((r) => r.children[0]?.textContent === '2')!;
+      return [header.left, row.children[0].getBoundingClientRect().right];
     });
     expect(cellLeft).toBeGreaterThanOrEqual(gutterRight - 1);
     await screenshot(page, 'grid-jump-back-to-a2');

@@ -65,6 +65,8 @@ export function ContextMenu({ at, label, groups, onClose }: { at: { x: number; y
         else if (e.key === 'ArrowUp') move(e, -1);
       }}
       onContextMenu={(e) => e.preventDefault()}
+      // A click in the menu is not a click on the page: the sheet keeps its selection for the action.
+      onMouseDown={(e) => e.stopPropagation()}
       className="fixed z-50 min-w-52 rounded-panel border border-line bg-surface py-1 text-ui shadow-lg"
       style={{ left: pos.x, top: pos.y }}
     >
