@@ -4,7 +4,7 @@
 import { useEffect, useMemo, useRef, useState } from 'react';
 import type { DataSheetGridRef } from 'react-datasheet-grid';
 import { SafetyNote } from '../../features/diagram/SafetyNote.js';
-import { parseCellName } from '@shared/a1.js';
+import { cellName, parseCellName } from '@shared/a1.js';
 import { fillPairs } from '../../core/workbook/model/rangeEdits.js';
 import { defaultColumnWidthPx } from '../../core/workbook/model/displaySettings.js';
 import { FilterMenu, type SheetFilter } from '../../features/grid/components/FilterMenu.js';
@@ -29,6 +29,7 @@ import { MessageStrip, WorkbookBar } from './WorkbookBar.js';
 import { useWorkbookTeam } from '../../features/live/useWorkbookTeam.js';
 import { ImportButton } from '../../features/io/index.js';
 import { allows } from '@shared/permissions.js';
+import { presenceColour } from '../../lib/presenceColours.js';
 
 function gridSelection(grid: DataSheetGridRef | null): ViewSelection | null {
   const s = grid?.selection;
@@ -250,6 +251,11 @@ export function Workspace({ session }: { session: WorkbookSession }) {
               setFrozenPick(col);
               gridRef.current?.setActiveCell(null);
             }}
+            presence={team.live.presence.flatMap((u) => {
+              if (u.userId === team.myId || !u.cell || u.cell.sheetId !== activeSheetId) return [];
+              const row = view.viewRowOf(u.cell.row);
+              return row === null ? [] : [{ userId: u.userId, name: u.name, colour: presenceColour(u.userId), row, col: u.cell.col, address: cellName(u.cell.row, u.cell.col) }];
+            })}
             onCells={(changes, fills) => {
               // Typed and drag-filled cells of one gesture are one undo step.
               const [a, b] = model.history.action(() => [model.edit(changes), fillPairs(model, activeSheetId, fills)]);

@@ -14,6 +14,7 @@ import type { CellInput } from '../../../core/workbook/save/pendingStore.js';
 import { ColumnHeader } from './ColumnHeader.js';
 import { cellName } from '@shared/a1.js';
 import { SheetCell, type CellColumnData } from './SheetCell.js';
+import { PresenceMarks, type PresenceMark } from './PresenceMarks.js';
 
 /** The grid's change notice (its type is not exported from the package index). */
 type Operation = { type: 'UPDATE' | 'DELETE' | 'CREATE'; fromRowIndex: number; toRowIndex: number };
@@ -50,6 +51,8 @@ export interface SheetGridProps {
   onResizeEnd: (col: number, px: number) => void;
   onPickFrozen: (col: number) => void;
   onCells: (changes: CellInput[], fills: FillPair[]) => void;
+  /** Colleagues on this sheet and the cells they are on. */
+  presence?: PresenceMark[];
 }
 
 /**
@@ -193,6 +196,7 @@ export function SheetGrid(p: SheetGridProps) {
         onFocus={() => p.onEditingChange(true)}
         onBlur={() => p.onEditingChange(false)}
       />
+      <PresenceMarks box={box} marks={p.presence ?? []} widths={p.widths} headerHeight={p.frozenRow ? 48 : 24} rowHeight={24} gutterWidth={52} />
     </div>
   );
 }
