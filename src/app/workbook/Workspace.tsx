@@ -6,7 +6,7 @@ import type { DataSheetGridRef } from 'react-datasheet-grid';
 import { SafetyNote } from '../../features/diagram/SafetyNote.js';
 import { cellName, parseCellName } from '@shared/a1.js';
 import { fillPairs } from '../../core/workbook/model/rangeEdits.js';
-import { defaultColumnWidthPx } from '../../core/workbook/model/displaySettings.js';
+import { revealBesideRowNumbers } from '../../features/grid/revealCell.js';
 import { FilterMenu, type SheetFilter } from '../../features/grid/components/FilterMenu.js';
 import { FormulaBar, type FormulaBarHandle } from '../../features/grid/components/FormulaBar.js';
 import { SheetGrid, type ViewCell } from '../../features/grid/components/SheetGrid.js';
@@ -36,23 +36,9 @@ function gridSelection(grid: DataSheetGridRef | null): ViewSelection | null {
   return s ? { min: { row: s.min.row, col: s.min.col }, max: { row: s.max.row, col: s.max.col } } : null;
 }
 
-/**
- * After a jump the grid scrolls the cell into view but lets the sticky row numbers cover the left of
- * it (column A half hidden): once it has scrolled, scroll back so the cell's left edge clears them.
- */
-function revealBesideRowNumbers(col: number, widths: Record<number, number>) {
-  let left = 0;
-  for (let c = 0; c < col; c++) left += widths[c] ?? defaultColumnWidthPx;
-  const fix = () => {
-    const scroller = document.querySelector<HTMLElement>('[data-testid="sheet-grid"] .dsg-container');
-    if (scroller && scroller.scrollLeft > left) scroller.scrollLeft = left;
-  };
-  requestAnimationFrame(() => requestAnimationFrame(fix));
-}
-
 export function Workspace({ session }: { session: WorkbookSession }) {
   const { model, queue, store } = session;
-  useModelVersion(model);
+  const modelVersion = useModelVersion(model);
   const status = useSaveStatus(queue);
   const sheets = model.sheets;
   const [sheetId, setSheetId] = useState(sheets[0]?.id ?? '');
@@ -83,7 +69,7 @@ export function Workspace({ session }: { session: WorkbookSession }) {
       setImportedSheet(null);
       switchSheet(importedSheet);
     }
-  });
+  }, [importedSheet, model, modelVersion]);
 
   const switchSheet = (id: string) => {
     setSheetId(id);

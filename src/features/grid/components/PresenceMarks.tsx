@@ -19,8 +19,9 @@ export interface PresenceMark {
 export function PresenceMarks({ box, marks, widths, headerHeight, rowHeight, gutterWidth }: { box: RefObject<HTMLElement | null>; marks: PresenceMark[]; widths: Record<number, number>; headerHeight: number; rowHeight: number; gutterWidth: number }) {
   const [host, setHost] = useState<HTMLElement | null>(null);
   useEffect(() => {
+    // The grid's content element, found once it is drawn (looked up again as marks change).
     setHost(box.current?.querySelector<HTMLElement>('.dsg-container > div') ?? null);
-  });
+  }, [box, marks]);
   if (!host || marks.length === 0) return null;
   const left = (col: number) => {
     let x = gutterWidth;
