@@ -65,6 +65,19 @@ describe('one action, one undo step', () => {
     expect(m.view('s1', 2, 1)?.display).toBe('1');
   });
 
+  it('an undo that a lock would cut in half is refused whole, and stays to be undone later', () => {
+    const { m, sent } = open(screen);
+    clearRange(m, 's1', [0, 1], 0, 0);
+    const patches = sent.length;
+    m.setEditRule((_sheet, row) => (row === 1 ? 'Protected range A2: only Ann may change it' : null));
+    expect(() => undoLast(m)).toThrow(/only Ann may change it/);
+    expect([m.input('s1', 0, 0), m.input('s1', 1, 0)]).toEqual(['', '']);
+    expect(sent.length).toBe(patches); // nothing half-undone was sent
+    m.setEditRule(null);
+    expect(undoLast(m)).toBe(true);
+    expect([m.input('s1', 0, 0), m.input('s1', 1, 0)]).toEqual(['O2', 'N2']);
+  });
+
   it('an action that pushes nothing leaves the history alone', () => {
     const h = new History();
     h.action(() => undefined);

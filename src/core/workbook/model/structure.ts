@@ -150,10 +150,13 @@ function bringTo(model: WorkbookModel, entry: HistoryEntry, side: 'before' | 'af
     return;
   }
   if (entry.kind === 'cells') {
-    model.edit(
+    // All or nothing, like the action it takes back: half an undone paste would be a new state that
+    // neither the screen's history nor the server has seen.
+    const outcome = model.edit(
       entry.changes.filter((c) => model.hasSheet(c.sheetId)).map((c) => ({ sheetId: c.sheetId, row: c.row, col: c.col, input: c[side] })),
-      { record: false },
+      { record: false, whole: true },
     );
+    if (outcome.refused.length > 0) throw new StructureError(outcome.refused[0].reason);
     return;
   }
   const op: StructuralOp = undoing ? { ...entry.op, action: entry.op.action === 'insert' ? 'remove' : 'insert' } : entry.op;
