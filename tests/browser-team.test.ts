@@ -138,7 +138,7 @@ describe('two people on one workbook', () => {
     await editor.context.setOffline(false);
     const dialog = b.getByRole('dialog', { name: 'This cell was changed by someone else' });
     await dialog.waitFor();
-    const row = dialog.getByRole('listitem', { name: `Conflict in Sheet1!${a1}` });
+    const row = dialog.getByRole('listitem', { name: `Conflict in Screen1!${a1}` });
     expect(await row.locator('[data-value="theirs"]').textContent()).toBe(theirs);
     expect(await row.locator('[data-value="mine"]').textContent()).toBe(mine);
     return dialog;
@@ -167,7 +167,7 @@ describe('two people on one workbook', () => {
 
   it('greys a protected range for everyone not named on it and refuses edits there', async () => {
     await a.getByRole('button', { name: 'Protect', exact: true }).click();
-    const dialog = a.getByRole('dialog', { name: 'Protect “Sheet1”' });
+    const dialog = a.getByRole('dialog', { name: 'Protect “Screen1”' });
     await dialog.getByLabel('Range to protect').fill('A1:C1');
     await dialog.getByRole('button', { name: 'Protect range' }).click();
     await dialog.getByRole('listitem', { name: 'Range A1:C1' }).waitFor();
@@ -190,7 +190,7 @@ describe('two people on one workbook', () => {
 
   it('greys a locked sheet, says who locked it, when and why, and refuses every edit', async () => {
     await a.getByRole('button', { name: 'Protect', exact: true }).click();
-    const dialog = a.getByRole('dialog', { name: 'Protect “Sheet1”' });
+    const dialog = a.getByRole('dialog', { name: 'Protect “Screen1”' });
     await dialog.getByLabel('Why lock it?').fill('Reference values checked against the tables');
     await dialog.getByRole('button', { name: 'Lock sheet' }).click();
     await dialog.getByRole('button', { name: 'Unlock' }).waitFor();
@@ -198,7 +198,7 @@ describe('two people on one workbook', () => {
 
     await b.getByRole('status', { name: 'Sheet protection' }).getByText(/Locked by Ada Okafor on .*: “Reference values checked against the tables”/).waitFor();
     // The tab carries the lock too, with the banner's summary (who, when, why) on hover.
-    const lockedTab = b.getByRole('tab', { name: 'Sheet1 (locked)' });
+    const lockedTab = b.getByRole('tab', { name: 'Screen1 (locked)' });
     expect(await lockedTab.getAttribute('title')).toMatch(/^Locked by Ada Okafor on .*: “Reference values checked against the tables”\. Only Ada Okafor may change it; it is read-only for you\./);
     expect(await cell(b, 'E9').getAttribute('class')).toContain('dsg-cell-disabled');
     await typeInto(b, 'E9', 'CN-');
@@ -218,7 +218,7 @@ describe('two people on one workbook', () => {
     await dialog.getByLabel('Why lock it?').waitFor();
     await dialog.getByRole('button', { name: 'Done' }).click();
     await b.getByText(/Protected range A1:C1: greyed cells/).waitFor();
-    await b.getByRole('tab', { name: 'Sheet1', exact: true }).waitFor();
+    await b.getByRole('tab', { name: 'Screen1', exact: true }).waitFor();
     expect(await cell(b, 'E9').getAttribute('class')).not.toContain('dsg-cell-disabled');
   });
 
@@ -244,7 +244,7 @@ describe('two people on one workbook', () => {
     await revisions.getByRole('button', { name: 'Revision 1' }).waitFor();
     expect(await revisions.getByRole('button', { name: 'Revision 2' }).textContent()).toContain('Ada Okafor');
     await revisions.getByRole('button', { name: 'Revision 1' }).click();
-    const table = dialog.getByRole('table', { name: 'Sheet1 as of this revision (read-only)' });
+    const table = dialog.getByRole('table', { name: 'Screen1 as of this revision (read-only)' });
     await table.getByRole('cell', { name: 'N2', exact: true }).waitFor();
     expect(await table.getByRole('cell', { name: '3', exact: true }).count()).toBe(1);
     await screenshot(a, 'team-history-view');
@@ -260,7 +260,7 @@ describe('two people on one workbook', () => {
   it('shows the owner the audit log of sharing, roles, protection and restores', async () => {
     await a.getByRole('button', { name: 'Audit' }).click();
     const log = a.getByRole('dialog', { name: 'Audit log' }).getByRole('list', { name: 'Audit entries' });
-    for (const line of [/added Ben Laszlo as an editor/, /invited cy@lab.example by e-mail as a viewer/, /protected A1:C1 on sheet “Sheet1”/, /Ada Okafor locked sheet “Sheet1”/, /changed Ben Laszlo from editor to viewer/, /restored revision #1/]) {
+    for (const line of [/added Ben Laszlo as an editor/, /invited cy@lab.example by e-mail as a viewer/, /protected A1:C1 on sheet “Screen1”/, /Ada Okafor locked sheet “Screen1”/, /changed Ben Laszlo from editor to viewer/, /restored revision #1/]) {
       await log.getByText(line).waitFor();
     }
     await screenshot(a, 'team-audit-log');
