@@ -77,6 +77,17 @@ describe('point mode', () => {
     expect(await formulaOf('C2')).toBe('=UNPAIRED(A1)*2');
   });
 
+  it('in the formula bar too, a click on a cell inserts its reference and Enter closes the bracket', async () => {
+    await clickCell('B3');
+    await page.getByLabel('Formula bar').click();
+    await page.keyboard.type('=BONDORDER(');
+    await clickCell('A1');
+    await expect.poll(() => page.getByLabel('Formula bar').inputValue()).toBe('=BONDORDER(A1');
+    await page.keyboard.press('Enter');
+    await expectCell('B3', '2');
+    expect(await formulaOf('B3')).toBe('=BONDORDER(A1)');
+  });
+
   it('outside point mode an arrow still leaves the cell (after a complete value)', async () => {
     await clickCell('D1');
     await page.keyboard.type('=1+1');

@@ -178,6 +178,7 @@ export function Workspace({ session }: { session: WorkbookSession }) {
       />
       <FormulaBar
         barRef={barRef}
+        refFor={(viewRow, col) => cellName(view.sheetRow(viewRow), col)}
         address={address}
         input={focusInput}
         liveText={liveText}

@@ -2,7 +2,7 @@
 // here as well as in the cell), and, for an error or a read-only cell, the reason in plain words.
 import { useEffect, useImperativeHandle, useRef, useState, type Ref } from 'react';
 import type { CellView } from '../../../core/workbook/model/cellView.js';
-import { closeBrackets } from '@functions/formulaShape.js';
+import { acceptsReference, closeBrackets } from '@functions/formulaShape.js';
 import { FunctionSuggestions, useFunctionSuggestions } from './FunctionSuggestions.js';
 import { ArgumentHint } from './ArgumentHint.js';
 
@@ -18,6 +18,8 @@ export interface FormulaBarProps {
   onCommit: (input: string) => void;
   onCancel: () => void;
   onGoTo: (address: string) => boolean;
+  /** The A1 name of a grid cell (view row, column): a click on one while a formula waits for a reference inserts it. */
+  refFor?: (viewRow: number, col: number) => string;
   /** Lets the keyboard open the bar for the cell in focus (the frozen header row is edited here). */
   barRef?: Ref<FormulaBarHandle>;
 }
@@ -44,6 +46,32 @@ export function FormulaBar(p: FormulaBarProps) {
       el.focus();
     },
   }));
+
+  // Point mode in the bar: a click on a grid cell while the formula waits for a reference inserts
+  // it (window, capture phase: before the grid would take the click and the bar lose focus).
+  const pointed = useRef<{ start: number; end: number } | null>(null);
+  const refFor = p.refFor;
+  useEffect(() => {
+    if (draft === null || !refFor) return;
+    const mousedown = (e: MouseEvent) => {
+      const el = field.current;
+      const target = e.target instanceof HTMLElement ? e.target.closest<HTMLElement>('[data-view-row]') : null;
+      if (!el || !target || e.button !== 0 || document.activeElement !== el) return;
+      const at = el.selectionStart ?? el.value.length;
+      const last = pointed.current && pointed.current.end === at ? pointed.current : null;
+      if (!last && !acceptsReference(el.value, at)) return;
+      e.preventDefault();
+      e.stopPropagation();
+      const ref = refFor(Number(target.dataset.viewRow), Number(target.dataset.col));
+      const start = last ? last.start : at;
+      const next = el.value.slice(0, start) + ref + el.value.slice(last ? last.end : at);
+      pointed.current = { start, end: start + ref.length };
+      setDraft(next);
+      requestAnimationFrame(() => el.setSelectionRange(start + ref.length, start + ref.length));
+    };
+    window.addEventListener('mousedown', mousedown, true);
+    return () => window.removeEventListener('mousedown', mousedown, true);
+  }, [draft, refFor]);
 
   const problem = p.view?.kind === 'error' ? `${p.view.errorCode} ${p.view.errorMessage}` : null;
   return (
@@ -91,6 +119,7 @@ export function FormulaBar(p: FormulaBarProps) {
           className="h-6 min-w-0 flex-1 rounded-ctl border border-transparent bg-transparent px-1.5 font-mono text-ui text-ink focus:border-accent focus:bg-surface focus:outline-none disabled:text-ink-2"
           value={text}
           onChange={(e) => {
+            pointed.current = null;
             setDraft(e.target.value);
             setCaret(e.target.selectionStart ?? e.target.value.length);
           }}
