@@ -1,6 +1,6 @@
 // The workbook API as a specification: workbooks and their tabs, who may reach them, and how a
 // tab change becomes a revision. Patches, conflicts and restores are in patches-api.test.ts.
-import { beforeAll, describe, expect, it } from 'vitest';
+import { beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { workbookMembers } from '../server/db/schema.js';
 import type { WorkbookPayload, WorkbookSummary } from '../shared/workbooks.js';
 import { makeTestApp } from './helpers/app.js';
@@ -38,7 +38,7 @@ describe('workbooks', () => {
 
     const wb = (await t.ann.agent.get(`/api/workbooks/${summary.id}`)).body as WorkbookPayload;
     expect(wb).toMatchObject({ id: summary.id, title: 'Radicals and ions', revision: 0, role: 'owner' });
-    expect(wb.sheets).toEqual([{ id: expect.any(String), name: 'Screen1', position: 0, settings: {}, cells: [] }]);
+    expect(wb.sheets).toEqual([{ id: expect.any(String), name: 'Screen1', position: 0, settings: {}, cells: [], createdBy: t.ann.user.id }]);
   });
 
   it('lists only the workbooks the user belongs to', async () => {
@@ -85,6 +85,9 @@ describe('who may reach a workbook', () => {
   let routes: [method: 'get' | 'post' | 'patch' | 'delete', path: string, body?: object][];
   beforeAll(async () => {
     t = await team();
+  });
+  // Each test gets its own workbook (one saved cell, revision 1), so none sees another's membership rows.
+  beforeEach(async () => {
     wb = await newWorkbook(t.ann.agent);
     const s = wb.sheets[0].id;
     await t.ann.agent.post(`/api/workbooks/${wb.id}/patches`).send({ baseRevision: 0, changes: [{ sheetId: s, row: 0, col: 0, input: 'O2' }] }).expect(200);

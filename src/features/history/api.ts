@@ -3,10 +3,8 @@
 // snapshots are cached for the visit.
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { RevisionSnapshot } from '@shared/team.js';
-import type { RevisionSummary } from '@shared/workbooks.js';
+import { workbookPath, type RevisionSummary } from '@shared/workbooks.js';
 import { api, queryKeys } from '../../lib/api.js';
-
-const base = (id: string) => `/workbooks/${encodeURIComponent(id)}/revisions`;
 
 export interface RevisionList {
   revision: number;
@@ -16,14 +14,14 @@ export interface RevisionList {
 export const revisionsQueryOptions = (workbookId: string) =>
   queryOptions({
     queryKey: queryKeys.revisions(workbookId),
-    queryFn: ({ signal }) => api<RevisionList>(`${base(workbookId)}?limit=200`, { signal }),
+    queryFn: ({ signal }) => api<RevisionList>(`${workbookPath(workbookId, 'revisions')}?limit=200`, { signal }),
     staleTime: 0,
   });
 
 export const revisionSnapshotQueryOptions = (workbookId: string, n: number) =>
   queryOptions({
     queryKey: queryKeys.revisionSnapshot(workbookId, n),
-    queryFn: ({ signal }) => api<RevisionSnapshot>(`${base(workbookId)}/${n}/snapshot`, { signal }),
+    queryFn: ({ signal }) => api<RevisionSnapshot>(workbookPath(workbookId, 'revisions', n, 'snapshot'), { signal }),
     staleTime: Infinity,
   });
 
@@ -34,7 +32,7 @@ export const useRevisionSnapshot = (workbookId: string, n: number | null) =>
 export function useRestoreRevision(workbookId: string) {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (n: number) => api<{ revision: number; changeCount: number }>(`${base(workbookId)}/${n}/restore`, { method: 'POST' }),
+    mutationFn: (n: number) => api<{ revision: number; changeCount: number }>(workbookPath(workbookId, 'revisions', n, 'restore'), { method: 'POST' }),
     onSuccess: () => {
       // The restored state reaches the grid as a live revision like any other; the lists refresh here.
       void queryClient.invalidateQueries({ queryKey: queryKeys.revisions(workbookId), exact: true });

@@ -10,6 +10,7 @@ import { Notice } from '../../components/ui/Notice.js';
 import { ApiError, queryKeys } from '../../lib/api.js';
 import { ImportSummaryView } from './ImportSummaryView.js';
 import { uploadSpreadsheet, type UploadProgress } from './upload.js';
+import { workbookPath } from '@shared/workbooks.js';
 
 type Stage = { kind: 'choose' } | { kind: 'uploading'; file: File; progress: UploadProgress } | { kind: 'done'; result: ImportResponse } | { kind: 'failed'; file?: File; message: string };
 
@@ -90,7 +91,7 @@ export function ImportButton({
             <>
               <Button onClick={close}>Close</Button>
               {!workbookId && (
-                <Button variant="primary" onClick={() => (close(), navigate(`/workbooks/${encodeURIComponent(stage.result.workbookId)}`))}>
+                <Button variant="primary" onClick={() => (close(), navigate(workbookPath(stage.result.workbookId)))}>
                   Open workbook
                 </Button>
               )}
