@@ -43,6 +43,14 @@ export const titleSchema = z
  * Sheet names follow the usual spreadsheet rules (common practice), so formulas can name them and
  * exports open elsewhere: no [ ] * ? / \ : characters, no quote at either end, no control characters.
  */
+/**
+ * The name a new tab gets until someone names it: Orbitab's own word for a page of candidates, a
+ * screen. Written without a space, so formulas can name it unquoted (=Screen2!B4).
+ */
+export function defaultSheetName(n: number): string {
+  return `Screen${n}`;
+}
+
 export const sheetNameSchema = z
   .string({ error: required('text') })
   .trim()

@@ -232,7 +232,7 @@ describe('no reach from one workbook into another', () => {
     const pending = (await ann.get(`/api/workbooks/${a.id}/invitations`)).body.invitations.map((i: { id: string }) => i.id);
     expect(pending).toContain(invitationId);
     const bAfter = (await ann.get(`/api/workbooks/${b}`)).body;
-    expect(bAfter).toMatchObject({ revision: 0, locks: [], protectedRanges: [], sheets: [{ id: bSheet, name: 'Sheet1', cells: [] }] });
+    expect(bAfter).toMatchObject({ revision: 0, locks: [], protectedRanges: [], sheets: [{ id: bSheet, name: 'Screen1', cells: [] }] });
   });
 });
 

@@ -16,7 +16,23 @@ type Stage = { kind: 'choose' } | { kind: 'uploading'; file: File; progress: Upl
 
 const megabytes = (bytes: number) => `${(bytes / (1024 * 1024)).toFixed(1)} MB`;
 
-export function ImportButton({ workbookId, label = 'Import…', onImported }: { workbookId?: string; label?: string; onImported?: (result: ImportResponse) => void }) {
+export function ImportButton({
+  workbookId,
+  label = 'Import…',
+  onImported,
+  variant,
+  className,
+  disabled,
+  title,
+}: {
+  workbookId?: string;
+  label?: string;
+  onImported?: (result: ImportResponse) => void;
+  variant?: 'secondary' | 'ghost';
+  className?: string;
+  disabled?: boolean;
+  title?: string;
+}) {
   const [open, setOpen] = useState(false);
   const [stage, setStage] = useState<Stage>({ kind: 'choose' });
   const [dragging, setDragging] = useState(false);
@@ -62,7 +78,9 @@ export function ImportButton({ workbookId, label = 'Import…', onImported }: { 
 
   return (
     <>
-      <Button onClick={() => setOpen(true)}>{label}</Button>
+      <Button variant={variant} className={className} disabled={disabled} title={title} onClick={() => setOpen(true)}>
+        {label}
+      </Button>
       <Dialog
         open={open}
         onClose={close}

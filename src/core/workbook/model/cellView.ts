@@ -62,7 +62,7 @@ export function cellView(input: string, value: CellValue, precision: Precision, 
   // Waiting for a result computed on the server: not an error, and shown as such.
   if (value instanceof DetailedCellError && isPendingMessage(value.message)) return { input, display: 'computing…', kind: 'pending', value: null, spilled };
   if (value instanceof DetailedCellError) {
-    return { input, display: value.value, kind: 'error', value: value.value, errorCode: value.value, errorMessage: explainCellError(value), spilled };
+    return { input, display: value.value, kind: 'error', value: value.value, errorCode: value.value, errorMessage: explainCellError(value, input), spilled };
   }
   if (value === null || value === undefined) {
     if (input === '') return undefined;
