@@ -17,6 +17,7 @@ import { defaultImportLimits, formatBytes, SpreadsheetError } from '../xlsx/limi
 import { parseInWorker } from '../xlsx/parseInWorker.js';
 import { computeRefusal } from '../xlsx/refusals.js';
 import { sheetNameFromFilename } from '../xlsx/readCsv.js';
+import { valuesSourceHeader } from '../values/serve.js';
 
 const importBody = z.object({ workbookId: idSchema.optional() });
 const exportQuery = z.object({
@@ -106,6 +107,7 @@ export function ioRouter(ctx: AppContext): Router {
       res.attachment(`${downloadName(source.title, `(revision ${source.revision}${format.mode === 'values' ? ', values' : ''})`)}.xlsx`);
     }
     const { sheetIds: _ids, ...workbook } = source;
+    res.setHeader(valuesSourceHeader, workbook.stored ? 'stored' : 'computed');
     try {
       // Computed and written in a worker: the engine's work on a large workbook never holds this thread.
       await exportInWorker(res, workbook, format, { owner: currentUser(res).id });

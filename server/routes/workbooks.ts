@@ -24,12 +24,16 @@ import { addSheet, deleteSheet, updateSheet } from '../services/sheetStore.js';
 import { valuesFor, type ValuesBody } from '../services/valuesInWorker.js';
 import { loadWorkbookInSlices } from '../services/workbookSlices.js';
 import { SpreadsheetError } from '../xlsx/limits.js';
+import { sendStoredValues, valuesSourceHeader } from '../values/serve.js';
+import { servableValues } from '../values/store.js';
 import { computeRefusal } from '../xlsx/refusals.js';
 import { createWorkbook, deleteWorkbook, loadWorkbook, renameWorkbook, summarizeWorkbook } from '../services/workbookStore.js';
 
 const workbookParams = z.object({ id: idSchema });
 const sheetParams = z.object({ id: idSchema, sheetId: idSchema });
 const revisionParams = z.object({ id: idSchema, n: revisionNumberSchema });
+/** `stored=only`: answer 204 rather than compute when the revision's values are not stored yet. */
+const valuesQuery = z.object({ stored: z.enum(['only'], { error: 'must be "only" when given' }).optional() });
 
 export function workbooksRouter(ctx: AppContext): Router {
   const router = Router();
@@ -112,7 +116,14 @@ export function workbooksRouter(ctx: AppContext): Router {
   });
 
   router.get('/:id/values', async (req, res) => {
-    const workbook = await loadWorkbookInSlices(ctx, access(req, res, 'view'));
+    const a = access(req, res, 'view');
+    const { stored: storedOnly } = parse(valuesQuery, req.query, 'query');
+    // The revision's values as kept after its commit (server/values/); otherwise computed now.
+    const stored = servableValues(ctx.db, a.workbook.id);
+    if (stored) return sendStoredValues(req, res, stored);
+    ctx.values.nudge(a.workbook.id);
+    if (storedOnly) return res.status(204).end(); // the client computes them itself meanwhile
+    const workbook = await loadWorkbookInSlices(ctx, a);
     let body: ValuesBody;
     try {
       body = await valuesFor(workbook, currentUser(res).id);
@@ -120,6 +131,7 @@ export function workbooksRouter(ctx: AppContext): Router {
       if (e instanceof SpreadsheetError) throw computeRefusal('values', e);
       throw e;
     }
+    res.setHeader(valuesSourceHeader, 'computed');
     res.type('application/json').send(Buffer.from(body.bytes.buffer, body.bytes.byteOffset, body.bytes.byteLength));
   });
 

@@ -17,8 +17,18 @@ const PAGE = 20_000;
 const TRIES = 3;
 const turn = () => new Promise<void>((resolve) => setImmediate(resolve));
 
-export async function loadWorkbookInSlices(ctx: AppContext, access: WorkbookAccess): Promise<WorkbookPayload> {
-  const id = access.workbook.id;
+export interface SlicedContent {
+  revision: number;
+  tabs: ReturnType<typeof workbookSheets>;
+  protection: ReturnType<typeof loadProtection>;
+  cells: Map<string, CellEntry[]>;
+}
+
+/**
+ * The workbook's tabs and non-empty cells read a page at a time, as one consistent snapshot; null
+ * when the workbook is gone or a commit slipped in on every try.
+ */
+export async function loadContentInSlices(ctx: Pick<AppContext, 'db'>, id: string, tries = TRIES - 1): Promise<SlicedContent | null> {
   const revisionNow = () => ctx.db.select({ revision: workbooks.revision }).from(workbooks).where(eq(workbooks.id, id)).get()?.revision;
   // Keyset pages in the primary key's order (sheet, row, column), so each page is an index range.
   const page = ctx.db.$client
@@ -28,7 +38,7 @@ export async function loadWorkbookInSlices(ctx: AppContext, access: WorkbookAcce
        order by c.sheet_id, c.row, c.col limit ${PAGE}`,
     )
     .raw();
-  for (let attempt = 0; attempt < TRIES - 1; attempt++) {
+  for (let attempt = 0; attempt < tries; attempt++) {
     const before = ctx.db.transaction((tx) => ({ revision: tx.select({ revision: workbooks.revision }).from(workbooks).where(eq(workbooks.id, id)).get()?.revision, tabs: workbookSheets(tx, id), protection: loadProtection(tx, id) }));
     const bySheet = new Map<string, CellEntry[]>(before.tabs.map((s) => [s.id, []]));
     let after: [string, number, number] = ['', -1, -1];
@@ -40,17 +50,23 @@ export async function loadWorkbookInSlices(ctx: AppContext, access: WorkbookAcce
       after = [last[0], last[1], last[2]];
       await turn();
     }
-    if (before.revision === undefined) break; // deleted meanwhile: the plain read answers 404
+    if (before.revision === undefined) return null; // deleted meanwhile
     if (revisionNow() !== before.revision) continue;
-    return {
-      id,
-      title: access.workbook.title,
-      revision: before.revision,
-      role: access.role,
-      actions: allowedActions(access.roles),
-      sheets: before.tabs.map((s) => ({ id: s.id, name: s.name, position: s.position, settings: s.settings, cells: bySheet.get(s.id) ?? [] })),
-      ...before.protection,
-    };
+    return { revision: before.revision, tabs: before.tabs, protection: before.protection, cells: bySheet };
   }
-  return loadWorkbook(ctx, access);
+  return null;
+}
+
+export async function loadWorkbookInSlices(ctx: AppContext, access: WorkbookAccess): Promise<WorkbookPayload> {
+  const content = await loadContentInSlices(ctx, access.workbook.id);
+  if (!content) return loadWorkbook(ctx, access); // the one-transaction read (or its 404)
+  return {
+    id: access.workbook.id,
+    title: access.workbook.title,
+    revision: content.revision,
+    role: access.role,
+    actions: allowedActions(access.roles),
+    sheets: content.tabs.map((s) => ({ id: s.id, name: s.name, position: s.position, settings: s.settings, cells: content.cells.get(s.id) ?? [] })),
+    ...content.protection,
+  };
 }

@@ -1,7 +1,7 @@
 // Shapes shared by the reader, the writer, the worker and the routes. Cells are sparse triples
 // [row, col, input] with zero-based row/col and `input` exactly as a user would type it in Orbitab.
 import type { ImportSummary } from '../../shared/io.js';
-import type { SheetSettings } from '../../shared/workbooks.js';
+import type { SheetSettings, StoredValueExtras } from '../../shared/workbooks.js';
 
 export type { ImportSummary, SkippedCell } from '../../shared/io.js';
 
@@ -54,6 +54,8 @@ export interface ExportWorkbook {
   exportedBy: string;
   exportedAt: Date;
   sheets: ExportSheet[];
+  /** The revision's stored values (server/values/), read instead of running the engine; absent: computed. */
+  stored?: { sheetIds: string[]; valuesGzip: Uint8Array; extras: StoredValueExtras };
 }
 
 export type ExportMode = 'formulas' | 'values';
