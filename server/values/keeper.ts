@@ -107,7 +107,6 @@ export class ValuesKeeper {
     let mode: KeeperRun['mode'] = 'incremental';
     if (warmAt !== undefined) {
       const since = this.ctx.db.transaction((tx) => ({ revision: currentRevision(tx, workbookId), patches: patchesAfter(tx, workbookId, warmAt).reverse() }));
-      if (since.revision === warmAt) return; // nothing new since the engine was last brought forward
       const changes: CellChange[] = [];
       let applicable = since.patches.length === since.revision - warmAt;
       for (const p of since.patches) {
