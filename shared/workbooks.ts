@@ -237,6 +237,8 @@ export interface ValuesPayload {
  * fresh computation. Per sheet id; each list is of cells, in row-major order.
  */
 export interface StoredValueExtras {
+  /** The catalog functions the formulas call, with how many cells call each (an export's front sheet). */
+  functionsUsed?: { name: string; family: string; source: string; cells: number }[];
   sheets: Record<
     string,
     {

@@ -50,40 +50,54 @@ export function computedFromStored(sheets: { name: string; cells: readonly CellT
     const stored = byId.get(id);
     if (!stored) throw new Error(`no stored values for sheet "${sheet.name}"`);
     const more = extras.sheets[id] ?? {};
-    const values = new Map<number, ComputedValue>();
-    for (const [row, col, value] of stored.values) values.set(key(row, col), value);
     const empties = keys(more.emptyTexts);
     const bare = keys(more.bareErrors);
     const dates = new Map((more.dates ?? []).map(([r, c, kind]) => [key(r, c), kind]));
     const spills = new Map((more.spills ?? []).map(([r, c, rows, cols]) => [key(r, c), { rows, cols }]));
-    const valueAt = (row: number, col: number): CellValue => {
-      const k = key(row, col);
-      const v = values.get(k);
+    const asValue = (k: number, v: ComputedValue | undefined): CellValue => {
       if (v === undefined) return empties.has(k) ? '' : null;
       if (typeof v !== 'object') return v;
       return new DetailedCellError(new CellError(errorTypes[v.error] ?? ErrorType.ERROR, bare.has(k) ? undefined : v.message), v.error);
     };
-    const read = (row: number, col: number, input?: string): ComputedCell => {
-      const cell: ComputedCell = input === undefined ? { row, col, value: valueAt(row, col) } : { row, col, input, value: valueAt(row, col) };
-      const kind = dates.get(key(row, col));
-      if (kind) cell.dateKind = kind;
+    // Stored values and inputs are both in row-major order: read them side by side (no lookup table
+    // of 100,000 entries), with spilled cells, which have no input, looked up by position.
+    const values = stored.values;
+    let at = 0;
+    let spilledAt: Map<number, ComputedValue> | null = null;
+    const valueAt = (row: number, col: number): CellValue => {
+      const k = key(row, col);
+      while (at < values.length && key(values[at][0], values[at][1]) < k) at++;
+      if (at < values.length && values[at][0] === row && values[at][1] === col) return asValue(k, values[at][2]);
+      return asValue(k, undefined);
+    };
+    const spilledValue = (row: number, col: number): CellValue => {
+      spilledAt ??= new Map(values.map(([r, c, v]) => [key(r, c), v]));
+      const k = key(row, col);
+      return asValue(k, spilledAt.get(k));
+    };
+    const withKind = (cell: ComputedCell): ComputedCell => {
+      if (dates.size > 0) {
+        const kind = dates.get(key(cell.row, cell.col));
+        if (kind) cell.dateKind = kind;
+      }
       return cell;
     };
     const inOrder = sheet.cells.every((c, j) => j === 0 || c[0] > sheet.cells[j - 1][0] || (c[0] === sheet.cells[j - 1][0] && c[1] > sheet.cells[j - 1][1]));
     const sorted = inOrder ? sheet.cells : [...sheet.cells].sort((a, b) => a[0] - b[0] || a[1] - b[1]);
-    const out: ComputedCell[] = [];
-    let spilled = false;
-    for (const [row, col, input] of sorted) {
-      const cell = read(row, col, input);
-      out.push(cell);
+    const out: ComputedCell[] = new Array(sorted.length);
+    const spilledCells: ComputedCell[] = [];
+    for (let j = 0; j < sorted.length; j++) {
+      const [row, col, input] = sorted[j];
+      const cell = withKind({ row, col, input, value: valueAt(row, col) });
+      out[j] = cell;
+      if (spills.size === 0) continue;
       const spill = spills.get(key(row, col));
       if (!spill) continue;
       cell.spill = spill;
-      for (let r = row; r < row + spill.rows; r++) for (let c = col; c < col + spill.cols; c++) if (r !== row || c !== col) out.push(read(r, c));
-      spilled ||= spill.rows > 1 || spill.cols > 1;
+      for (let r = row; r < row + spill.rows; r++) for (let c = col; c < col + spill.cols; c++) if (r !== row || c !== col) spilledCells.push(withKind({ row: r, col: c, value: spilledValue(r, c) }));
     }
-    if (spilled) out.sort((a, b) => a.row - b.row || a.col - b.col);
-    return { name: sheet.name, cells: out };
+    if (spilledCells.length === 0) return { name: sheet.name, cells: out };
+    return { name: sheet.name, cells: [...out, ...spilledCells].sort((a, b) => a.row - b.row || a.col - b.col) };
   });
-  return { sheets: computed, functionsUsed: functionsUsedIn(sheets) };
+  return { sheets: computed, functionsUsed: extras.functionsUsed ?? functionsUsedIn(sheets) };
 }

@@ -9,7 +9,7 @@ import { callsVolatileFunction } from '../../functions/volatile.js';
 import { buildWorkbookEngine } from '../../functions/workbookEngine.js';
 import type { CellTriple } from '../xlsx/types.js';
 import type { StoredValueExtras, ValueEntry, ValuesPayload } from '../../shared/workbooks.js';
-import { computeSheet, isEngineError } from '../xlsx/engineValues.js';
+import { computeSheet, functionsUsedIn, isEngineError } from '../xlsx/engineValues.js';
 import { capValuesPayload } from '../xlsx/longTexts.js';
 
 /** Cell keys as numbers: a row never has more than the engine's 2,000 columns (functions/engine.ts). */
@@ -157,6 +157,7 @@ export class WarmWorkbook {
         return { id: s.id, name: s.name, values };
       }),
     };
+    extras.functionsUsed = functionsUsedIn(this.sheets.map((s) => ({ cells: [...s.inputs.values()].map((input) => [0, 0, input] as CellTriple) })));
     this.cycles = cycles;
     return { payload: capValuesPayload(payload), extras, volatileFormulas: this.volatileCount };
   }

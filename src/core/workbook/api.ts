@@ -2,7 +2,7 @@
 // operations. Tab operations go straight to the server (they are rare and must not be lost or
 // reordered with cell patches), then to the engine once the server has accepted them.
 import { queryOptions } from '@tanstack/react-query';
-import type { PatchInput, PatchResult, SheetMutationResult, WorkbookPayload } from '@shared/workbooks.js';
+import type { PatchInput, PatchResult, SheetMutationResult, ValuesPayload, WorkbookPayload } from '@shared/workbooks.js';
 import { removeSheetFromFormula, renameSheetInFormula } from '@shared/formulaText.js';
 import { api, queryKeys } from '../../lib/api.js';
 import { writeDisplaySettings, type DisplaySettings } from './model/displaySettings.js';
@@ -15,6 +15,20 @@ export const workbookQueryOptions = (id: string) =>
     // Each visit loads afresh; while open, the engine is the source of truth.
     staleTime: Infinity,
     gcTime: 0,
+  });
+
+/**
+ * The values the server stored with the workbook's current revision (GET …/values?stored=only), or
+ * null while they are not stored (the server answers 204 rather than computing them). Failing to
+ * fetch them is no failure to open: the workbook is then computed here as before.
+ */
+export const storedValuesQueryOptions = (id: string) =>
+  queryOptions({
+    queryKey: queryKeys.storedValues(id),
+    queryFn: ({ signal }) => api<ValuesPayload | null>(`/workbooks/${encodeURIComponent(id)}/values?stored=only`, { signal }).catch(() => null),
+    staleTime: Infinity,
+    gcTime: 0,
+    retry: false,
   });
 
 /** POST /api/workbooks/:id/patches: the save queue's one way to the server. */
