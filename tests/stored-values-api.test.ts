@@ -146,6 +146,20 @@ describe('values kept with each revision, through the API', () => {
     expect((await owner.agent.get(`/api/workbooks/${workbookId}/values`)).headers['orbitab-values']).toBe('stored');
   });
 
+  it('leaves a workbook over the kept-cell limit to be computed on demand', async () => {
+    t.ctx.values.maxCells = 5;
+    try {
+      await patch([[7, 0, 'F2']]);
+      await t.ctx.values.idle();
+      const res = await owner.agent.get(`/api/workbooks/${workbookId}/values`);
+      expect(res.headers['orbitab-values']).toBe('computed');
+      expect(res.body.revision).toBe(revision);
+      expect(storedRow().map((r) => r.revision)).not.toContain(revision);
+    } finally {
+      t.ctx.values.maxCells = Number.POSITIVE_INFINITY;
+    }
+  });
+
   it('computes and stores an imported workbook’s values in the background', async () => {
     const file = await plainXlsx({ Screen: [['species', 'order'], ['O2', { formula: 'BONDORDER(A2)' }], ['N2', { formula: 'BONDORDER(A3)' }]] });
     const upload = await owner.agent.post('/api/imports').attach('file', file, 'screen.xlsx');

@@ -21,6 +21,16 @@ import type { CellChange } from './warmWorkbook.js';
 /** More changed cells than this since the warm revision: rebuilding costs about the same. */
 const MAX_INCREMENTAL_CHANGES = 20_000;
 
+/**
+ * Workbooks with more non-empty cells than this are not kept: the engine needs about 1 KB a cell, and
+ * a worker past its heap limit can take the whole process down with it (V8 does not always stop at
+ * the worker). Their values are computed on demand as before. ORBITAB_STORED_VALUES_MAX_CELLS sets it.
+ */
+export const maxKeptCells = (() => {
+  const n = Number(process.env.ORBITAB_STORED_VALUES_MAX_CELLS);
+  return Number.isFinite(n) && n >= 0 ? Math.floor(n) : 400_000;
+})();
+
 export interface KeeperRun {
   workbookId: string;
   revision: number;
@@ -50,6 +60,8 @@ export class ValuesKeeper {
   private running: Promise<void> | null = null;
   private stopped = false;
   private idleWaiters: (() => void)[] = [];
+  /** Workbooks with more non-empty cells are not kept (tests lower it). */
+  maxCells = maxKeptCells;
   /** Called after each stored run (benchmarks, tests). */
   onRun: ((run: KeeperRun) => void) | null = null;
 
@@ -100,8 +112,21 @@ export class ValuesKeeper {
     }
   }
 
+  /** Non-empty cells of the workbook, counted in SQLite (an index range per sheet). */
+  private cellCount(workbookId: string): number {
+    const row = this.ctx.db.$client.prepare(`select count(*) as n from cells c join sheets s on s.id = c.sheet_id where s.workbook_id = ? and c.input != ''`).get(workbookId) as { n: number };
+    return row.n;
+  }
+
   private async bringUpToDate(workbookId: string) {
     const started = performance.now();
+    if (this.cellCount(workbookId) > this.maxCells) {
+      // Too large to keep warm: left to the on-demand path, and the worker lets go of any engine it held.
+      if (this.warm.delete(workbookId)) await runKeeperJob({ kind: 'forget', workbookId });
+      const at = revisionOf(this.ctx.db, workbookId);
+      if (at !== null) this.failed.set(workbookId, at);
+      return;
+    }
     const warmAt = this.warm.get(workbookId);
     let reply: KeeperReply | null = null;
     let mode: KeeperRun['mode'] = 'incremental';
