@@ -156,7 +156,7 @@ const median = (xs: number[]) => {
 export async function runOpenBench(options: { rows?: number; cols?: number; runs?: number; write?: boolean; large?: boolean } = {}): Promise<OpenBenchResult> {
   const rows = options.rows ?? 10_000;
   const cols = options.cols ?? 10;
-  const runs = options.runs ?? 5;
+  const runs = options.runs ?? Number(process.env.BENCH_OPEN_RUNS ?? 5);
   const server = await startServer();
   const browser = await launchBrowser({ viewport: { width: 1280, height: 800 } });
   try {
@@ -257,9 +257,14 @@ export async function runOpenBench(options: { rows?: number; cols?: number; runs
       const largeCols = 8;
       const largeRows = 100_000;
       const largeId = await createWorkbook(api, 'Open benchmark: 100,000 rows', chemistryCells(largeRows).filter(([, c]) => c < largeCols));
-      const storedAfterMs = await storedValuesReady(api, largeId, 900_000);
-      const run = await openOnce(largeId);
-      large = {
+      // The server keeps values of workbooks up to 400,000 cells (ORBITAB_STORED_VALUES_MAX_CELLS); past
+      // that the page opens by computing, and this says so (openedOnStoredValues false).
+      const storedAfterMs = await storedValuesReady(api, largeId, 120_000);
+      const run = await openOnce(largeId).catch((e: Error) => {
+        console.warn(`the 100,000-row workbook did not open within the time allowed: ${e.message.split('\n')[0]}`);
+        return null;
+      });
+      if (run) large = {
         rows: largeRows,
         cols: largeCols,
         firstRowsMs: Math.round(run.shownMs),
