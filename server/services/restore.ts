@@ -12,6 +12,7 @@ import { badRequest, notFound } from '../errors.js';
 import { sheetCells, writeCell, type Tx } from './cellStore.js';
 import { currentRevision, nextRevision, patchesAfter, recordRevision } from './revisionLog.js';
 import { recordAudit } from './audit.js';
+import { sheetActor } from './access.js';
 import { assertMayChangeSheet, assertMayEditCells } from './protection.js';
 import { applySheetOp, invertSheetOp, workbookSheets } from './sheetOps.js';
 
@@ -137,10 +138,13 @@ export function restoreRevision(ctx: AppContext, workbookId: string, authorId: s
       const model = loadModel(tx, workbookId);
       const rewrittenOnly = new Set<string>();
       const undoOps = undoLaterRevisions(tx, workbookId, model, target, rewrittenOnly);
-      // A restore is an edit like any other: sheet locks and protected ranges hold against it too.
+      // A restore is an edit like any other: sheet roles, locks and protected ranges hold against it too.
+      // Decided with the author's role on each sheet: a restore that would change a sheet they only
+      // view is refused whole, naming the sheet, rather than applied in part.
+      const actor = sheetActor(tx, workbookId, authorId);
       const namesNow = new Map(workbookSheets(tx, workbookId).map((s) => [s.id, s.name]));
       for (const op of undoOps) {
-        if (op.op !== 'add' && namesNow.has(op.sheetId)) assertMayChangeSheet(tx, workbookId, authorId, op.sheetId, namesNow.get(op.sheetId)!, { deleting: op.op === 'delete' });
+        if (op.op !== 'add' && namesNow.has(op.sheetId)) assertMayChangeSheet(tx, workbookId, actor, op.sheetId, namesNow.get(op.sheetId)!, { deleting: op.op === 'delete' });
       }
 
       const revision = nextRevision(tx, workbookId);
@@ -152,7 +156,7 @@ export function restoreRevision(ctx: AppContext, workbookId: string, authorId: s
       const sheetOps = undoOps.map((op) => applySheetOp(tx, workbookId, op.op === 'add' ? { ...op, cells: [] } : op, revision, authorId, rewrites));
       const differences = model.order.flatMap((id) => cellDifferences(tx, model.sheets.get(id)!));
       const userLevel = differences.filter((c) => !rewrittenOnly.has(cellKey(c)));
-      assertMayEditCells(tx, workbookId, authorId, userLevel, new Map(workbookSheets(tx, workbookId).map((s) => [s.id, s.name])));
+      assertMayEditCells(tx, workbookId, actor, userLevel, new Map(workbookSheets(tx, workbookId).map((s) => [s.id, s.name])));
       for (const c of differences) writeCell(ctx.db, c.sheetId, c.row, c.col, c.after, revision);
       const changes = mergeChanges(rewrites, differences);
 
