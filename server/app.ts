@@ -17,6 +17,7 @@ import { adminUsersRouter } from './routes/admin.js';
 import { workbooksRouter } from './routes/workbooks.js';
 import { structuresRouter } from './routes/structures.js';
 import { createEventHub } from './services/events.js';
+import { ValuesKeeper } from './values/keeper.js';
 import { createMailer } from './mail/mailer.js';
 import { teamRouter } from './routes/team.js';
 import { invitationLinksRouter } from './routes/invitations.js';
@@ -33,7 +34,13 @@ export interface CreateAppOptions {
 
 export function createApp({ db, config, limits }: CreateAppOptions): { app: Express; ctx: AppContext } {
   const logger = createLogger(config.logLevel ?? resolveLogLevel(process.env));
-  const ctx: AppContext = { db, config, lucia: createLucia(db), limits: createAccountLimits(limits), logger, events: createEventHub((err) => logger.error({ err }, 'workbook event listener failed')), mail: createMailer({ db, smtpUrl: config.smtpUrl, from: config.mailFrom, logger }) };
+  const events = createEventHub((err) => logger.error({ err }, 'workbook event listener failed'));
+  const values = new ValuesKeeper({ db, events, logger });
+  const ctx: AppContext = { db, config, lucia: createLucia(db), limits: createAccountLimits(limits), logger, events, mail: createMailer({ db, smtpUrl: config.smtpUrl, from: config.mailFrom, logger }), values };
+  // Every committed revision (edits, tabs, imports, restores) gets its values computed and stored.
+  events.subscribeAll((event) => {
+    if (event.type === 'revision') values.noteRevision(event.workbookId, event.revision);
+  });
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');

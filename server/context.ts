@@ -5,6 +5,7 @@ import type { AccountLimits } from './auth/rateLimit.js';
 import type { Logger } from 'pino';
 import type { EventHub } from './services/events.js';
 import type { Mailer } from './mail/mailer.js';
+import type { ValuesKeeper } from './values/keeper.js';
 
 /** What every route module gets: built once per app, so tests can mount many apps side by side. */
 export interface AppContext {
@@ -18,4 +19,6 @@ export interface AppContext {
   events: EventHub;
   /** Outgoing e-mail (SMTP_URL, or the built-in fake SMTP server); stop() it when the app stops. */
   mail: Mailer;
+  /** Computes each revision's values in the background and stores them (server/values/). */
+  values: ValuesKeeper;
 }

@@ -254,6 +254,28 @@ export interface ValuesPayload {
   sheets: { id: string; name: string; values: ValueEntry[] }[];
 }
 
+/**
+ * Kept beside a revision's stored /values answer: what an export needs to write the same file as a
+ * fresh computation. Per sheet id; each list is of cells, in row-major order.
+ */
+export interface StoredValueExtras {
+  /** The catalog functions the formulas call, with how many cells call each (an export's front sheet). */
+  functionsUsed?: { name: string; family: string; source: string; cells: number }[];
+  sheets: Record<
+    string,
+    {
+      /** Numbers the engine marked as a date, a time or both. */
+      dates?: [row: number, col: number, kind: 'date' | 'time' | 'datetime'][];
+      /** Array formulas' anchors and the area they spilled into. */
+      spills?: [row: number, col: number, rows: number, cols: number][];
+      /** Cells whose value is the empty text ('' is left out of /values, as empty cells are). */
+      emptyTexts?: [row: number, col: number][];
+      /** Errors the engine gave no message of its own (/values words them; files keep no note). */
+      bareErrors?: [row: number, col: number][];
+    }
+  >;
+}
+
 // ---- live updates (published in-process; the live-updates issue sends them over SSE) ----
 
 export type WorkbookEvent =

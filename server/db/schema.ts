@@ -1,10 +1,10 @@
 // The whole data model in one file; `npm run db:generate` writes the SQL migrations into drizzle/.
 import { sql } from 'drizzle-orm';
-import { index, integer, primaryKey, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
+import { blob, index, integer, primaryKey, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
 import { siteRoles } from '../../shared/auth.js';
 import { sheetRoleNames, workbookRoles } from '../../shared/permissions.js';
 import { grantableRoles } from '../../shared/team.js';
-import type { RevisionPatch, SheetSettings } from '../../shared/workbooks.js';
+import type { RevisionPatch, SheetSettings, StoredValueExtras } from '../../shared/workbooks.js';
 
 const now = sql`(unixepoch('subsec') * 1000)`;
 
@@ -109,6 +109,28 @@ export const revisions = sqliteTable(
     createdAt: integer('created_at').notNull().default(now),
   },
   (t) => [primaryKey({ columns: [t.workbookId, t.number] })],
+);
+
+/**
+ * The computed values of one revision, kept so /values and exports read them instead of running the
+ * engine again. Written after the revision's commit by the values keeper (server/values/keeper.ts);
+ * a revision without a row is computed on demand as before. Only each workbook's newest row is kept.
+ */
+export const revisionValues = sqliteTable(
+  'revision_values',
+  {
+    workbookId: text('workbook_id').notNull().references(() => workbooks.id, { onDelete: 'cascade' }),
+    revision: integer('revision').notNull(),
+    /** The GET /values answer for this revision, as gzip-compressed UTF-8 JSON. */
+    valuesGzip: blob('values_gzip', { mode: 'buffer' }).notNull(),
+    /** What an export needs beyond /values: date kinds, spill areas, empty texts, bare errors. */
+    extras: text('extras', { mode: 'json' }).$type<StoredValueExtras>().notNull(),
+    /** Formulas calling a function of the clock or of chance: such a revision is recomputed on every read. */
+    volatileFormulas: integer('volatile_formulas').notNull().default(0),
+    computedMs: integer('computed_ms').notNull().default(0),
+    createdAt: integer('created_at').notNull().default(now),
+  },
+  (t) => [primaryKey({ columns: [t.workbookId, t.revision] })],
 );
 
 /**

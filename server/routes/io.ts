@@ -12,6 +12,7 @@ import { badRequest, HttpError, parse } from '../errors.js';
 import { exportDownload, type Download } from '../services/exports.js';
 import { importUpload } from '../services/imports.js';
 import { defaultImportLimits, formatBytes } from '../xlsx/limits.js';
+import { valuesSourceHeader } from '../values/serve.js';
 import { accessMiddleware, accessOf } from './access.js';
 
 const importBody = z.object({ workbookId: idSchema.optional() });
@@ -45,6 +46,7 @@ const receiveUpload: RequestHandler = (req, res, next) => {
  */
 async function sendDownload(ctx: AppContext, res: Response, download: Download): Promise<void> {
   res.type(download.contentType).attachment(download.filename);
+  res.setHeader(valuesSourceHeader, download.valuesSource);
   try {
     await download.writeTo(res);
   } catch (e) {

@@ -22,10 +22,14 @@ import { getRevision, listRevisions } from '../services/revisionLog.js';
 import { addSheet, deleteSheet, updateSheet } from '../services/sheetStore.js';
 import { workbookValues } from '../services/valuesInWorker.js';
 import { createWorkbookFor, deleteWorkbook, loadWorkbook, renameWorkbook, summarizeWorkbook } from '../services/workbookStore.js';
+import { sendStoredValues, valuesSourceHeader } from '../values/serve.js';
+import { servableValues } from '../values/store.js';
 import { accessMiddleware, accessOf, idParam, revisionNumberSchema } from './access.js';
 
 const sheetParams = z.object({ id: idSchema, sheetId: idSchema });
 const revisionParams = z.object({ id: idSchema, n: revisionNumberSchema });
+/** `stored=only`: answer 204 rather than compute when the revision's values are not stored yet. */
+const valuesQuery = z.object({ stored: z.enum(['only'], { error: 'must be "only" when given' }).optional() });
 
 export function workbooksRouter(ctx: AppContext): Router {
   const router = Router();
@@ -95,8 +99,17 @@ export function workbooksRouter(ctx: AppContext): Router {
     res.json(restoreRevision(ctx, accessOf(res).workbook.id, currentUser(res).id, n));
   });
 
-  router.get('/:id/values', access('view'), async (_req, res) => {
-    res.type('application/json').send(await workbookValues(ctx, accessOf(res), currentUser(res).id));
+  router.get('/:id/values', access('view'), async (req, res) => {
+    const { stored: storedOnly } = parse(valuesQuery, req.query, 'query');
+    const { workbook } = accessOf(res);
+    // The revision's values as kept after its commit (server/values/); otherwise computed now.
+    const stored = servableValues(ctx.db, workbook.id);
+    if (stored) return sendStoredValues(req, res, stored);
+    ctx.values.nudge(workbook.id);
+    if (storedOnly) return res.status(204).end(); // the client computes them itself meanwhile
+    const body = await workbookValues(ctx, accessOf(res), currentUser(res).id);
+    res.setHeader(valuesSourceHeader, 'computed');
+    res.type('application/json').send(body);
   });
 
   return router;

@@ -20,6 +20,8 @@ export interface ExportRequest {
 export interface Download {
   contentType: string;
   filename: string;
+  /** Whether the values come from those stored with the revision or were computed for this download. */
+  valuesSource: 'stored' | 'computed';
   /** Streams the file into `output` and ends it; a refusal before the first byte is a SpreadsheetError about the export. */
   writeTo(output: Writable): Promise<void>;
 }
@@ -55,6 +57,7 @@ export async function exportDownload(ctx: AppContext, access: WorkbookAccess, us
   return {
     contentType,
     filename,
+    valuesSource: workbook.stored ? 'stored' : 'computed',
     // The workbook is already stored, so a failure here is the server's limit, not a bad request.
     writeTo: (output) => exportInWorker(output, workbook, format, { owner: user.id, structures: jobStructures(ctx, access.workbook.id) }).then(() => undefined, refusalAbout('export', '; try values only, or split the workbook')),
   };

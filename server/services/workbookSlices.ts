@@ -1,12 +1,13 @@
-// loadWorkbook (workbookStore.ts) for work that runs in a worker afterwards (/values, exports): the
-// cells are read a page at a time with a turn of the event loop between pages, so loading 500,000
-// cells never holds the server for long. The pages are one consistent snapshot when the workbook's
-// revision is the same before and after; when a commit slipped in between, it reads again, and the
-// last try is the one-transaction read.
+// loadWorkbook (workbookStore.ts) for work that runs in a worker afterwards (/values, exports, the
+// values keeper): the cells are read a page at a time with a turn of the event loop between pages,
+// so loading 500,000 cells never holds the server for long. The pages are one consistent snapshot
+// when the workbook's revision is the same before and after; when a commit slipped in between, it
+// reads again, and the last try is the one-transaction read.
 import { eq } from 'drizzle-orm';
 import type { CellEntry, WorkbookPayload } from '../../shared/workbooks.js';
 import type { AppContext } from '../context.js';
 import { workbooks } from '../db/schema.js';
+import type { Tx } from './cellStore.js';
 import { actionsFor, mySheetRoles, type WorkbookAccess } from './access.js';
 import { loadProtection } from './protection.js';
 import { workbookSheets } from './sheetOps.js';
@@ -16,8 +17,23 @@ const PAGE = 20_000;
 const TRIES = 3;
 const turn = () => new Promise<void>((resolve) => setImmediate(resolve));
 
-export async function loadWorkbookInSlices(ctx: AppContext, access: WorkbookAccess): Promise<WorkbookPayload> {
-  const id = access.workbook.id;
+type Tabs = ReturnType<typeof workbookSheets>;
+type Protection = ReturnType<typeof loadProtection>;
+
+export interface SlicedContent<E> {
+  revision: number;
+  tabs: Tabs;
+  protection: Protection;
+  cells: Map<string, CellEntry[]>;
+  /** Whatever `more` read in the same transaction as the tabs. */
+  more: E;
+}
+
+/**
+ * The workbook's tabs and non-empty cells read a page at a time, as one consistent snapshot, with
+ * `more` read beside the tabs; null when the workbook is gone or a commit slipped in on every try.
+ */
+export async function loadContentInSlices<E = null>(ctx: Pick<AppContext, 'db'>, id: string, more?: (tx: Tx, tabs: Tabs, protection: Protection) => E): Promise<SlicedContent<E> | null> {
   const revisionNow = () => ctx.db.select({ revision: workbooks.revision }).from(workbooks).where(eq(workbooks.id, id)).get()?.revision;
   // Keyset pages in the primary key's order (sheet, row, column), so each page is an index range.
   const page = ctx.db.$client
@@ -31,13 +47,7 @@ export async function loadWorkbookInSlices(ctx: AppContext, access: WorkbookAcce
     const before = ctx.db.transaction((tx) => {
       const tabs = workbookSheets(tx, id);
       const protection = loadProtection(tx, id);
-      return {
-        revision: tx.select({ revision: workbooks.revision }).from(workbooks).where(eq(workbooks.id, id)).get()?.revision,
-        tabs,
-        protection,
-        actions: actionsFor(tx, id, access.userId, access.roles),
-        mySheetRoles: mySheetRoles(tx, id, access.userId, protection, tabs),
-      };
+      return { revision: tx.select({ revision: workbooks.revision }).from(workbooks).where(eq(workbooks.id, id)).get()?.revision, tabs, protection, more: (more ? more(tx, tabs, protection) : null) as E };
     });
     const bySheet = new Map<string, CellEntry[]>(before.tabs.map((s) => [s.id, []]));
     let after: [string, number, number] = ['', -1, -1];
@@ -49,18 +59,28 @@ export async function loadWorkbookInSlices(ctx: AppContext, access: WorkbookAcce
       after = [last[0], last[1], last[2]];
       await turn();
     }
-    if (before.revision === undefined) break; // deleted meanwhile: the plain read answers 404
+    if (before.revision === undefined) return null; // deleted meanwhile
     if (revisionNow() !== before.revision) continue;
-    return {
-      id,
-      title: access.workbook.title,
-      revision: before.revision,
-      role: access.role,
-      actions: before.actions,
-      sheets: before.tabs.map((s) => ({ id: s.id, name: s.name, position: s.position, settings: s.settings, cells: bySheet.get(s.id) ?? [], createdBy: s.createdBy })),
-      ...before.protection,
-      mySheetRoles: before.mySheetRoles,
-    };
+    return { revision: before.revision, tabs: before.tabs, protection: before.protection, cells: bySheet, more: before.more };
   }
-  return loadWorkbook(ctx, access);
+  return null;
+}
+
+export async function loadWorkbookInSlices(ctx: AppContext, access: WorkbookAccess): Promise<WorkbookPayload> {
+  const id = access.workbook.id;
+  const content = await loadContentInSlices(ctx, id, (tx, tabs, protection) => ({
+    actions: actionsFor(tx, id, access.userId, access.roles),
+    mySheetRoles: mySheetRoles(tx, id, access.userId, protection, tabs),
+  }));
+  if (!content) return loadWorkbook(ctx, access); // the one-transaction read (or its 404)
+  return {
+    id,
+    title: access.workbook.title,
+    revision: content.revision,
+    role: access.role,
+    actions: content.more.actions,
+    sheets: content.tabs.map((s) => ({ id: s.id, name: s.name, position: s.position, settings: s.settings, cells: content.cells.get(s.id) ?? [], createdBy: s.createdBy })),
+    ...content.protection,
+    mySheetRoles: content.more.mySheetRoles,
+  };
 }

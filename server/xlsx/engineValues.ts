@@ -65,7 +65,7 @@ function dateKindOf(engine: HyperFormula, address: { sheet: number; row: number;
 /** Below this share of filled cells a sheet's values are read one by one rather than as one array. */
 const DENSE_READ_THRESHOLD = 0.1;
 
-function computeSheet(engine: HyperFormula, sheet: number, name: string, cells: CellTriple[]): ComputedSheet {
+export function computeSheet(engine: HyperFormula, sheet: number, name: string, cells: CellTriple[]): ComputedSheet {
   const out: ComputedCell[] = [];
   // One call for the whole sheet when it is dense enough: the public per-cell getter validates its
   // argument on each of 100,000 calls. The array holds the same exported values, trailing empties trimmed.

@@ -5,13 +5,18 @@ import type { AppContext } from '../context.js';
 import type { WorkbookAccess } from '../services/access.js';
 import { loadProtection } from '../services/protection.js';
 import { loadWorkbookInSlices } from '../services/workbookSlices.js';
+import { servableValues } from '../values/store.js';
 import type { ExportWorkbook } from './types.js';
 
 export async function exportSource(ctx: AppContext, access: WorkbookAccess, user: Pick<User, 'name' | 'email'>, now = new Date()): Promise<ExportWorkbook & { sheetIds: string[] }> {
   // Read a page at a time (workbookSlices.ts): a large workbook's cells never hold the event loop long.
   const workbook = await loadWorkbookInSlices(ctx, access);
   const protection = loadProtection(ctx.db, workbook.id);
+  // The values kept with this very revision, when they are ready: the export then runs no engine.
+  const stored = servableValues(ctx.db, workbook.id, workbook.revision);
+  if (!stored) ctx.values.nudge(workbook.id);
   return {
+    stored: stored ? { sheetIds: workbook.sheets.map((s) => s.id), valuesGzip: stored.valuesGzip, extras: stored.extras } : undefined,
     title: workbook.title,
     revision: workbook.revision,
     exportedBy: `${user.name} <${user.email}>`,

@@ -6,6 +6,7 @@ import { watchEvaluation } from '../../functions/engineGuards.js';
 import { computeWorkbook } from './engineValues.js';
 import { capComputedWorkbook, capValuesPayload } from './longTexts.js';
 import { computeValuesIsolated } from '../services/valuesIsolated.js';
+import { computedFromStored, decodeValues } from '../values/storedFormat.js';
 import { packSheets, unpackCells, unpackSheets, type PackedCells, type PackedExportWorkbook } from './packedCells.js';
 import { SpreadsheetError, type ImportLimits } from './limits.js';
 import { readSpreadsheet } from './read.js';
@@ -40,6 +41,13 @@ function chunkPoster(): Writable {
   });
 }
 
+/** An export's values: the revision's stored ones when it has them, otherwise the engine's. */
+function computedFor(workbook: ExportWorkbook) {
+  const cells = workbook.sheets.map((s) => ({ name: s.name, cells: s.cells }));
+  if (workbook.stored) return computedFromStored(cells, workbook.stored.sheetIds, decodeValues(workbook.stored.valuesGzip), workbook.stored.extras);
+  return capComputedWorkbook(computeWorkbook(cells));
+}
+
 /** The job's result, and any buffers to move (not copy) back with it. */
 async function run(job: IoJob): Promise<{ result: unknown; transfer?: ArrayBuffer[] }> {
   switch (job.kind) {
@@ -54,7 +62,7 @@ async function run(job: IoJob): Promise<{ result: unknown; transfer?: ArrayBuffe
     case 'xlsx': {
       const started = performance.now();
       const workbook: ExportWorkbook = unpackSheets(job.workbook);
-      const computed = capComputedWorkbook(computeWorkbook(workbook.sheets.map((s) => ({ name: s.name, cells: s.cells }))));
+      const computed = computedFor(workbook);
       const computedAt = performance.now();
       const out = chunkPoster();
       await writeComputedXlsx(out, workbook, computed, { mode: job.mode });
@@ -74,7 +82,7 @@ async function run(job: IoJob): Promise<{ result: unknown; transfer?: ArrayBuffe
     case 'csv': {
       const started = performance.now();
       const workbook: ExportWorkbook = unpackSheets(job.workbook);
-      const computed = capComputedWorkbook(computeWorkbook(workbook.sheets.map((s) => ({ name: s.name, cells: s.cells }))));
+      const computed = computedFor(workbook);
       const computedAt = performance.now();
       await writeSheetCsv(chunkPoster(), computed.sheets[job.sheetIndex].cells);
       return { result: { engineMs: computedAt - started, writeMs: performance.now() - computedAt, fresh: structures.fresh } };

@@ -2,7 +2,7 @@
 // [row, col, input] with zero-based row/col and `input` exactly as a user would type it in Orbitab.
 import type { CellTriple } from '../../functions/workbookEngine.js';
 import type { ImportSummary } from '../../shared/io.js';
-import type { SheetSettings } from '../../shared/workbooks.js';
+import type { SheetSettings, StoredValueExtras } from '../../shared/workbooks.js';
 
 export type { ImportSummary, SkippedCell } from '../../shared/io.js';
 
@@ -62,6 +62,8 @@ export interface ExportWorkbook {
   exportedBy: string;
   exportedAt: Date;
   sheets: ExportSheet[];
+  /** The revision's stored values (server/values/), read instead of running the engine; absent: computed. */
+  stored?: { sheetIds: string[]; valuesGzip: Uint8Array; extras: StoredValueExtras };
 }
 
 export type ExportMode = 'formulas' | 'values';

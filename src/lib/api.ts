@@ -42,6 +42,7 @@ export const queryKeys = {
   me: ['me'] as const,
   workbooks: ['workbooks'] as const,
   workbook: (id: string) => ['workbooks', id] as const,
+  storedValues: (id: string) => ['workbooks', id, 'stored-values'] as const,
   revisions: (id: string) => ['workbooks', id, 'revisions'] as const,
   members: (id: string) => ['workbooks', id, 'members'] as const,
   audit: (id: string) => ['workbooks', id, 'audit'] as const,

@@ -1,6 +1,7 @@
 // The bar above the grid: the workbook's title, the team's controls, export and the save state.
 import type { WorkbookModel } from '../../core/workbook/model/workbookModel.js';
 import type { SaveStatus } from '../../core/workbook/save/patchQueue.js';
+import { ComputingState } from '../../features/grid/components/ComputingState.js';
 import { SaveIndicator } from '../../features/grid/components/SaveIndicator.js';
 import { ExportMenu } from '../../features/io/index.js';
 import type { WorkbookTeam } from '../../features/live/useWorkbookTeam.js';
@@ -18,6 +19,7 @@ export function WorkbookBar(p: { model: WorkbookModel; team: WorkbookTeam; activ
       <TeamToolbar team={p.team} model={p.model} activeSheet={p.activeSheet} selectionRange={p.selectionRange} />
       {/* Every role may export, viewers included (the API checks the same). */}
       <ExportMenu workbookId={p.model.id} activeSheet={p.activeSheet} />
+      <ComputingState model={p.model} />
       <SaveIndicator status={p.status} storageWorks={p.storageWorks} />
     </div>
   );

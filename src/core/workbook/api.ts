@@ -2,7 +2,7 @@
 // operations. Tab operations go straight to the server (they are rare and must not be lost or
 // reordered with cell patches), then to the engine once the server has accepted them.
 import { queryOptions } from '@tanstack/react-query';
-import { workbookPath, type PatchInput, type PatchResult, type SheetMutationResult, type WorkbookPayload } from '@shared/workbooks.js';
+import { workbookPath, type PatchInput, type PatchResult, type SheetMutationResult, type ValuesPayload, type WorkbookPayload } from '@shared/workbooks.js';
 import { removeSheetFromFormula, renameSheetInFormula } from '@shared/formulaText.js';
 import type { StructuresRequest, StructuresResponse } from '@shared/structures.js';
 import type { EhtResult } from '@functions/chem/ehtSummary.js';
@@ -21,7 +21,21 @@ export const workbookQueryOptions = (id: string) =>
 
 /** POST /api/workbooks/:id/structures: stored extended-Hückel results, null for those still being computed. */
 export const fetchStructures = (workbookId: string, inputs: StructuresRequest['inputs']) =>
-  api<StructuresResponse<EhtResult>>(`/workbooks/${encodeURIComponent(workbookId)}/structures`, { method: 'POST', body: { inputs } });
+  api<StructuresResponse<EhtResult>>(workbookPath(workbookId, 'structures'), { method: 'POST', body: { inputs } });
+
+/**
+ * The values the server stored with the workbook's current revision (GET …/values?stored=only), or
+ * null while they are not stored (the server answers 204 rather than computing them). Failing to
+ * fetch them is no failure to open: the workbook is then computed here as before.
+ */
+export const storedValuesQueryOptions = (id: string) =>
+  queryOptions({
+    queryKey: queryKeys.storedValues(id),
+    queryFn: ({ signal }) => api<ValuesPayload | null>(`${workbookPath(id, 'values')}?stored=only`, { signal }).catch(() => null),
+    staleTime: Infinity,
+    gcTime: 0,
+    retry: false,
+  });
 
 /** POST /api/workbooks/:id/patches: the save queue's one way to the server. */
 export const sendPatch = (workbookId: string, patch: PatchInput) => api<PatchResult>(workbookPath(workbookId, 'patches'), { method: 'POST', body: patch });

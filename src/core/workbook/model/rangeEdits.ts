@@ -13,6 +13,7 @@ import type { EditOutcome, WorkbookModel } from './workbookModel.js';
 export function movedInput(model: WorkbookModel, sheetId: string, from: { row: number; col: number }, to: { row: number; col: number }): string {
   const input = model.input(sheetId, from.row, from.col);
   if (!input.startsWith('=')) return input;
+  model.ensureLive(); // the engine must hold the formula itself, not its stored value, to re-point it
   const engineId = model.sheet(sheetId).engineId;
   const source: SimpleCellRange = { start: { sheet: engineId, ...from }, end: { sheet: engineId, ...from } };
   const target: SimpleCellRange = { start: { sheet: engineId, ...to }, end: { sheet: engineId, ...to } };

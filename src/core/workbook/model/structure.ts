@@ -36,6 +36,8 @@ export function applyStructural(model: WorkbookModel, sheetId: string, op: Struc
   const blocked = model.structureRule?.(sheetId);
   if (blocked) throw new StructureError(blocked);
   if (!Number.isInteger(op.at) || op.at < 0 || !Number.isInteger(op.count) || op.count < 1) throw new StructureError('choose at least one row or column');
+  // Formulas are read from the engine to see which ones the operation rewrote: all must be live.
+  model.ensureLive();
   const target = model.sheet(sheetId);
   const { engine } = model;
 

@@ -7,7 +7,8 @@
 import { ExportedCellChange, type ExportedChange, type HyperFormula } from 'hyperformula';
 import { buildWorkbookEngine, inTabOrder } from '@functions/workbookEngine.js';
 import { engineInput } from '@functions/formulaTokens.js';
-import type { SheetPayload, WorkbookPayload } from '@shared/workbooks.js';
+import type { SheetPayload, ValuesPayload, WorkbookPayload } from '@shared/workbooks.js';
+import { Hydration, placeholderTable } from './hydration.js';
 import { allows, type AccessRole, type WorkbookAction } from '@shared/permissions.js';
 import type { CellView } from './cellView.js';
 import { buildSheetRows, EMPTY_ROW, groupCells, viewOfCell, withRowsReplaced, type RowData } from './sheetViews.js';
@@ -65,7 +66,11 @@ export class WorkbookModel {
   readonly onLocalChanges: (changes: CellInput[]) => void;
   version = 0;
 
-  constructor(payload: WorkbookPayload, options: { onLocalChanges?: (changes: CellInput[]) => void } = {}) {
+  /** Formulas still standing in as their stored values (hydration.ts); null once the workbook is live. */
+  private hydration: Hydration | null = null;
+
+  /** `stored`: the values stored with this revision, shown at once while the formulas are put back in slices. */
+  constructor(payload: WorkbookPayload, options: { onLocalChanges?: (changes: CellInput[]) => void; stored?: ValuesPayload | null } = {}) {
     this.onLocalChanges = options.onLocalChanges ?? (() => {});
     this.id = payload.id;
     this.title = payload.title;
@@ -73,10 +78,54 @@ export class WorkbookModel {
     this.actions = payload.actions;
     const ordered = inTabOrder(payload.sheets);
     const inputs = new Map(ordered.map((s) => [s.id, SheetInputs.from(s.cells)]));
+    const stored = options.stored?.revision === payload.revision ? options.stored : null;
+    const held = stored ? ordered.map((s) => placeholderTable(s.id, inputs.get(s.id)!, stored.sheets.find((x) => x.id === s.id))) : null;
     // Built once from whole tables: no per-cell setCellContents on load. Undo lives in History
     // (our own, mirrored in patches), so the engine keeps no undo stack of its own.
-    this.engine = buildWorkbookEngine(ordered.map((s) => ({ name: s.name, table: inputs.get(s.id)!.toTable() })), { undoLimit: 0 });
+    this.engine = buildWorkbookEngine(ordered.map((s, i) => ({ name: s.name, table: held ? held[i].table : inputs.get(s.id)!.toTable() })), { undoLimit: 0 });
     for (const s of ordered) this.addSheetState(s, inputs.get(s.id)!);
+    if (held && stored) this.hydration = new Hydration(held.flatMap((h) => h.formulas), held.flatMap((h) => h.spilled), stored.revision);
+  }
+
+  /** While the stored values are shown: how many formulas are live of how many. Null when all are. */
+  get computing(): { done: number; total: number; revision: number } | null {
+    const h = this.hydration;
+    return h ? { done: h.done, total: h.total, revision: h.revision } : null;
+  }
+
+  /** Puts back formulas for about `budgetMs` (the session calls it between frames); true once live. */
+  computeSlice(budgetMs: number): boolean {
+    if (!this.hydration) return true;
+    const live = this.hydration.slice(
+      {
+        hasSheet: (id) => this.hasSheet(id),
+        engineIdOf: (id) => this.sheet(id).engineId,
+        inputOf: (id, row, col) => this.input(id, row, col),
+        writeEngine: (cells) => this.writeEngine(cells.map((c) => ({ engineId: this.sheet(c.sheetId).engineId, row: c.row, col: c.col, content: c.content }))),
+      },
+      budgetMs,
+    );
+    if (live) this.hydration = null;
+    this.notify();
+    return live;
+  }
+
+  /** Finishes putting back every formula now (before work that reads formulas from the engine: structure changes, fills). */
+  ensureLive() {
+    while (!this.computeSlice(Number.POSITIVE_INFINITY));
+  }
+
+  private writeEngine(cells: { engineId: number; row: number; col: number; content: string | number | boolean | null }[]) {
+    let changes: ExportedChange[] = [];
+    this.engine.suspendEvaluation();
+    try {
+      for (const c of cells) this.engine.setCellContents({ sheet: c.engineId, row: c.row, col: c.col }, [[c.content]]);
+    } finally {
+      changes = this.engine.resumeEvaluation();
+    }
+    const touched: { engineId: number; row: number; col: number }[] = [...cells];
+    for (const ch of changes) if (ch instanceof ExportedCellChange) touched.push({ engineId: ch.sheet, row: ch.row, col: ch.col });
+    this.refreshViews(touched);
   }
 
   // ---- reading ----
@@ -191,6 +240,7 @@ export class WorkbookModel {
         const result = this.engine.setCellContents({ sheet: s.engineId, row: c.row, col: c.col }, [[c.input === '' ? null : engineInput(c.input)]]);
         if (!bulk) engineChanges = result;
         s.inputs.set(c.row, c.col, c.input);
+        this.hydration?.forget(c.sheetId, c.row, c.col);
         written.push(c);
       }
     } finally {

@@ -3,8 +3,8 @@
 // changes an earlier visit left unsent in local storage.
 import { useQuery } from '@tanstack/react-query';
 import { useEffect, useRef, useState, useSyncExternalStore } from 'react';
-import type { WorkbookPayload } from '@shared/workbooks.js';
-import { fetchStructures, sendPatch, workbookQueryOptions } from '../api.js';
+import type { ValuesPayload, WorkbookPayload } from '@shared/workbooks.js';
+import { fetchStructures, sendPatch, storedValuesQueryOptions, workbookQueryOptions } from '../api.js';
 import { WorkbookModel } from '../model/workbookModel.js';
 import { PatchQueue, type SaveStatus } from '../save/patchQueue.js';
 import { PendingStore, type KeyValueStorage } from '../save/pendingStore.js';
@@ -31,12 +31,20 @@ function browserStorage(): KeyValueStorage | null {
   }
 }
 
-export function openSession(payload: WorkbookPayload, storage: KeyValueStorage | null, structures = new StructureStore((inputs) => fetchStructures(payload.id, inputs))): WorkbookSession {
+/** How long one slice of putting formulas back may hold the page (well inside a 250 ms stall). */
+export const computeSliceMs = 40;
+
+export function openSession(
+  payload: WorkbookPayload,
+  storage: KeyValueStorage | null,
+  structures = new StructureStore((inputs) => fetchStructures(payload.id, inputs)),
+  stored: ValuesPayload | null = null,
+): WorkbookSession {
   // Timed for the open benchmark (bench/browser-open.ts reads this measure).
   const started = performance.now();
   // The model hands every local change to the save queue; the queue shows colleagues' inputs it held
   // back. Each is given the other's method at construction, called only once both exist.
-  const model: WorkbookModel = new WorkbookModel(payload, { onLocalChanges: (changes) => queue.enqueue(changes) });
+  const model: WorkbookModel = new WorkbookModel(payload, { onLocalChanges: (changes) => queue.enqueue(changes), stored });
   const reevaluation = new PendingReevaluation(model);
   structures.onArrival((cells) => reevaluation.add(cells));
   performance.measure('orbitab:build-engine', { start: started, end: performance.now() });
@@ -61,6 +69,9 @@ export function openSession(payload: WorkbookPayload, storage: KeyValueStorage |
 
 export function useWorkbookSession(id: string) {
   const query = useQuery(workbookQueryOptions(id));
+  // Asked at the same time as the workbook: the revision's stored values, painted before any formula is computed here.
+  const storedQuery = useQuery(storedValuesQueryOptions(id));
+  const stored = storedQuery.isFetched ? (storedQuery.data ?? null) : undefined;
   const [session, setSession] = useState<WorkbookSession | null>(null);
   const [openError, setOpenError] = useState<Error | null>(null);
   const [preview, setPreview] = useState<SheetPreview | null>(null);
@@ -69,18 +80,27 @@ export function useWorkbookSession(id: string) {
   const payload = query.data;
 
   useEffect(() => {
-    if (!payload) return;
+    if (!payload || stored === undefined) return;
     performance.mark('orbitab:workbook-loaded');
     const storage = browserStorage();
     // Installed before the preview is built: the first screenful's EHT cells ask this store too.
     const structures = new StructureStore((inputs) => fetchStructures(payload.id, inputs));
     const uninstall = installStructureStore(structures);
+    const unsent = new PendingStore(storage, payload.id).load() !== null;
+    // Values stored with this very revision: open at once on them, then compute in slices.
+    if (stored && stored.revision === payload.revision) {
+      const close = openOnStoredValues(payload, storage, structures, stored, setSession, setOpenError);
+      return () => {
+        close();
+        uninstall();
+      };
+    }
     // A large sheet shows its first screenful first; the full engine is built after that paint.
     // Not when unsent changes are waiting: the preview would show the server's older values.
     let first: SheetPreview | null = null;
     const previewStarted = performance.now();
     try {
-      first = new PendingStore(storage, payload.id).load() ? null : buildPreview(payload);
+      first = unsent ? null : buildPreview(payload);
     } catch {
       first = null; // the full build below reports any real problem
     }
@@ -117,7 +137,7 @@ export function useWorkbookSession(id: string) {
       }
       setSession(null);
     };
-  }, [payload]);
+  }, [payload, stored]);
 
   // Runs after the preview is committed: the frame callback comes just before that frame is
   // painted, and the timeout after it, so the long full build never hides the preview.
@@ -132,6 +152,53 @@ export function useWorkbookSession(id: string) {
   }, [preview]);
 
   return { session, preview, payload, error: query.error ?? openError, isLoading: query.isLoading };
+}
+
+/**
+ * Opens on the values stored with the loaded revision, then puts the formulas back a slice at a time
+ * after each paint until the workbook is live. Edits in the meantime (and unsent ones from an earlier
+ * visit) go to the engine and the save queue as usual; what depends on a formula not yet back is
+ * brought up to date when its slice comes. Returns the clean-up.
+ */
+function openOnStoredValues(
+  payload: WorkbookPayload,
+  storage: KeyValueStorage | null,
+  structures: StructureStore,
+  stored: ValuesPayload | null,
+  setSession: (s: WorkbookSession | null) => void,
+  setOpenError: (e: Error) => void,
+): () => void {
+  let s: WorkbookSession;
+  try {
+    s = openSession(payload, storage, structures, stored);
+  } catch (e) {
+    setOpenError(e as Error);
+    return () => undefined;
+  }
+  const opened = performance.now();
+  setSession(s);
+  const online = () => s.queue.flushNow();
+  window.addEventListener('online', online);
+  let timer: ReturnType<typeof setTimeout> | undefined;
+  let frame = 0;
+  let cancelled = false;
+  const step = () => {
+    if (cancelled) return;
+    if (s.model.computeSlice(computeSliceMs)) performance.measure('orbitab:live', { start: opened, end: performance.now() });
+    else timer = setTimeout(step, 0);
+  };
+  // The first slice waits for the first paint of the stored values.
+  frame = requestAnimationFrame(() => (timer = setTimeout(step, 0)));
+  return () => {
+    cancelled = true;
+    cancelAnimationFrame(frame);
+    clearTimeout(timer);
+    window.removeEventListener('online', online);
+    s.reevaluation.stop();
+    s.queue.dispose();
+    s.model.dispose();
+    setSession(null);
+  };
 }
 
 const savedStatus: SaveStatus = { kind: 'saved' };

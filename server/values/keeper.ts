@@ -1,0 +1,176 @@
+// Keeps each workbook's computed values up to date with its revisions, in the background: after a
+// revision is committed (any revision event: edits, tab operations, imports, restores) the keeper
+// brings the workbook's warm engine forward in its worker thread and stores the values with the
+// revision number they belong to (store.ts). A workbook's revisions are caught up in one job when
+// several land while one is computing. Cell edits are applied to the warm engine incrementally;
+// tab operations, a workbook the thread no longer holds, or a long run of revisions rebuild it.
+import type { Logger } from 'pino';
+import type { RevisionPatch } from '../../shared/workbooks.js';
+import type { AppContext } from '../context.js';
+import { eq } from 'drizzle-orm';
+import type { Db } from '../db/index.js';
+import { workbooks } from '../db/schema.js';
+import { currentRevision, patchesAfter } from '../services/revisionLog.js';
+import { loadContentInSlices } from '../services/workbookSlices.js';
+import { packCells, packedTransfer } from '../xlsx/packedCells.js';
+import { runKeeperJob } from './keeperThread.js';
+import type { KeeperReply } from './keeperWorker.js';
+import { storeValues } from './store.js';
+import type { CellChange } from './warmWorkbook.js';
+
+/** More changed cells than this since the warm revision: rebuilding costs about the same. */
+const MAX_INCREMENTAL_CHANGES = 20_000;
+
+/**
+ * Workbooks with more non-empty cells than this are not kept: the engine needs about 1 KB a cell, and
+ * a worker past its heap limit can take the whole process down with it (V8 does not always stop at
+ * the worker). Their values are computed on demand as before. ORBITAB_STORED_VALUES_MAX_CELLS sets it.
+ */
+export const maxKeptCells = (() => {
+  const n = Number(process.env.ORBITAB_STORED_VALUES_MAX_CELLS);
+  return Number.isFinite(n) && n >= 0 ? Math.floor(n) : 400_000;
+})();
+
+export interface KeeperRun {
+  workbookId: string;
+  revision: number;
+  mode: 'incremental' | 'rebuild';
+  /** Cells whose value changed (incremental runs only). */
+  changed?: [string, number, number][] | null;
+  engineMs: number;
+  readMs: number;
+  totalMs: number;
+  storedBytes: number;
+  heapUsedBytes: number;
+}
+
+/** Only cell edits can be applied to a warm engine; a tab's display settings change no value. */
+/** The workbook's revision, or null once it is deleted. */
+const revisionOf = (db: Db, workbookId: string) => db.select({ revision: workbooks.revision }).from(workbooks).where(eq(workbooks.id, workbookId)).get()?.revision ?? null;
+
+const cellsOnly = (patch: RevisionPatch) => patch.sheetOps.every((op) => op.op === 'settings');
+
+export class ValuesKeeper {
+  /** The newest revision seen per workbook that still needs its values. */
+  private wanted = new Map<string, number>();
+  /** The revision the worker's warm engine holds, as far as this keeper knows. */
+  private warm = new Map<string, number>();
+  /** A revision that could not be computed: not tried again (reads compute it on demand). */
+  private failed = new Map<string, number>();
+  private running: Promise<void> | null = null;
+  private stopped = false;
+  private idleWaiters: (() => void)[] = [];
+  /** Workbooks with more non-empty cells are not kept (tests lower it). */
+  maxCells = maxKeptCells;
+  /** Called after each stored run (benchmarks, tests). */
+  onRun: ((run: KeeperRun) => void) | null = null;
+
+  constructor(
+    private readonly ctx: Pick<AppContext, 'db' | 'events'> & { logger: Logger },
+  ) {}
+
+  /** A revision of the workbook was committed. */
+  noteRevision(workbookId: string, revision: number) {
+    if (this.stopped) return;
+    if ((this.wanted.get(workbookId) ?? -1) >= revision) return;
+    this.wanted.set(workbookId, revision);
+    this.running ??= this.drain().finally(() => {
+      this.running = null;
+      for (const w of this.idleWaiters.splice(0)) w();
+    });
+  }
+
+  /** The workbook's current revision has no stored values (a read found none): compute them. */
+  nudge(workbookId: string) {
+    const revision = revisionOf(this.ctx.db, workbookId);
+    if (revision !== null) this.noteRevision(workbookId, revision);
+  }
+
+  /** Resolves when no workbook is waiting for its values. */
+  idle(): Promise<void> {
+    if (!this.running) return Promise.resolve();
+    return new Promise((resolve) => this.idleWaiters.push(resolve));
+  }
+
+  stop() {
+    this.stopped = true;
+    this.wanted.clear();
+  }
+
+  private async drain() {
+    while (!this.stopped && this.wanted.size > 0) {
+      const [workbookId, revision] = this.wanted.entries().next().value as [string, number];
+      this.wanted.delete(workbookId);
+      if ((this.failed.get(workbookId) ?? -1) >= revision) continue;
+      try {
+        await this.bringUpToDate(workbookId);
+      } catch (err) {
+        // The database closed under us (a test app ending, shutdown), or the workbook was deleted.
+        this.ctx.logger.warn({ err, workbookId }, 'stored values were not updated');
+        this.warm.delete(workbookId);
+      }
+    }
+  }
+
+  /** Non-empty cells of the workbook, counted in SQLite (an index range per sheet). */
+  private cellCount(workbookId: string): number {
+    const row = this.ctx.db.$client.prepare(`select count(*) as n from cells c join sheets s on s.id = c.sheet_id where s.workbook_id = ? and c.input != ''`).get(workbookId) as { n: number };
+    return row.n;
+  }
+
+  private async bringUpToDate(workbookId: string) {
+    const started = performance.now();
+    if (this.cellCount(workbookId) > this.maxCells) {
+      // Too large to keep warm: left to the on-demand path, and the worker lets go of any engine it held.
+      if (this.warm.delete(workbookId)) await runKeeperJob({ kind: 'forget', workbookId });
+      const at = revisionOf(this.ctx.db, workbookId);
+      if (at !== null) this.failed.set(workbookId, at);
+      return;
+    }
+    const warmAt = this.warm.get(workbookId);
+    let reply: KeeperReply | null = null;
+    let mode: KeeperRun['mode'] = 'incremental';
+    if (warmAt !== undefined) {
+      const since = this.ctx.db.transaction((tx) => ({ revision: currentRevision(tx, workbookId), patches: patchesAfter(tx, workbookId, warmAt).reverse() }));
+      const changes: CellChange[] = [];
+      let applicable = since.patches.length === since.revision - warmAt;
+      for (const p of since.patches) {
+        if (!applicable || !cellsOnly(p.patch) || changes.length > MAX_INCREMENTAL_CHANGES) {
+          applicable = false;
+          break;
+        }
+        for (const c of p.patch.changes) changes.push({ sheetId: c.sheetId, row: c.row, col: c.col, input: c.after });
+      }
+      if (applicable) {
+        reply = await runKeeperJob({ kind: 'apply', workbookId, fromRevision: warmAt, revision: since.revision, changes });
+        if (reply.ok && reply.stale) reply = null;
+      }
+    }
+    if (!reply) {
+      mode = 'rebuild';
+      const content = await loadContentInSlices(this.ctx, workbookId);
+      if (!content) {
+        this.warm.delete(workbookId);
+        return; // deleted, or edited on every try: the next revision's event brings it back
+      }
+      const sheets = content.tabs.map((t) => ({ id: t.id, name: t.name, packed: packCells(content.cells.get(t.id) ?? []) }));
+      reply = await runKeeperJob({ kind: 'build', workbookId, revision: content.revision, sheets }, sheets.flatMap((s) => packedTransfer(s.packed)));
+    }
+    if (!reply.ok) {
+      this.warm.delete(workbookId);
+      const at = revisionOf(this.ctx.db, workbookId);
+      if (at !== null) this.failed.set(workbookId, at);
+      this.ctx.logger.warn({ workbookId, revision: at, reason: reply.message }, 'values left to be computed on demand');
+      return;
+    }
+    if (reply.stale) return;
+    this.warm.set(workbookId, reply.revision);
+    const valuesGzip = Buffer.from(reply.valuesGzip.buffer, reply.valuesGzip.byteOffset, reply.valuesGzip.byteLength);
+    const totalMs = performance.now() - started;
+    storeValues(this.ctx.db, workbookId, { revision: reply.revision, valuesGzip, extras: JSON.parse(reply.extras), volatileFormulas: reply.volatileFormulas, computedMs: totalMs });
+    this.onRun?.({ workbookId, revision: reply.revision, mode, changed: reply.changed, engineMs: reply.engineMs, readMs: reply.readMs, totalMs, storedBytes: valuesGzip.byteLength, heapUsedBytes: reply.heapUsedBytes });
+    // Revisions that landed while this one computed.
+    const now = revisionOf(this.ctx.db, workbookId);
+    if (now !== null && now > reply.revision && (this.wanted.get(workbookId) ?? -1) < now) this.wanted.set(workbookId, now);
+  }
+}

@@ -1,0 +1,97 @@
+// Opening a large workbook whose values the server stored with its revision: the page shows those
+// values at once, says it is still computing while its own engine takes the formulas back in
+// slices, and an edit typed before that has finished is saved and computed like any other.
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { maxCellsPerPatch } from '../shared/workbooks.js';
+import { gridCell, launchBrowser, screenshot, type TestBrowser } from './helpers/browser.js';
+import { startServer, type TestServer } from './helpers/server.js';
+
+let server: TestServer;
+let browser: TestBrowser;
+let page: Page;
+let cookie = '';
+
+/** The server's API as the page would call it, with the session of the person signed up below. */
+async function call(method: string, route: string, body?: unknown) {
+  const res = await fetch(`${server.url}/api${route}`, {
+    method,
+    headers: { origin: server.url, cookie, ...(body === undefined ? {} : { 'content-type': 'application/json' }) },
+    body: body === undefined ? undefined : JSON.stringify(body),
+  });
+  const session = res.headers.getSetCookie().find((c) => c.startsWith('orbitab_session='));
+  if (session) cookie = session.split(';')[0];
+  const text = await res.text();
+  return { status: res.status, source: res.headers.get('orbitab-values'), body: text ? JSON.parse(text) : null };
+}
+
+const SPECIES = ['O2', 'F2', 'C2', 'B2', 'NO', 'CN-'];
+const ROWS = 8_000;
+
+beforeAll(async () => {
+  server = await startServer();
+  browser = await launchBrowser();
+  page = browser.page;
+  page.setDefaultTimeout(60_000);
+  expect((await call('POST', '/auth/sign-up', { name: 'Rosa Ilic', email: 'rosa@lab.example', password: 'sigma-pi-sigma-star' })).status).toBe(201);
+  const [name, value] = cookie.split('=');
+  await browser.context.addCookies([{ name, value, url: server.url }]);
+}, 60_000);
+
+afterAll(async () => {
+  await browser?.close();
+  await server?.stop();
+});
+
+describe('opening a workbook on its stored values', () => {
+  it('shows the stored values at once, and an edit typed while it computes is saved and computed', async () => {
+    // 8,000 rows × 5 columns: a species and four chemistry formulas reading it.
+    const workbookId = (await call('POST', '/workbooks', { title: 'Large screen, stored values' })).body.workbook.id as string;
+    const sheetId = (await call('GET', `/workbooks/${workbookId}`)).body.sheets[0].id as string;
+    const cells: { sheetId: string; row: number; col: number; input: string }[] = [];
+    for (let row = 0; row < ROWS; row++) {
+      const n = row + 1;
+      cells.push({ sheetId, row, col: 0, input: SPECIES[row % SPECIES.length] });
+      ['BONDORDER', 'UNPAIRED', 'MAGNETISM', 'GROUNDTERM'].forEach((f, i) => cells.push({ sheetId, row, col: i + 1, input: `=${f}(A${n})` }));
+    }
+    let revision = 0;
+    for (let i = 0; i < cells.length; i += maxCellsPerPatch) {
+      const res = await call('POST', `/workbooks/${workbookId}/patches`, { baseRevision: revision, changes: cells.slice(i, i + maxCellsPerPatch) });
+      expect(res.status).toBe(200);
+      revision = res.body.revision;
+    }
+    // The server computes and stores the revision's values in the background.
+    await expect.poll(async () => (await call('GET', `/workbooks/${workbookId}/values?stored=only`)).status, { timeout: 120_000, interval: 250 }).toBe(200);
+
+    await page.goto(`${server.url}/workbooks/${workbookId}`);
+    // O2: bond order 2, two unpaired electrons (MO diagram of any general chemistry text).
+    await expect.poll(async () => (await gridCell(page, 'B1'))?.text, { timeout: 60_000 }).toBe('2');
+    const computing = page.getByTestId('computing-state');
+    await computing.waitFor();
+    await screenshot(page, 'stored-open-computing');
+
+    // Typed before the page's engine has every formula back: O2 → N2 in A1.
+    const a1 = (await gridCell(page, 'A1'))!;
+    await page.mouse.click(a1.x, a1.y);
+    await page.keyboard.type('N2');
+    await page.keyboard.press('Enter');
+    const progress = await computing.evaluate((el) => ({ done: Number(el.getAttribute('data-done')), total: Number(el.getAttribute('data-total')) }));
+    expect(progress.total).toBe(ROWS * 4);
+    expect(progress.done).toBeLessThan(progress.total); // the edit really came before the engine was live
+
+    // Saved, computed here (N2: bond order 3, closed shell), and the computing state gone once live.
+    await page.locator('[data-testid="save-state"][data-state="saved"]').waitFor({ timeout: 60_000 });
+    await computing.waitFor({ state: 'detached', timeout: 120_000 });
+    await expect.poll(async () => (await gridCell(page, 'B1'))?.text).toBe('3');
+    await expect.poll(async () => (await gridCell(page, 'C1'))?.text).toBe('0');
+    await screenshot(page, 'stored-open-live');
+
+    const saved = await call('GET', `/workbooks/${workbookId}`);
+    expect(saved.body.revision).toBe(revision + 1);
+    expect(saved.body.sheets[0].cells).toContainEqual([0, 0, 'N2']);
+    // And the server's values for the new revision say the same.
+    await expect.poll(async () => (await call('GET', `/workbooks/${workbookId}/values?stored=only`)).body?.revision, { timeout: 120_000, interval: 250 }).toBe(revision + 1);
+    const values = (await call('GET', `/workbooks/${workbookId}/values`)).body;
+    expect(values.sheets[0].values).toContainEqual([0, 1, 3]);
+  }, 300_000);
+});
