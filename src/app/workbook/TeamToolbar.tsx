@@ -17,7 +17,9 @@ export function TeamToolbar({ team, model, activeSheet, selectionRange }: { team
   const close = () => openDialog(null);
   const isMember = role !== 'site-admin';
   return (
-    <div className="flex items-center gap-1.5" data-grid-shield="">
+    // A press here must not reach the grid, which clears its selection on any press outside it:
+    // Protect starts from the selected range.
+    <div className="flex items-center gap-1.5" data-grid-shield="" onMouseDown={(e) => e.stopPropagation()}>
       <PresenceChips
         users={team.live.presence}
         myId={team.myId}

@@ -5,6 +5,7 @@ import { useEffect, useMemo, useRef, useState } from 'react';
 import type { DataSheetGridRef } from 'react-datasheet-grid';
 import { SafetyNote } from '../../features/diagram/SafetyNote.js';
 import { parseCellName } from '@shared/a1.js';
+import { readChartSpec } from '@shared/chartSpec.js';
 import { fillPairs } from '../../core/workbook/model/rangeEdits.js';
 import { FilterMenu, type SheetFilter } from '../../features/grid/components/FilterMenu.js';
 import { FormulaBar, type FormulaBarHandle } from '../../features/grid/components/FormulaBar.js';
@@ -230,7 +231,22 @@ export function Workspace({ session }: { session: WorkbookSession }) {
             }}
           />
         </div>
-        {panel && <SidePanel panel={panel} structureSource={structureSource} address={address} view={view} colCount={sheet.colCount} firstRow={display.freezeHeaderRow ? 1 : 0} initialX={focus?.col ?? 0} />}
+        {panel && (
+          <SidePanel
+            panel={panel}
+            structureSource={structureSource}
+            address={address}
+            view={view}
+            colCount={sheet.colCount}
+            filtered={filter !== null}
+            sheetName={sheet.name}
+            chart={readChartSpec(display.kept)}
+            // Kept with the sheet's other settings: saved with the workbook, back on the next open.
+            onChart={(chart) => setDisplay({ ...display, kept: { ...display.kept, chart } })}
+            initialX={focus?.col ?? 0}
+            key={activeSheetId}
+          />
+        )}
       </div>
       <SheetTabs
         sheets={sheets.map((s) => {

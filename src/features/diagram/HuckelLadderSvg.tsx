@@ -2,12 +2,14 @@
 // levels side by side; electrons as arrows; α marked by a dashed line.
 import type { HuckelModel } from '@functions/chem/huckel.js';
 import { Electrons } from './ElectronArrows.js';
-import { ladderLevels, levelLabel } from './huckelLayout.js';
+import { ladderLevels, levelLabel, separateLabels } from './huckelLayout.js';
 
 const WIDTH = 420;
 const ORBITAL = 26;
 const GAP = 6;
 const CX = 170;
+/** Label line height (px at font size 12): labels closer than this overlap. */
+const LABEL_GAP = 14;
 
 export function HuckelLadderSvg({ model, electrons, title }: { model: HuckelModel; electrons: number; title: string }) {
   const levels = ladderLevels(model, electrons);
@@ -18,7 +20,11 @@ export function HuckelLadderSvg({ model, electrons, title }: { model: HuckelMode
   const xmin = Math.min(...xs, 0);
   // Larger x is lower in energy: y grows with x.
   const y = (x: number) => top + ((x - xmin) / span) * plotPx;
-  const height = top + plotPx + 30;
+  const labelY = separateLabels(
+    levels.map((l) => y(l.x)),
+    LABEL_GAP,
+  );
+  const height = Math.max(top + plotPx + 30, Math.max(...labelY) + 16);
   return (
     <svg role="img" aria-label={title} viewBox={`0 0 ${WIDTH} ${height}`} width="100%" className="select-none" data-testid="huckel-ladder">
       <title>{title}</title>
@@ -47,7 +53,10 @@ export function HuckelLadderSvg({ model, electrons, title }: { model: HuckelMode
                 </g>
               );
             })}
-            <text x={x0 + total + 8} y={y(l.x) + 4} className="fill-ink-2 font-mono" fontSize={12}>
+            {Math.abs(labelY[i] - y(l.x)) > 0.5 && (
+              <line x1={x0 + total + 2} x2={x0 + total + 10} y1={y(l.x)} y2={labelY[i]} className="stroke-line-strong" strokeWidth={0.8} />
+            )}
+            <text x={x0 + total + 12} y={labelY[i] + 4} className="fill-ink-2 font-mono" fontSize={12} data-label-y={labelY[i]}>
               {levelLabel(l.x)}
             </text>
           </g>

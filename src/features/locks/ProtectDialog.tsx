@@ -1,4 +1,5 @@
 // The "Protect" dialog of one sheet: its lock and its protected ranges.
+import { useState } from 'react';
 import { allows, type WorkbookAction } from '@shared/permissions.js';
 import type { Protection } from '@shared/team.js';
 import { Button } from '../../components/ui/Button.js';
@@ -29,6 +30,11 @@ export function ProtectDialog({
   suggestedRange?: string;
 }) {
   const members = useMembers(workbookId, open);
+  // The selection as the dialog opened: clicks inside the dialog may clear the grid's selection, and
+  // the range field must not empty itself when they do.
+  const [openedWith, setOpenedWith] = useState<{ open: boolean; range?: string }>({ open: false });
+  if (openedWith.open !== open) setOpenedWith({ open, range: open ? suggestedRange : undefined });
+  const startRange = open === openedWith.open ? openedWith.range : suggestedRange;
   // Owners on any sheet, editors on sheets they created: the server knows who created which, so an
   // editor is offered the forms and told the server's reason if the sheet is not theirs.
   const canLock = allows(actions, 'lockAnySheet') || allows(actions, 'lockOwnSheet');
@@ -48,7 +54,7 @@ export function ProtectDialog({
             members={members.data ?? []}
             myId={myId}
             canProtect={canLock}
-            suggestedRange={suggestedRange}
+            suggestedRange={startRange}
           />
         </div>
       )}
