@@ -36,10 +36,10 @@ function PointTip({ active, payload, xTitle, yTitle }: { active?: boolean; paylo
         {p.name || 'Unnamed row'} <span className="font-normal text-ink-3">· row {p.row + 1}</span>
       </p>
       <p className="text-ink-2">
-        {xTitle}: <span className="font-mono">{p.x}</span>
+        {xTitle}: <span className="font-mono">{Number(p.x.toPrecision(6))}</span>
       </p>
       <p className="text-ink-2">
-        {yTitle}: <span className="font-mono">{p.y}</span>
+        {yTitle}: <span className="font-mono">{Number(p.y.toPrecision(6))}</span>
       </p>
     </div>
   );

@@ -84,10 +84,10 @@ export interface PlacedPoint extends ChartPoint {
 
 /**
  * Points that would be drawn on top of each other (closer than `fraction` of each axis's span) are
- * set around a small ring centred on where they lie, so each stays visible and has its own tip;
- * their values are unchanged.
+ * set around a ring (`radius`, as a fraction of each span: wider than a mark) centred on where they
+ * lie, so each stays visible and has its own tip; their values are unchanged.
  */
-export function separateCoincident(points: readonly ChartPoint[], fraction = 0.015): { placed: PlacedPoint[]; moved: number } {
+export function separateCoincident(points: readonly ChartPoint[], fraction = 0.015, radius = 0.035): { placed: PlacedPoint[]; moved: number } {
   const xs = points.map((p) => p.x);
   const ys = points.map((p) => p.y);
   const xSpan = Math.max(...xs) - Math.min(...xs) || Math.abs(xs[0] ?? 1) || 1;
@@ -110,7 +110,7 @@ export function separateCoincident(points: readonly ChartPoint[], fraction = 0.0
     const cy = g.reduce((s, p) => s + p.y, 0) / g.length;
     g.forEach((p, k) => {
       const angle = (2 * Math.PI * k) / g.length;
-      placed.push({ ...p, px: cx + fraction * xSpan * Math.cos(angle), py: cy + fraction * ySpan * Math.sin(angle) });
+      placed.push({ ...p, px: cx + radius * xSpan * Math.cos(angle), py: cy + radius * ySpan * Math.sin(angle) });
     });
   }
   return { placed, moved };

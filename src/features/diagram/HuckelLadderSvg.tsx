@@ -8,8 +8,8 @@ const WIDTH = 420;
 const ORBITAL = 26;
 const GAP = 6;
 const CX = 170;
-/** Label line height (px at font size 12): labels closer than this overlap. */
-const LABEL_GAP = 14;
+/** Label pitch at font size 12 (a text box is about 1.2 em tall): closer labels overlap. */
+const LABEL_GAP = 16;
 
 export function HuckelLadderSvg({ model, electrons, title }: { model: HuckelModel; electrons: number; title: string }) {
   const levels = ladderLevels(model, electrons);
