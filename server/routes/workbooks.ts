@@ -9,6 +9,7 @@ import {
   idSchema,
   patchSchema,
   renameWorkbookSchema,
+  restoreBodySchema,
   revisionListQuerySchema,
   updateSheetSchema,
 } from '../../shared/workbooks.js';
@@ -108,7 +109,8 @@ export function workbooksRouter(ctx: AppContext): Router {
   router.post('/:id/revisions/:n/restore', (req, res) => {
     const a = access(req, res, 'restore');
     const { n } = parse(revisionParams, req.params, 'params');
-    res.json(restoreRevision(ctx, a.workbook.id, currentUser(res).id, n));
+    const { sheetId } = parse(restoreBodySchema, req.body ?? {}, 'body');
+    res.json(restoreRevision(ctx, a.workbook.id, currentUser(res).id, n, sheetId));
   });
 
   router.get('/:id/values', async (req, res) => {
