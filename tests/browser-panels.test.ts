@@ -201,3 +201,53 @@ describe('Protect dialog', () => {
     await page.getByRole('dialog').getByRole('button', { name: 'Done' }).click();
   });
 });
+
+describe('change log', () => {
+  const dialog = () => page.getByRole('dialog', { name: 'Change log' });
+  it('lists each change with its cells before → after, "1 change", and folds display changes', async () => {
+    await clickCell('F2');
+    await page.keyboard.type('reference');
+    await page.keyboard.press('Enter');
+    await expectCellText('F2', /^reference$/);
+    await page.getByRole('button', { name: 'Change log' }).click();
+    const latest = dialog().getByRole('listitem').first();
+    await expect.poll(() => latest.textContent()).toContain('Edited 1 cell');
+    expect(await latest.textContent()).toContain('1 change');
+    const row = latest.getByRole('table').getByRole('row').first();
+    expect((await row.textContent())?.replace(/\s+/g, ' ')).toBe('F2(empty)→reference');
+    // Freeze row 1 and the chart's choices were each saved; they read as one folded entry.
+    const folded = dialog().getByRole('listitem').filter({ hasText: /^#\d+(–\d+)?Display of/ });
+    await expect.poll(() => folded.count()).toBeGreaterThanOrEqual(1);
+    expect(await folded.first().textContent()).toMatch(/changed( \(\d+ times\))?: .*row 1 frozen/);
+    await screenshot(page, 'panels-change-log');
+  });
+
+  it('brings back one sheet as it was and leaves the other sheet alone', async () => {
+    await dialog().getByRole('button', { name: 'Close' }).click();
+    const firstTab = (await page.getByRole('tab').first().textContent())?.trim() ?? '';
+    await page.getByRole('button', { name: 'Add a sheet' }).click();
+    await expect.poll(() => page.getByRole('tab').count()).toBe(2);
+    await clickCell('A1');
+    await page.keyboard.type('kept');
+    await page.keyboard.press('Enter');
+    await expectCellText('A1', /^kept$/);
+    await page.getByRole('tab', { name: firstTab }).click();
+    await expectCellText('F2', /^reference$/);
+
+    await page.getByRole('button', { name: 'Change log' }).click();
+    const first = dialog().getByRole('listitem', { name: 'Change #1' });
+    await first.getByRole('button', { name: `Bring back “${firstTab}” as after #1…` }).click();
+    await dialog().getByRole('button', { name: 'Bring it back' }).click();
+    await dialog().getByText(/Brought back as entry #\d+/).waitFor();
+    await dialog().getByRole('button', { name: 'Close' }).click();
+    const id = new URL(page.url()).pathname.split('/').pop()!;
+    const stored = await page.evaluate(async (wid) => ((await (await fetch(`/api/workbooks/${wid}`)).json()) as { sheets: { cells: unknown[] }[] }).sheets.map((s) => s.cells), id);
+    expect(stored).toEqual([[[0, 0, 'Molecule']], [[0, 0, 'kept']]]);
+    await screenshot(page, 'panels-sheet-brought-back');
+    await expectCellText('A1', /^Molecule$/);
+    await expectCellText('A2', /^$/);
+    const other = (await page.getByRole('tab').nth(1).textContent())?.trim() ?? '';
+    await page.getByRole('tab', { name: other }).click();
+    await expectCellText('A1', /^kept$/);
+  });
+});

@@ -1,5 +1,5 @@
 // The team controls of an open workbook, in its title bar: who else is here, and Share, Protect,
-// History and Audit (each shown only to roles that can use it; the API checks again).
+// Change log and Audit (each shown only to roles that can use it; the API checks again).
 import { useNavigate } from 'react-router';
 import { allows } from '@shared/permissions.js';
 import { Button } from '../../components/ui/Button.js';
@@ -38,7 +38,7 @@ export function TeamToolbar({ team, model, activeSheet, selectionRange }: { team
       </Button>
       {allows(actions, 'viewHistory') && (
         <Button variant="ghost" onClick={() => openDialog('history')}>
-          History
+          Change log
         </Button>
       )}
       {allows(actions, 'viewAudit') && (
@@ -59,7 +59,7 @@ export function TeamToolbar({ team, model, activeSheet, selectionRange }: { team
         myId={team.myId}
         suggestedRange={selectionRange}
       />
-      {allows(actions, 'viewHistory') && <HistoryDialog open={dialog === 'history'} onClose={close} workbookId={model.id} actions={actions} />}
+      {allows(actions, 'viewHistory') && <HistoryDialog open={dialog === 'history'} onClose={close} workbookId={model.id} actions={actions} sheetName={(id) => (model.hasSheet(id) ? model.sheet(id).name : null)} />}
       {allows(actions, 'viewAudit') && <AuditDialog open={dialog === 'audit'} onClose={close} workbookId={model.id} />}
     </div>
   );
