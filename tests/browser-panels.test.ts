@@ -90,7 +90,7 @@ describe('structure panel', () => {
 
   it('keeps the labels of nearly equal levels apart (pyridine)', async () => {
     await clickCell('C3');
-    const boxes = await page.locator('[data-testid="huckel-ladder"] text[data-label-y]').evaluateAll((els) =>
+    const boxes = await page.locator('[data-testid="huckel-ladder"] g[data-level] > text').evaluateAll((els) =>
       els.map((e) => {
         const r = e.getBoundingClientRect();
         return { top: r.top, bottom: r.bottom, left: r.left, right: r.right, text: e.textContent };
@@ -104,26 +104,33 @@ describe('structure panel', () => {
         const overlap = a.left < b.right && b.left < a.right && a.top < b.bottom - 0.5 && b.top < a.bottom - 0.5;
         expect(overlap, `${a.text} and ${b.text} overlap`).toBe(false);
       }
+    // The level lines (with their electron arrows) are apart too: one y per level, 18 px or more between (the arrows are 20 units tall).
+    const levelYs = await page.locator('[data-testid="huckel-ladder"] g[data-level]').evaluateAll((gs) => gs.map((g) => g.querySelector('line')!.getBoundingClientRect().y).sort((p, q) => p - q));
+    for (let k = 1; k < levelYs.length; k++) expect(levelYs[k] - levelYs[k - 1]).toBeGreaterThanOrEqual(18);
     await screenshot(page, 'panels-pyridine-ladder');
   });
 
-  it('leaves every column reachable beside the panel, however the panel was opened', async () => {
-    // Closed, then opened again once the grid is drawn: the grid must shrink to the room left.
+  it('ends the grid on a column boundary beside the panel, so no column is cut by it', async () => {
+    // Closed, then opened again once the grid is drawn.
     await page.getByRole('button', { name: 'Structure', exact: true }).click();
     await page.getByRole('button', { name: 'Structure', exact: true }).click();
-    const aside = await page.getByRole('complementary', { name: 'Structure of the selected cell' }).boundingBox();
-    const grid = await page.getByTestId('sheet-grid').boundingBox();
-    expect(grid!.x + grid!.width).toBeLessThanOrEqual(aside!.x + 1);
-    // Scrolled as far right as it goes, the grid's last column ends before the panel begins.
-    const lastRight = await page.evaluate(async () => {
-      const scroller = document.querySelector('[data-testid="sheet-grid"] .dsg-container') as HTMLElement;
-      scroller.scrollLeft = scroller.scrollWidth;
-      await new Promise((r) => requestAnimationFrame(() => requestAnimationFrame(r)));
-      const headers = [...document.querySelectorAll('.orb-col-header')].map((h) => (h.closest('.dsg-cell') as HTMLElement).getBoundingClientRect().right);
-      return Math.max(...headers);
-    });
-    expect(lastRight).toBeLessThanOrEqual(aside!.x + 1);
-    await page.evaluate(() => ((document.querySelector('[data-testid="sheet-grid"] .dsg-container') as HTMLElement).scrollLeft = 0));
+    const aside = page.getByRole('complementary', { name: 'Structure of the selected cell' });
+    const cut = async () => {
+      const edge = (await aside.boundingBox())!.x;
+      return page.evaluate((x) => {
+        const boxes = [...document.querySelectorAll('.orb-col-header')].map((h) => ({ col: h.getAttribute('data-col'), ...(h.closest('.dsg-cell') as HTMLElement).getBoundingClientRect().toJSON() }) as { col: string; left: number; right: number });
+        // A column's 1 px border line at the edge is the grid's edge, not a cut column.
+        return boxes.filter((b) => b.left < x - 2 && b.right > x + 2).map((b) => `${b.col} spans ${Math.round(b.left)}–${Math.round(b.right)} across the panel edge at ${Math.round(x)}`);
+      }, edge);
+    };
+    await expect.poll(cut).toEqual([]);
+    const grid = (await page.getByTestId('sheet-grid').boundingBox())!;
+    expect(grid.x + grid.width).toBeLessThanOrEqual((await aside.boundingBox())!.x + 1);
+    // At another window width too.
+    await page.setViewportSize({ width: 1100, height: 800 });
+    await expect.poll(cut).toEqual([]);
+    await page.setViewportSize({ width: 1280, height: 800 });
+    await expect.poll(cut).toEqual([]);
     await screenshot(page, 'panels-structure-layout');
   });
 });
@@ -142,9 +149,10 @@ describe('chart', () => {
     expect(text).toContain('Pi energy (β)');
     expect(await chart().getByLabel('Names column').inputValue()).toBe('0');
     // Every point has a mark of its own: no two drawn at the same spot.
-    const marks = await chart().locator('.recharts-scatter-symbol').evaluateAll((els) => els.map((e) => { const r = e.getBoundingClientRect(); return `${Math.round(r.x)},${Math.round(r.y)}`; }));
-    expect(marks).toHaveLength(6);
-    expect(new Set(marks).size).toBe(6);
+    // Every point has a mark of its own: no two drawn at the same spot (polled: the chart sizes itself after mounting).
+    const marks = () => chart().locator('.recharts-scatter-symbol').evaluateAll((els) => els.map((e) => { const r = e.getBoundingClientRect(); return `${Math.round(r.x)},${Math.round(r.y)}`; }));
+    await expect.poll(async () => new Set(await marks()).size).toBe(6);
+    expect(await marks()).toHaveLength(6);
     for (const mark of await chart().locator('.recharts-scatter-symbol').all()) await mark.hover();
     await expect.poll(() => page.getByTestId('chart-tip').textContent()).toMatch(/(benzene|pyridine|thiophene|butadiene|hexatriene).*row \d/);
     await screenshot(page, 'panels-chart');

@@ -9,6 +9,7 @@ import type { RowData } from '../src/core/workbook/model/workbookModel.js';
 import { axisTitle, nameColumn, numericPairs, separateCoincident } from '../src/features/chart/chartData.js';
 import { subjectOfCell } from '../src/features/diagram/cellSubject.js';
 import { separateLabels } from '../src/features/diagram/huckelLayout.js';
+import { snappedPanelWidth } from '../src/app/workbook/usePanelWidth.js';
 
 const num = (value: number, input = String(value)): CellView => ({ input, display: String(value), kind: 'number', value });
 const text = (value: string): CellView => ({ input: value, display: value, kind: 'text', value });
@@ -106,5 +107,26 @@ describe('stored chart', () => {
     expect(sheetSettingsSchema.safeParse({ chart: { x: 1, y: 2, kind: 'line', label: null } }).success).toBe(true);
     const bad = sheetSettingsSchema.safeParse({ chart: { x: 1, y: 2, kind: 'pie', label: null } });
     expect(bad.success).toBe(false);
+  });
+});
+
+describe('side panel width', () => {
+  const fit = (rowPx: number, widths: number[] = [], scrollbarPx = 0) =>
+    snappedPanelWidth({ rowPx, scrollbarPx, gutterPx: 52, minPanelPx: 338, maxPanelPx: 498, colCount: 26, widthOf: (c) => widths[c] ?? 112 });
+
+  it('leaves the grid whole columns: gutter plus columns plus panel fill the row', () => {
+    // 1280 − 52 = 1228 px of room; seven 112 px columns (784) leave 443 ≥ 338, an eighth would not.
+    expect(fit(1280)).toBe(1228 - 7 * 112);
+    // The grid's own scrollbar takes room from the columns, not from the panel.
+    expect(fit(1280, [], 15)).toBe(1213 - 7 * 112);
+  });
+
+  it('follows set column widths', () => {
+    expect(fit(1280, [300, 300])).toBe(1228 - 600 - 2 * 112);
+  });
+
+  it('keeps its usual width when closing the gap would take a very wide column', () => {
+    // 60 px fits; the 900 px column after it does not, and 1,168 px of panel would be too wide.
+    expect(fit(1280, [60, 900])).toBe(338);
   });
 });

@@ -17,9 +17,13 @@ export function SidePanel(p: {
   chart: ChartSpec | null;
   onChart: (spec: ChartSpec) => void;
   initialX: number;
+  /** Snapped so the grid ends on a column boundary (usePanelWidth); the usual width until measured. */
+  widthPx?: number;
 }) {
   return (
-    <aside aria-label={p.panel === 'structure' ? 'Structure of the selected cell' : 'Chart'} data-grid-shield="" onMouseDown={(e) => e.stopPropagation()} className="flex w-[26rem] min-w-0 shrink flex-col overflow-y-auto border-l border-line bg-surface">
+    <aside aria-label={p.panel === 'structure' ? 'Structure of the selected cell' : 'Chart'} data-grid-shield="" onMouseDown={(e) => e.stopPropagation()} style={p.widthPx !== undefined ? { width: p.widthPx } : undefined}
+      className="flex w-[26rem] shrink-0 flex-col overflow-y-auto border-l border-line bg-surface"
+    >
       <div className="flex-1">
         {p.panel === 'structure' ? (
           <StructurePanel source={p.structureSource} address={p.address} />

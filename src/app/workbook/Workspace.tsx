@@ -24,6 +24,7 @@ import { TeamNotices } from './TeamNotices.js';
 import { SidePanel } from './SidePanel.js';
 import { useDisplaySaver } from './useDisplaySaver.js';
 import { useFocusedCell } from './useFocusedCell.js';
+import { usePanelWidth } from './usePanelWidth.js';
 import { MessageStrip, WorkbookBar } from './WorkbookBar.js';
 import { useWorkbookTeam } from '../../features/live/useWorkbookTeam.js';
 
@@ -114,6 +115,8 @@ export function Workspace({ session }: { session: WorkbookSession }) {
   });
 
   const widths = useMemo(() => ({ ...display.columnWidths, ...dragWidths }), [display.columnWidths, dragWidths]);
+  const gridRow = useRef<HTMLDivElement>(null);
+  const panelWidth = usePanelWidth(gridRow, panel !== null, sheet.colCount, widths);
   useEffect(() => setDragWidths({}), [display.columnWidths]);
   // Leaving the formula bar: back to the cell in the grid; on the frozen header row, Enter moves
   // down into the grid (as it would from any cell) and Escape stays on the header cell.
@@ -195,7 +198,7 @@ export function Workspace({ session }: { session: WorkbookSession }) {
       <MessageStrip message={message} onDismiss={() => setMessage(null)} />
       <TeamNotices team={team} model={model} activeSheetId={activeSheetId} />
       <StarterTemplate model={model} sheetId={activeSheetId} />
-      <div className="flex min-h-0 flex-1">
+      <div className="flex min-h-0 flex-1" ref={gridRow}>
         <div className="flex min-w-0 flex-1 flex-col">
           <SheetGrid
             model={model}
@@ -244,6 +247,7 @@ export function Workspace({ session }: { session: WorkbookSession }) {
             // Kept with the sheet's other settings: saved with the workbook, back on the next open.
             onChart={(chart) => setDisplay({ ...display, kept: { ...display.kept, chart } })}
             initialX={focus?.col ?? 0}
+            widthPx={panelWidth}
             key={activeSheetId}
           />
         )}

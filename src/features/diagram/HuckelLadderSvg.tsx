@@ -8,8 +8,8 @@ const WIDTH = 420;
 const ORBITAL = 26;
 const GAP = 6;
 const CX = 170;
-/** Label pitch at font size 12 (a text box is about 1.2 em tall): closer labels overlap. */
-const LABEL_GAP = 16;
+/** Closest two levels are drawn: the electron arrows span 20 units (ElectronArrows), labels 12. */
+const LEVEL_GAP = 24;
 
 export function HuckelLadderSvg({ model, electrons, title }: { model: HuckelModel; electrons: number; title: string }) {
   const levels = ladderLevels(model, electrons);
@@ -20,11 +20,14 @@ export function HuckelLadderSvg({ model, electrons, title }: { model: HuckelMode
   const xmin = Math.min(...xs, 0);
   // Larger x is lower in energy: y grows with x.
   const y = (x: number) => top + ((x - xmin) / span) * plotPx;
-  const labelY = separateLabels(
+  // Nearly equal levels (pyridine's α + β and α + 1.167β) are set apart so their arrows and labels
+  // stay readable; the labels carry the exact energies.
+  const levelY = separateLabels(
     levels.map((l) => y(l.x)),
-    LABEL_GAP,
+    LEVEL_GAP,
   );
-  const height = Math.max(top + plotPx + 30, Math.max(...labelY) + 16);
+  const moved = levels.some((l, i) => Math.abs(levelY[i] - y(l.x)) > 0.5);
+  const height = Math.max(top + plotPx + 30, Math.max(...levelY) + 16) + (moved ? 14 : 0);
   return (
     <svg role="img" aria-label={title} viewBox={`0 0 ${WIDTH} ${height}`} width="100%" className="select-none" data-testid="huckel-ladder">
       <title>{title}</title>
@@ -48,20 +51,22 @@ export function HuckelLadderSvg({ model, electrons, title }: { model: HuckelMode
               const c = x0 + k * (ORBITAL + GAP) + ORBITAL / 2;
               return (
                 <g key={k}>
-                  <line x1={c - ORBITAL / 2} x2={c + ORBITAL / 2} y1={y(l.x)} y2={y(l.x)} stroke={colour} strokeWidth={2.2} />
-                  <Electrons cx={c} y={y(l.x)} filling={f} />
+                  <line x1={c - ORBITAL / 2} x2={c + ORBITAL / 2} y1={levelY[i]} y2={levelY[i]} stroke={colour} strokeWidth={2.2} />
+                  <Electrons cx={c} y={levelY[i]} filling={f} />
                 </g>
               );
             })}
-            {Math.abs(labelY[i] - y(l.x)) > 0.5 && (
-              <line x1={x0 + total + 2} x2={x0 + total + 10} y1={y(l.x)} y2={labelY[i]} className="stroke-line-strong" strokeWidth={0.8} />
-            )}
-            <text x={x0 + total + 12} y={labelY[i] + 4} className="fill-ink-2 font-mono" fontSize={12} data-label-y={labelY[i]}>
+            <text x={x0 + total + 8} y={levelY[i] + 4} className="fill-ink-2 font-mono" fontSize={12}>
               {levelLabel(l.x)}
             </text>
           </g>
         );
       })}
+      {moved && (
+        <text x={20} y={height - 6} className="fill-ink-3 font-sans" fontSize={10}>
+          Levels closer than their arrows are drawn apart; the labels give each energy.
+        </text>
+      )}
     </svg>
   );
 }
