@@ -1,8 +1,14 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import { z } from 'zod';
 import { storageFailureOf, type StorageHealth } from './services/storageHealth.js';
+import { SpreadsheetError } from './xlsx/limits.js';
 
-/** One error shape for the whole API: { error: { code, message, details? } }. */
+// The one error path of the API. Services and middleware throw (HttpError, or SpreadsheetError from
+// reading and computing spreadsheets); errorHandler below is the only place an error becomes a
+// response: { error: { code, message, details? } } with its status. Bad input is always a 4xx;
+// storage failures are 507/503 (services/storageHealth.ts); only a bug is a 500.
+
+/** A refusal with its HTTP status and a stable code, thrown by services, middleware and routes. */
 export class HttpError extends Error {
   constructor(
     readonly status: number,
@@ -31,9 +37,23 @@ export function parse<S extends z.ZodType>(schema: S, value: unknown, where = 'b
   throw new HttpError(400, 'invalid_input', `${first.field}: ${first.message}`, { issues });
 }
 
+/**
+ * A spreadsheet refusal as an answer. An uploaded file's fault keeps the status of its code (400 or
+ * 413) and names the file; work on a stored workbook (values, exports) that hits a limit is the
+ * server's, so 503 naming the limit, or 429 when the person already has too many jobs under way.
+ */
+export function spreadsheetRefusal(e: SpreadsheetError): HttpError {
+  const subject = e.subject ?? 'file';
+  if (subject === 'file') return new HttpError(e.status, e.code, `file: ${e.message}`);
+  if (e.code === 'too_many_jobs') return new HttpError(429, 'too_many_jobs', `${subject}: ${e.message}`, undefined, { 'Retry-After': '5' });
+  if (e.code === 'busy') return new HttpError(503, 'busy', `${subject}: ${e.message}`, undefined, { 'Retry-After': '30' });
+  return new HttpError(503, `${subject}_failed`, `${subject}: ${e.message}${e.hint}`);
+}
+
 export const notFoundApi: RequestHandler = (req, _res, next) => next(new HttpError(404, 'not_found', `no API route ${req.method} ${req.path}`));
 
-export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
+export const errorHandler: ErrorRequestHandler = (thrown, req, res, _next) => {
+  const err = thrown instanceof SpreadsheetError ? spreadsheetRefusal(thrown) : thrown;
   if (err instanceof HttpError) {
     if (err.headers) res.set(err.headers);
     res.status(err.status).json({ error: { code: err.code, message: err.message, ...(err.details !== undefined ? { details: err.details } : {}) } });

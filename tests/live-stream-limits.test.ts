@@ -7,7 +7,7 @@ import v8 from 'node:v8';
 import vm from 'node:vm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { WorkbookPayload } from '../shared/workbooks.js';
-import { maxUnsentBytes } from '../server/routes/live.js';
+import { maxUnsentBytes } from '../server/services/liveStream.js';
 import { listen, openEventStream, type EventStreamClient } from './helpers/eventStream.js';
 import { makeTeam, sharedWorkbook, signUpPerson, type Person, type Team } from './helpers/team.js';
 import { testOrigin } from './helpers/app.js';

@@ -1,53 +1,27 @@
-// GET /api/workbooks/:id/revisions/:n/snapshot ("view as of revision n") and GET …/audit. The
-// snapshot is computed the way a restore computes its target, by undoing later revisions in memory,
-// so what one sees is exactly what restoring n would bring back.
+// GET /api/workbooks/:id/revisions/:n/snapshot ("view as of revision n", services/revisionSnapshot.ts)
+// and GET …/audit.
 import { Router } from 'express';
 import { auditQuerySchema, type AuditResponse, type RevisionSnapshot } from '../../shared/team.js';
-import type { CellEntry } from '../../shared/workbooks.js';
 import { requireUser } from '../auth/middleware.js';
 import type { AppContext } from '../context.js';
-import { notFound, parse } from '../errors.js';
+import { parse } from '../errors.js';
 import { listAudit } from '../services/audit.js';
-import { loadModel, undoLaterRevisions } from '../services/restore.js';
-import { currentRevision } from '../services/revisionLog.js';
-import { revisionNumberSchema, workbookAccess } from './workbookAccess.js';
-
-
-function snapshotAt(ctx: AppContext, workbookId: string, n: number): RevisionSnapshot {
-  return ctx.db.transaction((tx) => {
-    if (n > currentRevision(tx, workbookId)) throw notFound(`revision ${n}`);
-    const model = loadModel(tx, workbookId);
-    undoLaterRevisions(tx, workbookId, model, n);
-    return {
-      revision: n,
-      sheets: model.order.map((id, position) => {
-        const s = model.sheets.get(id)!;
-        const cells = [...s.cells].map(([key, input]): CellEntry => {
-          const [row, col] = key.split(',').map(Number);
-          return [row, col, input];
-        });
-        cells.sort((a, b) => a[0] - b[0] || a[1] - b[1]);
-        return { id, name: s.name, position, settings: s.settings, cells };
-      }),
-    };
-  });
-}
+import { snapshotAt } from '../services/revisionSnapshot.js';
+import { accessMiddleware, accessOf, revisionNumberSchema } from './access.js';
 
 export function historyRouter(ctx: AppContext): Router {
   const router = Router();
   router.use(requireUser);
-  const access = workbookAccess(ctx);
+  const access = accessMiddleware(ctx);
 
-  router.get('/:id/revisions/:n/snapshot', (req, res) => {
-    const a = access(req, res, 'viewHistory');
+  router.get('/:id/revisions/:n/snapshot', access('viewHistory'), (req, res) => {
     const n = parse(revisionNumberSchema, req.params.n, 'n');
-    res.json(snapshotAt(ctx, a.workbook.id, n) satisfies RevisionSnapshot);
+    res.json(snapshotAt(ctx, accessOf(res).workbook.id, n) satisfies RevisionSnapshot);
   });
 
-  router.get('/:id/audit', (req, res) => {
-    const a = access(req, res, 'viewAudit');
+  router.get('/:id/audit', access('viewAudit'), (req, res) => {
     const query = parse(auditQuerySchema, req.query, 'query');
-    res.json({ entries: listAudit(ctx.db, a.workbook.id, query) } satisfies AuditResponse);
+    res.json({ entries: listAudit(ctx.db, accessOf(res).workbook.id, query) } satisfies AuditResponse);
   });
 
   return router;

@@ -1,47 +1,41 @@
 // /api/workbooks/:id/sheets/:sheetId/lock and …/protected-ranges[/:rangeId]. Anyone who can open the
-// workbook sees locks and ranges (in GET /api/workbooks/:id); setting and lifting them is checked by
-// requireLockRight (services/access.ts): owners on any sheet, editors on sheets they created.
+// workbook sees locks and ranges (in GET /api/workbooks/:id); setting and lifting them takes one of
+// the lock rights (access middleware: a viewer's 403 comes before any complaint about the body), and
+// the sheet's own rule is checked by services/locks.ts with requireLockRight: owners on any sheet,
+// editors on sheets they created.
 import { Router } from 'express';
 import { protectedRangeSchema, sheetLockSchema, type ProtectedRange, type SheetLock } from '../../shared/team.js';
 import { currentUser, requireUser } from '../auth/middleware.js';
 import type { AppContext } from '../context.js';
 import { parse } from '../errors.js';
-import { requireLockRight } from '../services/access.js';
 import { lockSheet, protectRange, unlockSheet, unprotectRange } from '../services/locks.js';
-import { idParam, workbookAccess } from './workbookAccess.js';
+import { accessMiddleware, accessOf, idParam } from './access.js';
 
 export function locksRouter(ctx: AppContext): Router {
   const router = Router();
   router.use(requireUser);
-  const access = workbookAccess(ctx);
+  const access = accessMiddleware(ctx);
+  const lockRight = access(['lockAnySheet', 'lockOwnSheet']);
 
-  router.put('/:id/sheets/:sheetId/lock', (req, res) => {
-    const a = access(req, res, 'view');
-    requireLockRight(a, currentUser(res).id); // a viewer's 403 comes before any complaint about the body
+  router.put('/:id/sheets/:sheetId/lock', lockRight, (req, res) => {
     const sheetId = idParam(req, 'sheetId');
     const input = parse(sheetLockSchema, req.body);
-    res.json({ lock: lockSheet(ctx, a, currentUser(res).id, sheetId, input) } satisfies { lock: SheetLock });
+    res.json({ lock: lockSheet(ctx, accessOf(res), currentUser(res).id, sheetId, input) } satisfies { lock: SheetLock });
   });
 
-  router.delete('/:id/sheets/:sheetId/lock', (req, res) => {
-    const a = access(req, res, 'view');
-    requireLockRight(a, currentUser(res).id); // a viewer's 403 comes before any complaint about the body
-    unlockSheet(ctx, a, currentUser(res).id, idParam(req, 'sheetId'));
+  router.delete('/:id/sheets/:sheetId/lock', lockRight, (req, res) => {
+    unlockSheet(ctx, accessOf(res), currentUser(res).id, idParam(req, 'sheetId'));
     res.status(204).end();
   });
 
-  router.post('/:id/sheets/:sheetId/protected-ranges', (req, res) => {
-    const a = access(req, res, 'view');
-    requireLockRight(a, currentUser(res).id); // a viewer's 403 comes before any complaint about the body
+  router.post('/:id/sheets/:sheetId/protected-ranges', lockRight, (req, res) => {
     const sheetId = idParam(req, 'sheetId');
     const input = parse(protectedRangeSchema, req.body);
-    res.status(201).json({ protectedRange: protectRange(ctx, a, currentUser(res).id, sheetId, input) } satisfies { protectedRange: ProtectedRange });
+    res.status(201).json({ protectedRange: protectRange(ctx, accessOf(res), currentUser(res).id, sheetId, input) } satisfies { protectedRange: ProtectedRange });
   });
 
-  router.delete('/:id/sheets/:sheetId/protected-ranges/:rangeId', (req, res) => {
-    const a = access(req, res, 'view');
-    requireLockRight(a, currentUser(res).id); // a viewer's 403 comes before any complaint about the body
-    unprotectRange(ctx, a, currentUser(res).id, idParam(req, 'sheetId'), idParam(req, 'rangeId'));
+  router.delete('/:id/sheets/:sheetId/protected-ranges/:rangeId', lockRight, (req, res) => {
+    unprotectRange(ctx, accessOf(res), currentUser(res).id, idParam(req, 'sheetId'), idParam(req, 'rangeId'));
     res.status(204).end();
   });
 

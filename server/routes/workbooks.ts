@@ -1,8 +1,8 @@
-// /api/workbooks: workbooks, tabs, patches, history and computed values. Every route validates its
-// params and body with zod and asks services/access.ts before touching anything.
-import { Router, type Request, type Response } from 'express';
+// /api/workbooks: workbooks, tabs, patches, history and computed values. Every route under /:id
+// starts with access(action) (routes/access.ts), then validates its params and body with zod and
+// calls one service.
+import { Router } from 'express';
 import { z } from 'zod';
-import { revisionNumberSchema } from './workbookAccess.js';
 import {
   createSheetSchema,
   createWorkbookSchema,
@@ -13,34 +13,25 @@ import {
   revisionListQuerySchema,
   updateSheetSchema,
 } from '../../shared/workbooks.js';
-import type { WorkbookAction } from '../../shared/permissions.js';
 import { currentUser, requireUser } from '../auth/middleware.js';
 import type { AppContext } from '../context.js';
-import { HttpError, parse } from '../errors.js';
-import { listVisibleWorkbooks, requireWorkbook } from '../services/access.js';
+import { parse } from '../errors.js';
+import { listVisibleWorkbooks } from '../services/access.js';
 import { applyPatch } from '../services/patches.js';
 import { restoreRevision } from '../services/restore.js';
 import { getRevision, listRevisions } from '../services/revisionLog.js';
 import { addSheet, deleteSheet, updateSheet } from '../services/sheetStore.js';
-import { valuesFor, type ValuesBody } from '../services/valuesInWorker.js';
-import { loadWorkbookInSlices } from '../services/workbookSlices.js';
-import { SpreadsheetError } from '../xlsx/limits.js';
-import { computeRefusal } from '../xlsx/refusals.js';
-import { createWorkbook, deleteWorkbook, loadWorkbook, renameWorkbook, summarizeWorkbook } from '../services/workbookStore.js';
+import { workbookValues } from '../services/valuesInWorker.js';
+import { createWorkbookFor, deleteWorkbook, loadWorkbook, renameWorkbook, summarizeWorkbook } from '../services/workbookStore.js';
+import { accessMiddleware, accessOf, revisionNumberSchema } from './access.js';
 
-const workbookParams = z.object({ id: idSchema });
 const sheetParams = z.object({ id: idSchema, sheetId: idSchema });
 const revisionParams = z.object({ id: idSchema, n: revisionNumberSchema });
 
 export function workbooksRouter(ctx: AppContext): Router {
   const router = Router();
   router.use(requireUser);
-
-  /** Validates :id and checks that the signed-in user may do `action` on that workbook. */
-  const access = (req: Request, res: Response, action: WorkbookAction) => {
-    const { id } = parse(workbookParams, req.params, 'params');
-    return requireWorkbook(ctx, currentUser(res), id, action);
-  };
+  const access = accessMiddleware(ctx);
 
   router.get('/', (_req, res) => {
     res.json({ workbooks: listVisibleWorkbooks(ctx, currentUser(res)) });
@@ -48,81 +39,64 @@ export function workbooksRouter(ctx: AppContext): Router {
 
   router.post('/', (req, res) => {
     const { title } = parse(createWorkbookSchema, req.body);
-    const user = currentUser(res);
-    const id = createWorkbook(ctx, user, title);
-    res.status(201).json({ workbook: summarizeWorkbook(ctx, requireWorkbook(ctx, user, id, 'view')) });
+    res.status(201).json({ workbook: createWorkbookFor(ctx, currentUser(res), title) });
   });
 
-  router.get('/:id', (req, res) => {
-    res.json(loadWorkbook(ctx, access(req, res, 'view')));
+  router.get('/:id', access('view'), (_req, res) => {
+    res.json(loadWorkbook(ctx, accessOf(res)));
   });
 
-  router.patch('/:id', (req, res) => {
-    const a = access(req, res, 'rename');
+  router.patch('/:id', access('rename'), (req, res) => {
     const { title } = parse(renameWorkbookSchema, req.body);
-    renameWorkbook(ctx, a.workbook.id, title);
-    res.json({ workbook: summarizeWorkbook(ctx, a) });
+    renameWorkbook(ctx, accessOf(res).workbook.id, title);
+    res.json({ workbook: summarizeWorkbook(ctx, accessOf(res)) });
   });
 
-  router.delete('/:id', (req, res) => {
-    deleteWorkbook(ctx, access(req, res, 'delete').workbook.id);
+  router.delete('/:id', access('delete'), (_req, res) => {
+    deleteWorkbook(ctx, accessOf(res).workbook.id);
     res.status(204).end();
   });
 
-  router.post('/:id/sheets', (req, res) => {
-    const a = access(req, res, 'editSheets');
+  router.post('/:id/sheets', access('editSheets'), (req, res) => {
     const body = parse(createSheetSchema, req.body ?? {});
-    res.status(201).json(addSheet(ctx, a.workbook.id, currentUser(res).id, body));
+    res.status(201).json(addSheet(ctx, accessOf(res).workbook.id, currentUser(res).id, body));
   });
 
-  router.patch('/:id/sheets/:sheetId', (req, res) => {
-    const a = access(req, res, 'editSheets');
+  router.patch('/:id/sheets/:sheetId', access('editSheets'), (req, res) => {
     const { sheetId } = parse(sheetParams, req.params, 'params');
     const body = parse(updateSheetSchema, req.body);
-    res.json(updateSheet(ctx, a.workbook.id, sheetId, currentUser(res).id, body));
+    res.json(updateSheet(ctx, accessOf(res).workbook.id, sheetId, currentUser(res).id, body));
   });
 
-  router.delete('/:id/sheets/:sheetId', (req, res) => {
-    const a = access(req, res, 'editSheets');
+  router.delete('/:id/sheets/:sheetId', access('editSheets'), (req, res) => {
     const { sheetId } = parse(sheetParams, req.params, 'params');
-    res.json(deleteSheet(ctx, a.workbook.id, sheetId, currentUser(res).id));
+    res.json(deleteSheet(ctx, accessOf(res).workbook.id, sheetId, currentUser(res).id));
   });
 
-  router.post('/:id/patches', (req, res) => {
-    const a = access(req, res, 'editCells');
+  router.post('/:id/patches', access('editCells'), (req, res) => {
     const patch = parse(patchSchema, req.body);
-    res.json(applyPatch(ctx, a.workbook.id, currentUser(res).id, patch));
+    res.json(applyPatch(ctx, accessOf(res).workbook.id, currentUser(res).id, patch));
   });
 
-  router.get('/:id/revisions', (req, res) => {
-    const a = access(req, res, 'viewHistory');
+  router.get('/:id/revisions', access('viewHistory'), (req, res) => {
+    const { workbook } = accessOf(res);
     const query = parse(revisionListQuerySchema, req.query, 'query');
-    res.json({ revision: a.workbook.revision, revisions: listRevisions(ctx.db, a.workbook.id, query) });
+    res.json({ revision: workbook.revision, revisions: listRevisions(ctx.db, workbook.id, query) });
   });
 
-  router.get('/:id/revisions/:n', (req, res) => {
-    const a = access(req, res, 'viewHistory');
+  router.get('/:id/revisions/:n', access('viewHistory'), (req, res) => {
     const { n } = parse(revisionParams, req.params, 'params');
-    res.json(getRevision(ctx.db, a.workbook.id, n));
+    res.json(getRevision(ctx.db, accessOf(res).workbook.id, n));
   });
 
-  router.post('/:id/revisions/:n/restore', (req, res) => {
-    const a = access(req, res, 'restore');
+  router.post('/:id/revisions/:n/restore', access('restore'), (req, res) => {
     const { n } = parse(revisionParams, req.params, 'params');
     const { sheetId } = parse(restoreBodySchema, req.body ?? {}, 'body');
-    res.json(restoreRevision(ctx, a.workbook.id, currentUser(res).id, n, sheetId));
+    res.json(restoreRevision(ctx, accessOf(res).workbook.id, currentUser(res).id, n, sheetId));
   });
 
-  router.get('/:id/values', async (req, res) => {
-    const workbook = await loadWorkbookInSlices(ctx, access(req, res, 'view'));
-    let body: ValuesBody;
-    try {
-      body = await valuesFor(workbook, currentUser(res).id);
-    } catch (e) {
-      if (e instanceof SpreadsheetError) throw computeRefusal('values', e);
-      throw e;
-    }
-    res.type('application/json').send(Buffer.from(body.bytes.buffer, body.bytes.byteOffset, body.bytes.byteLength));
+  router.get('/:id/values', access('view'), async (_req, res) => {
+    res.type('application/json').send(await workbookValues(ctx, accessOf(res), currentUser(res).id));
   });
 
   return router;

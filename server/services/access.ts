@@ -1,6 +1,7 @@
-// The one place that decides whether a user may see or act on a workbook. Routes call
-// requireWorkbook(); the rules themselves are the table in shared/permissions.ts. Sharing, roles and
-// locks widen these checks here, never in the routes.
+// The one place that decides whether a user may see or act on a workbook. Routes reach it through
+// the access() middleware (server/routes/access.ts), services through requireWorkbook(); the rules
+// themselves are the table in shared/permissions.ts. Sharing, roles and locks widen these checks
+// here, never in the routes.
 import { and, desc, eq } from 'drizzle-orm';
 import type { User } from 'lucia';
 import { accessRoles, allowedActions, canAny, refusalReason, type AccessRole, type WorkbookAction, type WorkbookRole } from '../../shared/permissions.js';
@@ -31,16 +32,18 @@ export function memberRole(ctx: AppContext, workbookId: string, userId: string):
 }
 
 /**
- * Loads a workbook for a user about to do `action`. Someone with no right to see the workbook at all
- * gets 404 (its existence is not revealed); someone who can see it but not do this gets 403 with why.
+ * Loads a workbook for a user about to do `action` (or, given a list, any one of them; a refusal
+ * names the first). Someone with no right to see the workbook at all gets 404 (its existence is not
+ * revealed); someone who can see it but not do this gets 403 with why.
  */
-export function requireWorkbook(ctx: AppContext, user: AccessUser, workbookId: string, action: WorkbookAction): WorkbookAccess {
+export function requireWorkbook(ctx: AppContext, user: AccessUser, workbookId: string, action: WorkbookAction | readonly WorkbookAction[]): WorkbookAccess {
   const workbook = ctx.db.select().from(workbooks).where(eq(workbooks.id, workbookId)).get();
   if (!workbook) throw notFound('workbook');
   const roles = accessRoles(memberRole(ctx, workbookId, user.id), user.siteRole);
   if (!canAny(roles, 'view')) throw notFound('workbook');
   const role = roles[0];
-  if (!canAny(roles, action)) throw forbidden(refusalReason(role, action));
+  const actions: readonly WorkbookAction[] = typeof action === 'string' ? [action] : action;
+  if (!actions.some((a) => canAny(roles, a))) throw forbidden(refusalReason(role, actions[0]));
   return { workbook, role, roles };
 }
 

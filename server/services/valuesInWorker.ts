@@ -3,10 +3,13 @@
 // cells or sums a million-row range then costs one worker, never the server's event loop or heap.
 // The worker answers with the finished JSON as bytes (moved, not copied), which the route sends as is.
 import { cellAddress } from '../../shared/a1.js';
-import { recalcWorkerLimits } from '../xlsx/limits.js';
+import type { AppContext } from '../context.js';
+import { recalcWorkerLimits, refusalAbout } from '../xlsx/limits.js';
 import { packCells, packedTransfer } from '../xlsx/packedCells.js';
 import { computePool } from '../xlsx/workerPool.js';
+import type { WorkbookAccess } from './access.js';
 import type { ValuesInput } from './values.js';
+import { loadWorkbookInSlices } from './workbookSlices.js';
 
 export type ValuesBody = { bytes: Uint8Array };
 
@@ -20,4 +23,11 @@ export async function valuesFor(workbook: ValuesInput, owner?: string): Promise<
     describeCell: (sheet, row, col) => (workbook.sheets[sheet] ? cellAddress(workbook.sheets[sheet].name, row, col) : `a cell of sheet ${sheet + 1}`),
   });
   return { bytes: outcome.result };
+}
+
+/** The stored workbook's computed values as the JSON body of /values; a refusal is about the values. */
+export async function workbookValues(ctx: AppContext, access: WorkbookAccess, owner: string): Promise<Buffer> {
+  const workbook = await loadWorkbookInSlices(ctx, access);
+  const { bytes } = await valuesFor(workbook, owner).catch(refusalAbout('values'));
+  return Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength);
 }

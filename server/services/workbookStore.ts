@@ -7,7 +7,7 @@ import type { User } from 'lucia';
 import type { CellEntry, WorkbookPayload, WorkbookSummary } from '../../shared/workbooks.js';
 import type { AppContext } from '../context.js';
 import { cells, sheets, users, workbookMembers, workbooks } from '../db/schema.js';
-import type { WorkbookAccess } from './access.js';
+import { requireWorkbook, type WorkbookAccess } from './access.js';
 import { loadProtection } from './protection.js';
 import { workbookSheets } from './sheetOps.js';
 
@@ -20,6 +20,12 @@ export function createWorkbook(ctx: AppContext, user: Pick<User, 'id'>, title: s
     tx.insert(sheets).values({ id: randomUUID(), workbookId: id, name: 'Sheet1', position: 0, createdBy: user.id }).run();
   });
   return id;
+}
+
+/** Creates a workbook and answers with its list entry, as its new owner sees it. */
+export function createWorkbookFor(ctx: AppContext, user: Pick<User, 'id' | 'siteRole'>, title: string): WorkbookSummary {
+  const id = createWorkbook(ctx, user, title);
+  return summarizeWorkbook(ctx, requireWorkbook(ctx, user, id, 'view'));
 }
 
 export function loadWorkbook(ctx: AppContext, access: WorkbookAccess): WorkbookPayload {

@@ -97,17 +97,42 @@ const statusOf: Record<SpreadsheetErrorCode, 400 | 413 | 429 | 503> = {
   too_many_jobs: 429,
 };
 
-/** A refusal of the uploaded file; routes turn it into `{ error: { code, message } }` with its status. */
+/**
+ * What a refusal is about: an uploaded file (the file's fault: 400 or 413), or work on a workbook
+ * that is already stored (values, an export: the server's limit, so 503, or 429 for too many jobs).
+ */
+export type RefusalSubject = 'file' | 'values' | 'export';
+
+/**
+ * A refusal from reading, computing or writing a spreadsheet. Services throw it; the app's error
+ * handler (server/errors.ts) is the one place it becomes `{ error: { code, message } }` with its status.
+ */
 export class SpreadsheetError extends Error {
   readonly status: 400 | 413 | 429 | 503;
   constructor(
     readonly code: SpreadsheetErrorCode,
     message: string,
+    /** Unset until a service says what the work was; the error handler then treats it as a file's. */
+    readonly subject?: RefusalSubject,
+    /** Advice appended to the message, such as what to try instead. */
+    readonly hint = '',
   ) {
     super(message);
     this.name = 'SpreadsheetError';
     this.status = statusOf[code];
   }
+
+  /** The same refusal, saying what work it stopped. */
+  about(subject: RefusalSubject, hint = ''): SpreadsheetError {
+    return new SpreadsheetError(this.code, this.message, subject, hint);
+  }
+}
+
+/** Rethrows a spreadsheet refusal as one about `subject`; anything else passes unchanged. */
+export function refusalAbout(subject: RefusalSubject, hint = '') {
+  return (e: unknown): never => {
+    throw e instanceof SpreadsheetError ? e.about(subject, hint) : e;
+  };
 }
 
 export function formatBytes(bytes: number): string {
