@@ -2,6 +2,7 @@
 // tab operations in a sentence, and runs of display-only changes folded into one entry.
 import { describe, expect, it } from 'vitest';
 import type { RevisionPreview, RevisionSummary } from '../shared/workbooks.js';
+import { describeAudit } from '../src/features/audit/describeAudit.js';
 import { cellLines, changeCountText, displayRunText, entryHeadline, groupLog, isDisplayOnly, touchedSheets } from '../src/features/history/changeLog.js';
 
 const names: Record<string, string> = { s1: 'Screen', s2: 'Notes' };
@@ -98,5 +99,13 @@ describe('display-only changes', () => {
     const a = settings({}, { precision: 2 });
     const b = { ...settings({ precision: 2 }, { precision: 3 }), author: ben };
     expect(groupLog([b, a])).toHaveLength(2);
+  });
+});
+
+describe('the audit line of a restore', () => {
+  it('names the sheet when one sheet was brought back', () => {
+    const entry = (details: Record<string, unknown>) => ({ id: 1, action: 'revision.restored', actor: null, createdAt: 0, details }) as never;
+    expect(describeAudit(entry({ restoredFrom: 3, revision: 9, sheetId: 's1', sheetName: 'Screen' }), () => undefined)).toBe('brought back sheet “Screen” as it was after revision #3, as revision #9');
+    expect(describeAudit(entry({ restoredFrom: 3, revision: 9 }), () => undefined)).toBe('restored revision #3 as revision #9');
   });
 });

@@ -57,6 +57,8 @@ describe('restoring one sheet', () => {
     expect(await t.cells(t.second)).toEqual([[0, 0, 'NO']]);
     const [entry] = await t.log();
     expect(entry).toMatchObject({ kind: 'restore', preview: { restoredFrom: target, restoredSheetId: t.first, cellCount: 2 } });
+    const audit = (await t.ann.agent.get(`/api/workbooks/${t.id}/audit`).expect(200)).body.entries as { action: string; details: Record<string, unknown> }[];
+    expect(audit[0]).toMatchObject({ action: 'revision.restored', details: { restoredFrom: target, sheetId: t.first, sheetName: (await t.load()).sheets[0].name } });
   });
 
   it('brings back a sheet\'s settings too', async () => {

@@ -191,6 +191,6 @@ function restoreOneSheet(ctx: AppContext, tx: Tx, workbookId: string, authorId: 
   const changes = mergeChanges(rewrites, differences);
   const patch: RevisionPatch = { sheetOps, changes, restoredFrom: target, restoredSheetId: sheetId };
   recordRevision(tx, workbookId, revision, authorId, 'restore', patch);
-  recordAudit(tx, workbookId, authorId, 'revision.restored', { restoredFrom: target, sheetId, revision, changeCount: changes.length + sheetOps.length });
+  recordAudit(tx, workbookId, authorId, 'revision.restored', { restoredFrom: target, sheetId, sheetName: now.name, revision, changeCount: changes.length + sheetOps.length });
   return { revision, patch };
 }
