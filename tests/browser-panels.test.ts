@@ -243,7 +243,7 @@ describe('change log', () => {
     await expectCellText('F2', /^reference$/);
 
     await page.getByRole('button', { name: 'Change log' }).click();
-    const first = dialog().getByRole('listitem', { name: 'Change #1' });
+    const first = dialog().getByRole('listitem', { name: 'Change #1', exact: true });
     await first.getByRole('button', { name: `Bring back “${firstTab}” as after #1…` }).click();
     await dialog().getByRole('button', { name: 'Bring it back' }).click();
     await dialog().getByText(/Brought back as entry #\d+/).waitFor();

@@ -241,9 +241,9 @@ describe('two people on one workbook', () => {
     await a.getByRole('button', { name: 'Change log' }).click();
     const dialog = a.getByRole('dialog', { name: 'Change log' });
     const changes = dialog.getByRole('list', { name: 'Changes' });
-    await changes.getByRole('listitem', { name: 'Change #1' }).waitFor();
-    expect(await changes.getByRole('listitem', { name: 'Change #2' }).textContent()).toContain('Ada Okafor');
-    const first = changes.getByRole('listitem', { name: 'Change #1' });
+    await changes.getByRole('listitem', { name: 'Change #1', exact: true }).waitFor();
+    expect(await changes.getByRole('listitem', { name: 'Change #2', exact: true }).textContent()).toContain('Ada Okafor');
+    const first = changes.getByRole('listitem', { name: 'Change #1', exact: true });
     expect(await first.getByRole('table').textContent()).toContain('A2(empty)→N2');
     await screenshot(a, 'team-history-view');
     await first.getByRole('button', { name: 'Bring back the whole workbook…' }).click();

@@ -21,7 +21,11 @@ export function SidePanel(p: {
   widthPx?: number;
 }) {
   return (
-    <aside aria-label={p.panel === 'structure' ? 'Structure of the selected cell' : 'Chart'} data-grid-shield="" onMouseDown={(e) => e.stopPropagation()} style={p.widthPx !== undefined ? { width: p.widthPx } : undefined}
+    <aside
+      aria-label={p.panel === 'structure' ? 'Structure of the selected cell' : 'Chart'}
+      data-grid-shield=""
+      onMouseDown={(e) => e.stopPropagation()}
+      style={p.widthPx !== undefined ? { width: p.widthPx } : undefined}
       className="flex w-[26rem] shrink-0 flex-col overflow-y-auto border-l border-line bg-surface"
     >
       <div className="flex-1">

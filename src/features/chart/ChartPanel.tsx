@@ -57,7 +57,8 @@ export function ChartPanel(p: ChartPanelProps) {
   const box = useRef<HTMLDivElement>(null);
   const { x: xCol, y: yCol, kind } = spec;
   const { points, skipped } = useMemo(() => numericPairs(p.rows, xCol, yCol, p.sheetRowOf, spec.label), [p.rows, xCol, yCol, p.sheetRowOf, spec.label]);
-  const title = (c: number) => p.headerRow?.[c]?.display || undefined;
+  // The frozen header row names the columns; unfrozen, a text first row above numbers does.
+  const title = (c: number) => p.headerRow?.[c]?.display || (p.rows[0]?.[c]?.kind === 'text' ? p.rows[0][c]!.display : undefined);
   const name = (c: number) => (title(c) ? `${columnName(c)} · ${title(c)}` : columnName(c));
   const xTitle = axisTitle(p.rows, xCol, columnName(xCol), title(xCol));
   const yTitle = axisTitle(p.rows, yCol, columnName(yCol), title(yCol));
