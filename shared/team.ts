@@ -4,7 +4,7 @@
 import { z } from 'zod';
 import { emailSchema } from './auth.js';
 import { boundsContain, formatCellRange, parseCellRange, type CellBounds } from './cellRange.js';
-import { workbookRoles, type AccessRole, type WorkbookAction, type WorkbookRole } from './permissions.js';
+import { effectiveSheetRole, sheetRoleNames, workbookRoles, type AccessRole, type EffectiveSheetRole, type SheetRole, type WorkbookAction, type WorkbookRole } from './permissions.js';
 import { idSchema, maxColIndex, maxRowIndex, type RevisionKind, type SheetPayload, type WorkbookSummary } from './workbooks.js';
 
 // ---- requests ----
@@ -35,6 +35,13 @@ export const sheetLockSchema = z.object({
   editors: editorsSchema,
 });
 export type SheetLockInput = z.input<typeof sheetLockSchema>;
+
+/** PUT /api/workbooks/:id/sheets/:sheetId/roles: set one member's role on the sheet, or (null) go back to their workbook role. */
+export const setSheetRoleSchema = z.object({
+  email: emailSchema,
+  role: z.enum(sheetRoleNames, { error: 'must be "editor", "viewer" or null' }).nullable(),
+});
+export type SetSheetRoleInput = z.infer<typeof setSheetRoleSchema>;
 
 /** POST /api/workbooks/:id/sheets/:sheetId/protected-ranges. Its creator may always edit it. */
 export const protectedRangeSchema = z.object({
@@ -116,13 +123,47 @@ export interface MemberRoleResult {
   previousOwner?: Member;
 }
 
+/**
+ * A locked sheet: everyone is a viewer of it except those it names editor. The names are the
+ * sheet's editor overrides (`SheetRoles`); `editors` repeats them for display.
+ */
 export interface SheetLock {
   sheetId: string;
   lockedBy: UserRef;
   reason: string;
-  /** Who may still change the sheet; always includes the locker. */
+  /** Who may still change the sheet: its editor overrides (the locker among them unless removed since). */
   editors: UserRef[];
   createdAt: number;
+}
+
+/** One member's role set on one sheet, overriding their workbook role. */
+export interface SheetRoleOverride {
+  user: UserRef;
+  role: SheetRole;
+  setBy: UserRef;
+  /** Named as part of a lock: lifting or replacing the lock takes it away. */
+  viaLock: boolean;
+  since: number;
+}
+export interface SheetRoles {
+  sheetId: string;
+  overrides: SheetRoleOverride[];
+}
+
+/** Who is asking: their id and membership role (null for a site admin who is not a member). */
+export interface SheetActor {
+  id: string;
+  role: WorkbookRole | null;
+}
+
+/** GET and PUT /api/workbooks/:id/sheets/:sheetId/roles. */
+export interface SheetRolesResponse {
+  sheetId: string;
+  sheetName: string;
+  lock: SheetLock | null;
+  overrides: SheetRoleOverride[];
+  /** Every member's effective role on the sheet, and why. */
+  members: (EffectiveSheetRole & { user: UserRef & { email: string }; workbookRole: WorkbookRole })[];
 }
 export interface ProtectedRange {
   id: string;
@@ -138,26 +179,47 @@ export interface ProtectedRange {
 /** Part of GET /api/workbooks/:id, of the `protection` live event, and of lock/range responses. */
 export interface Protection {
   locks: SheetLock[];
+  /** Per-sheet role overrides; a sheet with none is absent. */
+  sheetRoles: SheetRoles[];
   protectedRanges: ProtectedRange[];
 }
 
-export type EditBlock = { kind: 'lock'; lock: SheetLock } | { kind: 'range'; range: ProtectedRange };
+/** A member's role on one sheet, with the lock or override that made it so. */
+export interface SheetStanding extends EffectiveSheetRole {
+  lock: SheetLock | null;
+  override: SheetRoleOverride | null;
+}
+
+/** The one lookup of a member's role on a sheet from a workbook's protection (rule: shared/permissions.ts). */
+export function sheetStanding(protection: Protection, who: SheetActor, sheetId: string): SheetStanding {
+  const lock = protection.locks.find((l) => l.sheetId === sheetId) ?? null;
+  const override = protection.sheetRoles.find((s) => s.sheetId === sheetId)?.overrides.find((o) => o.user.id === who.id) ?? null;
+  return { ...effectiveSheetRole(who.role, { locked: lock !== null, override: override?.role ?? null }), lock, override };
+}
+
+export type EditBlock = { kind: 'sheet'; sheetId: string; standing: SheetStanding } | { kind: 'range'; range: ProtectedRange };
 
 /**
- * Why `userId` may not change this cell, or null when nothing stops them (roles aside). The server's
- * patch check and the grid's greyed cells both call this, so they cannot disagree.
+ * Why `who` may not change this cell, or null when nothing stops them: their role on the sheet, then
+ * protected ranges (a finer grain inside a sheet they may edit). The server's patch check and the
+ * grid's greyed cells both call this, so they cannot disagree.
  */
-export function editBlock(protection: Protection, userId: string, sheetId: string, row: number, col: number): EditBlock | null {
-  const lock = protection.locks.find((l) => l.sheetId === sheetId);
-  if (lock && !lock.editors.some((e) => e.id === userId)) return { kind: 'lock', lock };
-  const range = protection.protectedRanges.find((r) => r.sheetId === sheetId && boundsContain(r.bounds, row, col) && !r.editors.some((e) => e.id === userId));
+export function editBlock(protection: Protection, who: SheetActor, sheetId: string, row: number, col: number): EditBlock | null {
+  const standing = sheetStanding(protection, who, sheetId);
+  if (standing.role !== 'editor') return { kind: 'sheet', sheetId, standing };
+  const range = protection.protectedRanges.find((r) => r.sheetId === sheetId && boundsContain(r.bounds, row, col) && !r.editors.some((e) => e.id === who.id));
   return range ? { kind: 'range', range } : null;
 }
 
-/** Whether the sheet itself (name, position, settings, deletion) is locked against `userId`. */
-export function sheetLockedAgainst(protection: Protection, userId: string, sheetId: string): SheetLock | null {
-  const lock = protection.locks.find((l) => l.sheetId === sheetId);
-  return lock && !lock.editors.some((e) => e.id === userId) ? lock : null;
+/** Whether the sheet itself (name, position, settings, deletion) is closed to `who`: their standing when they only view it. */
+export function sheetClosedTo(protection: Protection, who: SheetActor, sheetId: string): SheetStanding | null {
+  const standing = sheetStanding(protection, who, sheetId);
+  return standing.role === 'editor' ? null : standing;
+}
+
+/** Whether `who` edits at least one sheet through an override (so a workbook viewer may still send patches). */
+export function editsSomeSheet(protection: Protection, who: SheetActor): boolean {
+  return protection.sheetRoles.some((s) => s.overrides.some((o) => o.user.id === who.id && o.role === 'editor'));
 }
 
 export type AuditAction =
@@ -170,6 +232,8 @@ export type AuditAction =
   | 'invitation.accepted'
   | 'sheet.locked'
   | 'sheet.unlocked'
+  | 'sheet.role_set'
+  | 'sheet.role_removed'
   | 'range.protected'
   | 'range.unprotected'
   | 'revision.restored';
@@ -249,6 +313,7 @@ export const teamPaths = {
   invitationLink: (token: string) => `/invitations/${token}`,
   acceptInvitation: (token: string) => `/invitations/${token}/accept`,
   lock: (workbookId: string, sheetId: string) => `/workbooks/${workbookId}/sheets/${sheetId}/lock`,
+  sheetRoles: (workbookId: string, sheetId: string) => `/workbooks/${workbookId}/sheets/${sheetId}/roles`,
   protectedRanges: (workbookId: string, sheetId: string) => `/workbooks/${workbookId}/sheets/${sheetId}/protected-ranges`,
   protectedRange: (workbookId: string, sheetId: string, rangeId: string) => `/workbooks/${workbookId}/sheets/${sheetId}/protected-ranges/${rangeId}`,
   presence: (workbookId: string) => `/workbooks/${workbookId}/presence`,

@@ -1,8 +1,8 @@
 // Workbooks, sheets, patches and revisions: the request bodies the server validates (and the client
 // reuses) and the payloads the API returns. The routes that take and give them are in server/routes/.
 import { z } from 'zod';
-import type { AccessRole, WorkbookAction } from './permissions.js';
-import type { ProtectedRange, SheetLock, TeamEvent } from './team.js';
+import type { AccessRole, SheetRole, SheetRoleSource, WorkbookAction } from './permissions.js';
+import type { ProtectedRange, SheetLock, SheetRoles, TeamEvent } from './team.js';
 import { cellInputProblem } from './cellInput.js';
 import { cellKey, maxColIndex, maxRowIndex } from './a1.js';
 import { sheetSettingsSchema, type SheetSettings } from './sheetSettings.js';
@@ -120,6 +120,8 @@ export interface SheetPayload {
   position: number;
   settings: SheetSettings;
   cells: CellEntry[];
+  /** Who added the sheet (in the workbook load): editors manage roles only on sheets they created. */
+  createdBy?: string | null;
 }
 
 export interface WorkbookSummary {
@@ -145,7 +147,10 @@ export interface WorkbookPayload {
   sheets: SheetPayload[];
   /** Sheet locks and protected ranges (shared/team.ts); the server always sends both lists. */
   locks?: SheetLock[];
+  sheetRoles?: SheetRoles[];
   protectedRanges?: ProtectedRange[];
+  /** The signed-in user's effective role on each sheet, in tab order, and why (shared/permissions.ts). */
+  mySheetRoles?: { sheetId: string; role: SheetRole; source: SheetRoleSource }[];
 }
 
 export interface SheetMutationResult {

@@ -5,7 +5,13 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Express } from 'express';
 import { listen, openEventStream } from './helpers/eventStream.js';
-import { makeTeam, sharedWorkbook, type Person, type Team } from './helpers/team.js';
+import { load, makeTeam, sharedWorkbook, type Person, type Team } from './helpers/team.js';
+import { WorkbookModel } from '../src/core/workbook/model/workbookModel.js';
+import { applyStructural } from '../src/core/workbook/model/structure.js';
+import { fillDown, pasteBlock, sortRange } from '../src/core/workbook/model/rangeEdits.js';
+import type { CellInput } from '../src/core/workbook/save/pendingStore.js';
+import { actorOf, editRuleFor } from '../src/core/team/editability.js';
+import { protectionOf } from '../src/core/team/protection.js';
 
 const callers = ['owner', 'editor', 'viewer', 'outsider', 'admin', 'signedOut'] as const;
 type Caller = (typeof callers)[number];
@@ -61,6 +67,8 @@ const table: Row[] = [
   row('list invitations', 'get', '/api/workbooks/{id}/invitations', undefined,                             200, 403, 403, 404, 403, 401),
   row('invite by e-mail', 'post', '/api/workbooks/{id}/invitations', { email: 'new@lab.test', role: 'editor' }, 201, 403, 403, 404, 403, 401),
   row('revoke an invitation', 'delete', '/api/workbooks/{id}/invitations/{invitationId}', undefined,       204, 403, 403, 404, 403, 401),
+  row('list sheet roles', 'get', '/api/workbooks/{id}/sheets/{sheet1}/roles', undefined,                  200, 200, 200, 404, 200, 401),
+  row('set a sheet role', 'put', '/api/workbooks/{id}/sheets/{sheet1}/roles', { email: 'vic@lab.test', role: 'editor' }, 200, 403, 403, 404, 403, 401),
   row('lock a sheet', 'put', '/api/workbooks/{id}/sheets/{sheet1}/lock', { reason: 'final' },              200, 403, 403, 404, 403, 401),
   row('unlock a sheet', 'delete', '/api/workbooks/{id}/sheets/{lockedSheet}/lock', undefined,              204, 403, 403, 404, 403, 401),
   row('protect a range', 'post', '/api/workbooks/{id}/sheets/{sheet1}/protected-ranges', { range: 'B2' },  201, 403, 403, 404, 403, 401),
@@ -224,5 +232,133 @@ describe('no reach from one workbook into another', () => {
     expect(pending).toContain(invitationId);
     const bAfter = (await ann.get(`/api/workbooks/${b}`)).body;
     expect(bAfter).toMatchObject({ revision: 0, locks: [], protectedRanges: [], sheets: [{ id: bSheet, name: 'Sheet1', cells: [] }] });
+  });
+});
+
+describe('authorization matrix, sheet by sheet', () => {
+  // Two sheet-level actors on a workbook with a sheet "Measurements" and a sheet "Other": Vic, a
+  // workbook viewer whom "Measurements" names editor, and Bob, a workbook editor whom it names
+  // viewer. Cell edits arrive as the client sends them: the grid's model performs the action (insert
+  // a row, sort, fill, paste …) and the patch it hands to the save queue is posted as is.
+  let t: Team;
+  beforeAll(async () => {
+    t = await makeTeam({ limits: { invitationsPerInviter: { max: 10_000, windowMs: 60 * 60_000 } } });
+  });
+  afterAll(() => t.ctx.mail.stop());
+
+  interface SheetFixture {
+    id: string;
+    measurements: string;
+    other: string;
+  }
+  const rows3 = [['species', 'unpaired'], ['O2', '2'], ['N2', '0'], ['NO', '1']];
+
+  async function sheetFixture(): Promise<SheetFixture> {
+    const wb = await sharedWorkbook(t, 'Sheet roles');
+    const a = t.owner.agent;
+    const other = wb.sheets[0].id;
+    await a.patch(`/api/workbooks/${wb.id}/sheets/${other}`).send({ name: 'Other' }).expect(200);
+    const measurements = (await a.post(`/api/workbooks/${wb.id}/sheets`).send({ name: 'Measurements' }).expect(201)).body.sheet.id as string;
+    const cells = (sheetId: string) => rows3.flatMap((r, row) => r.map((input, col) => ({ sheetId, row, col, input })));
+    const rev = (await load(a, wb.id)).revision;
+    await a.post(`/api/workbooks/${wb.id}/patches`).send({ baseRevision: rev, changes: [...cells(measurements), ...cells(other)] }).expect(200);
+    await a.put(`/api/workbooks/${wb.id}/sheets/${measurements}/roles`).send({ email: t.viewer.user.email, role: 'editor' }).expect(200);
+    await a.put(`/api/workbooks/${wb.id}/sheets/${measurements}/roles`).send({ email: t.editor.user.email, role: 'viewer' }).expect(200);
+    return { id: wb.id, measurements, other };
+  }
+
+  /** The patch the client's model would send for `action` on `sheetId` (built with no local refusal). */
+  async function clientPatch(f: SheetFixture, sheetId: string, action: (m: WorkbookModel, sheetId: string) => void) {
+    const payload = await load(t.owner.agent, f.id);
+    const sent: CellInput[] = [];
+    const m = new WorkbookModel(payload, { onLocalChanges: (c) => sent.push(...c) });
+    action(m, sheetId);
+    expect(sent.length, 'the action changed some cells').toBeGreaterThan(0);
+    return { baseRevision: payload.revision, changes: sent };
+  }
+
+  type Action = { what: string; run: (p: Person, f: SheetFixture, sheetId: string) => Promise<number> };
+  const viaClient = (what: string, action: (m: WorkbookModel, sheetId: string) => void): Action => ({
+    what,
+    run: async (p, f, sheetId) => (await p.agent.post(`/api/workbooks/${f.id}/patches`).send(await clientPatch(f, sheetId, action))).status,
+  });
+  const actions: Action[] = [
+    viaClient('type into a cell', (m, s) => m.edit([{ sheetId: s, row: 1, col: 1, input: '3' }])),
+    viaClient('insert a row', (m, s) => applyStructural(m, s, { axis: 'row', action: 'insert', at: 1, count: 1 })),
+    viaClient('delete a column', (m, s) => applyStructural(m, s, { axis: 'col', action: 'remove', at: 0, count: 1 })),
+    viaClient('sort', (m, s) => sortRange(m, s, { top: 1, bottom: 3, left: 0, right: 1 }, 1, 'ascending')),
+    viaClient('fill down', (m, s) => fillDown(m, s, { top: 1, bottom: 3, left: 0, right: 1 })),
+    viaClient('paste', (m, s) => pasteBlock(m, s, [4, 5], 0, [['F2', '0'], ['Cl2', '0']])),
+    { what: 'rename the sheet', run: async (p, f, s) => (await p.agent.patch(`/api/workbooks/${f.id}/sheets/${s}`).send({ name: 'Renamed' })).status },
+    { what: 'move the sheet', run: async (p, f, s) => (await p.agent.patch(`/api/workbooks/${f.id}/sheets/${s}`).send({ position: s === f.other ? 1 : 0 })).status },
+    { what: 'freeze its first row', run: async (p, f, s) => (await p.agent.patch(`/api/workbooks/${f.id}/sheets/${s}`).send({ settings: { frozenRows: 1 } })).status },
+    { what: 'delete the sheet', run: async (p, f, s) => (await p.agent.delete(`/api/workbooks/${f.id}/sheets/${s}`)).status },
+    {
+      what: 'restore a revision that changes only this sheet',
+      // The owner edits this sheet; restoring to the revision before undoes that edit and nothing else.
+      run: async (p, f, s) => {
+        const before = (await load(t.owner.agent, f.id)).revision;
+        await t.owner.agent.post(`/api/workbooks/${f.id}/patches`).send({ baseRevision: before, changes: [{ sheetId: s, row: 7, col: 0, input: 'Ar' }] }).expect(200);
+        return (await p.agent.post(`/api/workbooks/${f.id}/revisions/${before}/restore`)).status;
+      },
+    },
+    {
+      what: 'import a file into the workbook (new sheets beside this one)',
+      run: async (p, f) => (await p.agent.post('/api/imports').field('workbookId', f.id).attach('file', Buffer.from('species,unpaired\nO2,2\n'), 'radicals.csv')).status,
+    },
+  ];
+
+  // What each actor may do on "Measurements" and on "Other". Tab operations (rename, move, settings,
+  // delete), restores and imports need the workbook editor role as well as the sheet's.
+  //                                                    viewer made editor of M     editor made viewer of M
+  //                                                    on M   on Other             on M   on Other
+  const expected: Record<string, [number, number, number, number]> = {
+    'type into a cell':                                  [200, 403, 403, 200],
+    'insert a row':                                      [200, 403, 403, 200],
+    'delete a column':                                   [200, 403, 403, 200],
+    sort:                                                [200, 403, 403, 200],
+    'fill down':                                         [200, 403, 403, 200],
+    paste:                                               [200, 403, 403, 200],
+    'rename the sheet':                                  [403, 403, 403, 200],
+    'move the sheet':                                    [403, 403, 403, 200],
+    'freeze its first row':                              [403, 403, 403, 200],
+    'delete the sheet':                                  [403, 403, 403, 200],
+    'restore a revision that changes only this sheet':   [403, 403, 403, 200],
+    'import a file into the workbook (new sheets beside this one)': [403, 403, 201, 201],
+  };
+
+  it.each(actions.map((a) => [a.what, a] as const))('%s', async (what, action) => {
+    const actual: number[] = [];
+    for (const person of [t.viewer, t.editor]) {
+      for (const which of ['measurements', 'other'] as const) {
+        const f = await sheetFixture();
+        actual.push(await action.run(person, f, f[which]));
+      }
+    }
+    expect(actual).toEqual(expected[what]);
+  });
+
+  it('names the sheet and the reason in every refusal, and the client greys the same cells', async () => {
+    const f = await sheetFixture();
+    const patch = await clientPatch(f, f.measurements, (m, s) => sortRange(m, s, { top: 1, bottom: 3, left: 0, right: 1 }, 1, 'ascending'));
+    const res = await t.editor.agent.post(`/api/workbooks/${f.id}/patches`).send(patch).expect(403);
+    expect(res.body.error.message).toMatch(/^Measurements!A2 is on sheet "Measurements": Ann Analyst made you a viewer of sheet "Measurements"; ask them or an owner/);
+    const before = (await load(t.owner.agent, f.id)).revision;
+    await t.owner.agent.post(`/api/workbooks/${f.id}/patches`).send({ baseRevision: before, changes: [{ sheetId: f.measurements, row: 0, col: 0, input: 'name' }] }).expect(200);
+    const restore = await t.editor.agent.post(`/api/workbooks/${f.id}/revisions/${before}/restore`).expect(403);
+    expect(restore.body.error.message).toMatch(/^Measurements!A1 is on sheet "Measurements": Ann Analyst made you a viewer/);
+    const del = await t.editor.agent.delete(`/api/workbooks/${f.id}/sheets/${f.measurements}`).expect(403);
+    expect(del.body.error).toMatchObject({ code: 'view_only', message: 'Ann Analyst made you a viewer of sheet "Measurements"; ask them or an owner' });
+
+    // Bob's own client, built from what the API tells him, refuses the same edits before sending.
+    const mine = await load(t.editor.agent, f.id);
+    expect(mine.mySheetRoles).toEqual([
+      { sheetId: f.other, role: 'editor', source: 'workbook' },
+      { sheetId: f.measurements, role: 'viewer', source: 'override' },
+    ]);
+    const m = new WorkbookModel(mine);
+    m.setEditRule(editRuleFor(protectionOf(mine), actorOf(t.editor.user.id, mine.role)));
+    expect(m.edit([{ sheetId: f.measurements, row: 1, col: 1, input: '3' }]).applied).toEqual([]);
+    expect(m.edit([{ sheetId: f.other, row: 1, col: 1, input: '3' }]).applied).toHaveLength(1);
   });
 });

@@ -321,7 +321,7 @@ describe('the workbook grid in a browser', () => {
     await expectCell('D6', '2');
     await expectCell('B11', 'σu*(2p)');
     await clickCell('C6');
-    await expect.poll(() => page.getByText('Read-only: filled by an array formula in another cell').count()).toBe(1);
+    await expect.poll(() => page.getByText('View only — filled by an array formula in another cell.').count()).toBe(1);
     await page.keyboard.type('9');
     await page.keyboard.press('Enter');
     await expectCell('C6', 'bonding');

@@ -1,7 +1,8 @@
 // Two people on one workbook, each in their own Chromium (separate profiles, separate sessions),
-// against the real server: sharing from the Share dialog, an edit in one window appearing in the
+// against the real server: bringing people in from the team panel, an edit in one window appearing in the
 // other within a second, a conflict offering both values (both choices), protected ranges and sheet
-// locks greying cells and refusing edits, a live switch to viewer making the grid read-only, history
+// locks greying cells and refusing edits with their reason, a live switch to viewer making the grid
+// read-only, a sheet role letting that viewer edit one sheet (set on the team board), history
 // with a read-only old revision and a restore, the audit log, and an invitation accepted from the
 // mail outbox. Screenshots land in tests/artifacts/team-*.png.
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
@@ -95,29 +96,32 @@ afterAll(async () => {
 });
 
 describe('two people on one workbook', () => {
-  it('shares the workbook from the Share dialog: an account joins at once, anyone else is invited', async () => {
+  it('brings people in from the team panel: an account joins at once, anyone else is invited', async () => {
     await openWorkbook(a);
-    await a.getByRole('button', { name: 'Share', exact: true }).click();
-    const dialog = a.getByRole('dialog', { name: 'Share “Diatomic screening”' });
-    await dialog.getByLabel('Add people by e-mail').fill(ben.email);
-    await dialog.getByRole('button', { name: 'Share', exact: true }).click();
-    await dialog.getByText('Ben Laszlo now has access as editor.').waitFor();
-    await dialog.getByLabel('Add people by e-mail').fill(cy.email);
-    await dialog.getByLabel('Role', { exact: true }).selectOption('viewer');
-    await dialog.getByRole('button', { name: 'Share', exact: true }).click();
+    await a.getByRole('button', { name: 'Team', exact: true }).click();
+    const dialog = a.getByRole('dialog', { name: 'Team · Diatomic screening' });
+    await dialog.getByLabel('Bring someone in (e-mail)').fill(ben.email);
+    await dialog.getByRole('button', { name: 'Add to team' }).click();
+    await dialog.getByText('Ben Laszlo joined as editor; their row is on the board below.').waitFor();
+    await dialog.getByLabel('Bring someone in (e-mail)').fill(cy.email);
+    await dialog.getByLabel('Workbook role', { exact: true }).selectOption('viewer');
+    await dialog.getByRole('button', { name: 'Add to team' }).click();
     await dialog.getByText(/an invitation was e-mailed/).waitFor();
-    await dialog.getByRole('listitem', { name: `Invitation to ${cy.email}` }).waitFor();
-    expect(await dialog.getByLabel('Role of Ben Laszlo').inputValue()).toBe('editor');
-    await screenshot(a, 'team-share-dialog');
-    await dialog.getByRole('button', { name: 'Done' }).click();
+    await dialog.getByRole('row', { name: `Invitation to ${cy.email}` }).waitFor();
+    expect(await dialog.getByLabel('Workbook role of Ben Laszlo').inputValue()).toBe('editor');
+    expect(await dialog.getByLabel('Ben Laszlo on Sheet1').inputValue()).toBe(''); // no role set on the sheet: the workbook role holds
+    await dialog.getByRole('button', { name: 'Close' }).click();
   });
 
-  it('shows who else is here, on which cell', async () => {
+  it('shows who else is here, on which sheet and cell, on the team board', async () => {
     await openWorkbook(b);
     await goTo(b, 'C3');
-    await a.getByRole('listitem', { name: 'Ben Laszlo on C3' }).waitFor();
-    await goTo(a, 'A2');
-    await b.getByRole('listitem', { name: 'Ada Okafor on A2' }).waitFor();
+    await a.getByTestId('also-here').getByText('+1 here').waitFor();
+    await a.getByTestId('also-here').click();
+    const board = a.getByRole('dialog', { name: 'Team · Diatomic screening' });
+    await board.getByTestId(/^now-at-/).getByText('Sheet1!C3').waitFor();
+    await board.getByRole('columnheader', { name: /^Sheet1 · 1 here$/ }).waitFor();
+    await board.getByRole('button', { name: 'Close' }).click();
   });
 
   it('shows an edit made in one window in the other, computed there too', async () => {
@@ -181,7 +185,7 @@ describe('two people on one workbook', () => {
     await typeInto(b, 'A1', 'Ion');
     expect(await cell(b, 'A1').textContent()).toBe('Species');
     await goTo(b, 'A1');
-    await b.getByText('Read-only: Protected range A1:C1: only Ada Okafor may change it.').waitFor();
+    await b.getByText('View only — A1:C1 is protected by Ada Okafor. Editors of the range: Ada Okafor.').first().waitFor();
     // The owner, named on the range, still edits it.
     await typeInto(a, 'C1', 'Notes');
     await cell(b, 'C1').getByText('Notes', { exact: true }).waitFor();
@@ -198,17 +202,31 @@ describe('two people on one workbook', () => {
 
     await b.getByRole('status', { name: 'Sheet protection' }).getByText(/Locked by Ada Okafor on .*: “Reference values checked against the tables”/).waitFor();
     // The tab carries the lock too, with the banner's summary (who, when, why) on hover.
-    const lockedTab = b.getByRole('tab', { name: 'Sheet1 (locked)' });
-    expect(await lockedTab.getAttribute('title')).toMatch(/^Locked by Ada Okafor on .*: “Reference values checked against the tables”\. Only Ada Okafor may change it; it is read-only for you\./);
+    const lockedTab = b.getByRole('tab', { name: 'Sheet1 (locked, view only for you)' });
+    const why = 'View only — Ada Okafor locked this sheet: “Reference values checked against the tables”. Editors here: Ada Okafor.';
+    expect(await lockedTab.getAttribute('title')).toMatch(new RegExp(`^${why.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')}`));
     expect(await cell(b, 'E9').getAttribute('class')).toContain('dsg-cell-disabled');
+    // Typing into a read-only cell says why, instead of being silently ignored.
     await typeInto(b, 'E9', 'CN-');
     expect(await cell(b, 'E9').textContent()).toBe('');
-    // Rows too: refused in the grid with the lock's reason, nothing shown that the server would refuse.
+    expect(await b.getByTestId('sheet-message').textContent()).toContain(why);
+    // Rows too: the tools are disabled before anyone clicks, with the lock's reason on hover.
     const a2 = await cell(b, 'A2').textContent();
     await goTo(b, 'A2');
-    await b.getByRole('button', { name: '+ Row' }).click();
-    await b.getByTestId('sheet-message').getByText('Rows not inserted: Sheet locked by Ada Okafor: Reference values checked against the tables.', { exact: false }).waitFor();
+    const insertRow = b.getByRole('button', { name: '+ Row' });
+    expect(await insertRow.isDisabled()).toBe(true);
+    expect(await insertRow.getAttribute('title')).toContain(why);
     expect(await cell(b, 'A2').textContent()).toBe(a2);
+    // Deleting or renaming the tab would be refused: disabled, saying why.
+    const del = b.getByRole('button', { name: 'Delete', exact: true });
+    expect([await del.isDisabled(), await del.getAttribute('title')]).toEqual([true, why]);
+    // Unlocking would be refused (an editor lifts only locks on sheets they created): disabled, saying why.
+    await b.getByRole('button', { name: 'Protect', exact: true }).click();
+    const theirs = b.getByRole('dialog', { name: 'Protect “Sheet1”' });
+    const unlock = theirs.getByRole('button', { name: 'Unlock' });
+    expect(await unlock.isDisabled()).toBe(true);
+    expect(await unlock.locator('xpath=..').getAttribute('title')).toMatch(/only on sheets you created, and "Sheet1" is someone else's/);
+    await theirs.getByRole('button', { name: 'Done' }).click();
     expect(await saveState(b).getAttribute('data-state')).toBe('saved');
     await screenshot(b, 'team-locked-sheet-other-window');
     expect(editor.errors).toEqual([]);
@@ -218,16 +236,17 @@ describe('two people on one workbook', () => {
     await dialog.getByLabel('Why lock it?').waitFor();
     await dialog.getByRole('button', { name: 'Done' }).click();
     await b.getByText(/Protected range A1:C1: greyed cells/).waitFor();
+    await b.getByRole('button', { name: 'Rename', exact: true }).and(b.locator(':not([disabled])')).waitFor();
     await b.getByRole('tab', { name: 'Sheet1', exact: true }).waitFor();
     expect(await cell(b, 'E9').getAttribute('class')).not.toContain('dsg-cell-disabled');
   });
 
   it('makes the grid read-only at once when the owner makes an editor a viewer', async () => {
-    await a.getByRole('button', { name: 'Share', exact: true }).click();
-    const dialog = a.getByRole('dialog', { name: 'Share “Diatomic screening”' });
-    await dialog.getByLabel('Role of Ben Laszlo').selectOption('viewer');
+    await a.getByRole('button', { name: 'Team', exact: true }).click();
+    const dialog = a.getByRole('dialog', { name: 'Team · Diatomic screening' });
+    await dialog.getByLabel('Workbook role of Ben Laszlo').selectOption('viewer');
     await b.getByText('read-only', { exact: true }).waitFor();
-    await dialog.getByRole('button', { name: 'Done' }).click();
+    await dialog.getByRole('button', { name: 'Close' }).click();
     expect(await cell(b, 'D7').getAttribute('class')).toContain('dsg-cell-disabled');
     await typeInto(b, 'D7', 'O2-');
     expect(await cell(b, 'D7').textContent()).toBe('');
@@ -235,6 +254,49 @@ describe('two people on one workbook', () => {
     await expect(b.getByRole('button', { name: 'Change log' }).isVisible()).resolves.toBe(true);
     await expect(b.getByRole('button', { name: 'Export' }).isVisible()).resolves.toBe(true); // viewers export too
     await screenshot(b, 'team-viewer-read-only');
+  });
+
+  it('lets the owner give a viewer one sheet on the team board: that tab opens to them, the others stay greyed and refuse', async () => {
+    const { sheet } = await call(owner.context.request, 'POST', `/workbooks/${workbookId}/sheets`, { name: 'Measurements' });
+    await a.getByRole('tab', { name: 'Measurements' }).waitFor();
+    await a.getByRole('button', { name: 'Team', exact: true }).click();
+    const dialog = a.getByRole('dialog', { name: 'Team · Diatomic screening' });
+    const cellRole = dialog.getByLabel('Ben Laszlo on Measurements');
+    await cellRole.selectOption('editor');
+    await dialog.getByLabel('Ben Laszlo on Measurements').and(a.locator('[title^="Edits — set on this sheet by Ada Okafor"]')).waitFor();
+    await screenshot(a, 'team-panel');
+    await dialog.getByRole('button', { name: 'Close' }).click();
+
+    // Ben, still a workbook viewer: Measurements opens to him, Sheet1 is marked view-only with why.
+    await b.getByRole('tab', { name: 'Measurements', exact: true }).click();
+    await b.locator('[data-testid="sheet-grid"] .dsg-cell:not(.dsg-cell-disabled)').first().waitFor();
+    await typeInto(b, 'A1', 'Cp (J/mol/K)');
+    await saveState(b).and(b.locator('[data-state="saved"]')).waitFor();
+    await a.getByRole('tab', { name: 'Measurements', exact: true }).click();
+    await cell(a, 'A1').getByText('Cp (J/mol/K)', { exact: true }).waitFor();
+    const sheet1 = b.getByRole('tab', { name: 'Sheet1 (view only for you)' });
+    expect(await sheet1.getAttribute('title')).toContain('View only — you view this workbook; an owner can open a sheet to you in the team panel.');
+    await sheet1.click();
+    expect(await cell(b, 'D8').getAttribute('class')).toContain('dsg-cell-disabled');
+    await typeInto(b, 'D8', 'O3');
+    expect(await cell(b, 'D8').textContent()).toBe('');
+    await b.getByTestId('sheet-message').getByText('View only — you view this workbook; an owner can open a sheet to you in the team panel.').waitFor();
+    // Decimals on a sheet he only views: his screen only, no error, nothing saved.
+    await b.getByLabel('Decimal places').selectOption('2');
+    expect(await b.getByTestId('sheet-message').textContent()).not.toMatch(/not saved/);
+    await screenshot(b, 'team-sheet-role-other-window');
+
+    // The server agrees with the greying: his patch to Sheet1 is refused, naming the sheet.
+    const { sheets, revision } = await call(editor.context.request, 'GET', `/workbooks/${workbookId}`);
+    const res = await editor.context.request.fetch(`${server.url}/api/workbooks/${workbookId}/patches`, {
+      method: 'POST',
+      data: { baseRevision: revision, changes: [{ sheetId: sheets[0].id, row: 7, col: 3, input: 'O3' }] },
+      headers: { origin: server.url },
+    });
+    expect(res.status()).toBe(403);
+    expect((await res.json()).error.message).toMatch(/^Sheet1!D8 is on sheet "Sheet1": you are a viewer of sheet "Sheet1"/);
+    expect(sheet.id).toBe(sheets[1].id);
+    await a.getByRole('tab', { name: 'Sheet1', exact: true }).click();
   });
 
   it('lists changes with author, time and cells before → after, and brings the workbook back for everyone', async () => {
@@ -258,7 +320,7 @@ describe('two people on one workbook', () => {
   it('shows the owner the audit log of sharing, roles, protection and restores', async () => {
     await a.getByRole('button', { name: 'Audit' }).click();
     const log = a.getByRole('dialog', { name: 'Audit log' }).getByRole('list', { name: 'Audit entries' });
-    for (const line of [/added Ben Laszlo as an editor/, /invited cy@lab.example by e-mail as a viewer/, /protected A1:C1 on sheet “Sheet1”/, /Ada Okafor locked sheet “Sheet1”/, /changed Ben Laszlo from editor to viewer/, /restored revision #1/]) {
+    for (const line of [/added Ben Laszlo as an editor/, /invited cy@lab.example by e-mail as a viewer/, /protected A1:C1 on sheet “Sheet1”/, /Ada Okafor locked sheet “Sheet1”/, /changed Ben Laszlo from editor to viewer/, /made Ben Laszlo an editor on sheet “Measurements”/, /restored revision #1/]) {
       await log.getByText(line).waitFor();
     }
     await screenshot(a, 'team-audit-log');

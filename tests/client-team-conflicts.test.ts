@@ -153,5 +153,8 @@ describe('words on screen', () => {
     expect(describeAudit(entry('member.removed', { userId: 'gone', email: 'x@lab.example', role: 'viewer', left: false }), names)).toBe('removed x@lab.example (was a viewer)');
     expect(describeAudit(entry('sheet.locked', { sheetName: 'Reference', reason: 'checked', replaced: false }), names)).toBe('locked sheet “Reference”: “checked”');
     expect(describeAudit(entry('revision.restored', { restoredFrom: 3, revision: 9 }), names)).toBe('restored revision #3 as revision #9');
+    expect(describeAudit(entry('sheet.role_set', { userId: ben.id, sheetName: 'Measurements', role: 'editor', before: null }), names)).toBe('made Ben Laszlo an editor on sheet “Measurements”');
+    expect(describeAudit(entry('sheet.role_set', { userId: 'gone', name: 'Vic', sheetName: 'Settled', role: 'viewer', before: 'editor' }), names)).toBe('made Vic a viewer on sheet “Settled” (was an editor there)');
+    expect(describeAudit(entry('sheet.role_removed', { userId: ben.id, sheetName: 'Settled' }), names)).toBe('set Ben Laszlo back to their workbook role on sheet “Settled”');
   });
 });

@@ -3,7 +3,7 @@
 // revisions applied in order exactly once, and presence throttling. Conflicts, history and the audit
 // log's words are in client-team-conflicts.test.ts.
 import { beforeEach, describe, expect, it, vi } from 'vitest';
-import type { Protection, ProtectedRange, SheetLock } from '../shared/team.js';
+import type { Protection, ProtectedRange } from '../shared/team.js';
 import type { WorkbookModel } from '../src/core/workbook/model/workbookModel.js';
 import { blockReason, editRuleFor, isCellEditable } from '../src/core/team/editability.js';
 import { applyRemoteRevision, planCellChanges, type RemoteRevision } from '../src/features/live/remoteRevision.js';
@@ -18,45 +18,51 @@ const cy = { id: 'u-cy', name: 'Cy Moreau' };
 function range(text: string, editors: { id: string; name: string }[], sheetId = 's1'): ProtectedRange {
   return { id: `r-${text}`, sheetId, range: text, bounds: parseCellRange(text)!, editors, createdBy: editors[0], createdAt: 0 };
 }
-const lock = (sheetId: string, editors: { id: string; name: string }[], reason = 'values checked'): SheetLock => ({ sheetId, lockedBy: editors[0], reason, editors, createdAt: 0 });
+/** A locked sheet as the server sends it: the lock, and its editors as the sheet's editor roles. */
+const locked = (sheetId: string, editors: { id: string; name: string }[], reason = 'values checked'): Pick<Protection, 'locks' | 'sheetRoles'> => ({
+  locks: [{ sheetId, lockedBy: editors[0], reason, editors, createdAt: 0 }],
+  sheetRoles: [{ sheetId, overrides: editors.map((user) => ({ user, role: 'editor' as const, setBy: editors[0], viaLock: true, since: 0 })) }],
+});
+/** Workbook editors, as the people of these tests are. */
+const as = (person: { id: string }) => ({ id: person.id, role: 'editor' as const });
 
 describe('protected ranges and sheet locks in the grid', () => {
-  const header: Protection = { locks: [], protectedRanges: [range('A1:C1', [ada, ben])] };
+  const header: Protection = { locks: [], sheetRoles: [], protectedRanges: [range('A1:C1', [ada, ben])] };
 
   it('keeps everyone but the named editors out of every cell of A1:C1, and only those cells', () => {
     for (const col of [0, 1, 2]) {
-      expect(isCellEditable(header, cy.id, 's1', 0, col)).toBe(false);
-      expect(isCellEditable(header, ben.id, 's1', 0, col)).toBe(true);
+      expect(isCellEditable(header, as(cy), 's1', 0, col)).toBe(false);
+      expect(isCellEditable(header, as(ben), 's1', 0, col)).toBe(true);
     }
-    expect(isCellEditable(header, cy.id, 's1', 0, 3)).toBe(true); // D1: just outside
-    expect(isCellEditable(header, cy.id, 's1', 1, 0)).toBe(true); // A2: the row below
-    expect(isCellEditable(header, cy.id, 's2', 0, 0)).toBe(true); // the same address on another sheet
+    expect(isCellEditable(header, as(cy), 's1', 0, 3)).toBe(true); // D1: just outside
+    expect(isCellEditable(header, as(cy), 's1', 1, 0)).toBe(true); // A2: the row below
+    expect(isCellEditable(header, as(cy), 's2', 0, 0)).toBe(true); // the same address on another sheet
   });
 
   it('treats whole columns (B:C) and whole rows (2:3) as reaching the edge of the grid', () => {
-    const p: Protection = { locks: [], protectedRanges: [range('B:C', [ada]), range('2:3', [ada])] };
-    expect(isCellEditable(p, cy.id, 's1', 999_999, 2)).toBe(false); // C1000000
-    expect(isCellEditable(p, cy.id, 's1', 0, 3)).toBe(true); // D1
-    expect(isCellEditable(p, cy.id, 's1', 2, 1_999)).toBe(false); // row 3, last column
-    expect(isCellEditable(p, cy.id, 's1', 3, 0)).toBe(true); // A4
+    const p: Protection = { locks: [], sheetRoles: [], protectedRanges: [range('B:C', [ada]), range('2:3', [ada])] };
+    expect(isCellEditable(p, as(cy), 's1', 999_999, 2)).toBe(false); // C1000000
+    expect(isCellEditable(p, as(cy), 's1', 0, 3)).toBe(true); // D1
+    expect(isCellEditable(p, as(cy), 's1', 2, 1_999)).toBe(false); // row 3, last column
+    expect(isCellEditable(p, as(cy), 's1', 3, 0)).toBe(true); // A4
   });
 
   it('locks a whole sheet against all but the people on the lock, whatever the ranges say', () => {
-    const p: Protection = { locks: [lock('s1', [ada])], protectedRanges: [range('A1', [ada, cy])] };
-    expect(isCellEditable(p, cy.id, 's1', 0, 0)).toBe(false);
-    expect(isCellEditable(p, cy.id, 's1', 500, 40)).toBe(false);
-    expect(isCellEditable(p, ada.id, 's1', 500, 40)).toBe(true);
-    expect(isCellEditable(p, cy.id, 's2', 0, 0)).toBe(true);
+    const p: Protection = { ...locked('s1', [ada]), protectedRanges: [range('A1', [ada, cy])] };
+    expect(isCellEditable(p, as(cy), 's1', 0, 0)).toBe(false);
+    expect(isCellEditable(p, as(cy), 's1', 500, 40)).toBe(false);
+    expect(isCellEditable(p, as(ada), 's1', 500, 40)).toBe(true);
+    expect(isCellEditable(p, as(cy), 's2', 0, 0)).toBe(true);
   });
 
   it('gives the greyed cell a reason naming who locked it, why, and who may still edit', () => {
-    const rule = editRuleFor({ locks: [lock('s1', [ada, ben], 'reference values, do not touch')], protectedRanges: [] }, cy.id)!;
-    expect(rule('s1', 4, 4)).toBe('Sheet locked by Ada Okafor: reference values, do not touch. Only Ada Okafor, Ben Laszlo may change it.');
-    expect(blockReason({ kind: 'range', range: range('A1:C1', [ada]) })).toBe('Protected range A1:C1: only Ada Okafor may change it.');
+    const rule = editRuleFor({ ...locked('s1', [ada, ben], 'reference values, do not touch'), protectedRanges: [] }, as(cy))!;
+    expect(rule('s1', 4, 4)).toBe('View only — Ada Okafor locked this sheet: “reference values, do not touch”. Editors here: Ada Okafor, Ben Laszlo.');
+    expect(blockReason({ kind: 'range', range: range('A1:C1', [ada]) })).toBe('View only — A1:C1 is protected by Ada Okafor. Editors of the range: Ada Okafor.');
   });
 
   it('hands the grid no rule at all when nothing is protected (no per-cell cost)', () => {
-    expect(editRuleFor({ locks: [], protectedRanges: [] }, cy.id)).toBeNull();
+    expect(editRuleFor({ locks: [], sheetRoles: [], protectedRanges: [] }, as(cy))).toBeNull();
   });
 });
 
@@ -215,3 +221,43 @@ describe('presence throttling', () => {
   });
 });
 
+
+// ---- the rule for a member's role on one sheet ----
+
+import { effectiveSheetRole } from '../shared/permissions.js';
+
+describe("a member's role on a sheet", () => {
+  // Written out by hand from the rule as the team agreed it: an override wins either way; otherwise a
+  // workbook viewer views, a lock makes everyone else a viewer, and the workbook role holds.
+  //               workbook role  locked  override   → role, source
+  const table: [('owner' | 'editor' | 'viewer' | null), boolean, ('editor' | 'viewer' | null), string, string][] = [
+    ['owner', false, null, 'editor', 'workbook'],
+    ['owner', true, null, 'viewer', 'lock'],
+    ['owner', true, 'editor', 'editor', 'override'],
+    ['editor', false, null, 'editor', 'workbook'],
+    ['editor', false, 'viewer', 'viewer', 'override'],
+    ['editor', true, null, 'viewer', 'lock'],
+    ['editor', true, 'editor', 'editor', 'override'],
+    ['viewer', false, null, 'viewer', 'workbook'],
+    ['viewer', false, 'editor', 'editor', 'override'],
+    ['viewer', true, null, 'viewer', 'workbook'],
+    ['viewer', true, 'editor', 'editor', 'override'],
+    [null, false, null, 'viewer', 'workbook'], // a site admin looking in
+  ];
+  it.each(table)('%s, locked %s, override %s → %s (%s)', (role, locked, override, expectedRole, source) => {
+    expect(effectiveSheetRole(role, { locked, override })).toEqual({ role: expectedRole, source });
+  });
+
+  it('greys every cell of a sheet that makes a workbook editor its viewer, and opens one to a workbook viewer', () => {
+    const p: Protection = {
+      locks: [],
+      sheetRoles: [{ sheetId: 's1', overrides: [{ user: cy, role: 'viewer', setBy: ada, viaLock: false, since: 0 }, { user: ben, role: 'editor', setBy: ada, viaLock: false, since: 0 }] }],
+      protectedRanges: [],
+    };
+    expect(isCellEditable(p, { id: cy.id, role: 'editor' }, 's1', 3, 3)).toBe(false);
+    expect(isCellEditable(p, { id: cy.id, role: 'editor' }, 's2', 3, 3)).toBe(true);
+    expect(isCellEditable(p, { id: ben.id, role: 'viewer' }, 's1', 3, 3)).toBe(true);
+    expect(isCellEditable(p, { id: ben.id, role: 'viewer' }, 's2', 3, 3)).toBe(false);
+    expect(editRuleFor(p, { id: cy.id, role: 'editor' })!('s1', 0, 0)).toBe('View only — Ada Okafor made you a viewer of this sheet; an owner can change that in the team panel.');
+  });
+});

@@ -1,5 +1,5 @@
-// Upgrading a database made before 0001 (cells as a rowid table): the cells survive the rebuild as a
-// WITHOUT ROWID table, keep their key and foreign key, and a fresh database gets the same table.
+// Upgrading databases made by older releases: cells rebuilt WITHOUT ROWID (0001), verified
+// addresses (0002), sheet locks turned into sheet roles (0003).
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
@@ -8,6 +8,9 @@ import { drizzle } from 'drizzle-orm/better-sqlite3';
 import { migrate } from 'drizzle-orm/better-sqlite3/migrator';
 import { afterAll, describe, expect, it } from 'vitest';
 import { migrationsFolder, openDatabase } from '../server/db/index.js';
+import { loadProtection } from '../server/services/protection.js';
+import { editBlock } from '../shared/team.js';
+import type { WorkbookRole } from '../shared/permissions.js';
 
 const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'orbitab-migrations-'));
 afterAll(() => fs.rmSync(dir, { recursive: true, force: true }));
@@ -96,6 +99,86 @@ describe('migration 0002: verified addresses', () => {
       expect(byId.alone.email_verified_at).toBeNull(); // asked at the next sign-in
       expect(byId.ops.config_promoted_at).not.toBeNull(); // the operator's promotion already happened
       expect(byId.owner.email).toBe('ann@lab.test');
+    } finally {
+      db.$client.close();
+    }
+  });
+});
+
+describe('migration 0003: sheet locks become sheet roles', () => {
+  // Who could edit a cell before 0003, written out independently of the code under test: a
+  // workbook viewer never; on a locked sheet only those the lock listed; inside a protected range
+  // only those the range listed.
+  interface OldState {
+    roles: Record<string, string>;
+    locks: Record<string, string[]>;
+    ranges: { sheet: string; top: number; left: number; bottom: number; right: number; editors: string[] }[];
+  }
+  function couldEditBefore(s: OldState, user: string, sheet: string, row: number, col: number): boolean {
+    if (!s.roles[user] || s.roles[user] === 'viewer') return false;
+    if (s.locks[sheet] && !s.locks[sheet].includes(user)) return false;
+    return !s.ranges.some((r) => r.sheet === sheet && row >= r.top && row <= r.bottom && col >= r.left && col <= r.right && !r.editors.includes(user));
+  }
+
+  it('lets the same people edit the same cells, and keeps reasons and audit entries', () => {
+    const file = path.join(dir, 'locks.db');
+    const old = new Database(file);
+    old.pragma('foreign_keys = ON');
+    migrate(drizzle(old), { migrationsFolder: olderMigrations(3) });
+    const people = ['ann', 'bob', 'cara', 'dan', 'vic'];
+    old.exec(`insert into users (id, email, name, password_hash) values ${people.map((p) => `('${p}', '${p}@lab.test', '${p}', 'x')`).join(', ')}`);
+    old.exec(`insert into workbooks (id, title, owner_id) values ('w', 'Screen', 'ann')`);
+    // Dan was listed on a lock as an editor and made a viewer since: he could not edit, and must not now.
+    const state: OldState = {
+      roles: { ann: 'owner', bob: 'editor', cara: 'editor', dan: 'viewer', vic: 'viewer' },
+      locks: { settled: ['ann', 'bob'], bench: ['bob', 'dan'] },
+      ranges: [
+        { sheet: 'open', top: 0, left: 0, bottom: 1, right: 1, editors: ['ann', 'cara'] },
+        { sheet: 'bench', top: 2, left: 0, bottom: 2, right: 3, editors: ['bob'] },
+      ],
+    };
+    old.exec(`insert into workbook_members (workbook_id, user_id, role) values ${Object.entries(state.roles).map(([u, r]) => `('w', '${u}', '${r}')`).join(', ')}`);
+    old.exec(`insert into sheets (id, workbook_id, name, position, created_by) values ('settled', 'w', 'Settled', 0, 'ann'), ('open', 'w', 'Open', 1, 'ann'), ('bench', 'w', 'Bench', 2, 'bob')`);
+    old.exec(`insert into sheet_locks (sheet_id, locked_by, reason, editors, created_at) values
+      ('settled', 'ann', 'values checked against the handbook', '["ann","bob"]', 1000),
+      ('bench', 'bob', 'bench results pending review', '["bob","dan"]', 2000)`);
+    const insertRange = old.prepare('insert into protected_ranges (id, sheet_id, range, editors, created_by) values (?, ?, ?, ?, ?)');
+    insertRange.run('r1', 'open', 'A1:B2', JSON.stringify(['ann', 'cara']), 'ann');
+    insertRange.run('r2', 'bench', 'A3:D3', JSON.stringify(['bob']), 'bob');
+    old.exec(`insert into audit_log (workbook_id, actor_id, action, details) values ('w', 'ann', 'sheet.locked', '{"sheetId":"settled"}'), ('w', 'bob', 'sheet.locked', '{"sheetId":"bench"}')`);
+    old.close();
+
+    const db = openDatabase(file);
+    try {
+      const protection = loadProtection(db, 'w');
+      let compared = 0;
+      for (const user of people) {
+        for (const sheet of ['settled', 'open', 'bench']) {
+          for (let row = 0; row < 4; row++) {
+            for (let col = 0; col < 4; col++) {
+              const now = editBlock(protection, { id: user, role: state.roles[user] as WorkbookRole }, sheet, row, col) === null;
+              expect(now, `${user} on ${sheet} ${row},${col}`).toBe(couldEditBefore(state, user, sheet, row, col));
+              compared++;
+            }
+          }
+        }
+      }
+      expect(compared).toBe(5 * 3 * 16);
+      expect(protection.locks.map((l) => [l.sheetId, l.reason, l.lockedBy.id, l.editors.map((e) => e.id)])).toEqual([
+        ['settled', 'values checked against the handbook', 'ann', ['ann', 'bob']],
+        ['bench', 'bench results pending review', 'bob', ['bob']],
+      ]);
+      expect(protection.sheetRoles.flatMap((s) => s.overrides.map((o) => [s.sheetId, o.user.id, o.role, o.viaLock, o.setBy.id]))).toEqual([
+        ['settled', 'ann', 'editor', true, 'ann'],
+        ['settled', 'bob', 'editor', true, 'ann'],
+        ['bench', 'bob', 'editor', true, 'bob'],
+      ]);
+      expect(protection.protectedRanges.map((r) => [r.range, r.editors.map((e) => e.id)])).toEqual([
+        ['A1:B2', ['ann', 'cara']],
+        ['A3:D3', ['bob']],
+      ]);
+      expect((db.$client.prepare(`select count(*) n from audit_log where action = 'sheet.locked'`).get() as { n: number }).n).toBe(2);
+      expect(db.$client.pragma('integrity_check', { simple: true })).toBe('ok');
     } finally {
       db.$client.close();
     }

@@ -5,7 +5,7 @@
 import { allowedActions } from '../shared/permissions.js';
 import { beforeEach, describe, expect, it } from 'vitest';
 import { parseCellRange } from '../shared/cellRange.js';
-import type { Protection, ProtectedRange, SheetLock } from '../shared/team.js';
+import type { Protection, ProtectedRange } from '../shared/team.js';
 import type { WorkbookPayload } from '../shared/workbooks.js';
 import { applyStructural, StructureError, undoLast } from '../src/core/workbook/model/structure.js';
 import { fillDown, pasteBlock, sortRange } from '../src/core/workbook/model/rangeEdits.js';
@@ -17,7 +17,12 @@ const ada = { id: 'u-ada', name: 'Ada Okafor' };
 const cy = { id: 'u-cy', name: 'Cy Moreau' };
 
 const range = (text: string, sheetId = 's1'): ProtectedRange => ({ id: `r-${text}`, sheetId, range: text, bounds: parseCellRange(text)!, editors: [ada], createdBy: ada, createdAt: 0 });
-const lock = (sheetId: string): SheetLock => ({ sheetId, lockedBy: ada, reason: 'reference values checked', editors: [ada], createdAt: 0 });
+/** A sheet locked by Ada, who alone is named editor of it. */
+const locked = (sheetId: string): Pick<Protection, 'locks' | 'sheetRoles'> => ({
+  locks: [{ sheetId, lockedBy: ada, reason: 'reference values checked', editors: [ada], createdAt: 0 }],
+  sheetRoles: [{ sheetId, overrides: [{ user: ada, role: 'editor', setBy: ada, viaLock: true, since: 0 }] }],
+});
+const cyAsEditor = { id: cy.id, role: 'editor' as const };
 
 // N2 bond order 3, O2 bond order 2, F2 bond order 1 (Atkins & de Paula, Physical Chemistry, MO theory of diatomics; from memory).
 const payload: WorkbookPayload = {
@@ -36,8 +41,8 @@ let m: WorkbookModel;
 let sent: CellInput[][];
 /** Cy works under this protection (only Ada is named on every lock and range). */
 function protect(p: Protection) {
-  m.structureRule = structureRuleFor(p, cy.id);
-  m.setEditRule(editRuleFor(p, cy.id));
+  m.structureRule = structureRuleFor(p, cyAsEditor);
+  m.setEditRule(editRuleFor(p, cyAsEditor));
 }
 const inputsOf = (sheet: string) => [...m.sheet(sheet).inputs.entries()].sort((a, b) => a.row - b.row || a.col - b.col).map((e) => [e.row, e.col, e.input]);
 const shown = (sheet: string, row: number, col: number) => m.view(sheet, row, col)?.display ?? '';
@@ -65,28 +70,28 @@ function expectUntouched() {
 
 describe('rows and columns under protection', () => {
   it('refuses to insert a row on a sheet locked against me, giving who locked it and why', () => {
-    protect({ locks: [lock('s1')], protectedRanges: [] });
+    protect({ ...locked('s1'), protectedRanges: [] });
     expect(refusal(() => applyStructural(m, 's1', { axis: 'row', action: 'insert', at: 1, count: 1 }))).toBe(
-      'Sheet locked by Ada Okafor: reference values checked. Only Ada Okafor may change it.',
+      'View only — Ada Okafor locked this sheet: “reference values checked”. Editors here: Ada Okafor.',
     );
     expectUntouched();
     expect(m.history.canUndo).toBe(false);
   });
 
   it('refuses a row insert that would move cells of a protected range, and puts every sheet back', () => {
-    protect({ locks: [], protectedRanges: [range('A3:B3')] });
-    expect(refusal(() => applyStructural(m, 's1', { axis: 'row', action: 'insert', at: 1, count: 1 }))).toBe('Protected range A3:B3: only Ada Okafor may change it.');
+    protect({ locks: [], sheetRoles: [], protectedRanges: [range('A3:B3')] });
+    expect(refusal(() => applyStructural(m, 's1', { axis: 'row', action: 'insert', at: 1, count: 1 }))).toBe('View only — A3:B3 is protected by Ada Okafor. Editors of the range: Ada Okafor.');
     expectUntouched();
   });
 
   it('refuses a column delete whose rewritten formula sits in a protected range on another sheet', () => {
-    protect({ locks: [], protectedRanges: [range('A1', 's2')] });
-    expect(refusal(() => applyStructural(m, 's1', { axis: 'col', action: 'remove', at: 0, count: 1 }))).toBe('Protected range A1: only Ada Okafor may change it.');
+    protect({ locks: [], sheetRoles: [], protectedRanges: [range('A1', 's2')] });
+    expect(refusal(() => applyStructural(m, 's1', { axis: 'col', action: 'remove', at: 0, count: 1 }))).toBe('View only — A1 is protected by Ada Okafor. Editors of the range: Ada Okafor.');
     expectUntouched();
   });
 
   it('still inserts rows where nothing protected moves or changes', () => {
-    protect({ locks: [lock('s2')], protectedRanges: [range('A1:B1')] });
+    protect({ ...locked('s2'), protectedRanges: [range('A1:B1')] });
     applyStructural(m, 's1', { axis: 'row', action: 'insert', at: 4, count: 2 });
     expect(sent).toHaveLength(0); // below the used rows: no input moved
     applyStructural(m, 's1', { axis: 'row', action: 'insert', at: 3, count: 1 });
@@ -96,23 +101,23 @@ describe('rows and columns under protection', () => {
 
   it('keeps an undo that a lock refused, to be undone once the lock is lifted', () => {
     applyStructural(m, 's1', { axis: 'row', action: 'insert', at: 1, count: 1 });
-    protect({ locks: [lock('s1')], protectedRanges: [] });
-    expect(refusal(() => undoLast(m))).toMatch(/^Sheet locked by Ada Okafor/);
+    protect({ ...locked('s1'), protectedRanges: [] });
+    expect(refusal(() => undoLast(m))).toMatch(/^View only — Ada Okafor locked this sheet/);
     expect([m.history.canUndo, m.history.canRedo]).toEqual([true, false]);
-    protect({ locks: [], protectedRanges: [] });
+    protect({ locks: [], sheetRoles: [], protectedRanges: [] });
     expect(undoLast(m)).toBe(true);
     expect(inputsOf('s1')).toEqual(payload.sheets[0].cells);
   });
 });
 
 describe('fill, sort and paste under protection change every cell or none', () => {
-  beforeEach(() => protect({ locks: [], protectedRanges: [range('A3')] }));
+  beforeEach(() => protect({ locks: [], sheetRoles: [], protectedRanges: [range('A3')] }));
 
   it('does not sort a block when one protected cell in it would change', () => {
-    protect({ locks: [], protectedRanges: [range('A2')] });
+    protect({ locks: [], sheetRoles: [], protectedRanges: [range('A2')] });
     const outcome = sortRange(m, 's1', { top: 1, bottom: 3, left: 0, right: 1 }, 1, 'ascending'); // F2, O2, N2
     expect(outcome.applied).toEqual([]);
-    expect(outcome.refused[0].reason).toBe('Protected range A2: only Ada Okafor may change it.');
+    expect(outcome.refused[0].reason).toBe('View only — A2 is protected by Ada Okafor. Editors of the range: Ada Okafor.');
     expectUntouched();
   });
 

@@ -86,7 +86,7 @@ describe('sheet locks', () => {
     const ownId = own.body.sheet.id as string;
     const notTheirs = await t.editor.agent.put(`/api/workbooks/${wb.id}/sheets/${sheet}/lock`).send({ reason: 'mine' });
     expect(notTheirs.status).toBe(403);
-    expect(notTheirs.body.error.message).toBe('as an editor you can lock or protect only sheets you created, and "Sheet1" is someone else\'s; ask an owner');
+    expect(notTheirs.body.error.message).toBe('as an editor you can lock, protect or give roles only on sheets you created, and "Sheet1" is someone else\'s; ask an owner');
     await t.editor.agent.put(`/api/workbooks/${wb.id}/sheets/${ownId}/lock`).send({ reason: 'still measuring' }).expect(200);
     expect((await edit(t.editor2.agent, wb, 0, 0, '1', 1, ownId)).status).toBe(403);
     await t.owner.agent.delete(`/api/workbooks/${wb.id}/sheets/${ownId}/lock`).expect(204);
@@ -102,8 +102,25 @@ describe('sheet locks', () => {
     const stranger = await t.owner.agent.put(`/api/workbooks/${wb.id}/sheets/${sheet}/lock`).send({ reason: 'x', editors: [t.outsider.user.id] });
     expect(stranger.status).toBe(400);
     expect(stranger.body.error.message).toBe(`editors.0: user ${t.outsider.user.id} is not a member of this workbook`);
-    const viewerAsEditor = await t.owner.agent.put(`/api/workbooks/${wb.id}/sheets/${sheet}/lock`).send({ reason: 'x', editors: [t.viewer.user.id] });
-    expect(viewerAsEditor.body.error.message).toBe('editors.0: Vic Viewer is a viewer and cannot edit; make them an editor first');
+  });
+
+  it('lets a workbook viewer named on a lock edit that sheet, as a sheet role, and nothing else', async () => {
+    const other = (await t.owner.agent.post(`/api/workbooks/${wb.id}/sheets`).send({ name: 'Other' }).expect(201)).body.sheet.id as string;
+    await t.owner.agent.put(`/api/workbooks/${wb.id}/sheets/${sheet}/lock`).send({ reason: 'measured', editors: [t.viewer.user.id] }).expect(200);
+    const rev = (await load(t.owner.agent, wb.id)).revision;
+    await t.viewer.agent.post(`/api/workbooks/${wb.id}/patches`).send({ baseRevision: rev, changes: [{ sheetId: sheet, row: 3, col: 0, input: 'NO' }] }).expect(200);
+    const elsewhere = await t.viewer.agent.post(`/api/workbooks/${wb.id}/patches`).send({ baseRevision: rev + 1, changes: [{ sheetId: other, row: 0, col: 0, input: 'NO' }] });
+    expect(elsewhere.status).toBe(403);
+    expect(elsewhere.body.error.message).toMatch(/^Other!A1 is on sheet "Other": you are a viewer of sheet "Other" \(your role in this workbook\)/);
+    const roles = (await t.viewer.agent.get(`/api/workbooks/${wb.id}/sheets/${sheet}/roles`).expect(200)).body;
+    expect(roles.overrides.map((o: { user: { name: string }; role: string; viaLock: boolean }) => [o.user.name, o.role, o.viaLock]).sort()).toEqual([
+      ['Ann Analyst', 'editor', true],
+      ['Vic Viewer', 'editor', true],
+    ]);
+    // Lifting the lock takes away what it named: the viewer views again.
+    await t.owner.agent.delete(`/api/workbooks/${wb.id}/sheets/${sheet}/lock`).expect(204);
+    const after = await t.viewer.agent.post(`/api/workbooks/${wb.id}/patches`).send({ baseRevision: rev + 1, changes: [{ sheetId: sheet, row: 4, col: 0, input: 'NO' }] });
+    expect(after.status).toBe(403);
   });
 
   it('holds against a restore by someone not on the lock', async () => {

@@ -2,7 +2,7 @@
 import { sql } from 'drizzle-orm';
 import { index, integer, primaryKey, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
 import { siteRoles } from '../../shared/auth.js';
-import { workbookRoles } from '../../shared/permissions.js';
+import { sheetRoleNames, workbookRoles } from '../../shared/permissions.js';
 import { grantableRoles } from '../../shared/team.js';
 import type { RevisionPatch, SheetSettings } from '../../shared/workbooks.js';
 
@@ -111,14 +111,31 @@ export const revisions = sqliteTable(
   (t) => [primaryKey({ columns: [t.workbookId, t.number] })],
 );
 
+/**
+ * A locked sheet: everyone is a viewer of it except the members `sheet_roles` names editor. The lock
+ * itself keeps only who closed it, when and why.
+ */
 export const sheetLocks = sqliteTable('sheet_locks', {
   sheetId: text('sheet_id').primaryKey().references(() => sheets.id, { onDelete: 'cascade' }),
   lockedBy: text('locked_by').notNull().references(() => users.id),
   reason: text('reason').notNull(),
-  /** JSON array of user ids who may still edit the sheet (the locker is always one). */
-  editors: text('editors', { mode: 'json' }).$type<string[]>().notNull().default([]),
   createdAt: integer('created_at').notNull().default(now),
 });
+
+/** A member's role on one sheet, overriding their workbook role in either direction. */
+export const sheetRoles = sqliteTable(
+  'sheet_roles',
+  {
+    sheetId: text('sheet_id').notNull().references(() => sheets.id, { onDelete: 'cascade' }),
+    userId: text('user_id').notNull().references(() => users.id, { onDelete: 'cascade' }),
+    role: text('role', { enum: sheetRoleNames }).notNull(),
+    /** Named by the sheet's lock: lifting or replacing the lock takes it away. */
+    viaLock: integer('via_lock', { mode: 'boolean' }).notNull().default(false),
+    setBy: text('set_by').notNull().references(() => users.id),
+    createdAt: integer('created_at').notNull().default(now),
+  },
+  (t) => [primaryKey({ columns: [t.sheetId, t.userId] }), index('sheet_roles_user_idx').on(t.userId)],
+);
 
 export const protectedRanges = sqliteTable(
   'protected_ranges',

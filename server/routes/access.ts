@@ -29,11 +29,13 @@ export interface AccessOptions {
    * Where the workbook id comes from; by default the :id path parameter. Returning undefined means
    * the request names no workbook (an import into a new one), and nothing is checked.
    *
-   * Per-sheet rules plug in beside this: an option such as `sheet: (req) => idParam(req, 'sheetId')`
-   * whose id the middleware passes on to services/access.ts, which then decides with the user's
-   * role on that sheet as well as in the workbook. Routes stay as they are.
    */
   workbookId?: (req: Request) => string | undefined;
+  /**
+   * The sheet the route acts on: services/access.ts then decides with the user's role on that sheet
+   * as well as in the workbook (404 for a sheet of another workbook, 403 when they only view it).
+   */
+  sheet?: (req: Request) => string;
 }
 
 const workbookParams = z.object({ id: idSchema });
@@ -46,7 +48,7 @@ export function accessMiddleware(ctx: AppContext) {
       const user = currentUser(res);
       const workbookId = options.workbookId ? options.workbookId(req) : parse(workbookParams, req.params, 'params').id;
       if (workbookId === undefined) return next();
-      res.locals.access = requireWorkbook(ctx, user, workbookId, typeof rule === 'function' ? rule(req, user) : rule);
+      res.locals.access = requireWorkbook(ctx, user, workbookId, typeof rule === 'function' ? rule(req, user) : rule, { sheetId: options.sheet?.(req) });
       next();
     };
     accessChecks.add(check);

@@ -1,7 +1,7 @@
 // /api/workbooks: workbooks, tabs, patches, history and computed values. Every route under /:id
 // starts with access(action) (routes/access.ts), then validates its params and body with zod and
 // calls one service.
-import { Router } from 'express';
+import { Router, type Request } from 'express';
 import { z } from 'zod';
 import {
   createSheetSchema,
@@ -23,7 +23,7 @@ import { getRevision, listRevisions } from '../services/revisionLog.js';
 import { addSheet, deleteSheet, updateSheet } from '../services/sheetStore.js';
 import { workbookValues } from '../services/valuesInWorker.js';
 import { createWorkbookFor, deleteWorkbook, loadWorkbook, renameWorkbook, summarizeWorkbook } from '../services/workbookStore.js';
-import { accessMiddleware, accessOf, revisionNumberSchema } from './access.js';
+import { accessMiddleware, accessOf, idParam, revisionNumberSchema } from './access.js';
 
 const sheetParams = z.object({ id: idSchema, sheetId: idSchema });
 const revisionParams = z.object({ id: idSchema, n: revisionNumberSchema });
@@ -32,6 +32,8 @@ export function workbooksRouter(ctx: AppContext): Router {
   const router = Router();
   router.use(requireUser);
   const access = accessMiddleware(ctx);
+  // A tab's own routes: the workbook editor role, and the editor role on that sheet.
+  const onSheet = { sheet: (req: Request) => idParam(req, 'sheetId') };
 
   router.get('/', (_req, res) => {
     res.json({ workbooks: listVisibleWorkbooks(ctx, currentUser(res)) });
@@ -62,13 +64,13 @@ export function workbooksRouter(ctx: AppContext): Router {
     res.status(201).json(addSheet(ctx, accessOf(res).workbook.id, currentUser(res).id, body));
   });
 
-  router.patch('/:id/sheets/:sheetId', access('editSheets'), (req, res) => {
+  router.patch('/:id/sheets/:sheetId', access('editSheets', onSheet), (req, res) => {
     const { sheetId } = parse(sheetParams, req.params, 'params');
     const body = parse(updateSheetSchema, req.body);
     res.json(updateSheet(ctx, accessOf(res).workbook.id, sheetId, currentUser(res).id, body));
   });
 
-  router.delete('/:id/sheets/:sheetId', access('editSheets'), (req, res) => {
+  router.delete('/:id/sheets/:sheetId', access('editSheets', onSheet), (req, res) => {
     const { sheetId } = parse(sheetParams, req.params, 'params');
     res.json(deleteSheet(ctx, accessOf(res).workbook.id, sheetId, currentUser(res).id));
   });

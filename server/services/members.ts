@@ -9,7 +9,7 @@ import { users, workbookMembers, workbooks } from '../db/schema.js';
 import { conflict, notFound } from '../errors.js';
 import { recordAudit } from './audit.js';
 import type { Tx } from './cellStore.js';
-import { dropFromEditorLists } from './locks.js';
+import { dropFromEditorLists, dropLockNamesOf, publishProtection } from './locks.js';
 import { revokePendingFor } from './invitations.js';
 
 const roleOrder = sql`case ${workbookMembers.role} when 'owner' then 0 when 'editor' then 1 else 2 end`;
@@ -86,13 +86,19 @@ export function changeMemberRole(ctx: AppContext, workbookId: string, actorId: s
         return { member: requireMember(tx, workbookId, targetId), previousOwner: requireMember(tx, workbookId, actorId), changed: true };
       }
       setRole(tx, workbookId, targetId, role);
+      // Named on a lock as one of the editors who may still edit: a member made viewer no longer
+      // is (as before sheet roles). Roles set on a sheet one by one stay: they were set to differ.
+      if (role === 'viewer') dropLockNamesOf(tx, workbookId, targetId);
       revokePendingFor(tx, workbookId, actorId, target.user.email, 'member.role_changed');
       recordAudit(tx, workbookId, actorId, 'member.role_changed', { userId: targetId, from: target.role, to: role });
       return { member: requireMember(tx, workbookId, targetId), changed: true };
     },
     { behavior: 'immediate' },
   );
-  if (result.changed) announce(ctx, workbookId);
+  if (result.changed) {
+    announce(ctx, workbookId);
+    publishProtection(ctx, workbookId);
+  }
   return { member: result.member, ...(result.previousOwner ? { previousOwner: result.previousOwner } : {}) };
 }
 

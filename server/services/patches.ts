@@ -7,6 +7,7 @@ import { badRequest, conflict, HttpError } from '../errors.js';
 import { cellAddress } from '../../shared/a1.js';
 import { readCell, writeCell } from './cellStore.js';
 import { currentRevision, nextRevision, recordRevision } from './revisionLog.js';
+import { sheetActor } from './access.js';
 import { assertMayEditCells } from './protection.js';
 import { workbookSheets } from './sheetOps.js';
 
@@ -26,7 +27,7 @@ export function applyPatch(ctx: AppContext, workbookId: string, authorId: string
         if (!sheetNames.has(c.sheetId)) throw new HttpError(404, 'not_found', `changes.${i}.sheetId: sheet ${c.sheetId} not found in this workbook`);
       });
       // Locks and protected ranges, read in this transaction: refused before any conflict is looked at.
-      assertMayEditCells(tx, workbookId, authorId, input.changes, sheetNames);
+      assertMayEditCells(tx, workbookId, sheetActor(tx, workbookId, authorId), input.changes, sheetNames);
 
       const conflicts: CellConflict[] = [];
       const writes: CellChangeRecord[] = [];

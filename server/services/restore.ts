@@ -15,6 +15,8 @@ import { badRequest, notFound } from '../errors.js';
 import { sheetCells, writeCell, type Tx } from './cellStore.js';
 import { currentRevision, nextRevision, patchesAfter, recordRevision } from './revisionLog.js';
 import { recordAudit } from './audit.js';
+import type { SheetActor } from '../../shared/team.js';
+import { sheetActor } from './access.js';
 import { assertMayChangeSheet, assertMayEditCells } from './protection.js';
 import { applySheetOp, invertSheetOp, workbookSheets } from './sheetOps.js';
 
@@ -140,11 +142,14 @@ export function restoreRevision(ctx: AppContext, workbookId: string, authorId: s
       const model = loadModel(tx, workbookId);
       const rewrittenOnly = new Set<string>();
       const undoOps = undoLaterRevisions(tx, workbookId, model, target, rewrittenOnly);
-      if (sheetId !== undefined) return restoreOneSheet(ctx, tx, workbookId, authorId, target, model, sheetId, rewrittenOnly);
-      // A restore is an edit like any other: sheet locks and protected ranges hold against it too.
+      // A restore is an edit like any other: sheet roles, locks and protected ranges hold against it too.
+      // Decided with the author's role on each sheet: a restore that would change a sheet they only
+      // view is refused whole, naming the sheet, rather than applied in part.
+      const actor = sheetActor(tx, workbookId, authorId);
+      if (sheetId !== undefined) return restoreOneSheet(ctx, tx, workbookId, actor, target, model, sheetId, rewrittenOnly);
       const namesNow = new Map(workbookSheets(tx, workbookId).map((s) => [s.id, s.name]));
       for (const op of undoOps) {
-        if (op.op !== 'add' && namesNow.has(op.sheetId)) assertMayChangeSheet(tx, workbookId, authorId, op.sheetId, namesNow.get(op.sheetId)!, { deleting: op.op === 'delete' });
+        if (op.op !== 'add' && namesNow.has(op.sheetId)) assertMayChangeSheet(tx, workbookId, actor, op.sheetId, namesNow.get(op.sheetId)!, { deleting: op.op === 'delete' });
       }
 
       const revision = nextRevision(tx, workbookId);
@@ -156,7 +161,7 @@ export function restoreRevision(ctx: AppContext, workbookId: string, authorId: s
       const sheetOps = undoOps.map((op) => applySheetOp(tx, workbookId, op.op === 'add' ? { ...op, cells: [] } : op, revision, authorId, rewrites));
       const differences = model.order.flatMap((id) => cellDifferences(tx, model.sheets.get(id)!));
       const userLevel = differences.filter((c) => !rewrittenOnly.has(cellKey(c)));
-      assertMayEditCells(tx, workbookId, authorId, userLevel, new Map(workbookSheets(tx, workbookId).map((s) => [s.id, s.name])));
+      assertMayEditCells(tx, workbookId, actor, userLevel, new Map(workbookSheets(tx, workbookId).map((s) => [s.id, s.name])));
       for (const c of differences) writeCell(ctx.db, c.sheetId, c.row, c.col, c.after, revision);
       const changes = mergeChanges(rewrites, differences);
 
@@ -172,7 +177,7 @@ export function restoreRevision(ctx: AppContext, workbookId: string, authorId: s
 }
 
 /** One sheet back to its state in `model` (the workbook as of `target`); the rest is left alone. */
-function restoreOneSheet(ctx: AppContext, tx: Tx, workbookId: string, authorId: string, target: number, model: Model, sheetId: string, rewrittenOnly: Set<string>): { revision: number; patch: RevisionPatch } {
+function restoreOneSheet(ctx: AppContext, tx: Tx, workbookId: string, actor: SheetActor, target: number, model: Model, sheetId: string, rewrittenOnly: Set<string>): { revision: number; patch: RevisionPatch } {
   const now = workbookSheets(tx, workbookId).find((s) => s.id === sheetId);
   if (!now) throw notFound('sheet');
   const then = model.sheets.get(sheetId);
@@ -181,8 +186,9 @@ function restoreOneSheet(ctx: AppContext, tx: Tx, workbookId: string, authorId: 
   const settingsChanged = JSON.stringify(now.settings) !== JSON.stringify(then.settings);
   if (differences.length === 0 && !settingsChanged) throw badRequest(`sheet “${now.name}” is already as it was after revision ${target}; there is nothing to restore`);
   const names = new Map(workbookSheets(tx, workbookId).map((s) => [s.id, s.name]));
-  if (settingsChanged) assertMayChangeSheet(tx, workbookId, authorId, sheetId, now.name);
-  assertMayEditCells(tx, workbookId, authorId, differences.filter((c) => !rewrittenOnly.has(cellKey(c))), names);
+  const authorId = actor.id;
+  if (settingsChanged) assertMayChangeSheet(tx, workbookId, actor, sheetId, now.name);
+  assertMayEditCells(tx, workbookId, actor, differences.filter((c) => !rewrittenOnly.has(cellKey(c))), names);
 
   const revision = nextRevision(tx, workbookId);
   const rewrites: CellChangeRecord[] = [];

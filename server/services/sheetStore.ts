@@ -6,6 +6,7 @@ import type { AppContext } from '../context.js';
 import { badRequest, conflict, HttpError, notFound } from '../errors.js';
 import type { Tx } from './cellStore.js';
 import { currentRevision, nextRevision, recordRevision } from './revisionLog.js';
+import { sheetActor } from './access.js';
 import { assertMayChangeSheet } from './protection.js';
 import { applySheetOp, workbookSheets, type SheetRow } from './sheetOps.js';
 
@@ -49,7 +50,7 @@ function commit(ctx: AppContext, workbookId: string, userId: string, build: (tx:
 
 function sheetResult(ctx: AppContext, workbookId: string, sheetId: string, revision: number): SheetMutationResult {
   const sheet = sheetOf(workbookSheets(ctx.db, workbookId), sheetId);
-  return { revision, sheet: { id: sheet.id, name: sheet.name, position: sheet.position, settings: sheet.settings } };
+  return { revision, sheet: { id: sheet.id, name: sheet.name, position: sheet.position, settings: sheet.settings, createdBy: sheet.createdBy } };
 }
 
 export function addSheet(ctx: AppContext, workbookId: string, userId: string, input: CreateSheetInput): SheetMutationResult {
@@ -67,7 +68,7 @@ export function addSheet(ctx: AppContext, workbookId: string, userId: string, in
 export function updateSheet(ctx: AppContext, workbookId: string, sheetId: string, userId: string, input: UpdateSheetInput): SheetMutationResult {
   const { revision } = commit(ctx, workbookId, userId, (tx, all) => {
     const sheet = sheetOf(all, sheetId);
-    assertMayChangeSheet(tx, workbookId, userId, sheetId, sheet.name);
+    assertMayChangeSheet(tx, workbookId, sheetActor(tx, workbookId, userId), sheetId, sheet.name);
     const ops: SheetOp[] = [];
     if (input.name !== undefined && input.name !== sheet.name) {
       assertNameFree(all, input.name, sheetId);
@@ -89,7 +90,7 @@ export function updateSheet(ctx: AppContext, workbookId: string, sheetId: string
 export function deleteSheet(ctx: AppContext, workbookId: string, sheetId: string, userId: string): { revision: number } {
   const { revision } = commit(ctx, workbookId, userId, (tx, all) => {
     const sheet = sheetOf(all, sheetId);
-    assertMayChangeSheet(tx, workbookId, userId, sheetId, sheet.name, { deleting: true });
+    assertMayChangeSheet(tx, workbookId, sheetActor(tx, workbookId, userId), sheetId, sheet.name, { deleting: true });
     if (all.length === 1) throw conflict(`"${sheet.name}" is the only sheet; a workbook keeps at least one`);
     // name, position, settings and cells are filled in from the database when it is applied
     return [{ op: 'delete', sheetId, name: sheet.name, position: sheet.position, settings: {}, cells: [] }];

@@ -4,11 +4,10 @@
 // revision is the same before and after; when a commit slipped in between, it reads again, and the
 // last try is the one-transaction read.
 import { eq } from 'drizzle-orm';
-import { allowedActions } from '../../shared/permissions.js';
 import type { CellEntry, WorkbookPayload } from '../../shared/workbooks.js';
 import type { AppContext } from '../context.js';
 import { workbooks } from '../db/schema.js';
-import type { WorkbookAccess } from './access.js';
+import { actionsFor, mySheetRoles, type WorkbookAccess } from './access.js';
 import { loadProtection } from './protection.js';
 import { workbookSheets } from './sheetOps.js';
 import { loadWorkbook } from './workbookStore.js';
@@ -29,7 +28,17 @@ export async function loadWorkbookInSlices(ctx: AppContext, access: WorkbookAcce
     )
     .raw();
   for (let attempt = 0; attempt < TRIES - 1; attempt++) {
-    const before = ctx.db.transaction((tx) => ({ revision: tx.select({ revision: workbooks.revision }).from(workbooks).where(eq(workbooks.id, id)).get()?.revision, tabs: workbookSheets(tx, id), protection: loadProtection(tx, id) }));
+    const before = ctx.db.transaction((tx) => {
+      const tabs = workbookSheets(tx, id);
+      const protection = loadProtection(tx, id);
+      return {
+        revision: tx.select({ revision: workbooks.revision }).from(workbooks).where(eq(workbooks.id, id)).get()?.revision,
+        tabs,
+        protection,
+        actions: actionsFor(tx, id, access.userId, access.roles),
+        mySheetRoles: mySheetRoles(tx, id, access.userId, protection, tabs),
+      };
+    });
     const bySheet = new Map<string, CellEntry[]>(before.tabs.map((s) => [s.id, []]));
     let after: [string, number, number] = ['', -1, -1];
     for (;;) {
@@ -47,9 +56,10 @@ export async function loadWorkbookInSlices(ctx: AppContext, access: WorkbookAcce
       title: access.workbook.title,
       revision: before.revision,
       role: access.role,
-      actions: allowedActions(access.roles),
-      sheets: before.tabs.map((s) => ({ id: s.id, name: s.name, position: s.position, settings: s.settings, cells: bySheet.get(s.id) ?? [] })),
+      actions: before.actions,
+      sheets: before.tabs.map((s) => ({ id: s.id, name: s.name, position: s.position, settings: s.settings, cells: bySheet.get(s.id) ?? [], createdBy: s.createdBy })),
       ...before.protection,
+      mySheetRoles: before.mySheetRoles,
     };
   }
   return loadWorkbook(ctx, access);

@@ -1,13 +1,12 @@
 // Workbooks as wholes: create (with one empty "Sheet1"), load everything the client's engine needs,
 // rename, delete. Access is decided before these are called (services/access.ts).
-import { allowedActions } from '../../shared/permissions.js';
 import { randomUUID } from 'node:crypto';
 import { and, asc, eq, ne } from 'drizzle-orm';
 import type { User } from 'lucia';
 import type { CellEntry, WorkbookPayload, WorkbookSummary } from '../../shared/workbooks.js';
 import type { AppContext } from '../context.js';
 import { cells, sheets, users, workbookMembers, workbooks } from '../db/schema.js';
-import { requireWorkbook, type WorkbookAccess } from './access.js';
+import { actionsFor, mySheetRoles, requireWorkbook, type WorkbookAccess } from './access.js';
 import { loadProtection } from './protection.js';
 import { workbookSheets } from './sheetOps.js';
 
@@ -43,14 +42,16 @@ export function loadWorkbook(ctx: AppContext, access: WorkbookAccess): WorkbookP
       .orderBy(asc(cells.sheetId), asc(cells.row), asc(cells.col))
       .all();
     for (const c of rows) bySheet.get(c.sheetId)?.push([c.row, c.col, c.input]);
+    const protection = loadProtection(tx, workbook.id);
     return {
       id: workbook.id,
       title: workbook.title,
       revision,
       role: access.role,
-      actions: allowedActions(access.roles),
-      sheets: tabs.map((s) => ({ id: s.id, name: s.name, position: s.position, settings: s.settings, cells: bySheet.get(s.id) ?? [] })),
-      ...loadProtection(tx, workbook.id),
+      actions: actionsFor(tx, workbook.id, access.userId, access.roles),
+      sheets: tabs.map((s) => ({ id: s.id, name: s.name, position: s.position, settings: s.settings, cells: bySheet.get(s.id) ?? [], createdBy: s.createdBy })),
+      ...protection,
+      mySheetRoles: mySheetRoles(tx, workbook.id, access.userId, protection, tabs),
     };
   });
 }
@@ -63,7 +64,7 @@ export function summarizeWorkbook(ctx: AppContext, access: WorkbookAccess): Work
     .innerJoin(users, eq(users.id, workbooks.ownerId))
     .where(eq(workbooks.id, access.workbook.id))
     .get()!;
-  return { id: w.id, title: w.title, revision: w.revision, role: access.role, actions: allowedActions(access.roles), owner: { id: w.ownerId, name: w.ownerName }, createdAt: w.createdAt, updatedAt: w.updatedAt };
+  return { id: w.id, title: w.title, revision: w.revision, role: access.role, actions: actionsFor(ctx.db, w.id, access.userId, access.roles), owner: { id: w.ownerId, name: w.ownerName }, createdAt: w.createdAt, updatedAt: w.updatedAt };
 }
 
 /** A new title is not a content change: the revision stays as it is. */

@@ -1,5 +1,5 @@
 // Gathers what an export needs from the database: the workbook's sheets and cells (one consistent
-// snapshot), their locks and protected ranges with people's names, and who is exporting.
+// snapshot), their locks, sheet roles and protected ranges with people's names, and who is exporting.
 import type { User } from 'lucia';
 import type { AppContext } from '../context.js';
 import type { WorkbookAccess } from '../services/access.js';
@@ -19,11 +19,14 @@ export async function exportSource(ctx: AppContext, access: WorkbookAccess, user
     sheetIds: workbook.sheets.map((s) => s.id),
     sheets: workbook.sheets.map((s) => {
       const lock = protection.locks.find((l) => l.sheetId === s.id);
+      const set = (protection.sheetRoles.find((r) => r.sheetId === s.id)?.overrides ?? []).filter((o) => !o.viaLock);
+      const namesWith = (role: string) => set.filter((o) => o.role === role).map((o) => o.user.name);
       return {
         name: s.name,
         cells: s.cells,
         settings: s.settings,
         lock: lock ? { lockedByName: lock.lockedBy.name, reason: lock.reason, editorNames: lock.editors.map((e) => e.name) } : null,
+        sheetRoles: set.length ? { editorNames: namesWith('editor'), viewerNames: namesWith('viewer') } : null,
         protectedRanges: protection.protectedRanges.filter((r) => r.sheetId === s.id).map((r) => ({ range: r.range, editorNames: r.editors.map((e) => e.name) })),
       };
     }),

@@ -1,6 +1,8 @@
 // Writes an imported workbook into the database: every sheet added in one transaction as one
 // revision of kind 'import', recorded as sheet operations so history can show and undo it. Not pure:
 // this is the one file of the import that touches the database.
+import { sheetActor } from '../services/access.js';
+import { assertMayChangeSheet } from '../services/protection.js';
 import { randomUUID } from 'node:crypto';
 import type Database from 'better-sqlite3';
 import { cellInputProblem } from '../../shared/cellInput.js';
@@ -74,6 +76,7 @@ export function importSheets(ctx: AppContext, workbookId: string, userId: string
       const taken = new Set(kept.map((s) => s.name.toLowerCase()));
       const ops: SheetOp[] = [];
       const replaced = existing.find((s) => s.id === opts.replaceSheetId);
+      if (replaced) assertMayChangeSheet(tx, workbookId, sheetActor(tx, workbookId, userId), replaced.id, replaced.name, { deleting: true });
       if (replaced) ops.push({ op: 'delete', sheetId: replaced.id, name: replaced.name, position: replaced.position, settings: {}, cells: [] });
 
       const added: { id: string; name: string }[] = [];

@@ -1,7 +1,9 @@
-// Locks and protected ranges → sheet protection in the file, as far as the format (and exceljs) allow.
+// Sheet roles, locks and protected ranges → sheet protection in the file, as far as the format (and
+// exceljs) allow.
 // An .xlsx can protect a sheet and mark cells (or whole columns) locked or unlocked; permissions per
 // range are tied to a password or to Windows accounts, never to Orbitab users, and exceljs cannot
-// write them. So: a locked sheet → the whole sheet protected; protected ranges → the sheet protected
+// write them. So: a locked sheet, or one that makes some member a viewer → the whole sheet protected
+// (the file cannot say for whom); protected ranges → the sheet protected
 // with only those cells locked. No password is set: in a file this is a reminder of what was
 // settled, not a barrier.
 import type ExcelJS from 'exceljs';
@@ -42,8 +44,13 @@ function cellByCellRanges(ranges: CellBounds[]): Set<CellBounds> {
   return chosen;
 }
 
+/** Locked, or closed to some member by a sheet role: the file protects the whole sheet. */
+export function wholeSheetProtected(sheet: ExportSheet): boolean {
+  return Boolean(sheet.lock) || (sheet.sheetRoles?.viewerNames.length ?? 0) > 0;
+}
+
 export async function applyProtection(ws: ExcelJS.Worksheet, sheet: ExportSheet): Promise<CellProtectionPlan> {
-  if (sheet.lock) {
+  if (wholeSheetProtected(sheet)) {
     await ws.protect('', protectOptions);
     return { columnLocks: [], extraLockedCells: [] };
   }
@@ -71,12 +78,20 @@ export function describeProtection(fileName: string, sheet: ExportSheet): string
         'In this file the whole sheet is protected without a password: any spreadsheet program can lift it.',
     );
   }
+  const roles = sheet.sheetRoles;
+  if (roles && (roles.editorNames.length || roles.viewerNames.length)) {
+    const parts = [roles.editorNames.length ? `editor: ${roles.editorNames.join(', ')}` : '', roles.viewerNames.length ? `viewer: ${roles.viewerNames.join(', ')}` : ''].filter(Boolean);
+    const inFile = wholeSheetProtected(sheet)
+      ? 'In this file the whole sheet is protected without a password (the format cannot name Orbitab users): any spreadsheet program can lift it.'
+      : 'The file format cannot name Orbitab users, so this is not carried in the file.';
+    lines.push(`${fileName}: roles set on this sheet in Orbitab (${parts.join('; ')}). ${inFile}`);
+  }
   const cellByCell = cellByCellRanges(boundsOf(sheet));
   for (const p of sheet.protectedRanges ?? []) {
     const b = parseCellRange(p.range);
     let where: string;
     if (!b) where = 'its range could not be read, so it is not protected in this file';
-    else if (sheet.lock) where = 'the whole sheet is protected in this file';
+    else if (wholeSheetProtected(sheet)) where = 'the whole sheet is protected in this file';
     else if (wholeColumns(b) || [...cellByCell].some((c) => c.top === b.top && c.left === b.left && c.bottom === b.bottom && c.right === b.right)) {
       where = 'in this file its cells are locked for everyone (sheet protection without a password)';
     } else where = 'in this file its cells holding values are locked; its empty cells are not (the range is too large to write cell by cell)';

@@ -34,6 +34,12 @@ export interface ExportLock {
   editorNames: string[];
 }
 
+/** Roles set on the sheet one by one (a lock's own names are in ExportLock). */
+export interface ExportSheetRoles {
+  editorNames: string[];
+  viewerNames: string[];
+}
+
 export interface ExportProtectedRange {
   range: string;
   editorNames: string[];
@@ -44,6 +50,7 @@ export interface ExportSheet {
   cells: CellTriple[];
   settings: SheetSettings;
   lock?: ExportLock | null;
+  sheetRoles?: ExportSheetRoles | null;
   protectedRanges?: ExportProtectedRange[];
 }
 

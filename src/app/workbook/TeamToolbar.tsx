@@ -1,5 +1,5 @@
-// The team controls of an open workbook, in its title bar: who else is here, and Share, Protect,
-// Change log and Audit (each shown only to roles that can use it; the API checks again).
+// The team controls of an open workbook, in its title bar: whether it is live and how many are here,
+// and Team, Protect, Change log and Audit (each shown only to roles that can use it; the API checks again).
 import { useNavigate } from 'react-router';
 import { allows } from '@shared/permissions.js';
 import { Button } from '../../components/ui/Button.js';
@@ -7,8 +7,8 @@ import { AuditDialog } from '../../features/audit/AuditDialog.js';
 import type { WorkbookModel } from '../../core/workbook/model/workbookModel.js';
 import { HistoryDialog } from '../../features/history/HistoryDialog.js';
 import { ProtectDialog } from '../../features/locks/ProtectDialog.js';
-import { ShareDialog } from '../../features/sharing/ShareDialog.js';
-import { PresenceChips } from '../../features/live/PresenceChips.js';
+import { TeamPanel } from '../../features/sharing/TeamPanel.js';
+import { LiveIndicator } from '../../features/live/LiveIndicator.js';
 import type { WorkbookTeam } from '../../features/live/useWorkbookTeam.js';
 
 export function TeamToolbar({ team, model, activeSheet, selectionRange }: { team: WorkbookTeam; model: WorkbookModel; activeSheet: { id: string; name: string }; selectionRange?: string }) {
@@ -20,17 +20,11 @@ export function TeamToolbar({ team, model, activeSheet, selectionRange }: { team
     // A press here must not reach the grid, which clears its selection on any press outside it:
     // Protect starts from the selected range.
     <div className="flex items-center gap-1.5" data-grid-shield="" onMouseDown={(e) => e.stopPropagation()}>
-      <PresenceChips
-        users={team.live.presence}
-        myId={team.myId}
-        connection={team.live.connection}
-        activeSheetId={activeSheet.id}
-        sheetName={(id) => (model.hasSheet(id) ? model.sheet(id).name : null)}
-      />
+      <LiveIndicator users={team.live.presence} myId={team.myId} connection={team.live.connection} onShowTeam={isMember ? () => openDialog('team') : undefined} />
       <span aria-hidden="true" className="mx-1 h-4 w-px bg-line" />
       {isMember && (
-        <Button variant={allows(actions, 'manageMembers') ? 'primary' : 'secondary'} onClick={() => openDialog('share')}>
-          Share
+        <Button variant={allows(actions, 'manageMembers') ? 'primary' : 'secondary'} onClick={() => openDialog('team')}>
+          Team
         </Button>
       )}
       <Button variant="ghost" onClick={() => openDialog('protect')}>
@@ -47,15 +41,29 @@ export function TeamToolbar({ team, model, activeSheet, selectionRange }: { team
         </Button>
       )}
       {isMember && (
-        <ShareDialog open={dialog === 'share'} onClose={close} workbookId={model.id} title={model.title} actions={actions} myId={team.myId} onLeft={() => navigate('/', { replace: true })} />
+        <TeamPanel
+          open={dialog === 'team'}
+          onClose={close}
+          workbookId={model.id}
+          title={model.title}
+          role={role}
+          actions={actions}
+          myId={team.myId}
+          sheets={model.sheets.map((s) => ({ id: s.id, name: s.name, createdBy: s.createdBy }))}
+          protection={team.protection}
+          presence={team.live.presence}
+          onLeft={() => navigate('/', { replace: true })}
+        />
       )}
       <ProtectDialog
         open={dialog === 'protect'}
         onClose={close}
         workbookId={model.id}
-        sheet={activeSheet}
+        sheet={{ ...activeSheet, createdBy: model.hasSheet(activeSheet.id) ? model.sheet(activeSheet.id).createdBy : null }}
         protection={team.protection}
         actions={actions}
+        role={role}
+        me={team.me}
         myId={team.myId}
         suggestedRange={selectionRange}
       />

@@ -1,7 +1,7 @@
 // The open workbook: title and save state, toolbar, formula bar, the sheet, the side panel and the
 // sheet tabs. Holds the view state (active sheet, selection, filter, live column widths); the data
 // lives in the model.
-import { useEffect, useMemo, useRef, useState } from 'react';
+import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import type { DataSheetGridRef } from 'react-datasheet-grid';
 import { SafetyNote } from '../../features/diagram/SafetyNote.js';
 import { parseCellName } from '@shared/a1.js';
@@ -27,6 +27,8 @@ import { useFocusedCell } from './useFocusedCell.js';
 import { usePanelWidth } from './usePanelWidth.js';
 import { MessageStrip, WorkbookBar } from './WorkbookBar.js';
 import { useWorkbookTeam } from '../../features/live/useWorkbookTeam.js';
+import { sheetViewOnlyReason } from '../../core/team/editability.js';
+import { allows } from '@shared/permissions.js';
 
 function gridSelection(grid: DataSheetGridRef | null): ViewSelection | null {
   const s = grid?.selection;
@@ -57,7 +59,10 @@ export function Workspace({ session }: { session: WorkbookSession }) {
   const barRef = useRef<FormulaBarHandle>(null);
   const view = useSheetView(model, activeSheetId, display.freezeHeaderRow, filter);
 
-  const setDisplay = useDisplaySaver(session, activeSheetId, setMessage);
+  // A sheet I only view keeps my Decimals, Freeze and widths on this screen, unsaved and without complaint.
+  const viewOnlyHere = useRef<string | null>(null);
+  const keepDisplayLocal = useCallback(() => viewOnlyHere.current !== null, []);
+  const setDisplay = useDisplaySaver(session, activeSheetId, setMessage, keepDisplayLocal);
 
   const switchSheet = (id: string) => {
     setSheetId(id);
@@ -71,6 +76,11 @@ export function Workspace({ session }: { session: WorkbookSession }) {
 
   // Colleagues: live revisions, presence (my cursor), locks and protected ranges as the grid's edit rule.
   const team = useWorkbookTeam(session, focus ? { sheetId: activeSheetId, row: focus.row, col: focus.col } : null);
+  // Why this sheet is view-only for me (my workbook role, a sheet role or a lock), or null.
+  const sheetViewOnly = model.readOnly ? (sheetViewOnlyReason(team.protection, team.me, activeSheetId) ?? 'View only — you view this workbook.') : sheetViewOnlyReason(team.protection, team.me, activeSheetId);
+  viewOnlyHere.current = sheetViewOnly;
+  const tabRefusal = (id: string) =>
+    allows(team.actions, 'editSheets') ? sheetViewOnlyReason(team.protection, team.me, id) : 'View only — adding, renaming, moving and deleting sheets needs the editor role in this workbook.';
 
   const commands = useSheetCommands({
     session,
@@ -100,6 +110,8 @@ export function Workspace({ session }: { session: WorkbookSession }) {
     isFilled: (r, c) => (view.data[r]?.[c]?.display ?? '') !== '',
     frozenCol: () => frozenPick,
     hasFrozenRow: () => display.freezeHeaderRow,
+    readOnlyHere: () => (focus ? model.readOnlyReason(activeSheetId, focus.row, focus.col) : null),
+    onRefusedTyping: (reason) => setMessage(reason),
     pickFrozen: (col) => {
       if (col === null) {
         gridRef.current?.setActiveCell({ row: 0, col: frozenPick ?? 0 });
@@ -135,7 +147,8 @@ export function Workspace({ session }: { session: WorkbookSession }) {
       <WorkbookBar model={model} team={team} activeSheet={{ id: activeSheetId, name: sheet.name }} selectionRange={address || undefined} status={status} storageWorks={store.storageWorks} />
       <ConflictResolver session={session} status={status} onSetAside={team.addSetAside} />
       <Toolbar
-        canEdit={!model.readOnly}
+        canEdit={!model.readOnly && sheetViewOnly === null}
+        viewOnlyReason={sheetViewOnly}
         canUndo={model.history.canUndo}
         canRedo={model.history.canRedo}
         hasCell={selection !== null || frozenPick !== null}
@@ -177,7 +190,7 @@ export function Workspace({ session }: { session: WorkbookSession }) {
         onCommit={(input) => {
           if (!focus) return;
           const outcome = model.edit([{ sheetId: activeSheetId, row: focus.row, col: focus.col, input }]);
-          setMessage(outcome.refused[0] ? `Not changed: ${outcome.refused[0].reason}.` : null);
+          setMessage(outcome.refused[0] ? `${outcome.refused[0].reason} Nothing was changed.` : null);
           returnToGrid(true);
         }}
         onCancel={() => returnToGrid()}
@@ -230,7 +243,7 @@ export function Workspace({ session }: { session: WorkbookSession }) {
               const a = model.edit(changes);
               const b = fillPairs(model, activeSheetId, fills);
               const refused = [...a.refused, ...b.refused];
-              setMessage(refused.length ? `${refused.length} cell${refused.length === 1 ? '' : 's'} left unchanged: ${refused[0].reason}.` : null);
+              setMessage(refused.length ? `${refused[0].reason} ${refused.length} cell${refused.length === 1 ? '' : 's'} left as they were.` : null);
             }}
           />
         </div>
@@ -255,10 +268,10 @@ export function Workspace({ session }: { session: WorkbookSession }) {
       <SheetTabs
         sheets={sheets.map((s) => {
           const lock = team.protection.locks.find((l) => l.sheetId === s.id);
-          return { id: s.id, name: s.name, lock: lock && lockSummary(lock, team.myId) };
+          return { id: s.id, name: s.name, lock: lock && lockSummary(lock, team.myId), viewOnly: sheetViewOnlyReason(team.protection, team.me, s.id) ?? undefined, refusal: tabRefusal(s.id) ?? undefined };
         })}
         activeId={activeSheetId}
-        canEdit={!model.readOnly}
+        canEdit={allows(team.actions, 'editSheets')}
         onSelect={switchSheet}
         onAdd={async () => switchSheet(await addSheet(session))}
         onRename={(id, name) => renameSheet(session, id, name)}

@@ -6,8 +6,8 @@ import type { WorkbookPayload } from '@shared/workbooks.js';
 import { api, queryKeys } from '../../lib/api.js';
 import { noProtection } from './editability.js';
 
-export function protectionOf(payload: Pick<WorkbookPayload, 'locks' | 'protectedRanges'>): Protection {
-  return { locks: payload.locks ?? [], protectedRanges: payload.protectedRanges ?? [] };
+export function protectionOf(payload: Pick<WorkbookPayload, 'locks' | 'sheetRoles' | 'protectedRanges'>): Protection {
+  return { locks: payload.locks ?? [], sheetRoles: payload.sheetRoles ?? [], protectedRanges: payload.protectedRanges ?? [] };
 }
 
 export const protectionQueryOptions = (workbookId: string) =>

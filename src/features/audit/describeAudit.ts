@@ -31,6 +31,10 @@ export function describeAudit(entry: AuditEntry, nameOf: (userId: string) => str
       return `${d.replaced === true ? 'changed the lock of' : 'locked'} sheet “${text(d.sheetName)}”: “${text(d.reason)}”`;
     case 'sheet.unlocked':
       return `unlocked sheet “${text(d.sheetName)}” (locked for “${text(d.reason)}”)`;
+    case 'sheet.role_set':
+      return `made ${person(d.userId, d.name)} ${d.role === 'editor' ? 'an editor' : 'a viewer'} ${where}${d.before ? ` (was ${d.before === 'editor' ? 'an editor' : 'a viewer'} there)` : ''}`;
+    case 'sheet.role_removed':
+      return `set ${person(d.userId, d.name)} back to their workbook role ${where}`;
     case 'range.protected':
       return `protected ${text(d.range)} ${where}`;
     case 'range.unprotected':

@@ -86,7 +86,7 @@ export function applyRemoteRevision(model: WorkbookModel, queue: PatchQueue, rev
     switch (op.op) {
       case 'add':
         if (!model.hasSheet(op.sheetId)) {
-          model.addSheetState({ id: op.sheetId, name: op.name, position: op.position, settings: op.settings }, SheetInputs.from(op.cells));
+          model.addSheetState({ id: op.sheetId, name: op.name, position: op.position, settings: op.settings, createdBy: rev.authorId }, SheetInputs.from(op.cells));
           model.setPositions(reorder(order(), op.sheetId, op.position));
         }
         break;

@@ -5,23 +5,25 @@
 import { useMutation, useQuery } from '@tanstack/react-query';
 import { useCallback, useEffect, useRef, useState } from 'react';
 import type { AccessRole, WorkbookAction } from '@shared/permissions.js';
-import type { PresenceInput, Protection } from '@shared/team.js';
+import type { PresenceInput, Protection, SheetActor } from '@shared/team.js';
 import { api } from '../../lib/api.js';
 import { useMe } from '../../core/session/me.js';
 import type { KeyValueStorage } from '../../core/workbook/save/pendingStore.js';
 import { workbookQueryOptions } from '../../core/workbook/api.js';
 import type { WorkbookSession } from '../../core/workbook/session/useWorkbookSession.js';
 import { protectionOf, useProtection } from '../../core/team/protection.js';
-import { editRuleFor, structureRuleFor } from '../../core/team/editability.js';
+import { actorOf, editRuleFor, editsThroughSheetRole, structureRuleFor } from '../../core/team/editability.js';
 import type { SetAsideInput } from './conflictResolution.js';
 import { LatestThrottle } from './presenceThrottle.js';
 import { addSetAside, loadSetAside, saveSetAside } from './setAside.js';
 import { useLiveUpdates, type LiveState } from './useLiveUpdates.js';
 
-export type TeamDialog = 'share' | 'protect' | 'history' | 'audit' | null;
+export type TeamDialog = 'team' | 'protect' | 'history' | 'audit' | null;
 
 export interface WorkbookTeam {
   myId: string;
+  /** Me as sheet roles see me (id and membership role). */
+  me: SheetActor;
   role: AccessRole;
   /** What I may do here, as the server decided it. */
   actions: WorkbookAction[];
@@ -81,11 +83,18 @@ export function useWorkbookTeam(session: WorkbookSession, cursor: PresenceInput 
     onOrphaned: addToSetAside,
   });
 
+  const me = actorOf(myId, access.role);
+  const meRole = me.role;
   useEffect(() => {
-    // Cells, and rows and columns of a locked sheet, refuse edits for the same reasons the API gives.
-    model.structureRule = structureRuleFor(protection, myId);
-    model.setEditRule(editRuleFor(protection, myId));
-  }, [model, protection, myId]);
+    // Cells, and rows and columns of a sheet I only view, refuse edits for the same reasons the API
+    // gives. A sheet that names me editor lets me edit there even as a workbook viewer.
+    const who = { id: myId, role: meRole };
+    const others = access.actions.filter((a) => a !== 'editCells');
+    const edits = meRole === 'owner' || meRole === 'editor' || editsThroughSheetRole(protection, who);
+    model.actions = edits ? [...others, 'editCells'] : others;
+    model.structureRule = structureRuleFor(protection, who);
+    model.setEditRule(editRuleFor(protection, who));
+  }, [model, protection, myId, meRole, access]);
 
   // Where my cursor is, for everyone else's chips: throttled, and sent again after each reconnect
   // (the server forgets a cursor when its stream closes).
@@ -106,5 +115,5 @@ export function useWorkbookTeam(session: WorkbookSession, cursor: PresenceInput 
     throttle.current?.push({ sheetId, row, col });
   }, [sheetId, row, col, live.connection, live.connects]);
 
-  return { myId, role: access.role, actions: access.actions, protection, live, setAside, addSetAside: addToSetAside, dismissSetAside, dialog, openDialog };
+  return { myId, me, role: access.role, actions: access.actions, protection, live, setAside, addSetAside: addToSetAside, dismissSetAside, dialog, openDialog };
 }

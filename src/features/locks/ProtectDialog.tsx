@@ -1,7 +1,7 @@
 // The "Protect" dialog of one sheet: its lock and its protected ranges.
 import { useState } from 'react';
-import { allows, type WorkbookAction } from '@shared/permissions.js';
-import type { Protection } from '@shared/team.js';
+import { sheetManageRefusal, type AccessRole, type WorkbookAction } from '@shared/permissions.js';
+import { sheetStanding, type Protection, type SheetActor } from '@shared/team.js';
 import { Button } from '../../components/ui/Button.js';
 import { Dialog } from '../../components/ui/Dialog.js';
 import { Notice } from '../../components/ui/Notice.js';
@@ -16,16 +16,19 @@ export function ProtectDialog({
   workbookId,
   sheet,
   protection,
-  actions,
+  role,
+  me,
   myId,
   suggestedRange,
 }: {
   open: boolean;
   onClose: () => void;
   workbookId: string;
-  sheet: { id: string; name: string };
+  sheet: { id: string; name: string; createdBy?: string | null };
   protection: Protection;
   actions: WorkbookAction[];
+  role: AccessRole;
+  me: SheetActor;
   myId: string;
   suggestedRange?: string;
 }) {
@@ -35,10 +38,14 @@ export function ProtectDialog({
   const [openedWith, setOpenedWith] = useState<{ open: boolean; range?: string }>({ open: false });
   if (openedWith.open !== open) setOpenedWith({ open, range: open ? suggestedRange : undefined });
   const startRange = open === openedWith.open ? openedWith.range : suggestedRange;
-  // Owners on any sheet, editors on sheets they created: the server knows who created which, so an
-  // editor is offered the forms and told the server's reason if the sheet is not theirs.
-  const canLock = allows(actions, 'lockAnySheet') || allows(actions, 'lockOwnSheet');
+  // Owners on any sheet, editors on sheets they created and still edit (the rule the server refuses
+  // with): a control that would be refused is disabled and says why.
   const lock = protection.locks.find((l) => l.sheetId === sheet.id);
+  const myRole = sheetStanding(protection, me, sheet.id).role;
+  const roles: AccessRole[] = [role];
+  const lockRefusal = sheetManageRefusal(roles, myId, sheet, { myRoleOnSheet: myRole });
+  const unlockRefusal = lock ? sheetManageRefusal(roles, myId, sheet, { setBy: lock.lockedBy.id, myRoleOnSheet: myRole }) : null;
+  const canLock = lockRefusal === null;
   const ranges = protection.protectedRanges.filter((r) => r.sheetId === sheet.id);
   return (
     <Dialog open={open} onClose={onClose} title={`Protect “${sheet.name}”`} width="w-[34rem]" footer={<Button onClick={onClose}>Done</Button>}>
@@ -46,7 +53,7 @@ export function ProtectDialog({
         <Notice tone="error">{sentence(members.error.message)}</Notice>
       ) : (
         <div className="max-h-[min(36rem,calc(100vh-10rem))] overflow-y-auto">
-          <SheetLockSection workbookId={workbookId} sheetId={sheet.id} lock={lock} members={members.data ?? []} myId={myId} canLock={canLock} />
+          <SheetLockSection workbookId={workbookId} sheetId={sheet.id} lock={lock} members={members.data ?? []} myId={myId} lockRefusal={lockRefusal} unlockRefusal={unlockRefusal} />
           <ProtectedRangesSection
             workbookId={workbookId}
             sheetId={sheet.id}

@@ -1,5 +1,6 @@
-// Locking one sheet: while locked only the people named on the lock may change it; everyone else
-// sees who locked it, when and why.
+// Locking one sheet: while locked everyone is a viewer of it except the people named on the lock
+// (they become its editors, as sheet roles); everyone sees who locked it, when and why. Controls the
+// user may not use are disabled with the reason.
 import { useState, type FormEvent } from 'react';
 import { sheetLockSchema, type Member, type SheetLock } from '@shared/team.js';
 import { Button } from '../../components/ui/Button.js';
@@ -20,7 +21,24 @@ export function lockSummary(lock: SheetLock, myId?: string): string {
   return others.length === 0 ? `${head} You alone may still edit it.` : `${head} You and ${others.join(', ')} may still edit it.`;
 }
 
-export function SheetLockSection({ workbookId, sheetId, lock, members, myId, canLock }: { workbookId: string; sheetId: string; lock: SheetLock | undefined; members: Member[]; myId: string; canLock: boolean }) {
+export function SheetLockSection({
+  workbookId,
+  sheetId,
+  lock,
+  members,
+  myId,
+  lockRefusal,
+  unlockRefusal,
+}: {
+  workbookId: string;
+  sheetId: string;
+  lock: SheetLock | undefined;
+  members: Member[];
+  myId: string;
+  lockRefusal: string | null;
+  unlockRefusal: string | null;
+}) {
+  const canLock = lockRefusal === null;
   const lockSheet = useLockSheet(workbookId);
   const unlock = useUnlockSheet(workbookId);
   const [editors, setEditors] = useState<string[]>([]);
@@ -42,16 +60,16 @@ export function SheetLockSection({ workbookId, sheetId, lock, members, myId, can
       {lock ? (
         <div className="flex items-start gap-3 rounded-ctl border border-caution-line bg-caution-soft px-3 py-2 text-ink">
           <p className="flex-1">{lockSummary(lock)}</p>
-          {canLock && (
-            <Button busy={unlock.isPending} onClick={() => unlock.mutate(sheetId)}>
+          <span title={unlockRefusal ? sentence(unlockRefusal) : undefined}>
+            <Button busy={unlock.isPending} disabled={unlockRefusal !== null} onClick={() => unlock.mutate(sheetId)}>
               Unlock
             </Button>
-          )}
+          </span>
         </div>
       ) : canLock ? (
         <form noValidate onSubmit={submit} className="flex flex-col gap-2.5">
           <TextField label="Why lock it?" name="reason" maxLength={500} placeholder="Values checked against the reference tables" error={errors.fields.reason} />
-          <EditorPicker legend="Who else may still change it" members={members} myId={myId} selected={editors} onChange={setEditors} />
+          <EditorPicker legend="Who else may still change it" members={members} myId={myId} selected={editors} onChange={setEditors} viewersToo />
           {errors.form && (
             <p role="alert" className="text-caption text-danger">
               {errors.form}
@@ -64,7 +82,7 @@ export function SheetLockSection({ workbookId, sheetId, lock, members, myId, can
           </div>
         </form>
       ) : (
-        <p className="text-ink-3">Not locked. Owners lock any sheet; editors lock sheets they created.</p>
+        <p className="text-ink-3">Not locked. You cannot lock it: {lockRefusal}.</p>
       )}
       {unlock.isError && (
         <p role="alert" className="mt-1.5 text-caption text-danger">

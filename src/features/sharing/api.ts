@@ -8,8 +8,9 @@ import type {
   InvitationPreview,
   InvitationsResponse,
   MemberRoleResult,
+  SheetRolesResponse,
 } from '@shared/team.js';
-import type { WorkbookRole } from '@shared/permissions.js';
+import type { SheetRole, WorkbookRole } from '@shared/permissions.js';
 import { api, queryKeys } from '../../lib/api.js';
 
 const base = (id: string) => `/workbooks/${encodeURIComponent(id)}`;
@@ -83,5 +84,16 @@ export function useAcceptInvitation(token: string) {
       void queryClient.invalidateQueries({ queryKey: queryKeys.workbooks, exact: true });
       void queryClient.invalidateQueries({ queryKey: queryKeys.invitationLink(token) });
     },
+  });
+}
+
+/** PUT …/sheets/:sheetId/roles: one member's role on one sheet (null: back to their workbook role). */
+export function useSetSheetRole(workbookId: string) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: ({ sheetId, email, role }: { sheetId: string; email: string; role: SheetRole | null }) =>
+      api<SheetRolesResponse>(`${base(workbookId)}/sheets/${encodeURIComponent(sheetId)}/roles`, { method: 'PUT', body: { email, role } }),
+    // The live `protection` event brings the new roles to every open page, this one included.
+    onSuccess: () => void queryClient.invalidateQueries({ queryKey: queryKeys.audit(workbookId) }),
   });
 }

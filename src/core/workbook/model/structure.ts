@@ -31,7 +31,7 @@ export function movedPosition(row: number, col: number, op: StructuralOp): { row
 
 /** Applies the operation and returns the input changes it caused (already handed to onLocalChanges). */
 export function applyStructural(model: WorkbookModel, sheetId: string, op: StructuralOp, record = true): CellInput[] {
-  if (model.readOnly) throw new StructureError('you can view this workbook but not change it');
+  if (model.readOnly) throw new StructureError('View only — you view this workbook.');
   const blocked = model.structureRule?.(sheetId);
   if (blocked) throw new StructureError(blocked);
   if (!Number.isInteger(op.at) || op.at < 0 || !Number.isInteger(op.count) || op.count < 1) throw new StructureError('choose at least one row or column');

@@ -27,6 +27,8 @@ export interface SheetState {
   id: string;
   name: string;
   position: number;
+  /** Who added the sheet: editors manage roles and locks only on sheets they created. */
+  createdBy: string | null;
   engineId: number;
   display: DisplaySettings;
   inputs: SheetInputs;
@@ -137,9 +139,9 @@ export class WorkbookModel {
 
   /** Why this cell cannot be edited now, or null. */
   readOnlyReason(sheetId: string, row: number, col: number): string | null {
-    if (this.readOnly) return 'you can view this workbook but not edit it';
+    if (this.readOnly) return 'View only — you view this workbook.';
     const rows = this.sheetsById.get(sheetId)?.rows;
-    if (rows ? rows[row]?.[col]?.spilled : this.isSpilled(sheetId, row, col)) return 'filled by an array formula in another cell';
+    if (rows ? rows[row]?.[col]?.spilled : this.isSpilled(sheetId, row, col)) return 'View only — filled by an array formula in another cell.';
     return this.extraRule?.(sheetId, row, col) ?? null;
   }
 
@@ -253,7 +255,7 @@ export class WorkbookModel {
 
   // ---- sheets ----
 
-  addSheetState(p: Pick<SheetPayload, 'id' | 'name' | 'position' | 'settings'>, inputs = new SheetInputs()) {
+  addSheetState(p: Pick<SheetPayload, 'id' | 'name' | 'position' | 'settings' | 'createdBy'>, inputs = new SheetInputs()) {
     let engineId = this.engine.getSheetId(p.name);
     if (engineId === undefined) {
       this.engine.addSheet(p.name);
@@ -265,6 +267,7 @@ export class WorkbookModel {
       id: p.id,
       name: p.name,
       position: p.position,
+      createdBy: p.createdBy ?? null,
       engineId,
       display: readDisplaySettings(p.settings),
       inputs,

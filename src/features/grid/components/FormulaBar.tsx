@@ -118,7 +118,7 @@ export function FormulaBar(p: FormulaBarProps) {
               {problem}
             </span>
           )}
-          {p.readOnlyReason && <span className="text-ink-3">Read-only: {p.readOnlyReason}</span>}
+          {p.readOnlyReason && <span className="text-ink-3">{p.readOnlyReason}</span>}
         </p>
       )}
     </div>

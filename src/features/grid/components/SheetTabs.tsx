@@ -9,6 +9,10 @@ export interface TabSheet {
   name: string;
   /** Set while the sheet is locked: the lock's summary (who, when, why), shown on the tab's hover. */
   lock?: string;
+  /** Set when I may only view this sheet: why (my role, a role set on the sheet, or its lock). */
+  viewOnly?: string;
+  /** Why I may not rename, move or delete this tab, if I may not. */
+  refusal?: string;
 }
 
 export interface SheetTabsProps {
@@ -52,6 +56,7 @@ export function SheetTabs(p: SheetTabsProps) {
   };
 
   const index = p.sheets.findIndex((s) => s.id === p.activeId);
+  const activeRefusal = p.sheets[index]?.refusal;
   return (
     <div data-grid-shield="" onMouseDown={(e) => e.stopPropagation()} onKeyDown={(e) => e.stopPropagation()} className="flex h-8 shrink-0 items-stretch gap-0.5 border-t border-line bg-raised px-1 text-caption">
       <div role="tablist" aria-label="Sheets" className="flex min-w-0 items-stretch overflow-x-auto">
@@ -79,7 +84,7 @@ export function SheetTabs(p: SheetTabsProps) {
               type="button"
               role="tab"
               aria-selected={s.id === p.activeId}
-              draggable={p.canEdit}
+              draggable={p.canEdit && !s.refusal}
               onDragStart={() => setDragged(s.id)}
               onDragOver={(e) => dragged && e.preventDefault()}
               onDrop={() => {
@@ -87,15 +92,21 @@ export function SheetTabs(p: SheetTabsProps) {
                 setDragged(null);
               }}
               onClick={() => p.onSelect(s.id)}
-              onDoubleClick={() => p.canEdit && setRenaming({ id: s.id, name: s.name })}
-              aria-label={s.lock ? `${s.name} (locked)` : undefined}
-              title={[s.lock, p.canEdit ? 'Double-click to rename; drag to move' : s.name].filter(Boolean).join('\n')}
+              onDoubleClick={() => p.canEdit && !s.refusal && setRenaming({ id: s.id, name: s.name })}
+              aria-label={s.lock ? `${s.name} (locked${s.viewOnly ? ', view only for you' : ''})` : s.viewOnly ? `${s.name} (view only for you)` : undefined}
+              data-view-only={s.viewOnly ? '' : undefined}
+              title={[s.viewOnly ?? s.lock, p.canEdit && !s.refusal ? 'Double-click to rename; drag to move' : s.name].filter(Boolean).join('\n')}
               className={`-mt-px flex max-w-48 items-center border-x border-b px-3 font-medium whitespace-nowrap ${
                 s.id === p.activeId ? 'border-line bg-surface text-accent shadow-[inset_0_2px_0_var(--color-accent)]' : 'border-transparent text-ink-2 hover:bg-hover hover:text-ink'
               }`}
             >
               {s.lock && <LockIcon className="mr-1 shrink-0 text-ink-3" />}
-              <span className="truncate">{s.name}</span>
+              <span className={`truncate ${s.viewOnly ? 'italic' : ''}`}>{s.name}</span>
+              {s.viewOnly && (
+                <span aria-hidden="true" className="ml-1.5 rounded-sm border border-line-strong px-1 text-[10px] leading-4 font-semibold tracking-wide text-ink-3 uppercase not-italic">
+                  read
+                </span>
+              )}
             </button>
           ),
         )}
@@ -105,16 +116,19 @@ export function SheetTabs(p: SheetTabsProps) {
           <button type="button" aria-label="Add a sheet" title="Add a sheet" disabled={busy} onClick={() => void run(p.onAdd)} className="size-6 rounded-ctl text-ink-2 hover:bg-hover hover:text-ink">
             +
           </button>
-          <button type="button" title="Move this sheet left" aria-label="Move sheet left" disabled={busy || index <= 0} onClick={() => void run(() => p.onMove(p.activeId, index - 1))} className="size-6 rounded-ctl text-ink-2 hover:bg-hover disabled:opacity-40">
+          <button type="button" title={activeRefusal ?? 'Move this sheet left'} aria-label="Move sheet left" disabled={busy || index <= 0 || !!activeRefusal} onClick={() => void run(() => p.onMove(p.activeId, index - 1))} className="size-6 rounded-ctl text-ink-2 hover:bg-hover disabled:opacity-40">
             ‹
           </button>
-          <button type="button" title="Move this sheet right" aria-label="Move sheet right" disabled={busy || index >= p.sheets.length - 1} onClick={() => void run(() => p.onMove(p.activeId, index + 1))} className="size-6 rounded-ctl text-ink-2 hover:bg-hover disabled:opacity-40">
+          <button type="button" title={activeRefusal ?? 'Move this sheet right'} aria-label="Move sheet right" disabled={busy || index >= p.sheets.length - 1 || !!activeRefusal} onClick={() => void run(() => p.onMove(p.activeId, index + 1))} className="size-6 rounded-ctl text-ink-2 hover:bg-hover disabled:opacity-40">
             ›
           </button>
-          <button type="button" title="Rename this sheet" disabled={busy} onClick={() => setRenaming({ id: p.activeId, name: p.sheets[index]?.name ?? '' })} className="h-6 rounded-ctl px-1.5 text-ink-2 hover:bg-hover hover:text-ink">
+          <button type="button" title={activeRefusal ?? 'Rename this sheet'} disabled={busy || !!activeRefusal} onClick={() => setRenaming({ id: p.activeId, name: p.sheets[index]?.name ?? '' })} className="h-6 rounded-ctl px-1.5 text-ink-2 hover:bg-hover hover:text-ink disabled:opacity-40">
             Rename
           </button>
-          <button type="button" title="Delete this sheet" disabled={busy || p.sheets.length <= 1} onClick={() => setDeleting(p.sheets[index] ?? null)} className="h-6 rounded-ctl px-1.5 text-ink-2 hover:bg-hover hover:text-danger disabled:opacity-40">
+          <button
+            type="button"
+            title={activeRefusal ?? (p.sheets.length <= 1 ? 'A workbook keeps at least one sheet' : 'Delete this sheet')}
+            disabled={busy || p.sheets.length <= 1 || !!activeRefusal} onClick={() => setDeleting(p.sheets[index] ?? null)} className="h-6 rounded-ctl px-1.5 text-ink-2 hover:bg-hover hover:text-danger disabled:opacity-40">
             Delete
           </button>
         </div>

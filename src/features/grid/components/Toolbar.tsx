@@ -5,6 +5,8 @@ import type { Precision } from '../../../core/workbook/model/cellView.js';
 
 export interface ToolbarProps {
   canEdit: boolean;
+  /** Why I only view this sheet: shown on every editing tool, which stays disabled. */
+  viewOnlyReason?: string | null;
   canUndo: boolean;
   canRedo: boolean;
   hasCell: boolean;
@@ -26,11 +28,11 @@ export interface ToolbarProps {
   onPanel: (panel: 'structure' | 'chart' | null) => void;
 }
 
-function Tool({ label, title, onClick, disabled, pressed }: { label: string; title: string; onClick: () => void; disabled?: boolean; pressed?: boolean }) {
+function Tool({ label, title, onClick, disabled, pressed, why }: { label: string; title: string; onClick: () => void; disabled?: boolean; pressed?: boolean; why?: string | null }) {
   return (
     <button
       type="button"
-      title={title}
+      title={disabled && why ? `${title}\n${why}` : title}
       aria-pressed={pressed}
       disabled={disabled}
       onMouseDown={(e) => e.preventDefault()}
@@ -46,6 +48,8 @@ const Divider = () => <span aria-hidden="true" className="mx-1 h-4 w-px bg-line"
 
 export function Toolbar(p: ToolbarProps) {
   const edit = p.canEdit && p.hasCell;
+  const why = p.viewOnlyReason ?? null;
+  const local = why ? ' — on this screen only, since you view this sheet' : '';
   return (
     <div
       role="toolbar"
@@ -55,23 +59,23 @@ export function Toolbar(p: ToolbarProps) {
       onKeyDown={(e) => e.stopPropagation()}
       className="flex h-8 shrink-0 items-center gap-0.5 overflow-x-auto border-b border-line bg-raised px-2"
     >
-      <Tool label="Undo" title="Undo (Ctrl+Z)" onClick={p.onUndo} disabled={!p.canUndo || !p.canEdit} />
-      <Tool label="Redo" title="Redo (Ctrl+Y)" onClick={p.onRedo} disabled={!p.canRedo || !p.canEdit} />
+      <Tool why={why} label="Undo" title="Undo (Ctrl+Z)" onClick={p.onUndo} disabled={!p.canUndo || !p.canEdit} />
+      <Tool why={why} label="Redo" title="Redo (Ctrl+Y)" onClick={p.onRedo} disabled={!p.canRedo || !p.canEdit} />
       <Divider />
-      <Tool label="+ Row" title="Insert rows above the selection" onClick={p.onInsertRows} disabled={!edit} />
-      <Tool label="− Row" title="Delete the selected rows" onClick={p.onDeleteRows} disabled={!edit} />
-      <Tool label="+ Column" title="Insert columns left of the selection" onClick={p.onInsertCols} disabled={!edit} />
-      <Tool label="− Column" title="Delete the selected columns" onClick={p.onDeleteCols} disabled={!edit} />
+      <Tool why={why} label="+ Row" title="Insert rows above the selection" onClick={p.onInsertRows} disabled={!edit} />
+      <Tool why={why} label="− Row" title="Delete the selected rows" onClick={p.onDeleteRows} disabled={!edit} />
+      <Tool why={why} label="+ Column" title="Insert columns left of the selection" onClick={p.onInsertCols} disabled={!edit} />
+      <Tool why={why} label="− Column" title="Delete the selected columns" onClick={p.onDeleteCols} disabled={!edit} />
       <Divider />
-      <Tool label="Fill ↓" title="Fill down from the top row of the selection (Ctrl+D)" onClick={p.onFillDown} disabled={!edit} />
-      <Tool label="Fill →" title="Fill right from the left column of the selection (Ctrl+R)" onClick={p.onFillRight} disabled={!edit} />
+      <Tool why={why} label="Fill ↓" title="Fill down from the top row of the selection (Ctrl+D)" onClick={p.onFillDown} disabled={!edit} />
+      <Tool why={why} label="Fill →" title="Fill right from the left column of the selection (Ctrl+R)" onClick={p.onFillRight} disabled={!edit} />
       <Divider />
-      <Tool label="Sort ↑" title="Sort the selected rows by the active column, smallest first" onClick={() => p.onSort('ascending')} disabled={!edit} />
-      <Tool label="Sort ↓" title="Sort the selected rows by the active column, largest first" onClick={() => p.onSort('descending')} disabled={!edit} />
+      <Tool why={why} label="Sort ↑" title="Sort the selected rows by the active column, smallest first" onClick={() => p.onSort('ascending')} disabled={!edit} />
+      <Tool why={why} label="Sort ↓" title="Sort the selected rows by the active column, largest first" onClick={() => p.onSort('descending')} disabled={!edit} />
       {p.filterButton}
       <Divider />
-      <Tool label="Freeze row 1" title="Keep the first row in view while scrolling" pressed={p.freezeHeaderRow} onClick={() => p.onFreeze(!p.freezeHeaderRow)} />
-      <label className="ml-1 flex items-center gap-1 text-caption text-ink-2">
+      <Tool label="Freeze row 1" title={`Keep the first row in view while scrolling${local}`} pressed={p.freezeHeaderRow} onClick={() => p.onFreeze(!p.freezeHeaderRow)} />
+      <label className="ml-1 flex items-center gap-1 text-caption text-ink-2" title={local ? `Decimal places${local}` : undefined}>
         Decimals
         <select
           aria-label="Decimal places"

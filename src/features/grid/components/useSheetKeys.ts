@@ -28,6 +28,10 @@ export interface SheetKeyHandlers {
   /** Edit the frozen cell in focus in the formula bar: a typed character replaces, else the caret goes to the end. */
   editInBar: (typed?: string) => void;
   pageRows: () => number;
+  /** Why the active cell may not be changed by me, or null; typing there is refused with it. */
+  readOnlyHere?: () => string | null;
+  /** Told once per keystroke refused on a read-only cell, with the reason. */
+  onRefusedTyping?: (reason: string) => void;
   undo: () => void;
   redo: () => void;
   fillDown: () => void;
@@ -108,7 +112,15 @@ export function useSheetKeys(h: SheetKeyHandlers) {
       const mod = e.ctrlKey || e.metaKey;
       const { rows, cols } = x.extent();
       const clampRow = (r: number) => Math.max(0, Math.min(rows - 1, r));
-      if (!x.isEditing() && e.key.length === 1 && !mod && !e.altKey) noteTypingIntoCell();
+      if (!x.isEditing() && e.key.length === 1 && !mod && !e.altKey) {
+        const refusal = x.readOnlyHere?.();
+        if (refusal) {
+          stop();
+          x.onRefusedTyping?.(refusal);
+          return;
+        }
+        noteTypingIntoCell();
+      }
       if (x.isEditing()) {
         if (e.key === 'Enter' && e.shiftKey && !mod) {
           stop();
