@@ -103,13 +103,13 @@ try {
   await shot(page, '4-chart', { ...(await belowTitle(page, 480)), x: 420, width: 780 });
 
   // 5. Share with a colleague as an editor.
-  await page.getByRole('button', { name: 'Share', exact: true }).click();
+  await page.getByRole('button', { name: 'Team', exact: true }).click();
   const share = page.getByRole('dialog');
-  await share.getByLabel('Add people by e-mail').fill(editor.email);
-  await shot(page, '5-share', await share.boundingBox() ?? undefined);
-  await share.getByRole('button', { name: 'Share', exact: true }).click();
+  await share.getByLabel('Bring someone in (e-mail)').fill(editor.email);
+  await shot(page, '5-share', (await share.boundingBox()) ?? undefined);
+  await share.getByRole('button', { name: 'Add to team', exact: true }).click();
   await share.getByText(editor.name).first().waitFor();
-  await share.getByRole('button', { name: 'Done' }).click();
+  await share.getByRole('button', { name: 'Close' }).click();
 
   // 6. Lock: protect the title row from the selection.
   await click(page, 'A2');
@@ -119,7 +119,7 @@ try {
   await page.getByRole('button', { name: 'Protect' }).click();
   const protect = page.getByRole('dialog');
   await protect.getByLabel('Range to protect').waitFor();
-  await shot(page, '6-lock', await protect.boundingBox() ?? undefined);
+  await shot(page, '6-lock', (await protect.boundingBox()) ?? undefined);
   await protect.getByRole('button', { name: 'Protect range' }).click();
   await protect.getByRole('listitem', { name: 'Range A1:D1' }).waitFor();
   await protect.getByRole('button', { name: 'Done' }).click();

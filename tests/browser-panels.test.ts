@@ -205,6 +205,8 @@ describe('Protect dialog', () => {
     const field = page.getByRole('dialog').getByLabel('Range to protect');
     expect(await field.inputValue()).toBe('A3:B5');
     expect(await field.getAttribute('placeholder')).toBeNull();
+    // No example text in the lock's reason either: an empty field looks empty.
+    expect(await page.getByRole('dialog').getByLabel('Why lock it?').getAttribute('placeholder')).toBeNull();
     await screenshot(page, 'panels-protect');
     await page.getByRole('dialog').getByRole('button', { name: 'Done' }).click();
   });
