@@ -74,7 +74,7 @@ function numberCells(rows: number, cols: number): [number, number, string][] {
   return cells;
 }
 
-class ApiClient {
+export class ApiClient {
   cookie = '';
   constructor(readonly base: string) {}
   async call<T>(method: string, route: string, body?: unknown): Promise<T> {
@@ -92,7 +92,7 @@ class ApiClient {
   }
 }
 
-async function createWorkbook(api: ApiClient, title: string, cells: [number, number, string][]): Promise<string> {
+export async function createWorkbook(api: ApiClient, title: string, cells: [number, number, string][]): Promise<string> {
   const { workbook } = await api.call<{ workbook: { id: string } }>('POST', '/workbooks', { title });
   let wb = await api.call<{ revision: number; sheets: { id: string }[] }>('GET', `/workbooks/${workbook.id}`);
   const sheetId = wb.sheets[0].id;

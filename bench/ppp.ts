@@ -2,7 +2,8 @@
 //
 // 1. Timing: SCF + CIS of 40-centre systems (the C40 polyene and a 40-centre diphenylpolyene), each
 //    run repeated after warm-up with the per-structure cache bypassed; the median is reported, and
-//    the 60-centre limit (MAX_PPP_CENTRES) is timed too. (Long acenes such as nonacene are refused:
+//    the 60-centre limit (MAX_PPP_CENTRES) is timed too. The two 40-centre systems are timed again
+//    inside headless Chromium (bench/pppBrowser.ts), where a sheet computes them. (Long acenes such as nonacene are refused:
 //    their closed-shell PPP ground state is triplet-unstable, as the open-shell character of long
 //    acenes would lead one to expect.)
 // 2. Truncation: the lowest singlets with the default CIS space (MAX_CIS_CONFIGURATIONS) against the
@@ -17,13 +18,10 @@ import { fileURLToPath } from 'node:url';
 import { findPiSystem } from '../functions/chem/piSystem.js';
 import { MAX_CIS_CONFIGURATIONS, MAX_PPP_CENTRES, pppSpectrum, pppSpectrumOf } from '../functions/chem/ppp.js';
 import { REFERENCE_BANDS, rms, toEv } from '../tests/helpers/pppReference.js';
+import { median, referenceMatmulMs } from './matmulYardstick.js';
+import { browserPppTiming } from './pppBrowser.js';
 
 const here = dirname(fileURLToPath(import.meta.url));
-
-function median(xs: number[]) {
-  const s = [...xs].sort((a, b) => a - b);
-  return s[Math.floor(s.length / 2)];
-}
 
 function time(smiles: string, repeats: number, maxConfigurations = MAX_CIS_CONFIGURATIONS) {
   const pi = findPiSystem(smiles);
@@ -40,25 +38,6 @@ function time(smiles: string, repeats: number, maxConfigurations = MAX_CIS_CONFI
   return { centres: pi.centres.length, medianMs: median(runs), minMs: Math.min(...runs), medianCpuMs: median(cpu) };
 }
 
-/** Machine-speed reference in the same process: one dense 100×100 matrix product (2·10⁶ multiply-adds). */
-function referenceMatmulMs() {
-  const n = 100;
-  const a = Float64Array.from({ length: n * n }, (_, i) => Math.sin(i));
-  const b = Float64Array.from({ length: n * n }, (_, i) => Math.cos(i));
-  const c = new Float64Array(n * n);
-  const runs: number[] = [];
-  for (let r = 0; r < 30; r++) {
-    const t0 = performance.now();
-    for (let i = 0; i < n; i++)
-      for (let k = 0; k < n; k++) {
-        const aik = a[i * n + k];
-        for (let j = 0; j < n; j++) c[i * n + j] += aik * b[k * n + j];
-      }
-    runs.push(performance.now() - t0);
-  }
-  return median(runs.slice(5));
-}
-
 const chain40 = 'C=C'.repeat(20);
 const diphenyl40 = `c1ccccc1${'C=C'.repeat(14)}c1ccccc1`; // 1,28-diphenyloctacosatetradecaene, 40 centres
 const chain60 = 'C=C'.repeat(MAX_PPP_CENTRES / 2);
@@ -66,11 +45,17 @@ const chain60 = 'C=C'.repeat(MAX_PPP_CENTRES / 2);
 const loadAverage = os.loadavg()[0];
 const matmulMs = referenceMatmulMs();
 const timing = {
-  chain40: time(chain40, 15),
-  diphenylpolyene40: time(diphenyl40, 15),
+  chain40: time(chain40, 31),
+  diphenylpolyene40: time(diphenyl40, 31),
   chain60: time(chain60, 7),
   chain40FullCis: time(chain40, 3, Infinity),
 };
+
+// The same two 40-centre spectra in headless Chromium (the cells of a sheet compute in the browser).
+// Where no browser can be started, the Node figures stand: Node and Chromium run the same V8 engine.
+const browser = await browserPppTiming({ chain40: { smiles: chain40, repeats: 31 }, diphenylpolyene40: { smiles: diphenyl40, repeats: 31 } }).catch(
+  (e: unknown) => ({ unavailable: e instanceof Error ? e.message.split('\n')[0] : String(e) }),
+);
 
 const full = pppSpectrum(findPiSystem(chain40), Infinity);
 const cut = pppSpectrum(findPiSystem(chain40));
@@ -91,7 +76,7 @@ const perClass = classes.map((cls) => {
 });
 const hydrocarbons = rows.filter((r) => ['polyene', 'benzene', 'acene p band', 'acene β band', 'non-alternant'].includes(r.cls)).map((r) => r.errorEv);
 
-const result = { date: new Date().toISOString(), node: process.version, cpus: os.cpus().length, loadAverage, referenceMatmulMs: matmulMs, maxCisConfigurations: MAX_CIS_CONFIGURATIONS, timing, truncation, strongestBand: { fullEv: strongFull.energy, truncatedEv: strongCut.energy }, rows, perClass, hydrocarbonRmsEv: rms(hydrocarbons) };
+const result = { date: new Date().toISOString(), node: process.version, cpus: os.cpus().length, loadAverage, referenceMatmulMs: matmulMs, maxCisConfigurations: MAX_CIS_CONFIGURATIONS, timing, browser, truncation, strongestBand: { fullEv: strongFull.energy, truncatedEv: strongCut.energy }, rows, perClass, hydrocarbonRmsEv: rms(hydrocarbons) };
 mkdirSync(resolve(here, 'results'), { recursive: true });
 writeFileSync(resolve(here, 'results', 'ppp.json'), JSON.stringify(result, null, 2));
 
@@ -99,6 +84,12 @@ console.log(`machine: ${os.cpus().length} CPUs, 1-min load average ${loadAverage
 console.log('timing (median of repeats, ms):');
 for (const [k, v] of Object.entries(timing))
   console.log(`  ${k.padEnd(18)} ${v.centres} centres  wall median ${v.medianMs.toFixed(1)} ms  min ${v.minMs.toFixed(1)} ms  CPU median ${v.medianCpuMs.toFixed(1)} ms  = ${(v.medianCpuMs / matmulMs).toFixed(0)} matrix products`);
+if ('unavailable' in browser) console.log(`  in the browser: not measured (${browser.unavailable}); Node runs the same V8 engine as Chromium, so the Node figures stand for it`);
+else {
+  console.log(`  in headless Chromium ${browser.chromium} (reference 100×100 matrix product there ${browser.referenceMatmulMs.toFixed(2)} ms):`);
+  for (const [k, v] of Object.entries(browser.timing))
+    console.log(`  ${k.padEnd(18)} ${v.centres} centres  wall median ${v.medianMs.toFixed(1)} ms  min ${v.minMs.toFixed(1)} ms  = ${(v.medianMs / browser.referenceMatmulMs).toFixed(0)} matrix products`);
+}
 console.log(`  full/truncated CIS time ratio at 40 centres: ${(timing.chain40FullCis.medianMs / timing.chain40.medianMs).toFixed(1)}`);
 console.log(`truncation (${MAX_CIS_CONFIGURATIONS} configurations vs full) for the C40 chain:`);
 for (const t of truncation) console.log(`  S${t.state}: full ${t.fullEv.toFixed(4)}  truncated ${t.truncatedEv.toFixed(4)}  Δ ${t.differenceEv.toFixed(4)} eV`);

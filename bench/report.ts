@@ -2,7 +2,7 @@
 // targets each issue set, a section per benchmark, and the machine it ran on. Pure: run-all.ts runs
 // the benchmarks; tests/bench-report.test.ts checks the wording from made-up outcomes.
 
-export type BenchKey = 'functions' | 'huckel' | 'open' | 'patches' | 'io' | 'stalls';
+export type BenchKey = 'functions' | 'huckel' | 'open' | 'patches' | 'io' | 'ehtLibrary' | 'stalls';
 
 export interface BenchOutcome {
   key: BenchKey;
@@ -177,7 +177,21 @@ function stallRows(r: Loose): SummaryRow[] {
   }));
 }
 
-const rowsFor: Record<BenchKey, (r: Loose) => SummaryRow[]> = { functions: functionsRows, huckel: huckelRows, open: openRows, patches: patchRows, io: ioRows, stalls: stallRows };
+function ehtLibraryRows(r: Loose): SummaryRow[] {
+  const first = (r.firstOpen ?? {}) as Loose;
+  const colleague = (r.colleague ?? {}) as Loose;
+  const targets = (r.targets ?? {}) as Loose;
+  const bench = 'EHT library';
+  return [
+    { bench, measure: `molecules per second per core, server compute pool (${num(r.molecules, 0)} molecules, ${num(r.formulas, 0)} formulas)`, value: num(first.moleculesPerSecondPerCore, 2), target: '—', met: null },
+    { bench, measure: 'time to first values for a colleague after they were computed once', value: ms(colleague.firstValuesMs), target: `< ${num(targets.firstValuesMs, 0)} ms`, met: typeof colleague.firstValuesMs === 'number' && typeof targets.firstValuesMs === 'number' ? colleague.firstValuesMs < targets.firstValuesMs : null },
+    { bench, measure: 'structures recomputed when the colleague opened it', value: num(colleague.recomputed, 0), target: '0', met: colleague.recomputed === 0 },
+    { bench, measure: 'longest main-thread long task while the library computed', value: ms(first.longestLongTaskMs), target: `≤ ${num(targets.stallMs, 0)} ms`, met: typeof first.longestLongTaskMs === 'number' && typeof targets.stallMs === 'number' ? first.longestLongTaskMs <= targets.stallMs : null },
+    { bench, measure: 'longest delay of a 50 ms timer on the page meanwhile', value: ms(first.longestTimerDelayMs), target: '—', met: null },
+  ];
+}
+
+const rowsFor: Record<BenchKey, (r: Loose) => SummaryRow[]> = { functions: functionsRows, huckel: huckelRows, open: openRows, patches: patchRows, io: ioRows, ehtLibrary: ehtLibraryRows, stalls: stallRows };
 
 export function summaryRows(report: BenchReport): SummaryRow[] {
   return report.outcomes.flatMap((o): SummaryRow[] => {

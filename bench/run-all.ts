@@ -2,7 +2,7 @@
 // and bench/report.json. A benchmark whose file or entry point is missing, or that fails, is named in
 // the report; the others still run.
 //
-// BENCH_ONLY=functions,io   run only these (keys: functions, huckel, open, patches, io, stalls)
+// BENCH_ONLY=functions,io   run only these (keys: functions, huckel, open, patches, io, ehtLibrary, stalls)
 // BENCH_QUICK=1             small sizes, to try the runner; writes bench/tmp/report-quick.* instead
 import fs from 'node:fs';
 import os from 'node:os';
@@ -29,6 +29,7 @@ const benches: BenchSpec[] = [
   { key: 'open', title: 'Opening a large workbook in the browser', file: 'browser-open.ts', entry: 'runOpenBench', args: [quick ? { rows: 1_000, runs: 1, write: false } : { write: false }] },
   { key: 'patches', title: 'Patch load on the real server', file: 'patches.ts', entry: 'runPatchBench', args: [quick ? { connections: 4, durationSeconds: 2 } : {}] },
   { key: 'io', title: 'Import and export against exceljs alone', file: 'io.ts', entry: 'runIoBench', args: [quick ? { rows: 500, repeats: 1 } : {}] },
+  { key: 'ehtLibrary', title: 'Extended-Hückel library: server compute, colleague open, page stalls', file: 'ehtLibrary.ts', entry: 'runEhtLibraryBench', args: [quick ? { molecules: 40, write: false } : { write: false }] },
   { key: 'stalls', title: 'Event-loop stalls during import, export and values', file: 'event-loop.ts', entry: 'runEventLoopBench', args: [quick ? { rows: 500 } : {}] },
 ];
 

@@ -12,6 +12,7 @@ import {
   type ImplementedFunctions,
 } from 'hyperformula';
 import { catalog } from './catalog/index.js';
+import { PENDING_MESSAGE, PendingResult, whileEvaluating } from './structureResults.js';
 import { ChemError, type CatalogEntry, type FunctionResult, type ParamSpec, type Scalar, type SpillArg } from './catalog/types.js';
 
 const argumentType: Record<ParamSpec['type'], FunctionArgumentType> = {
@@ -142,6 +143,8 @@ export function callEntry(entry: CatalogEntry, args: unknown[]): unknown {
     return toCellValue(entry.implementation(...prepared), entry);
   } catch (e) {
     if (e instanceof ChemError) return new CellError(errorType[e.kind], e.message);
+    // Not a failure: the cell waits for a result computed elsewhere, and is evaluated again when it arrives.
+    if (e instanceof PendingResult) return new CellError(ErrorType.NA, PENDING_MESSAGE);
     return new CellError(ErrorType.VALUE, `${entry.name} failed: ${e instanceof Error ? e.message : String(e)}`);
   }
 }
@@ -165,7 +168,7 @@ for (const entry of catalog) {
   if (entry.spill) metadata.sizeOfResultArrayMethod = `${method}_size`;
   OrbitabPlugin.implementedFunctions[entry.name] = metadata;
   (OrbitabPlugin.prototype as any)[method] = function (this: FunctionPlugin, ast: any, state: any) {
-    return this.runFunction(ast.args, state, this.metadata(entry.name), (...args: unknown[]) => callEntry(entry, args) as any);
+    return this.runFunction(ast.args, state, this.metadata(entry.name), (...args: unknown[]) => whileEvaluating(state?.formulaAddress, () => callEntry(entry, args)) as any);
   };
   if (entry.spill) {
     const spill = entry.spill;

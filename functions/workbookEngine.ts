@@ -5,7 +5,8 @@
 import type { ConfigParams, HyperFormula } from 'hyperformula';
 import { createEngine, type SheetInput } from './engine.js';
 
-export type CellTriple = readonly [row: number, col: number, input: string];
+/** One non-empty cell: zero-based row and column and the input as typed. */
+export type CellTriple = [row: number, col: number, input: string];
 
 export interface EngineSheet {
   name: string;

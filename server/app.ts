@@ -15,6 +15,7 @@ import { createHttpLogger, createLogger, resolveLogLevel } from './logging.js';
 import { authRouter } from './routes/auth.js';
 import { adminUsersRouter } from './routes/admin.js';
 import { workbooksRouter } from './routes/workbooks.js';
+import { structuresRouter } from './routes/structures.js';
 import { createEventHub } from './services/events.js';
 import { createMailer } from './mail/mailer.js';
 import { teamRouter } from './routes/team.js';
@@ -54,6 +55,7 @@ export function createApp({ db, config, limits }: CreateAppOptions): { app: Expr
   api.use('/admin', adminUsersRouter(ctx));
   api.use('/workbooks', workbooksRouter(ctx));
   api.use('/workbooks', teamRouter(ctx));
+  api.use('/workbooks', structuresRouter(ctx));
   api.use('/invitations', invitationLinksRouter(ctx));
   api.use('/admin', adminTeamRouter(ctx));
   api.use(ioRouter(ctx));

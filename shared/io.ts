@@ -1,8 +1,9 @@
 // Import and export, as the API answers them and the client shows them (server/xlsx/, src/features/io/).
+import { workbookPath } from './workbooks.js';
 
 /** The upload limit of POST /api/imports; the client checks it before sending. */
 export const maxUploadBytes = 20 * 1024 * 1024;
-export const acceptedUploadTypes = '.xlsx,.csv,.tsv,.txt,application/vnd.openxmlformats-officedocument.spreadsheetml.sheet,text/csv';
+export const acceptedUploadTypes = '.xlsx,.csv,.tsv,.txt,.sdf,.sd,.mol,.xyz,application/vnd.openxmlformats-officedocument.spreadsheetml.sheet,text/csv';
 
 export interface SkippedCell {
   sheet: string;
@@ -36,5 +37,5 @@ export type ExportFormatName = (typeof exportFormats)[number];
 export function exportPath(workbookId: string, format: ExportFormatName, sheet?: string): string {
   const query = new URLSearchParams({ format });
   if (sheet !== undefined) query.set('sheet', sheet);
-  return `/api/workbooks/${encodeURIComponent(workbookId)}/export?${query}`;
+  return `/api${workbookPath(workbookId, 'export')}?${query}`;
 }

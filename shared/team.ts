@@ -303,23 +303,3 @@ export type TeamEvent = { type: 'protection'; workbookId: string; protection: Pr
 
 /** Every event name the stream sends, for EventSource.addEventListener. */
 export const liveEventNames = ['ready', 'revision', 'presence', 'protection', 'role', 'renamed', 'reload', 'closed'] as const satisfies readonly LiveEventName[];
-
-/** Paths for the client's api() wrapper (which adds the /api prefix); `eventsUrl` is whole, for EventSource. */
-export const teamPaths = {
-  members: (workbookId: string) => `/workbooks/${workbookId}/members`,
-  member: (workbookId: string, userId: string) => `/workbooks/${workbookId}/members/${userId}`,
-  invitations: (workbookId: string) => `/workbooks/${workbookId}/invitations`,
-  invitation: (workbookId: string, invitationId: string) => `/workbooks/${workbookId}/invitations/${invitationId}`,
-  invitationLink: (token: string) => `/invitations/${token}`,
-  acceptInvitation: (token: string) => `/invitations/${token}/accept`,
-  lock: (workbookId: string, sheetId: string) => `/workbooks/${workbookId}/sheets/${sheetId}/lock`,
-  sheetRoles: (workbookId: string, sheetId: string) => `/workbooks/${workbookId}/sheets/${sheetId}/roles`,
-  protectedRanges: (workbookId: string, sheetId: string) => `/workbooks/${workbookId}/sheets/${sheetId}/protected-ranges`,
-  protectedRange: (workbookId: string, sheetId: string, rangeId: string) => `/workbooks/${workbookId}/sheets/${sheetId}/protected-ranges/${rangeId}`,
-  presence: (workbookId: string) => `/workbooks/${workbookId}/presence`,
-  snapshot: (workbookId: string, revision: number) => `/workbooks/${workbookId}/revisions/${revision}/snapshot`,
-  audit: (workbookId: string) => `/workbooks/${workbookId}/audit`,
-  eventsUrl: (workbookId: string) => `/api/workbooks/${workbookId}/events`,
-  adminMail: '/admin/mail',
-  adminWorkbooks: '/admin/workbooks',
-} as const;

@@ -19,6 +19,15 @@ export { maxSheetSettingsBytes, sheetSettingsSchema, type SheetSettings } from '
 const required = (kind: string) => (issue: { input: unknown }) => (issue.input === undefined ? 'required' : `must be ${kind}`);
 const wholeNumber = () => z.int({ error: required('a whole number') });
 
+/**
+ * The address of a workbook, or of something under it, as the API and the client's routes both write
+ * it: workbookPath(id, 'sheets', sheetId) → /workbooks/<id>/sheets/<sheetId>, every segment
+ * URI-encoded. API calls put /api in front; a query string goes after.
+ */
+export function workbookPath(id: string, ...rest: (string | number)[]): string {
+  return ['/workbooks', ...[id, ...rest].map((segment) => encodeURIComponent(segment))].join('/');
+}
+
 export const idSchema = z.string({ error: required('an id') }).regex(/^[A-Za-z0-9_-]{1,64}$/, 'not a valid id');
 
 export const titleSchema = z
@@ -34,6 +43,14 @@ export const titleSchema = z
  * Sheet names follow the usual spreadsheet rules (common practice), so formulas can name them and
  * exports open elsewhere: no [ ] * ? / \ : characters, no quote at either end, no control characters.
  */
+/**
+ * The name a new tab gets until someone names it: Orbitab's own word for a page of candidates, a
+ * screen. Written without a space, so formulas can name it unquoted (=Screen2!B4).
+ */
+export function defaultSheetName(n: number): string {
+  return `Screen${n}`;
+}
+
 export const sheetNameSchema = z
   .string({ error: required('text') })
   .trim()

@@ -11,7 +11,6 @@ import { RouterProvider } from 'react-router/dom';
 import { queryClient } from './app/queryClient.js';
 import { router } from './app/router.js';
 import { watchTheme } from './app/theme/theme.js';
-import './lib/openchemlibBrowser.js';
 
 watchTheme();
 

@@ -303,14 +303,14 @@ describe('the workbook grid in a browser', () => {
 
   it('adds and renames a sheet tab', async () => {
     await page.getByRole('button', { name: 'Add a sheet' }).click();
-    await page.getByRole('tab', { name: 'Sheet2', selected: true }).waitFor();
-    await page.getByRole('tab', { name: 'Sheet2' }).dblclick();
+    await page.getByRole('tab', { name: 'Screen2', selected: true }).waitFor();
+    await page.getByRole('tab', { name: 'Screen2' }).dblclick();
     await page.getByLabel('Sheet name').fill('Limits');
     await page.keyboard.press('Enter');
     await page.getByRole('tab', { name: 'Limits' }).waitFor();
     await reloadWorkbook();
     await page.getByRole('tab', { name: 'Limits' }).waitFor();
-    await page.getByRole('tab', { name: 'Sheet1' }).click();
+    await page.getByRole('tab', { name: 'Screen1' }).click();
     await expectCell('A1', 'O2');
   });
 
@@ -360,7 +360,7 @@ describe('the workbook grid in a browser', () => {
     await page.getByRole('button', { name: 'Export' }).click();
     const menu = page.getByRole('menu', { name: 'Export' });
     const items = await menu.getByRole('menuitem').allTextContents();
-    expect(items.map((t) => /^[^(]*\([^)]*\)/.exec(t)?.[0])).toEqual(['Workbook (.xlsx)', 'Values only (.xlsx)', 'Sheet “Sheet1” (.csv)']);
+    expect(items.map((t) => /^[^(]*\([^)]*\)/.exec(t)?.[0])).toEqual(['Workbook (.xlsx)', 'Values only (.xlsx)', 'Sheet “Screen1” (.csv)']);
     const [download] = await Promise.all([page.waitForEvent('download'), menu.getByRole('menuitem', { name: /^Workbook \(\.xlsx\)/ }).click()]);
     expect(download.suggestedFilename()).toMatch(/\.xlsx$/);
     // An .xlsx file is a ZIP package, which begins with the local-file-header signature "PK" (common practice).
@@ -388,7 +388,7 @@ describe('the workbook grid in a browser', () => {
     await clickCell('A2');
     await page.getByRole('img', { name: 'Molecular orbital diagram of BN' }).waitFor();
     expect(await page.getByTestId('model-caveat').textContent()).toMatch(/Experiment: X ³Π/);
-    await page.getByRole('tab', { name: 'Sheet1' }).click();
+    await page.getByRole('tab', { name: 'Screen1' }).click();
   });
 
   it('raised no uncaught errors in the page', () => {

@@ -109,7 +109,7 @@ describe('two people on one workbook', () => {
     await dialog.getByText(/an invitation was e-mailed/).waitFor();
     await dialog.getByRole('row', { name: `Invitation to ${cy.email}` }).waitFor();
     expect(await dialog.getByLabel('Workbook role of Ben Laszlo').inputValue()).toBe('editor');
-    expect(await dialog.getByLabel('Ben Laszlo on Sheet1').inputValue()).toBe(''); // no role set on the sheet: the workbook role holds
+    expect(await dialog.getByLabel('Ben Laszlo on Screen1').inputValue()).toBe(''); // no role set on the sheet: the workbook role holds
     await dialog.getByRole('button', { name: 'Close' }).click();
   });
 
@@ -119,8 +119,8 @@ describe('two people on one workbook', () => {
     await a.getByTestId('also-here').getByText('+1 here').waitFor();
     await a.getByTestId('also-here').click();
     const board = a.getByRole('dialog', { name: 'Team · Diatomic screening' });
-    await board.getByTestId(/^now-at-/).getByText('Sheet1!C3').waitFor();
-    await board.getByRole('columnheader', { name: /^Sheet1 · 1 here$/ }).waitFor();
+    await board.getByTestId(/^now-at-/).getByText('Screen1!C3').waitFor();
+    await board.getByRole('columnheader', { name: /^Screen1 · 1 here$/ }).waitFor();
     await board.getByRole('button', { name: 'Close' }).click();
   });
 
@@ -142,7 +142,7 @@ describe('two people on one workbook', () => {
     await editor.context.setOffline(false);
     const dialog = b.getByRole('dialog', { name: 'This cell was changed by someone else' });
     await dialog.waitFor();
-    const row = dialog.getByRole('listitem', { name: `Conflict in Sheet1!${a1}` });
+    const row = dialog.getByRole('listitem', { name: `Conflict in Screen1!${a1}` });
     expect(await row.locator('[data-value="theirs"]').textContent()).toBe(theirs);
     expect(await row.locator('[data-value="mine"]').textContent()).toBe(mine);
     return dialog;
@@ -171,7 +171,7 @@ describe('two people on one workbook', () => {
 
   it('greys a protected range for everyone not named on it and refuses edits there', async () => {
     await a.getByRole('button', { name: 'Protect', exact: true }).click();
-    const dialog = a.getByRole('dialog', { name: 'Protect “Sheet1”' });
+    const dialog = a.getByRole('dialog', { name: 'Protect “Screen1”' });
     await dialog.getByLabel('Range to protect').fill('A1:C1');
     await dialog.getByRole('button', { name: 'Protect range' }).click();
     await dialog.getByRole('listitem', { name: 'Range A1:C1' }).waitFor();
@@ -194,7 +194,7 @@ describe('two people on one workbook', () => {
 
   it('greys a locked sheet, says who locked it, when and why, and refuses every edit', async () => {
     await a.getByRole('button', { name: 'Protect', exact: true }).click();
-    const dialog = a.getByRole('dialog', { name: 'Protect “Sheet1”' });
+    const dialog = a.getByRole('dialog', { name: 'Protect “Screen1”' });
     await dialog.getByLabel('Why lock it?').fill('Reference values checked against the tables');
     await dialog.getByRole('button', { name: 'Lock sheet' }).click();
     await dialog.getByRole('button', { name: 'Unlock' }).waitFor();
@@ -202,7 +202,7 @@ describe('two people on one workbook', () => {
 
     await b.getByRole('status', { name: 'Sheet protection' }).getByText(/Locked by Ada Okafor on .*: “Reference values checked against the tables”/).waitFor();
     // The tab carries the lock too, with the banner's summary (who, when, why) on hover.
-    const lockedTab = b.getByRole('tab', { name: 'Sheet1 (locked, view only for you)' });
+    const lockedTab = b.getByRole('tab', { name: 'Screen1 (locked, view only for you)' });
     const why = 'View only — Ada Okafor locked this sheet: “Reference values checked against the tables”. Editors here: Ada Okafor.';
     expect(await lockedTab.getAttribute('title')).toMatch(new RegExp(`^${why.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')}`));
     expect(await cell(b, 'E9').getAttribute('class')).toContain('dsg-cell-disabled');
@@ -222,10 +222,10 @@ describe('two people on one workbook', () => {
     expect([await del.isDisabled(), await del.getAttribute('title')]).toEqual([true, why]);
     // Unlocking would be refused (an editor lifts only locks on sheets they created): disabled, saying why.
     await b.getByRole('button', { name: 'Protect', exact: true }).click();
-    const theirs = b.getByRole('dialog', { name: 'Protect “Sheet1”' });
+    const theirs = b.getByRole('dialog', { name: 'Protect “Screen1”' });
     const unlock = theirs.getByRole('button', { name: 'Unlock' });
     expect(await unlock.isDisabled()).toBe(true);
-    expect(await unlock.locator('xpath=..').getAttribute('title')).toMatch(/only on sheets you created, and "Sheet1" is someone else's/);
+    expect(await unlock.locator('xpath=..').getAttribute('title')).toMatch(/only on sheets you created, and "Screen1" is someone else's/);
     await theirs.getByRole('button', { name: 'Done' }).click();
     expect(await saveState(b).getAttribute('data-state')).toBe('saved');
     await screenshot(b, 'team-locked-sheet-other-window');
@@ -237,7 +237,7 @@ describe('two people on one workbook', () => {
     await dialog.getByRole('button', { name: 'Done' }).click();
     await b.getByText(/Protected range A1:C1: greyed cells/).waitFor();
     await b.getByRole('button', { name: 'Rename', exact: true }).and(b.locator(':not([disabled])')).waitFor();
-    await b.getByRole('tab', { name: 'Sheet1', exact: true }).waitFor();
+    await b.getByRole('tab', { name: 'Screen1', exact: true }).waitFor();
     expect(await cell(b, 'E9').getAttribute('class')).not.toContain('dsg-cell-disabled');
   });
 
@@ -267,14 +267,14 @@ describe('two people on one workbook', () => {
     await screenshot(a, 'team-panel');
     await dialog.getByRole('button', { name: 'Close' }).click();
 
-    // Ben, still a workbook viewer: Measurements opens to him, Sheet1 is marked view-only with why.
+    // Ben, still a workbook viewer: Measurements opens to him, Screen1 is marked view-only with why.
     await b.getByRole('tab', { name: 'Measurements', exact: true }).click();
     await b.locator('[data-testid="sheet-grid"] .dsg-cell:not(.dsg-cell-disabled)').first().waitFor();
     await typeInto(b, 'A1', 'Cp (J/mol/K)');
     await saveState(b).and(b.locator('[data-state="saved"]')).waitFor();
     await a.getByRole('tab', { name: 'Measurements', exact: true }).click();
     await cell(a, 'A1').getByText('Cp (J/mol/K)', { exact: true }).waitFor();
-    const sheet1 = b.getByRole('tab', { name: 'Sheet1 (view only for you)' });
+    const sheet1 = b.getByRole('tab', { name: 'Screen1 (view only for you)' });
     expect(await sheet1.getAttribute('title')).toContain('View only — you view this workbook; an owner can open a sheet to you in the team panel.');
     await sheet1.click();
     expect(await cell(b, 'D8').getAttribute('class')).toContain('dsg-cell-disabled');
@@ -286,7 +286,7 @@ describe('two people on one workbook', () => {
     expect(await b.getByTestId('sheet-message').textContent()).not.toMatch(/not saved/);
     await screenshot(b, 'team-sheet-role-other-window');
 
-    // The server agrees with the greying: his patch to Sheet1 is refused, naming the sheet.
+    // The server agrees with the greying: his patch to Screen1 is refused, naming the sheet.
     const { sheets, revision } = await call(editor.context.request, 'GET', `/workbooks/${workbookId}`);
     const res = await editor.context.request.fetch(`${server.url}/api/workbooks/${workbookId}/patches`, {
       method: 'POST',
@@ -294,9 +294,9 @@ describe('two people on one workbook', () => {
       headers: { origin: server.url },
     });
     expect(res.status()).toBe(403);
-    expect((await res.json()).error.message).toMatch(/^Sheet1!D8 is on sheet "Sheet1": you are a viewer of sheet "Sheet1"/);
+    expect((await res.json()).error.message).toMatch(/^Screen1!D8 is on sheet "Screen1": you are a viewer of sheet "Screen1"/);
     expect(sheet.id).toBe(sheets[1].id);
-    await a.getByRole('tab', { name: 'Sheet1', exact: true }).click();
+    await a.getByRole('tab', { name: 'Screen1', exact: true }).click();
   });
 
   it('lists changes with author, time and cells before → after, and brings the workbook back for everyone', async () => {
@@ -320,7 +320,7 @@ describe('two people on one workbook', () => {
   it('shows the owner the audit log of sharing, roles, protection and restores', async () => {
     await a.getByRole('button', { name: 'Audit' }).click();
     const log = a.getByRole('dialog', { name: 'Audit log' }).getByRole('list', { name: 'Audit entries' });
-    for (const line of [/added Ben Laszlo as an editor/, /invited cy@lab.example by e-mail as a viewer/, /protected A1:C1 on sheet “Sheet1”/, /Ada Okafor locked sheet “Sheet1”/, /changed Ben Laszlo from editor to viewer/, /made Ben Laszlo an editor on sheet “Measurements”/, /restored revision #1/]) {
+    for (const line of [/added Ben Laszlo as an editor/, /invited cy@lab.example by e-mail as a viewer/, /protected A1:C1 on sheet “Screen1”/, /Ada Okafor locked sheet “Screen1”/, /changed Ben Laszlo from editor to viewer/, /made Ben Laszlo an editor on sheet “Measurements”/, /restored revision #1/]) {
       await log.getByText(line).waitFor();
     }
     await screenshot(a, 'team-audit-log');

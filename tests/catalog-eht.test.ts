@@ -5,7 +5,7 @@ import '../functions/openchemlibNode.js';
 import { DetailedCellError } from 'hyperformula';
 import { beforeEach, describe, expect, it } from 'vitest';
 import { EHT_MAX_BASIS } from '../functions/chem/eht.js';
-import { clearEhtCache, ehtCacheStats } from '../functions/chem/ehtCache.js';
+import { clearLocalResults, localComputations } from '../functions/structureResults.js';
 import { createEngine, type SheetInput } from '../functions/engine.js';
 
 function evaluate(rows: SheetInput) {
@@ -19,7 +19,7 @@ const one = (formula: string, rows: SheetInput = []) => evaluate([...rows, [form
 // Hydrogen fluoride at r = 0.917 Å (measured; recalled from memory): 5 basis functions, 8 electrons.
 const HF = 'H 0 0 0; F 0 0 0.917';
 
-beforeEach(() => clearEhtCache());
+beforeEach(() => clearLocalResults());
 
 describe('EHTLEVELS', () => {
   it('spills one row per basis function, energy and occupancy, lowest first, leaving the cell below free', () => {
@@ -63,11 +63,11 @@ describe('EHTLEVELS', () => {
   });
 });
 
-describe('one geometry and one solve per structure', () => {
+describe('one geometry, one solve and one summary per structure', () => {
   it('builds the SMILES conformer once for a row of functions on the same molecule', () => {
     const row = ['CC=O', '=EHTHOMO(A1)', '=EHTLUMO(A1)', '=EHTGAP(A1)', '=EHTCHARGE(A1,3)', '=EHTBONDPOP(A1,2,3)', '=EHTENERGY(A1)', '=EHTHOMOMAKEUP(A1)', '=EHTGEOMETRY(A1)'];
     const values = evaluate([row, row]);
-    expect(ehtCacheStats()).toEqual({ geometryBuilds: 1, modelSolves: 1 });
+    expect(localComputations()).toBe(1);
     const [, homo, lumo, gap, chargeO, popCO, , makeup, geometry] = values[0];
     expect(gap as number).toBeCloseTo((lumo as number) - (homo as number), 9);
     // Acetaldehyde: carbonyl O negative, C=O bonding; the HOMO is the oxygen lone pair (n_O).
@@ -110,4 +110,17 @@ describe('bad input comes back as a cell error naming the problem', () => {
       expect(value).toBeInstanceOf(DetailedCellError);
       expect(value.message).toMatch(message);
     });
+});
+
+describe('model limits in help and docs', () => {
+  it('states in every entry and in docs/eht.md: no self-consistency, exaggerated charges, qualitative energies, and the usual caution', async () => {
+    const { catalog } = await import('../functions/catalog/index.js');
+    const fs = await import('node:fs');
+    const entries = catalog.filter((e) => e.family === 'Extended Hückel' && e.name !== 'EHTGEOMETRY');
+    expect(entries.length).toBeGreaterThanOrEqual(8);
+    const docs = fs.readFileSync(new URL('../docs/eht.md', import.meta.url), 'utf8').replace(/\s+/g, ' ');
+    for (const text of [...entries.map((e) => e.source), docs]) {
+      for (const words of ['no self-consistency', 'exaggerated', 'qualitative', 'safety data sheets', 'qualified review']) expect(text).toContain(words);
+    }
+  });
 });

@@ -148,13 +148,13 @@ describe('fill, sort and paste move formulas the way the engine fills them', () 
 
   it('pastes cells copied in the workbook with their formulas re-pointed', () => {
     const m = open(payload([[0, 0, '4'], [0, 1, '=A1*2']]));
-    pasteCopiedCells(m, 's1', [3], 1, 1, { sheetId: 's1', rows: [0], left: 1, right: 1 });
+    pasteCopiedCells(m, 's1', [3], 1, { sheetId: 's1', rows: [0], left: 1, right: 1 });
     expect(m.input('s1', 3, 1)).toBe('=A4*2');
   });
 
   it('fills every selected cell with one copied cell, each formula re-pointed', () => {
     const m = open(payload([[0, 0, '4'], [0, 1, '=A1*2']]));
-    pasteCopiedCells(m, 's1', [1, 2], 1, 2, { sheetId: 's1', rows: [0], left: 1, right: 1 });
+    pasteCopiedCells(m, 's1', [1, 2], 1, { sheetId: 's1', rows: [0], left: 1, right: 1 }, { down: 2, across: 2 });
     expect([m.input('s1', 1, 1), m.input('s1', 2, 2)]).toEqual(['=A2*2', '=B3*2']);
   });
 

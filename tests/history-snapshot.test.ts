@@ -31,11 +31,11 @@ describe('revision snapshots', () => {
   const shape = (s: { sheets: { name: string; position: number; cells: unknown[] }[] }) => s.sheets.map((x) => [x.name, x.position, x.cells]);
 
   it('shows each revision as it was, tabs included', async () => {
-    expect(shape(await snapshot(0))).toEqual([['Sheet1', 0, []]]);
-    expect(shape(await snapshot(1))).toEqual([['Sheet1', 0, [[0, 0, 'N2']]]]);
-    expect(shape(await snapshot(2))).toEqual([['Sheet1', 0, [[0, 0, 'N2']]], ['Ions', 1, []]]);
-    expect(shape(await snapshot(3))).toEqual([['Sheet1', 0, [[0, 0, 'O2']]], ['Ions', 1, [[0, 1, 'NO+']]]]);
-    expect(shape(await snapshot(4))).toEqual([['Sheet1', 0, [[0, 0, 'O2']]]]);
+    expect(shape(await snapshot(0))).toEqual([['Screen1', 0, []]]);
+    expect(shape(await snapshot(1))).toEqual([['Screen1', 0, [[0, 0, 'N2']]]]);
+    expect(shape(await snapshot(2))).toEqual([['Screen1', 0, [[0, 0, 'N2']]], ['Ions', 1, []]]);
+    expect(shape(await snapshot(3))).toEqual([['Screen1', 0, [[0, 0, 'O2']]], ['Ions', 1, [[0, 1, 'NO+']]]]);
+    expect(shape(await snapshot(4))).toEqual([['Screen1', 0, [[0, 0, 'O2']]]]);
     expect((await snapshot(3)).sheets[1].id).toBe(ions);
   });
 

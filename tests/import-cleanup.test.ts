@@ -51,7 +51,7 @@ describe('a failed import', () => {
     }
     expect(counts(t.db.$client)).toEqual(before);
     const wb = (await lead.agent.get(`/api/workbooks/${id}`)).body;
-    expect([wb.revision, wb.sheets.map((s: { name: string }) => s.name)]).toEqual([0, ['Sheet1']]);
+    expect([wb.revision, wb.sheets.map((s: { name: string }) => s.name)]).toEqual([0, ['Screen1']]);
   });
 
   it('when the clean-up fails too, logs the import\'s error first, shows no one the leftover, and the next start removes it', async () => {

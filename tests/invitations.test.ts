@@ -1,7 +1,7 @@
 // Sharing by e-mail, end to end: nodemailer → the built-in fake SMTP server → mail_messages →
 // GET /api/admin/mail → the link's token → POST /api/invitations/:token/accept.
 import { createHash } from 'node:crypto';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import type { Invitation } from '../shared/team.js';
 import type { WorkbookPayload } from '../shared/workbooks.js';
 import { createMailer } from '../server/mail/mailer.js';
@@ -15,6 +15,9 @@ describe('invitations by e-mail', () => {
   let wb: WorkbookPayload;
   beforeAll(async () => {
     t = await makeTeam();
+  });
+  // A fresh shared workbook per test: no test sees the members, invitations or audit entries of another.
+  beforeEach(async () => {
     wb = await sharedWorkbook(t, 'Nitrogen oxides');
   });
   afterAll(() => t.ctx.mail.stop());
@@ -148,6 +151,12 @@ describe('invitations by e-mail', () => {
   });
 
   it('records sharing in the audit log', async () => {
+    // The workbook's members were added through the API (member.added); one invitation is accepted, one revoked.
+    const accepted = await invite('pia@lab.test', 'viewer');
+    const pia = await signUpPerson(t, 'pia@lab.test', 'Pia Palladium');
+    await pia.agent.post(`/api/invitations/${accepted.token}/accept`).expect(200);
+    const revoked = await invite('quin@lab.test');
+    await t.owner.agent.delete(`/api/workbooks/${wb.id}/invitations/${revoked.invitation.id}`).expect(204);
     const entries = (await t.owner.agent.get(`/api/workbooks/${wb.id}/audit?limit=500`)).body.entries as { action: string }[];
     const actions = new Set(entries.map((e) => e.action));
     for (const a of ['member.added', 'invitation.created', 'invitation.accepted', 'invitation.revoked']) expect(actions).toContain(a);

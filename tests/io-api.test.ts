@@ -2,7 +2,7 @@
 // role, as .xlsx with cached values, values only, or one sheet of CSV; every bad upload a JSON 4xx.
 import ExcelJS from 'exceljs';
 import type { Response } from 'supertest';
-import { afterAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeEach, describe, expect, it } from 'vitest';
 import { benchWorkbook } from '../bench/ioWorkload.js';
 import { createWorkbook } from '../server/services/workbookStore.js';
 import { workbookSheets } from '../server/services/sheetOps.js';
@@ -48,9 +48,19 @@ describe('POST /api/imports and GET /api/workbooks/:id/export', async () => {
     Notes: [['=cmd|/C calc'], ['tested 2024-03-01']],
   });
 
-  const upload = await owner.agent.post('/api/imports').attach('file', screening, 'gas sensor screening.xlsx');
-  const workbookId: string = upload.body.workbookId;
-  const loaded = await owner.agent.get(`/api/workbooks/${workbookId}`);
+  // Each test imports the file afresh and adds what it needs itself, so none depends on another's steps.
+  let upload: Response;
+  let workbookId: string;
+  let loaded: Response;
+  beforeEach(async () => {
+    upload = await owner.agent.post('/api/imports').attach('file', screening, 'gas sensor screening.xlsx');
+    workbookId = upload.body.workbookId;
+    loaded = await owner.agent.get(`/api/workbooks/${workbookId}`);
+  });
+  const notesCsv = Buffer.from('Species,Charge\nO2,-1\n"NO, nitric oxide",+1\n');
+  /** The CSV of notes added to the imported workbook; its name is taken, so it arrives as "Notes (2)". */
+  const addNotesCsv = () => owner.agent.post('/api/imports').field('workbookId', workbookId).attach('file', notesCsv, 'Notes.csv');
+  const letViewerIn = () => owner.agent.post(`/api/workbooks/${workbookId}/members`).send({ email: 'viewer@example.com', role: 'viewer' }).expect(201);
 
   it('creates a workbook named after the file, holding the file’s sheets in place of the empty first sheet', () => {
     expect(upload.status, JSON.stringify(upload.body)).toBe(201);
@@ -68,8 +78,7 @@ describe('POST /api/imports and GET /api/workbooks/:id/export', async () => {
   });
 
   it('adds a CSV as a new sheet of an open workbook, renaming it when the name is taken', async () => {
-    const csv = Buffer.from('Species,Charge\nO2,-1\n"NO, nitric oxide",+1\n');
-    const res = await owner.agent.post('/api/imports').field('workbookId', workbookId).attach('file', csv, 'Notes.csv');
+    const res = await addNotesCsv();
     expect(res.status, JSON.stringify(res.body)).toBe(201);
     expect(res.body.workbookId).toBe(workbookId);
     expect(res.body.sheets.map((s: { name: string }) => s.name)).toEqual(['Notes (2)']);
@@ -79,7 +88,7 @@ describe('POST /api/imports and GET /api/workbooks/:id/export', async () => {
   });
 
   it('lets only editors and owners add sheets by import', async () => {
-    await owner.agent.post(`/api/workbooks/${workbookId}/members`).send({ email: 'viewer@example.com', role: 'viewer' });
+    await letViewerIn();
     const csv = Buffer.from('a,b\n');
     expectError(await viewer.agent.post('/api/imports').field('workbookId', workbookId).attach('file', csv, 'x.csv'), 403, 'forbidden', /viewer/);
     expectError(await stranger.agent.post('/api/imports').field('workbookId', workbookId).attach('file', csv, 'x.csv'), 404, 'not_found', /workbook/);
@@ -109,6 +118,8 @@ describe('POST /api/imports and GET /api/workbooks/:id/export', async () => {
   }, 120_000);
 
   it('exports to a viewer as .xlsx with the server’s values cached beside each formula and a front sheet', async () => {
+    await addNotesCsv().expect(201);
+    await letViewerIn();
     const res = await viewer.agent.get(`/api/workbooks/${workbookId}/export?format=xlsx`).buffer(true).parse(binary);
     expect(res.status).toBe(200);
     expect(res.headers['content-type']).toBe('application/vnd.openxmlformats-officedocument.spreadsheetml.sheet');
@@ -143,6 +154,7 @@ describe('POST /api/imports and GET /api/workbooks/:id/export', async () => {
   });
 
   it('explains a CSV export without a sheet, an unknown sheet or format, and refuses non-members', async () => {
+    await addNotesCsv().expect(201);
     expectError(await owner.agent.get(`/api/workbooks/${workbookId}/export?format=csv`), 400, 'bad_request', /sheet: required for CSV.*"Sheet1", "Notes", "Notes \(2\)"/);
     expectError(await owner.agent.get(`/api/workbooks/${workbookId}/export?format=csv&sheet=Nope`), 404, 'not_found', /no sheet "Nope"/);
     expectError(await owner.agent.get(`/api/workbooks/${workbookId}/export?format=pdf`), 400, 'invalid_input', /format: must be "xlsx", "xlsx-values" or "csv"/);
@@ -151,6 +163,7 @@ describe('POST /api/imports and GET /api/workbooks/:id/export', async () => {
   });
 
   it('writes a sheet lock and a protected range as sheet protection, and says who may edit', async () => {
+    await addNotesCsv().expect(201);
     const [first, notes] = loaded.body.sheets;
     expect((await owner.agent.put(`/api/workbooks/${workbookId}/sheets/${notes.id}/lock`).send({ reason: 'settled' })).status).toBe(200);
     expect((await owner.agent.post(`/api/workbooks/${workbookId}/sheets/${first.id}/protected-ranges`).send({ range: 'A1:C1', editors: [] })).status).toBe(201);

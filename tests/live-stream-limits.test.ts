@@ -5,32 +5,22 @@
 import net from 'node:net';
 import v8 from 'node:v8';
 import vm from 'node:vm';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { beforeAll, describe, expect, it } from 'vitest';
 import type { WorkbookPayload } from '../shared/workbooks.js';
 import { maxUnsentBytes } from '../server/services/liveStream.js';
-import { listen, openEventStream, type EventStreamClient } from './helpers/eventStream.js';
-import { makeTeam, sharedWorkbook, signUpPerson, type Person, type Team } from './helpers/team.js';
+import type { EventStreamClient } from './helpers/eventStream.js';
+import { liveStreamSuite } from './helpers/liveStreamSuite.js';
+import { signUpPerson, type Person, type Team } from './helpers/team.js';
 import { testOrigin } from './helpers/app.js';
 
 describe('live-update streams and the session behind them', () => {
+  const live = liveStreamSuite('Stream ends');
   let t: Team;
   let wb: WorkbookPayload;
-  let server: Awaited<ReturnType<typeof listen>>;
-  const open: EventStreamClient[] = [];
-  beforeAll(async () => {
-    t = await makeTeam();
-    wb = await sharedWorkbook(t, 'Stream ends');
-    server = await listen(t.app);
-  });
-  afterAll(async () => {
-    open.forEach((s) => s.close());
-    await server.close();
-    await t.ctx.mail.stop();
-  });
+  beforeAll(() => ({ t, wb } = live));
 
   async function stream(person: Person) {
-    const s = await openEventStream(`${server.url}/api/workbooks/${wb.id}/events`, { Cookie: person.cookie });
-    open.push(s);
+    const s = await live.stream(person);
     await s.next((e) => e.event === 'ready');
     return s;
   }
@@ -82,7 +72,7 @@ describe('live-update streams and the session behind them', () => {
 
   it('cuts 50 streams whose readers stopped reading, keeps serving the others, and holds no more than the bound for each', async () => {
     const reader = await stream(t.owner);
-    const port = Number(new URL(server.url).port);
+    const port = Number(new URL(live.server.url).port);
     // Clients that open the stream and then never read a byte: the kernel's buffers fill, then the server's.
     async function stalledReader() {
       const socket = net.connect({ port, host: '127.0.0.1' });

@@ -51,7 +51,7 @@ describe('sheet locks', () => {
     const res = await edit(t.editor2.agent, wb, 1, 1, 'NO+');
     expect(res.status).toBe(403);
     expect(res.body.error.code).toBe('protected');
-    expect(res.body.error.message).toMatch(/^Sheet1!B2 is on sheet "Sheet1", locked by Ann Analyst on \d{4}-\d\d-\d\d \("final"\); only Ann Analyst, Bob Bench may change it; nothing was saved$/);
+    expect(res.body.error.message).toMatch(/^Screen1!B2 is on sheet "Screen1", locked by Ann Analyst on \d{4}-\d\d-\d\d \("final"\); only Ann Analyst, Bob Bench may change it; nothing was saved$/);
     expect(res.body.error.details.cells).toEqual([expect.objectContaining({ sheetId: sheet, row: 1, col: 1, lockedSheet: sheet })]);
     expect((await load(t.owner.agent, wb.id)).revision).toBe(0);
   });
@@ -67,10 +67,10 @@ describe('sheet locks', () => {
     await t.owner.agent.put(`/api/workbooks/${wb.id}/sheets/${sheet}/lock`).send({ reason: 'final' }).expect(200);
     const rename = await t.editor.agent.patch(`/api/workbooks/${wb.id}/sheets/${sheet}`).send({ name: 'Mine now' });
     expect(rename.status).toBe(403);
-    expect(rename.body.error).toMatchObject({ code: 'locked', message: expect.stringMatching(/^sheet "Sheet1" is locked by Ann Analyst since .* \("final"\); only Ann Analyst may change it$/) });
+    expect(rename.body.error).toMatchObject({ code: 'locked', message: expect.stringMatching(/^sheet "Screen1" is locked by Ann Analyst since .* \("final"\); only Ann Analyst may change it$/) });
     expect((await t.editor.agent.delete(`/api/workbooks/${wb.id}/sheets/${sheet}`)).status).toBe(403);
     expect((await t.editor.agent.patch(`/api/workbooks/${wb.id}/sheets/${sheet}`).send({ position: 1 })).status).toBe(403);
-    expect((await load(t.owner.agent, wb.id)).sheets.map((s) => s.name)).toEqual(['Sheet1', 'Scratch']);
+    expect((await load(t.owner.agent, wb.id)).sheets.map((s) => s.name)).toEqual(['Screen1', 'Scratch']);
   });
 
   it('lifts the lock on the owner\'s word, after which anyone with the editor role may edit again', async () => {
@@ -86,7 +86,7 @@ describe('sheet locks', () => {
     const ownId = own.body.sheet.id as string;
     const notTheirs = await t.editor.agent.put(`/api/workbooks/${wb.id}/sheets/${sheet}/lock`).send({ reason: 'mine' });
     expect(notTheirs.status).toBe(403);
-    expect(notTheirs.body.error.message).toBe('as an editor you can lock, protect or give roles only on sheets you created, and "Sheet1" is someone else\'s; ask an owner');
+    expect(notTheirs.body.error.message).toBe('as an editor you can lock, protect or give roles only on sheets you created, and "Screen1" is someone else\'s; ask an owner');
     await t.editor.agent.put(`/api/workbooks/${wb.id}/sheets/${ownId}/lock`).send({ reason: 'still measuring' }).expect(200);
     expect((await edit(t.editor2.agent, wb, 0, 0, '1', 1, ownId)).status).toBe(403);
     await t.owner.agent.delete(`/api/workbooks/${wb.id}/sheets/${ownId}/lock`).expect(204);
@@ -128,7 +128,7 @@ describe('sheet locks', () => {
     await t.owner.agent.put(`/api/workbooks/${wb.id}/sheets/${sheet}/lock`).send({ reason: 'final' }).expect(200);
     const restore = await t.editor.agent.post(`/api/workbooks/${wb.id}/revisions/0/restore`);
     expect(restore.status).toBe(403);
-    expect(restore.body.error.message).toMatch(/^Sheet1!A1 is on sheet "Sheet1", locked by Ann Analyst/);
+    expect(restore.body.error.message).toMatch(/^Screen1!A1 is on sheet "Screen1", locked by Ann Analyst/);
     expect((await load(t.owner.agent, wb.id)).sheets[0].cells).toEqual([[0, 0, 'O2']]);
   });
 });
@@ -152,7 +152,7 @@ describe('protected ranges', () => {
     expect(res.body.protectedRange).toMatchObject({ range: 'A1:C1', bounds: { top: 0, left: 0, bottom: 0, right: 2 }, createdBy: { name: 'Ann Analyst' } });
     const inside = await edit(t.editor2.agent, wb, 0, 1, 'CO');
     expect(inside.status).toBe(403);
-    expect(inside.body.error.message).toBe('Sheet1!B1 is in the protected range Sheet1!A1:C1, set by Ann Analyst; only Ann Analyst, Bob Bench may edit it; nothing was saved');
+    expect(inside.body.error.message).toBe('Screen1!B1 is in the protected range Screen1!A1:C1, set by Ann Analyst; only Ann Analyst, Bob Bench may edit it; nothing was saved');
     expect(inside.body.error.details.cells[0]).toMatchObject({ row: 0, col: 1, rangeId: res.body.protectedRange.id });
     expect((await edit(t.editor2.agent, wb, 1, 1, 'CO')).status).toBe(200);
     expect((await edit(t.editor.agent, wb, 0, 1, 'CN-', 1)).status).toBe(200);
@@ -168,7 +168,7 @@ describe('protected ranges', () => {
       ],
     });
     expect(res.status).toBe(403);
-    expect(res.body.error.message).toMatch(/^Sheet1!B1000 is in the protected range Sheet1!B:B/);
+    expect(res.body.error.message).toMatch(/^Screen1!B1000 is in the protected range Screen1!B:B/);
     expect((await load(t.owner.agent, wb.id)).sheets[0].cells).toEqual([]);
   });
 
@@ -177,7 +177,7 @@ describe('protected ranges', () => {
     await protect(t.owner.agent, '2:3').expect(201);
     const del = await t.editor.agent.delete(`/api/workbooks/${wb.id}/sheets/${sheet}`);
     expect(del.status).toBe(403);
-    expect(del.body.error.message).toMatch(/^sheet "Sheet1" holds the protected range Sheet1!2:3, set by Ann Analyst; only Ann Analyst may edit it, so the sheet cannot be deleted$/);
+    expect(del.body.error.message).toMatch(/^sheet "Screen1" holds the protected range Screen1!2:3, set by Ann Analyst; only Ann Analyst may edit it, so the sheet cannot be deleted$/);
   });
 
   it('names a range that is not A1 notation or leaves the grid', async () => {
@@ -215,7 +215,7 @@ describe('protected ranges', () => {
     await t.owner.agent.delete(`/api/workbooks/${wb.id}/sheets/${sheet}/lock`).expect(204);
     const entries = (await t.owner.agent.get(`/api/workbooks/${wb.id}/audit`)).body.entries as { action: string; details: Record<string, unknown> }[];
     expect(entries.slice(0, 4).map((e) => e.action)).toEqual(['sheet.unlocked', 'sheet.locked', 'range.unprotected', 'range.protected']);
-    expect(entries[3].details).toMatchObject({ sheetName: 'Sheet1', range: 'C3' });
+    expect(entries[3].details).toMatchObject({ sheetName: 'Screen1', range: 'C3' });
   });
 });
 

@@ -69,7 +69,7 @@ describe('applying patches', () => {
     const second = await send('bob', base, [cell(w.sheetId, 11, 2, 'OH'), cell(w.sheetId, 10, 2, 'NO+')]);
     expect(second.status).toBe(409);
     expect(second.body.error.code).toBe('conflict');
-    expect(second.body.error.message).toBe(`changed by someone else after revision ${base}: Sheet1!C11 (revision ${first.body.revision}); nothing was saved`);
+    expect(second.body.error.message).toBe(`changed by someone else after revision ${base}: Screen1!C11 (revision ${first.body.revision}); nothing was saved`);
     expect(second.body.error.details.conflicts).toEqual<CellConflict[]>([{ sheetId: w.sheetId, row: 10, col: 2, theirs: 'NO', mine: 'NO+', revision: first.body.revision }]);
 
     const wb = await w.load();

@@ -69,7 +69,7 @@ describe('restoring a revision', () => {
     const res = await w.restore(1);
     expect(res.status).toBe(200);
     expect(res.body).toEqual({ revision: 4, changeCount: 3 });
-    expect(await w.contents()).toEqual([['Sheet1', [[0, 0, 'a1'], [0, 1, 'b1']]]]);
+    expect(await w.contents()).toEqual([['Screen1', [[0, 0, 'a1'], [0, 1, 'b1']]]]);
 
     const detail = (await t.ann.agent.get(`/api/workbooks/${w.id}/revisions/4`).expect(200)).body as RevisionDetail;
     expect(detail.kind).toBe('restore');
@@ -87,9 +87,9 @@ describe('restoring a revision', () => {
     await w.patch(0, [[s, 1, 0, 'NO']]); // 1
     await w.patch(1, [[s, 1, 0, 'NO+'], [s, 2, 0, 'CN']]); // 2
     await w.restore(0).expect(200); // 3: empty again
-    expect(await w.contents()).toEqual([['Sheet1', []]]);
+    expect(await w.contents()).toEqual([['Screen1', []]]);
     await w.restore(2).expect(200); // 4: as after 2
-    expect(await w.contents()).toEqual([['Sheet1', [[1, 0, 'NO+'], [2, 0, 'CN']]]]);
+    expect(await w.contents()).toEqual([['Screen1', [[1, 0, 'NO+'], [2, 0, 'CN']]]]);
   });
 
   it('makes restored cells conflict with a client still based before the restore', async () => {
@@ -115,7 +115,7 @@ describe('restoring a revision', () => {
     expect(res.body.revision).toBe(6);
     const wb = await w.load();
     expect(wb.sheets.map((s) => [s.id, s.name, s.position, s.settings, s.cells])).toEqual([
-      [w.sheetId, 'Sheet1', 0, {}, [[0, 0, '=Ions!A1']]],
+      [w.sheetId, 'Screen1', 0, {}, [[0, 0, '=Ions!A1']]],
       [ions.id, 'Ions', 1, {}, [[0, 0, 'NO+']]],
     ]);
 

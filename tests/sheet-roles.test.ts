@@ -27,7 +27,7 @@ describe('roles per sheet', () => {
 
   it('lists every member with the workbook role as their role on a sheet nobody has set', async () => {
     const r = await roles(t.viewer.agent);
-    expect(r).toMatchObject({ sheetId: sheet, sheetName: 'Sheet1', lock: null, overrides: [] });
+    expect(r).toMatchObject({ sheetId: sheet, sheetName: 'Screen1', lock: null, overrides: [] });
     expect(r.members.map((m) => [m.user.name, m.workbookRole, m.role, m.source])).toEqual([
       ['Ann Analyst', 'owner', 'editor', 'workbook'],
       ['Bob Bench', 'editor', 'editor', 'workbook'],
@@ -51,7 +51,7 @@ describe('roles per sheet', () => {
     expect((await edit(t.viewer.agent, 1, 'O2', other)).status).toBe(403);
     const refused = await edit(t.editor.agent, 2, 'N2');
     expect(refused.status).toBe(403);
-    expect(refused.body.error.message).toBe('Sheet1!A3 is on sheet "Sheet1": Ann Analyst made you a viewer of sheet "Sheet1"; ask them or an owner; nothing was saved');
+    expect(refused.body.error.message).toBe('Screen1!A3 is on sheet "Screen1": Ann Analyst made you a viewer of sheet "Screen1"; ask them or an owner; nothing was saved');
     expect((await edit(t.editor.agent, 2, 'N2', other)).status).toBe(200);
 
     // The workbook load tells each of them their role on each sheet, in tab order.
@@ -96,7 +96,7 @@ describe('roles per sheet', () => {
     expect((await put(t.editor.agent, 'vic@lab.test', 'editor', mine)).status).toBe(200);
     const notTheirs = await put(t.editor.agent, 'vic@lab.test', 'editor');
     expect(notTheirs.status).toBe(403);
-    expect(notTheirs.body.error.message).toMatch(/only on sheets you created, and "Sheet1" is someone else's/);
+    expect(notTheirs.body.error.message).toMatch(/only on sheets you created, and "Screen1" is someone else's/);
     const owner = await put(t.editor.agent, 'ann@lab.test', 'viewer', mine);
     expect(owner.status).toBe(403);
     expect(owner.body.error.message).toBe('only an owner may change an owner\'s role on "Bench"');
@@ -148,11 +148,11 @@ describe('roles per sheet', () => {
     const book = new ExcelJS.Workbook();
     await book.xlsx.load(res.body as unknown as ArrayBuffer);
     const protectedSheet = (name: string) => (book.getWorksheet(name) as unknown as { sheetProtection?: { sheet?: boolean } }).sheetProtection?.sheet ?? false;
-    expect(protectedSheet('Sheet1')).toBe(true); // Bob only views it
+    expect(protectedSheet('Screen1')).toBe(true); // Bob only views it
     expect(protectedSheet('Open')).toBe(false); // opening a sheet to one more person closes it to nobody
     const front = book.worksheets[0];
     const text: string[] = [];
     front.eachRow((row) => row.eachCell((c) => text.push(String(c.value))));
-    expect(text.join('\n')).toMatch(/Sheet1: roles set on this sheet in Orbitab \(viewer: Bob Bench\)\. In this file the whole sheet is protected without a password/);
+    expect(text.join('\n')).toMatch(/Screen1: roles set on this sheet in Orbitab \(viewer: Bob Bench\)\. In this file the whole sheet is protected without a password/);
   });
 });

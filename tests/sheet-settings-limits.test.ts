@@ -56,7 +56,7 @@ describe('PATCH /api/workbooks/:id/sheets/:sheetId settings', async () => {
     const exported = await agent.get(`/api/workbooks/${id}/export?format=xlsx`).buffer(true).parse(binary).expect(200);
     const wb = new ExcelJS.Workbook();
     await wb.xlsx.load(exported.body as unknown as ArrayBuffer);
-    expect([...wb.getWorksheet('Sheet1')!.model.merges].sort()).toEqual(['A3:B4', 'G1:H1']);
+    expect([...wb.getWorksheet('Screen1')!.model.merges].sort()).toEqual(['A3:B4', 'G1:H1']);
   });
 
   it('exports a sheet whose merges reach the limit', async () => {

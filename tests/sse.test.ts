@@ -1,32 +1,17 @@
 // Live updates over Server-Sent Events: a revision saved by one client reaches another's open stream
 // within a second; presence lists who has the workbook open and where their cursor is; streams
 // replay what a reconnecting client missed and close when access ends.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { beforeAll, describe, expect, it } from 'vitest';
 import type { WorkbookPayload } from '../shared/workbooks.js';
-import { listen, openEventStream, type EventStreamClient } from './helpers/eventStream.js';
-import { makeTeam, sharedWorkbook, type Person, type Team } from './helpers/team.js';
+import { liveStreamSuite } from './helpers/liveStreamSuite.js';
+import type { Team } from './helpers/team.js';
 
 describe('live updates', () => {
+  const live = liveStreamSuite('Live screen');
   let t: Team;
   let wb: WorkbookPayload;
-  let server: Awaited<ReturnType<typeof listen>>;
-  const open: EventStreamClient[] = [];
-  beforeAll(async () => {
-    t = await makeTeam();
-    wb = await sharedWorkbook(t, 'Live screen');
-    server = await listen(t.app);
-  });
-  afterAll(async () => {
-    open.forEach((s) => s.close());
-    await server.close();
-    await t.ctx.mail.stop();
-  });
-
-  async function stream(person: Person | null, workbookId = wb.id, headers: Record<string, string> = {}) {
-    const s = await openEventStream(`${server.url}/api/workbooks/${workbookId}/events`, { ...(person ? { Cookie: person.cookie } : {}), ...headers });
-    open.push(s);
-    return s;
-  }
+  beforeAll(() => ({ t, wb } = live));
+  const stream = live.stream;
   const revisionNow = async () => (await t.owner.agent.get(`/api/workbooks/${wb.id}`)).body.revision as number;
 
   it('pushes a revision saved by one client to another client\'s stream within a second', async () => {

@@ -1,6 +1,6 @@
 // The workbook API as a specification: workbooks and their tabs, who may reach them, and how a
 // tab change becomes a revision. Patches, conflicts and restores are in patches-api.test.ts.
-import { beforeAll, describe, expect, it } from 'vitest';
+import { beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { workbookMembers } from '../server/db/schema.js';
 import type { WorkbookPayload, WorkbookSummary } from '../shared/workbooks.js';
 import { makeTestApp } from './helpers/app.js';
@@ -30,7 +30,7 @@ describe('workbooks', () => {
     t = await team();
   });
 
-  it('creates a workbook owned by its creator, with one empty Sheet1 at revision 0', async () => {
+  it('creates a workbook owned by its creator, with one empty Screen1 at revision 0', async () => {
     const res = await t.ann.agent.post('/api/workbooks').send({ title: '  Radicals and ions  ' });
     expect(res.status).toBe(201);
     const summary = res.body.workbook as WorkbookSummary;
@@ -38,7 +38,7 @@ describe('workbooks', () => {
 
     const wb = (await t.ann.agent.get(`/api/workbooks/${summary.id}`)).body as WorkbookPayload;
     expect(wb).toMatchObject({ id: summary.id, title: 'Radicals and ions', revision: 0, role: 'owner' });
-    expect(wb.sheets).toEqual([{ id: expect.any(String), name: 'Sheet1', position: 0, settings: {}, cells: [] }]);
+    expect(wb.sheets).toEqual([{ id: expect.any(String), name: 'Screen1', position: 0, settings: {}, cells: [], createdBy: t.ann.user.id }]);
   });
 
   it('lists only the workbooks the user belongs to', async () => {
@@ -85,6 +85,9 @@ describe('who may reach a workbook', () => {
   let routes: [method: 'get' | 'post' | 'patch' | 'delete', path: string, body?: object][];
   beforeAll(async () => {
     t = await team();
+  });
+  // Each test gets its own workbook (one saved cell, revision 1), so none sees another's membership rows.
+  beforeEach(async () => {
     wb = await newWorkbook(t.ann.agent);
     const s = wb.sheets[0].id;
     await t.ann.agent.post(`/api/workbooks/${wb.id}/patches`).send({ baseRevision: 0, changes: [{ sheetId: s, row: 0, col: 0, input: 'O2' }] }).expect(200);
@@ -154,13 +157,13 @@ describe('sheets', () => {
 
   const tabs = async (id: string) => ((await t.ann.agent.get(`/api/workbooks/${id}`)).body as WorkbookPayload).sheets.map((s) => [s.name, s.position]);
 
-  it('adds sheets named Sheet<n> at the end, or with a name at a given position', async () => {
+  it('adds sheets named Screen<n> at the end, or with a name at a given position', async () => {
     const wb = await newWorkbook(t.ann.agent);
     const second = await t.ann.agent.post(`/api/workbooks/${wb.id}/sheets`).send({});
     expect(second.status).toBe(201);
-    expect(second.body).toMatchObject({ revision: 1, sheet: { name: 'Sheet2', position: 1, settings: {} } });
+    expect(second.body).toMatchObject({ revision: 1, sheet: { name: 'Screen2', position: 1, settings: {} } });
     await t.ann.agent.post(`/api/workbooks/${wb.id}/sheets`).send({ name: 'Ions', position: 0 }).expect(201);
-    expect(await tabs(wb.id)).toEqual([['Ions', 0], ['Sheet1', 1], ['Sheet2', 2]]);
+    expect(await tabs(wb.id)).toEqual([['Ions', 0], ['Screen1', 1], ['Screen2', 2]]);
     const beyond = await t.ann.agent.post(`/api/workbooks/${wb.id}/sheets`).send({ position: 9 });
     expect(beyond.status).toBe(400);
     expect(beyond.body.error.message).toBe('position: must be at most 3 (the number of sheets)');
@@ -173,9 +176,9 @@ describe('sheets', () => {
     expect(renamed.status).toBe(200);
     expect(renamed.body.sheet.name).toBe('Open-shell species');
 
-    const taken = await t.ann.agent.patch(`/api/workbooks/${wb.id}/sheets/${other.id}`).send({ name: 'sheet1' });
+    const taken = await t.ann.agent.patch(`/api/workbooks/${wb.id}/sheets/${other.id}`).send({ name: 'screen1' });
     expect(taken.status).toBe(409);
-    expect(taken.body.error.message).toBe('name: a sheet named "Sheet1" already exists in this workbook');
+    expect(taken.body.error.message).toBe('name: a sheet named "Screen1" already exists in this workbook');
     for (const bad of ['a/b', 'Q?', "'quoted'", '[x]']) {
       const res = await t.ann.agent.patch(`/api/workbooks/${wb.id}/sheets/${other.id}`).send({ name: bad });
       expect(res.status, bad).toBe(400);
@@ -192,9 +195,9 @@ describe('sheets', () => {
     await t.ann.agent.post(`/api/workbooks/${wb.id}/sheets`).send({ name: 'C' }).expect(201);
     const c = (await t.ann.agent.get(`/api/workbooks/${wb.id}`)).body.sheets[2];
     await t.ann.agent.patch(`/api/workbooks/${wb.id}/sheets/${c.id}`).send({ position: 0 }).expect(200);
-    expect(await tabs(wb.id)).toEqual([['C', 0], ['Sheet1', 1], ['B', 2]]);
+    expect(await tabs(wb.id)).toEqual([['C', 0], ['Screen1', 1], ['B', 2]]);
     await t.ann.agent.patch(`/api/workbooks/${wb.id}/sheets/${c.id}`).send({ position: 2 }).expect(200);
-    expect(await tabs(wb.id)).toEqual([['Sheet1', 0], ['B', 1], ['C', 2]]);
+    expect(await tabs(wb.id)).toEqual([['Screen1', 0], ['B', 1], ['C', 2]]);
     const past = await t.ann.agent.patch(`/api/workbooks/${wb.id}/sheets/${b.id}`).send({ position: 3 });
     expect(past.status).toBe(400);
   });
@@ -206,10 +209,10 @@ describe('sheets', () => {
     const del = await t.ann.agent.delete(`/api/workbooks/${wb.id}/sheets/${extra.id}`);
     expect(del.status).toBe(200);
     expect(del.body.revision).toBe(3);
-    expect(await tabs(wb.id)).toEqual([['Sheet1', 0]]);
+    expect(await tabs(wb.id)).toEqual([['Screen1', 0]]);
     const last = await t.ann.agent.delete(`/api/workbooks/${wb.id}/sheets/${wb.sheets[0].id}`);
     expect(last.status).toBe(409);
-    expect(last.body.error.message).toBe('"Sheet1" is the only sheet; a workbook keeps at least one');
+    expect(last.body.error.message).toBe('"Screen1" is the only sheet; a workbook keeps at least one');
   });
 
   it('records every tab change as a revision of kind "sheet"', async () => {
@@ -242,6 +245,6 @@ describe('sheets', () => {
     expect(patch.status).toBe(404);
     expect(patch.body.error.message).toBe(`changes.0.sheetId: sheet ${foreign} not found in this workbook`);
     const untouched = (await t.ann.agent.get(`/api/workbooks/${alsoMine.id}`)).body as WorkbookPayload;
-    expect(untouched).toMatchObject({ revision: 0, sheets: [{ name: 'Sheet1', cells: [] }] });
+    expect(untouched).toMatchObject({ revision: 0, sheets: [{ name: 'Screen1', cells: [] }] });
   });
 });

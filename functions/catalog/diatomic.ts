@@ -1,6 +1,7 @@
 // The Diatomic family: valence MO analysis of a diatomic molecule or ion typed as text.
 // The science is in chem/diatomic.ts (cached per species and ordering); these entries only read
 // arguments and pick a field. Examples are checked through the engine by the catalog test.
+import { oneBasedIndex } from '../chem/errors.js';
 import { MAX_VALENCE_LEVELS } from '../chem/moDiagram.js';
 import {
   analysisOf,
@@ -27,19 +28,15 @@ const MOTABLE_COLUMNS = 3;
 
 const KNOWN_FAILURES_LIST = KNOWN_GROUND_STATE_FAILURES.map((f) => f.species).join(', ');
 
-function index(value: number, what: string, max: number): number {
-  if (!Number.isInteger(value) || value < 1 || value > max) throw new ChemError(`${what} ${value} is outside 1 to ${max}`, 'REF');
-  return value;
-}
-
 function moTable(species: Table, ordering?: string, row?: number, column?: number): Scalar | Table {
   const analysis = analyseDiatomic(speciesFromTable(species), orderingOf(ordering));
   const rows: Table = analysis.levels.map((l) => [l.label, l.character, l.occupancy]);
   while (rows.length < MAX_VALENCE_LEVELS) rows.push(['', '', '']);
   if (row === undefined) return rows;
-  const picked = rows[index(row, 'row', MAX_VALENCE_LEVELS) - 1];
+  // Out of range stays #REF!, as a spreadsheet's own INDEX answers.
+  const picked = rows[oneBasedIndex(row, MAX_VALENCE_LEVELS, { item: 'row', holder: 'the table', kind: 'REF' })];
   if (column === undefined) return [picked];
-  return picked[index(column, 'column', MOTABLE_COLUMNS) - 1];
+  return picked[oneBasedIndex(column, MOTABLE_COLUMNS, { item: 'column', holder: 'the table', kind: 'REF' })];
 }
 
 export const diatomicFunctions: CatalogEntry[] = [

@@ -2,10 +2,11 @@
 // overlap populations, the one-electron energy sum and the HOMO's make-up, from a 3D structure
 // given as SMILES (a generated conformer), XYZ text or a molfile. Science in functions/chem/eht.ts.
 import { ChemError, type CatalogEntry, type ParamSpec, type SpillArg } from './types.js';
-import { describeComposition, EHT_MAX_ATOMS, EHT_MAX_BASIS, frontier, homoIndex, levelComposition, mullikenCharge, oneElectronEnergy, overlapPopulation } from '../chem/eht.js';
-import { ehtModelOf, geometryOf } from '../chem/ehtCache.js';
+import { EHT_MAX_ATOMS, EHT_MAX_BASIS } from '../chem/eht.js';
 import { elementParameters } from '../chem/ehtParams.js';
-import { CONFORMER_SEED, type Geometry3d } from '../chem/geometry3d.js';
+import { summaryCharge, summaryFrontier, summaryHomoMakeup, summaryOverlapPopulation, type EhtSummary } from '../chem/ehtSummary.js';
+import { CONFORMER_SEED, structureElements } from '../chem/geometry3d.js';
+import { ehtSummaryOf } from '../structureResults.js';
 import { checkSpillLength, MAX_SPILL_ROWS, pickIndex } from './huckelSpill.js';
 
 // Water at its measured gas-phase geometry, r(OH) 0.9578 Å, ∠HOH 104.48° (NIST CCCBDB experimental
@@ -36,9 +37,9 @@ const atomIndex = (name: string): ParamSpec => ({
   description: 'Atom number from 1: the XYZ/molfile order, or for SMILES the heavy atoms in the order written, then the added hydrogens.',
 });
 
-/** Basis-function count of a geometry, without solving (for spill sizes). */
-function basisSize(g: Geometry3d): number {
-  return g.elements.reduce((n, el) => n + (elementParameters(el)?.shells.reduce((m, s) => m + 2 * s.l + 1, 0) ?? 0), 0);
+/** Basis-function count of a structure, without a conformer or a solve (for spill sizes). */
+function basisSize(elements: string[]): number {
+  return elements.reduce((n, el) => n + (elementParameters(el)?.shells.reduce((m, s) => m + 2 * s.l + 1, 0) ?? 0), 0);
 }
 
 function levelSpill(args: SpillArg[]): { rows: number; cols: number } {
@@ -50,15 +51,15 @@ function levelSpill(args: SpillArg[]): { rows: number; cols: number } {
   if (arg.kind !== 'literal') return { rows: MAX_SPILL_ROWS, cols: 2 };
   if (typeof arg.value !== 'string') return one;
   try {
-    const n = basisSize(geometryOf(arg.value));
+    const n = basisSize(structureElements(arg.value));
     return n <= MAX_SPILL_ROWS ? { rows: n, cols: 2 } : one;
   } catch {
     return one; // the implementation reports the error in the anchor cell
   }
 }
 
-function describeGeometry(g: Geometry3d): string {
-  const atoms = `${g.elements.length} atom${g.elements.length === 1 ? '' : 's'}`;
+function describeGeometry(g: EhtSummary): string {
+  const atoms = `${g.atoms} atom${g.atoms === 1 ? '' : 's'}`;
   if (g.source === 'xyz') return `XYZ text as given, ${atoms}`;
   if (g.source === 'molfile') return `molfile 3D coordinates as given, ${atoms}`;
   return g.forceFieldTidied
@@ -80,10 +81,10 @@ export const ehtEntries: CatalogEntry[] = [
     source: `${HOFFMANN}; Slater-type overlaps R. S. Mulliken, C. A. Rieke, D. Orloff, H. Orloff, J. Chem. Phys. 17, 1248 (1949); H_ij = 1.75·S_ij(H_ii + H_jj)/2 (M. Wolfsberg, L. Helmholz, J. Chem. Phys. 20, 837 (1952)); HC = SCE by Löwdin orthogonalization. Electrons fill from the lowest level, two per level; a partly filled degenerate set shares its electrons equally. A cell reference spills a fixed ${MAX_SPILL_ROWS}×2 area; larger molecules must use k. ${LIMITS}`,
     spill: levelSpill,
     implementation: (s: string, k?: number, q?: number) => {
-      const model = ehtModelOf(s, q);
-      if (k !== undefined && k !== 0) return pickIndex(model.levels, k, 'level', 'levels').energyEv;
+      const model = ehtSummaryOf(s, q);
+      if (k !== undefined && k !== 0) return pickIndex(model.levels, k, 'level', 'levels')[0];
       checkSpillLength(model.levels.length, 'EHTLEVELS', 'EHTLEVELS(structure, k)');
-      return model.levels.map((l) => [l.energyEv, l.occupancy]);
+      return model.levels.map(([energy, electrons]) => [energy, electrons]);
     },
   },
   {
@@ -94,7 +95,7 @@ export const ehtEntries: CatalogEntry[] = [
     returns: { description: 'ε_HOMO', unit: 'eV', kind: 'number' },
     examples: [{ formula: `=EHTHOMO("${WATER}")`, expected: -14.8, tolerance: 1e-6, note: 'the out-of-plane O 2p (1b1) takes no part in bonding, so it sits at H_pp(O)' }],
     source: `${HOFFMANN}. A radical's singly filled level counts as the HOMO. ${LIMITS}`,
-    implementation: (s: string, q?: number) => frontier(ehtModelOf(s, q)).homoEv,
+    implementation: (s: string, q?: number) => summaryFrontier(ehtSummaryOf(s, q)).homoEv,
   },
   {
     name: 'EHTLUMO',
@@ -104,7 +105,7 @@ export const ehtEntries: CatalogEntry[] = [
     returns: { description: 'ε_LUMO', unit: 'eV', kind: 'number' },
     examples: [{ formula: `=EHTLUMO("${ETHYLENE}")`, expected: -8.231, tolerance: 0.001, note: 'ethylene π*' }],
     source: `${HOFFMANN}. ${LIMITS}`,
-    implementation: (s: string, q?: number) => frontier(ehtModelOf(s, q)).lumoEv,
+    implementation: (s: string, q?: number) => summaryFrontier(ehtSummaryOf(s, q)).lumoEv,
   },
   {
     name: 'EHTGAP',
@@ -115,7 +116,7 @@ export const ehtEntries: CatalogEntry[] = [
     examples: [{ formula: `=EHTGAP("${ETHYLENE}")`, expected: 4.988, tolerance: 0.001, note: 'ethylene π → π*; a one-electron gap, not an excitation energy' }],
     source: `${HOFFMANN}. ${LIMITS}`,
     implementation: (s: string, q?: number) => {
-      const { homoEv, lumoEv } = frontier(ehtModelOf(s, q));
+      const { homoEv, lumoEv } = summaryFrontier(ehtSummaryOf(s, q));
       return lumoEv - homoEv;
     },
   },
@@ -127,7 +128,7 @@ export const ehtEntries: CatalogEntry[] = [
     returns: { description: 'q_A', unit: 'e', kind: 'number' },
     examples: [{ formula: `=EHTCHARGE("${WATER}",1)`, expected: -0.880, tolerance: 0.001, note: 'oxygen; exaggerated, as EHT charges are' }],
     source: `${MULLIKEN}; ${HOFFMANN}. ${LIMITS}`,
-    implementation: (s: string, atom: number, q?: number) => mullikenCharge(ehtModelOf(s, q), atom),
+    implementation: (s: string, atom: number, q?: number) => summaryCharge(ehtSummaryOf(s, q), atom),
   },
   {
     name: 'EHTBONDPOP',
@@ -137,7 +138,7 @@ export const ehtEntries: CatalogEntry[] = [
     returns: { description: '2 Σ P_μν S_μν over μ on i, ν on j', unit: 'e', kind: 'number' },
     examples: [{ formula: `=EHTBONDPOP("${ETHYLENE}",1,2)`, expected: 1.304, tolerance: 0.001, note: 'C=C' }],
     source: `${MULLIKEN}. Atoms need not be bonded: non-bonded pairs give small or negative values. ${LIMITS}`,
-    implementation: (s: string, i: number, j: number, q?: number) => overlapPopulation(ehtModelOf(s, q), i, j),
+    implementation: (s: string, i: number, j: number, q?: number) => summaryOverlapPopulation(ehtSummaryOf(s, q), i, j),
   },
   {
     name: 'EHTENERGY',
@@ -147,7 +148,7 @@ export const ehtEntries: CatalogEntry[] = [
     returns: { description: 'Σ n_k ε_k', unit: 'eV', kind: 'number' },
     examples: [{ formula: `=EHTENERGY("${WATER}")`, expected: -161.242, tolerance: 0.001 }],
     source: `${HOFFMANN}; Walsh-type shape comparisons: A. D. Walsh, J. Chem. Soc. 2260 (1953). No nuclear repulsion term: differences between geometries are meaningful only qualitatively. ${LIMITS}`,
-    implementation: (s: string, q?: number) => oneElectronEnergy(ehtModelOf(s, q)),
+    implementation: (s: string, q?: number) => ehtSummaryOf(s, q).oneElectronEnergyEv,
   },
   {
     name: 'EHTHOMOMAKEUP',
@@ -161,8 +162,7 @@ export const ehtEntries: CatalogEntry[] = [
     ],
     source: `Mulliken shares c_μ Σ_ν S_μν c_ν summed over each atom's shell (${MULLIKEN}); a degenerate HOMO set is averaged. ${LIMITS}`,
     implementation: (s: string, q?: number) => {
-      const model = ehtModelOf(s, q);
-      return describeComposition(levelComposition(model, homoIndex(model)));
+      return summaryHomoMakeup(ehtSummaryOf(s, q));
     },
   },
   {
@@ -175,7 +175,7 @@ export const ehtEntries: CatalogEntry[] = [
     source: `SMILES conformers: openchemlib ConformerGenerator (fixed seed ${CONFORMER_SEED}) and MMFF94s+ (T. A. Halgren, J. Comput. Chem. 17, 490 (1996); 20, 720 (1999)).`,
     implementation: (s: string) => {
       if (typeof s !== 'string') throw new ChemError('the structure must be text: SMILES, XYZ or a molfile');
-      return describeGeometry(geometryOf(s));
+      return describeGeometry(ehtSummaryOf(s));
     },
   },
 ];

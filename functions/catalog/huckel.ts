@@ -1,5 +1,6 @@
 // The Hückel π-system family: levels, gaps, π energies, bond orders, charges, aromaticity and an
 // absorption estimate, from a SMILES string or a hand-built Hückel matrix. Science in functions/chem/.
+import { oneBasedIndex } from '../chem/errors.js';
 import { ChemError, type CatalogEntry, type ParamSpec, type Table } from './types.js';
 import { absorptionMaxNm, DEFAULT_BETA_EV, DEFAULT_OFFSET_EV, HC_EV_NM } from '../chem/absorption.js';
 import { pppAbsorptionNm } from './spectra.js';
@@ -49,14 +50,11 @@ function electronCount(model: HuckelModel, given: number | undefined): number {
 function centreIndex(model: HuckelModel, atom: number): number {
   const pi = model.pi;
   if (!pi) {
-    if (!Number.isInteger(atom) || atom < 1 || atom > model.levels.length)
-      throw new ChemError(`atom ${atom} is out of range: the matrix has ${model.levels.length} centres (use 1 to ${model.levels.length})`);
-    return atom - 1;
+    return oneBasedIndex(atom, model.levels.length, { item: 'atom', items: 'centres', holder: 'the matrix' });
   }
   if (!pi.numberingFollowsSmiles)
     throw new ChemError(`atom numbers are ambiguous in '${pi.smiles}': it writes hydrogens as atoms ([H]); write them inside the brackets ([CH2]) or leave them implicit`);
-  if (!Number.isInteger(atom) || atom < 1 || atom > pi.atomCount)
-    throw new ChemError(`atom ${atom} is out of range: '${pi.smiles}' has ${pi.atomCount} heavy atoms (use 1 to ${pi.atomCount})`);
+  oneBasedIndex(atom, pi.atomCount, { item: 'atom', items: 'heavy atoms', holder: `'${pi.smiles}'` });
   const centre = pi.centreOfAtom.get(atom);
   if (centre === undefined)
     throw new ChemError(`atom ${atom} (${pi.atomElements[atom - 1]}) of '${pi.smiles}' is not in the π system: it has no p orbital in the conjugated framework`);

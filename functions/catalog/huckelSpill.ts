@@ -6,6 +6,7 @@
 //   MAX_SPILL_ROWS-row area whose unused rows stay empty;
 // - and no function ever returns more than MAX_SPILL_ROWS rows: larger systems must use the index
 //   argument (one value per cell), which is what a screening column wants anyway.
+import { oneBasedIndex } from '../chem/errors.js';
 import { ChemError, type SpillArg } from './types.js';
 import { piSystemOf } from './huckelLimits.js';
 
@@ -42,9 +43,7 @@ export function checkSpillLength(n: number, functionName: string, indexHint: str
 
 /** Picks the 1-based index k from a list, naming the valid range when it is out of bounds. */
 export function pickIndex<T>(list: T[], k: number, what: string, plural: string): T {
-  if (!Number.isInteger(k) || k < 1 || k > list.length)
-    throw new ChemError(`${what} ${k} is out of range: this system has ${list.length} ${plural} (use 1 to ${list.length})`);
-  return list[k - 1];
+  return list[oneBasedIndex(k, list.length, { item: what, items: plural, holder: 'this system' })];
 }
 
 export function column(values: number[]): number[][] {

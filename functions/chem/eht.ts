@@ -6,7 +6,7 @@
 // and the generalized eigenproblem HC = SCE solved by Löwdin orthogonalization (eigen.ts).
 // No self-consistency: H does not depend on the charges, so charges come out exaggerated and
 // energies are qualitative. Populations: R. S. Mulliken, J. Chem. Phys. 23, 1833 (1955).
-import { ChemError } from './errors.js';
+import { ChemError, oneBasedIndex } from './errors.js';
 import { solveSecular } from './eigen.js';
 import { elementParameters, PARAMETRISED_ELEMENTS, WOLFSBERG_HELMHOLZ_K } from './ehtParams.js';
 import type { Geometry3d } from './geometry3d.js';
@@ -186,8 +186,7 @@ function density(model: EhtModel): number[][] {
 
 function checkAtom(model: EhtModel, atom: number, name: string): number {
   const count = model.geometry.elements.length;
-  if (!Number.isInteger(atom) || atom < 1 || atom > count) throw new ChemError(`${name} ${atom} is out of range: the structure has ${count} atoms (use 1 to ${count})`);
-  return atom - 1;
+  return oneBasedIndex(atom, count, { item: name, items: 'atoms', holder: 'the structure' });
 }
 
 /** Mulliken net charge of atom (1-based): valence electrons − gross population. */

@@ -14,3 +14,22 @@ export class ChemError extends Error {
     this.name = 'ChemError';
   }
 }
+
+/** What a 1-based index counts, for the out-of-range message: "level 7 is out of range: this system has 6 levels (use 1 to 6)". */
+export interface IndexedItems {
+  /** One item, e.g. "level". */
+  item: string;
+  /** Several, when not item + "s" (e.g. "heavy atoms" for "atom"). */
+  items?: string;
+  /** What holds them, e.g. "this system", "'C=CC=C'". */
+  holder: string;
+  /** Error kind, #VALUE! unless the caller keeps another. */
+  kind?: ErrorKind;
+}
+
+/** The one check of a 1-based index argument: k must be a whole number from 1 to count. Returns k − 1. */
+export function oneBasedIndex(k: number, count: number, what: IndexedItems): number {
+  if (!Number.isInteger(k) || k < 1 || k > count)
+    throw new ChemError(`${what.item} ${k} is out of range: ${what.holder} has ${count} ${what.items ?? `${what.item}s`} (use 1 to ${count})`, what.kind);
+  return k - 1;
+}

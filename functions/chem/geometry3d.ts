@@ -135,3 +135,26 @@ export function conformerFromSmiles(smiles: string): Geometry3d {
   }
   return { ...fromOclMolecule(conformer, 'smiles-conformer'), forceFieldTidied };
 }
+
+/**
+ * The elements of a structure, hydrogens included, without building a conformer: what a spill size
+ * needs before the (possibly deferred) solve. XYZ and molfile text are read as usual; SMILES counts
+ * each atom and its implicit hydrogens.
+ */
+export function structureElements(text: string): string[] {
+  const t = text.trim();
+  if (geometrySourceOf(t) !== 'smiles-conformer') return readGeometry(t).elements;
+  let molecule: Molecule;
+  try {
+    molecule = Molecule.fromSmiles(t);
+  } catch {
+    throw new ChemError(`cannot read SMILES '${t}'`);
+  }
+  molecule.ensureHelperArrays(Molecule.cHelperNeighbours);
+  const out: string[] = [];
+  for (let a = 0; a < molecule.getAllAtoms(); a++) {
+    out.push(molecule.getAtomLabel(a));
+    for (let h = 0; h < molecule.getImplicitHydrogens(a); h++) out.push('H');
+  }
+  return out;
+}

@@ -8,7 +8,7 @@
 // whose diagonals are ΔE + 2K − J and ΔE − J. Transition dipole of a singlet with amplitudes X_ia:
 //   μ = √2 Σ_ia X_ia Σ_μ c_μi c_μa r_μ,     oscillator strength f = (2/3) ΔE(Eh) |μ|²(a.u.).
 import { symmetricEigen } from './eigenFast.js';
-import { ChemError } from './errors.js';
+import { ChemError, oneBasedIndex } from './errors.js';
 import { piSystemOf } from './huckelCache.js';
 import type { PiSystem } from './piSystem.js';
 import { TextMemo } from './textMemo.js';
@@ -64,10 +64,26 @@ function moLabel(k: number, occupied: number): string {
   return above === 0 ? 'LUMO' : `LUMO+${above}`;
 }
 
-function solveFlat(matrix: number[][]): { values: number[]; vectors: number[][] } {
-  const m = matrix.length;
-  const { values, vectors } = symmetricEigen(Float64Array.from(matrix.flat()), m);
-  return { values: Array.from(values), vectors: Array.from({ length: m }, (_, k) => Array.from({ length: m }, (_, x) => vectors[x * m + k])) };
+/** Gaps equal within this (eV) count as one: alternant pairs i→a′ and i′→a are degenerate up to SCF round-off. */
+const GAP_TIE_EV = 1e-6;
+
+/**
+ * The `count` excitations with the smallest orbital-energy gaps. Gaps that tie within GAP_TIE_EV keep
+ * the order occupied-then-virtual, so which excitation of a degenerate set is listed (and kept) first,
+ * and with it the leading-transition label of a 50:50 mixture, does not hang on SCF round-off.
+ */
+function smallestGaps(pairs: [number, number][], energies: number[], count: number): [number, number][] {
+  const byGap = pairs.map((pair) => ({ pair, gap: energies[pair[1]] - energies[pair[0]] })).sort((x, y) => x.gap - y.gap);
+  const ordered: [number, number][] = [];
+  for (let start = 0; start < byGap.length && ordered.length < count; ) {
+    let end = start + 1;
+    while (end < byGap.length && byGap[end].gap - byGap[start].gap <= GAP_TIE_EV) end++;
+    const tied = byGap.slice(start, end).map((x) => x.pair);
+    tied.sort((x, y) => x[0] - y[0] || x[1] - y[1]);
+    ordered.push(...tied);
+    start = end;
+  }
+  return ordered.slice(0, count);
 }
 
 /** PPP-CIS singlet and triplet states of a closed-shell π system, lowest first. */
@@ -76,57 +92,79 @@ export function pppSpectrum(pi: PiSystem, maxConfigurations = MAX_CIS_CONFIGURAT
     throw new ChemError(`'${pi.smiles}' has ${pi.centres.length} π centres; PPP-CIS here is limited to ${MAX_PPP_CENTRES} centres to keep a sheet responsive`);
   const scf = pppScf(pi);
   const n = pi.centres.length;
-  const { vectors, energies, occupied, gamma, positions } = scf;
-  const virtuals = n - occupied;
+  const { vectors: c, energies, occupied, gamma, positions } = scf;
   let pairs: [number, number][] = [];
   for (let i = 0; i < occupied; i++) for (let a = occupied; a < n; a++) pairs.push([i, a]);
-  if (pairs.length > maxConfigurations) {
-    pairs = pairs
-      .map((pair) => ({ pair, gap: energies[pair[1]] - energies[pair[0]] }))
-      .sort((x, y) => x.gap - y.gap)
-      .slice(0, maxConfigurations)
-      .map((x) => x.pair);
-  }
+  if (pairs.length > maxConfigurations) pairs = smallestGaps(pairs, energies, maxConfigurations);
   const m = pairs.length;
 
-  // Transition densities t_pq(μ) = c_μp c_μq and their γ-transforms, so each integral is one dot product.
-  const product = (p: number, q: number) => vectors[p].map((c, mu) => c * vectors[q][mu]);
-  const applyGamma = (t: number[]) => gamma.map((row) => row.reduce((s, g, nu) => s + g * t[nu], 0));
-  const dot = (x: number[], y: number[]) => x.reduce((s, v, k) => s + v * y[k], 0);
-  const tia = pairs.map(([i, a]) => product(i, a));
-  const gia = tia.map(applyGamma);
-  const occOcc: number[][][] = Array.from({ length: occupied }, (_, i) => Array.from({ length: occupied }, (_, j) => product(i, j)));
-  const virtVirt: number[][][] = Array.from({ length: virtuals }, (_, a) => Array.from({ length: virtuals }, (_, b) => applyGamma(product(a + occupied, b + occupied))));
+  // Transition densities t_pq(μ) = c_μp c_μq (rows of n) and their γ-transforms, so each integral is
+  // one dot product: (ia|jb) = t_ia·γt_jb, (ij|ab) = t_ij·γt_ab. Only the orbitals the kept
+  // excitations use enter; row `slot` of each table holds one pair of them.
+  const product = (out: Float64Array, slot: number, p: number, q: number) => {
+    for (let mu = 0; mu < n; mu++) out[slot * n + mu] = c[p * n + mu] * c[q * n + mu];
+  };
+  const applyGamma = (t: Float64Array): Float64Array => {
+    const rows = t.length / n;
+    const out = new Float64Array(t.length);
+    for (let r = 0; r < rows; r++)
+      for (let mu = 0; mu < n; mu++) {
+        let s = 0;
+        const g = mu * n;
+        for (let nu = 0; nu < n; nu++) s += gamma[g + nu] * t[r * n + nu];
+        out[r * n + mu] = s;
+      }
+    return out;
+  };
+  const dot = (x: Float64Array, xRow: number, y: Float64Array, yRow: number) => {
+    let s = 0;
+    for (let mu = 0; mu < n; mu++) s += x[xRow * n + mu] * y[yRow * n + mu];
+    return s;
+  };
+  const occ = [...new Set(pairs.map(([i]) => i))];
+  const virt = [...new Set(pairs.map(([, a]) => a))];
+  const occSlot = new Map(occ.map((i, k) => [i, k]));
+  const virtSlot = new Map(virt.map((a, k) => [a, k]));
+  const tia = new Float64Array(m * n);
+  pairs.forEach(([i, a], x) => product(tia, x, i, a));
+  const gia = applyGamma(tia);
+  const occOcc = new Float64Array(occ.length * occ.length * n);
+  occ.forEach((i, x) => occ.forEach((j, y) => product(occOcc, x * occ.length + y, i, j)));
+  const virtVirt = new Float64Array(virt.length * virt.length * n);
+  virt.forEach((a, x) => virt.forEach((b, y) => product(virtVirt, x * virt.length + y, a, b)));
+  const gVirtVirt = applyGamma(virtVirt);
+  const pairOcc = pairs.map(([i]) => occSlot.get(i)!);
+  const pairVirt = pairs.map(([, a]) => virtSlot.get(a)!);
 
-  const singlet = Array.from({ length: m }, () => new Array<number>(m).fill(0));
-  const triplet = Array.from({ length: m }, () => new Array<number>(m).fill(0));
+  const singlet = new Float64Array(m * m);
+  const triplet = new Float64Array(m * m);
   for (let x = 0; x < m; x++) {
     const [i, a] = pairs[x];
     for (let y = 0; y <= x; y++) {
-      const [j, b] = pairs[y];
-      const exchange = dot(tia[x], gia[y]); // (ia|jb)
-      const coulomb = dot(occOcc[i][j], virtVirt[a - occupied][b - occupied]); // (ij|ab)
+      const exchange = dot(tia, x, gia, y); // (ia|jb)
+      const coulomb = dot(occOcc, pairOcc[x] * occ.length + pairOcc[y], gVirtVirt, pairVirt[x] * virt.length + pairVirt[y]); // (ij|ab)
       const diagonal = x === y ? energies[a] - energies[i] : 0;
-      singlet[x][y] = singlet[y][x] = diagonal + 2 * exchange - coulomb;
-      triplet[x][y] = triplet[y][x] = diagonal - coulomb;
+      singlet[x * m + y] = singlet[y * m + x] = diagonal + 2 * exchange - coulomb;
+      triplet[x * m + y] = triplet[y * m + x] = diagonal - coulomb;
     }
   }
 
+  // Transition dipole of each excitation, Σ_μ t_ia(μ) r_μ; a state's is √2 Σ_ia X_ia times these.
+  const configDipole = (axis: 0 | 1) => Float64Array.from({ length: m }, (_, x) => positions.reduce((s, r, mu) => s + tia[x * n + mu] * r[axis], 0));
+  const dipoleX = configDipole(0);
+  const dipoleY = configDipole(1);
   const homoLumo = pairs.findIndex(([i, a]) => i === occupied - 1 && a === occupied);
-  const describe = (values: number[], amplitudes: number[][]): ExcitedState[] =>
-    values.map((energy, s) => {
-      const amp = amplitudes[s];
+  const describe = (values: Float64Array, amplitudes: Float64Array): ExcitedState[] =>
+    Array.from(values, (energy, s) => {
+      const amp = amplitudes.subarray(s * m, s * m + m);
       let best = 0;
       // Ties (50:50 mixtures) go to the first excitation listed, so the label does not hang on rounding.
       for (let x = 1; x < m; x++) if (amp[x] ** 2 > amp[best] ** 2 + 1e-6) best = x;
       let dx = 0;
       let dy = 0;
       for (let x = 0; x < m; x++) {
-        const t = tia[x];
-        for (let mu = 0; mu < n; mu++) {
-          dx += amp[x] * t[mu] * positions[mu][0];
-          dy += amp[x] * t[mu] * positions[mu][1];
-        }
+        dx += amp[x] * dipoleX[x];
+        dy += amp[x] * dipoleY[x];
       }
       dx *= Math.SQRT2;
       dy *= Math.SQRT2;
@@ -144,8 +182,8 @@ export function pppSpectrum(pi: PiSystem, maxConfigurations = MAX_CIS_CONFIGURAT
         homoLumoWeight: homoLumo < 0 ? 0 : amp[homoLumo] ** 2,
       };
     });
-  const s = solveFlat(singlet);
-  const tripletValues = symmetricEigen(Float64Array.from(triplet.flat()), m, true).values;
+  const s = symmetricEigen(singlet, m);
+  const tripletValues = symmetricEigen(triplet, m, true).values;
   // A triplet at or below zero means the closed-shell SCF is unstable (triplet instability): no spectrum.
   if (!(tripletValues[0] > 0) || !(s.values[0] > 0))
     throw new ChemError(`the closed-shell PPP ground state of '${pi.smiles}' is unstable (an excited state falls below it): the model gives no spectrum here`);
@@ -155,9 +193,7 @@ export function pppSpectrum(pi: PiSystem, maxConfigurations = MAX_CIS_CONFIGURAT
 /** The n-th singlet (1-based), naming the valid range. */
 export function nthSinglet(spectrum: PppSpectrum, k: number): ExcitedState {
   const list = spectrum.singlets;
-  if (!Number.isInteger(k) || k < 1 || k > list.length)
-    throw new ChemError(`singlet ${k} is out of range: the PPP-CIS of '${spectrum.scf.pi.smiles}' has ${list.length} singlet states (use 1 to ${list.length})`);
-  return list[k - 1];
+  return list[oneBasedIndex(k, list.length, { item: 'singlet', items: 'singlet states', holder: `the PPP-CIS of '${spectrum.scf.pi.smiles}'` })];
 }
 
 /** The band with the largest oscillator strength at wavelengths above `aboveNm`. */

@@ -185,3 +185,22 @@ export const auditLog = sqliteTable(
   },
   (t) => [index('audit_workbook_idx').on(t.workbookId)],
 );
+
+/**
+ * Extended-Hückel results, one per structure per workbook (functions/chem/ehtSummary.ts): computed once in
+ * the compute pool and read by every member's browser, /values and exports. `key` is the SHA-256 of the
+ * method version, charge and normalised structure text, so a new method version never reads an old result.
+ * Kept per workbook, so asking for a structure says nothing about what other workbooks hold.
+ */
+export const structureResults = sqliteTable(
+  'structure_results',
+  {
+    workbookId: text('workbook_id').notNull().references(() => workbooks.id, { onDelete: 'cascade' }),
+    key: text('key').notNull(),
+    /** The EhtResult as JSON text: sent to browsers as it is, never parsed on the server's main thread. */
+    result: text('result').notNull(),
+    computeMs: integer('compute_ms').notNull(),
+    createdAt: integer('created_at').notNull().default(now),
+  },
+  (t) => [primaryKey({ columns: [t.workbookId, t.key] })],
+);

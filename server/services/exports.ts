@@ -6,6 +6,7 @@ import type { User } from 'lucia';
 import type { AppContext } from '../context.js';
 import { badRequest, HttpError } from '../errors.js';
 import { exportInWorker, type ExportFormat } from '../xlsx/exportInWorker.js';
+import { jobStructures } from '../structures/structureService.js';
 import { exportSource } from '../xlsx/exportSource.js';
 import { refusalAbout } from '../xlsx/limits.js';
 import type { WorkbookAccess } from './access.js';
@@ -55,6 +56,6 @@ export async function exportDownload(ctx: AppContext, access: WorkbookAccess, us
     contentType,
     filename,
     // The workbook is already stored, so a failure here is the server's limit, not a bad request.
-    writeTo: (output) => exportInWorker(output, workbook, format, { owner: user.id }).then(() => undefined, refusalAbout('export', '; try values only, or split the workbook')),
+    writeTo: (output) => exportInWorker(output, workbook, format, { owner: user.id, structures: jobStructures(ctx, access.workbook.id) }).then(() => undefined, refusalAbout('export', '; try values only, or split the workbook')),
   };
 }

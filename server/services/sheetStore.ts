@@ -1,7 +1,7 @@
 // Tabs: add, rename/move/re-configure, delete. Each is one revision (kind 'sheet') recorded as
 // sheet operations, so history can undo it; a workbook always keeps at least one sheet.
 import { randomUUID } from 'node:crypto';
-import type { CreateSheetInput, RevisionPatch, SheetMutationResult, SheetOp, UpdateSheetInput } from '../../shared/workbooks.js';
+import { defaultSheetName, type CreateSheetInput, type RevisionPatch, type SheetMutationResult, type SheetOp, type UpdateSheetInput } from '../../shared/workbooks.js';
 import type { AppContext } from '../context.js';
 import { badRequest, conflict, HttpError, notFound } from '../errors.js';
 import type { Tx } from './cellStore.js';
@@ -19,8 +19,8 @@ function assertNameFree(all: SheetRow[], name: string, exceptId?: string) {
 function defaultName(all: SheetRow[]): string {
   const names = new Set(all.map((s) => s.name.toLowerCase()));
   let n = all.length + 1;
-  while (names.has(`sheet${n}`)) n++;
-  return `Sheet${n}`;
+  while (names.has(defaultSheetName(n).toLowerCase())) n++;
+  return defaultSheetName(n);
 }
 
 function sheetOf(workbookSheetsNow: SheetRow[], sheetId: string): SheetRow {

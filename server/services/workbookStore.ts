@@ -1,9 +1,9 @@
-// Workbooks as wholes: create (with one empty "Sheet1"), load everything the client's engine needs,
+// Workbooks as wholes: create (with one empty first sheet), load everything the client's engine needs,
 // rename, delete. Access is decided before these are called (services/access.ts).
 import { randomUUID } from 'node:crypto';
 import { and, asc, eq, ne } from 'drizzle-orm';
 import type { User } from 'lucia';
-import type { CellEntry, WorkbookPayload, WorkbookSummary } from '../../shared/workbooks.js';
+import { defaultSheetName, type CellEntry, type WorkbookPayload, type WorkbookSummary } from '../../shared/workbooks.js';
 import type { AppContext } from '../context.js';
 import { cells, sheets, users, workbookMembers, workbooks } from '../db/schema.js';
 import { actionsFor, mySheetRoles, requireWorkbook, type WorkbookAccess } from './access.js';
@@ -16,7 +16,7 @@ export function createWorkbook(ctx: AppContext, user: Pick<User, 'id'>, title: s
     tx.insert(workbooks).values({ id, title, ownerId: user.id }).run();
     // The creator's owner row is what access checks read; ownerId alone grants nothing.
     tx.insert(workbookMembers).values({ workbookId: id, userId: user.id, role: 'owner' }).run();
-    tx.insert(sheets).values({ id: randomUUID(), workbookId: id, name: 'Sheet1', position: 0, createdBy: user.id }).run();
+    tx.insert(sheets).values({ id: randomUUID(), workbookId: id, name: defaultSheetName(1), position: 0, createdBy: user.id }).run();
   });
   return id;
 }

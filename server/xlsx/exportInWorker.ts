@@ -7,6 +7,8 @@ import { formatBytes, recalcWorkerLimits, SpreadsheetError, type WorkerLimits } 
 import type { ExportMode, ExportWorkbook } from './types.js';
 import { packSheets } from './packedCells.js';
 import { computePool } from './workerPool.js';
+import type { FreshStructure } from '../structures/workerResults.js';
+import type { JobStructures } from '../structures/structureService.js';
 
 /** An export larger than this is stopped: no workbook of 500,000 cells comes near it, a formula making huge texts does. */
 export const maxExportBytes = 256 * 1024 * 1024;
@@ -28,19 +30,22 @@ export interface ExportStats {
  * Streams the file into `output` and ends it. `onFirstByte` runs before the first write, so a
  * caller can still answer with a JSON error when the export fails before any byte is sent.
  */
-export async function exportInWorker(output: Writable, workbook: ExportWorkbook, format: ExportFormat, options: { workerLimits?: WorkerLimits; onFirstByte?: () => void; owner?: string } = {}): Promise<ExportStats> {
+export async function exportInWorker(output: Writable, workbook: ExportWorkbook, format: ExportFormat, options: { workerLimits?: WorkerLimits; onFirstByte?: () => void; owner?: string; structures?: JobStructures } = {}): Promise<ExportStats> {
   let bytes = 0;
   const stop = new AbortController();
   // Cells go packed (packedCells.ts): cloning 100,000 small arrays into the worker costs more than packing them.
   const { packed, transfer } = packSheets(workbook);
-  const job = format.kind === 'xlsx' ? { kind: 'xlsx', workbook: packed, mode: format.mode } : { kind: 'csv', workbook: packed, sheetIndex: format.sheetIndex };
-  const outcome = await computePool.run<{ engineMs: number; writeMs: number }>(job, transfer, {
+  const structures = options.structures?.stored;
+  const job = format.kind === 'xlsx' ? { kind: 'xlsx', workbook: packed, mode: format.mode, structures } : { kind: 'csv', workbook: packed, sheetIndex: format.sheetIndex, structures };
+  const outcome = await computePool.run<{ engineMs: number; writeMs: number; fresh: FreshStructure[] }>(job, transfer, {
     owner: options.owner,
     signal: stop.signal,
     limits: options.workerLimits ?? recalcWorkerLimits,
     doing: 'writing the export',
     describeCell: (sheet, row, col) => (workbook.sheets[sheet] ? cellAddress(workbook.sheets[sheet].name, row, col) : `a cell of sheet ${sheet + 1}`),
     onProgress: (m) => {
+      const structure = (m as { structure?: FreshStructure }).structure;
+      if (structure) return options.structures?.save([structure]);
       const chunk = (m as { chunk?: Uint8Array }).chunk;
       if (!chunk || output.destroyed || stop.signal.aborted) return;
       if (bytes + chunk.byteLength > maxExportBytes) {
@@ -58,5 +63,7 @@ export async function exportInWorker(output: Writable, workbook: ExportWorkbook,
     },
   });
   await new Promise<void>((resolve) => (output.destroyed ? resolve() : output.end(resolve)));
-  return { bytes, elapsedMs: outcome.elapsedMs, ...outcome.result, workerHeapUsedBytes: outcome.workerHeapUsedBytes };
+  const { fresh, ...timing } = outcome.result;
+  options.structures?.save(fresh);
+  return { bytes, elapsedMs: outcome.elapsedMs, ...timing, workerHeapUsedBytes: outcome.workerHeapUsedBytes };
 }

@@ -12,13 +12,18 @@ import { readSpreadsheet } from './read.js';
 import type { ExportMode, ExportWorkbook } from './types.js';
 import { writeSheetCsv } from './writeCsv.js';
 import { writeComputedXlsx } from './writeXlsx.js';
+import { computeStructures, useStructures, type StoredStructures } from '../structures/workerResults.js';
 
 export type IoJob =
   | { kind: 'parse'; buffer: Uint8Array; filename: string; limits: ImportLimits }
-  | { kind: 'xlsx'; workbook: PackedExportWorkbook; mode: ExportMode }
-  | { kind: 'csv'; workbook: PackedExportWorkbook; sheetIndex: number }
+  | { kind: 'xlsx'; workbook: PackedExportWorkbook; mode: ExportMode; structures?: StoredStructures }
+  | { kind: 'csv'; workbook: PackedExportWorkbook; sheetIndex: number; structures?: StoredStructures }
   /** GET …/values of a large workbook (services/valuesInWorker.ts): answered as UTF-8 JSON bytes. */
-  | { kind: 'values'; revision: number; sheets: { id: string; name: string; packed: PackedCells }[] };
+  | { kind: 'values'; revision: number; sheets: { id: string; name: string; packed: PackedCells }[]; structures?: StoredStructures }
+  /** Extended-Hückel results for structures not stored yet (server/structures/structureService.ts). */
+  | { kind: 'structures'; inputs: { structure: string; charge?: number }[] };
+
+let structures: ReturnType<typeof useStructures> = { fresh: [], end: () => undefined };
 
 /** The longest /values answer, in characters of JSON. */
 const maxValuesChars = 64_000_000;
@@ -44,6 +49,8 @@ async function run(job: IoJob): Promise<{ result: unknown; transfer?: ArrayBuffe
       const { packed, transfer } = packSheets(parsed);
       return { result: { ...packed, packMs: performance.now() - packStart }, transfer };
     }
+    case 'structures':
+      return { result: computeStructures(job.inputs) };
     case 'xlsx': {
       const started = performance.now();
       const workbook: ExportWorkbook = unpackSheets(job.workbook);
@@ -52,7 +59,7 @@ async function run(job: IoJob): Promise<{ result: unknown; transfer?: ArrayBuffe
       const out = chunkPoster();
       await writeComputedXlsx(out, workbook, computed, { mode: job.mode });
       await new Promise<void>((resolve) => (out.writableFinished ? resolve() : out.once('finish', resolve)));
-      return { result: { engineMs: computedAt - started, writeMs: performance.now() - computedAt } };
+      return { result: { engineMs: computedAt - started, writeMs: performance.now() - computedAt, fresh: structures.fresh } };
     }
     case 'values': {
       const payload = capValuesPayload(computeValuesIsolated({ revision: job.revision, sheets: job.sheets.map((s) => ({ id: s.id, name: s.name, cells: unpackCells(s.packed) })) }));
@@ -62,7 +69,7 @@ async function run(job: IoJob): Promise<{ result: unknown; transfer?: ArrayBuffe
         throw new SpreadsheetError('too_complex', `the values come to ${(json.length / 1e6).toFixed(0)} million characters, more than the ${maxValuesChars / 1e6} million one answer may hold (for example formulas that make very long texts)`);
       }
       const bytes = new TextEncoder().encode(json);
-      return { result: bytes, transfer: [bytes.buffer as ArrayBuffer] };
+      return { result: { bytes, fresh: structures.fresh }, transfer: [bytes.buffer as ArrayBuffer] };
     }
     case 'csv': {
       const started = performance.now();
@@ -70,7 +77,7 @@ async function run(job: IoJob): Promise<{ result: unknown; transfer?: ArrayBuffe
       const computed = capComputedWorkbook(computeWorkbook(workbook.sheets.map((s) => ({ name: s.name, cells: s.cells }))));
       const computedAt = performance.now();
       await writeSheetCsv(chunkPoster(), computed.sheets[job.sheetIndex].cells);
-      return { result: { engineMs: computedAt - started, writeMs: performance.now() - computedAt } };
+      return { result: { engineMs: computedAt - started, writeMs: performance.now() - computedAt, fresh: structures.fresh } };
     }
   }
 }
@@ -87,6 +94,8 @@ parentPort!.on('message', async (job: IoJob & { evaluating?: SharedArrayBuffer }
         Atomics.store(evaluating, 0, 1);
       }),
   );
+  // Stored structure results for this job; what the job computes anew goes back with its result.
+  structures = useStructures('structures' in job ? job.structures : undefined, (structure) => parentPort!.postMessage({ structure }));
   try {
     const { result, transfer } = await run(job);
     parentPort!.postMessage({ done: true, ok: true, result, heapUsedBytes: process.memoryUsage().heapUsed }, transfer ?? []);
@@ -99,6 +108,8 @@ parentPort!.on('message', async (job: IoJob & { evaluating?: SharedArrayBuffer }
           ? { code: 'too_complex', message: `the workbook could not be computed (${e instanceof Error ? e.message : String(e)})` }
           : { code: 'damaged_file', message: `the file could not be ${job.kind === 'parse' ? 'read' : 'written'} (${e instanceof Error ? e.message : String(e)})` };
     parentPort!.postMessage({ done: true, ok: false, error, heapUsedBytes: process.memoryUsage().heapUsed });
+  } finally {
+    structures.end();
   }
 });
 parentPort!.postMessage({ ready: true });

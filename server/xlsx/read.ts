@@ -3,12 +3,14 @@
 import { defaultImportLimits, SpreadsheetError, type ImportLimits } from './limits.js';
 import { readCsv } from './readCsv.js';
 import { readXlsx } from './readXlsx.js';
-import { sniffSpreadsheet } from './sniff.js';
+import { extensionOf, sniffSpreadsheet } from './sniff.js';
+import { readStructures } from '../structures/readStructures.js';
 import type { ParsedWorkbook } from './types.js';
 
 export async function readSpreadsheet(buffer: Buffer, filename: string, limits: ImportLimits = defaultImportLimits): Promise<ParsedWorkbook> {
   const kind = sniffSpreadsheet(buffer, filename, limits);
   try {
+    if (kind === 'structures') return readStructures(buffer, filename, extensionOf(filename));
     return await (kind === 'xlsx' ? readXlsx(buffer, limits) : readCsv(buffer, filename, limits));
   } catch (e) {
     if (e instanceof SpreadsheetError) throw e;

@@ -9,12 +9,13 @@ import { SpreadsheetError, type ImportLimits } from './limits.js';
 import { extensionOf } from './sniff.js';
 import { decodeText, guessDelimiter } from './csvCount.js';
 import type { CellTriple, ParsedWorkbook, SkippedCell } from './types.js';
+import { defaultSheetName } from '../../shared/workbooks.js';
 
 export function sheetNameFromFilename(filename: string): string {
   const base = filename.replace(/^.*[\\/]/, '').replace(/\.[^.]*$/, '');
   // Spreadsheet sheet names: at most 31 characters, none of [ ] : * ? / \ (common practice, Excel's rule).
   const cleaned = base.replace(/[[\]:*?/\\]/g, '_').trim().slice(0, 31);
-  return cleaned || 'Sheet1';
+  return cleaned || defaultSheetName(1);
 }
 
 export async function readCsv(buffer: Buffer, filename: string, limits: ImportLimits): Promise<ParsedWorkbook> {

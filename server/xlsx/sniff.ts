@@ -1,7 +1,10 @@
 // What kind of file arrived, decided from its first bytes (the name only breaks ties for text).
 import { formatBytes, SpreadsheetError, type ImportLimits } from './limits.js';
 
-export type SpreadsheetKind = 'xlsx' | 'csv';
+export type SpreadsheetKind = 'xlsx' | 'csv' | 'structures';
+
+/** Structure files (server/structures/readStructures.ts), told apart by their extension. */
+export const structureExtensions = ['sdf', 'sd', 'mol', 'xyz'];
 
 const ZIP_LOCAL_HEADER = [0x50, 0x4b, 0x03, 0x04]; // "PK\3\4"
 const ZIP_EMPTY = [0x50, 0x4b, 0x05, 0x06];
@@ -36,5 +39,9 @@ export function sniffSpreadsheet(buffer: Uint8Array, filename: string, limits: I
     if (head.includes(0)) throw new SpreadsheetError('not_a_spreadsheet', `"${filename}" holds binary data, not comma-separated text`);
     return 'csv';
   }
-  throw new SpreadsheetError('not_a_spreadsheet', `"${filename}" is not a spreadsheet Orbitab reads: upload an .xlsx workbook or a .csv file`);
+  if (structureExtensions.includes(ext)) {
+    if (buffer.subarray(0, 64 * 1024).includes(0)) throw new SpreadsheetError('not_a_spreadsheet', `"${filename}" holds binary data, not a text structure file`);
+    return 'structures';
+  }
+  throw new SpreadsheetError('not_a_spreadsheet', `"${filename}" is not a file Orbitab reads: upload an .xlsx workbook, a .csv file, or structures as .sdf, .mol or .xyz`);
 }

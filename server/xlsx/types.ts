@@ -1,11 +1,12 @@
 // Shapes shared by the reader, the writer, the worker and the routes. Cells are sparse triples
 // [row, col, input] with zero-based row/col and `input` exactly as a user would type it in Orbitab.
+import type { CellTriple } from '../../functions/workbookEngine.js';
 import type { ImportSummary } from '../../shared/io.js';
 import type { SheetSettings } from '../../shared/workbooks.js';
 
 export type { ImportSummary, SkippedCell } from '../../shared/io.js';
 
-export type CellTriple = [row: number, col: number, input: string];
+export type { CellTriple };
 
 export interface ParsedSheet {
   name: string;

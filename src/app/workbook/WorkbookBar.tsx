@@ -5,6 +5,7 @@ import { SaveIndicator } from '../../features/grid/components/SaveIndicator.js';
 import { ExportMenu } from '../../features/io/index.js';
 import type { WorkbookTeam } from '../../features/live/useWorkbookTeam.js';
 import { TeamToolbar } from './TeamToolbar.js';
+import type { Notice } from '../../features/grid/useSheetCommands.js';
 
 export function WorkbookBar(p: { model: WorkbookModel; team: WorkbookTeam; activeSheet: { id: string; name: string }; selectionRange?: string; status: SaveStatus; storageWorks: boolean }) {
   return (
@@ -22,12 +23,28 @@ export function WorkbookBar(p: { model: WorkbookModel; team: WorkbookTeam; activ
   );
 }
 
-/** One line of feedback under the formula bar (a refusal, a restore), dismissible. */
-export function MessageStrip({ message, onDismiss }: { message: string | null; onDismiss: () => void }) {
+/** One line of feedback under the formula bar (a refusal, a restore), dismissible, with one action at most. */
+export function MessageStrip({ message, onDismiss }: { message: Notice; onDismiss: () => void }) {
   if (!message) return null;
+  const text = typeof message === 'string' ? message : message.text;
+  const action = typeof message === 'string' ? null : message.action;
   return (
-    <div role="status" data-grid-shield="" className="flex shrink-0 items-center gap-2 border-b border-caution-line bg-caution-soft px-3 py-1 text-caption text-ink" data-testid="sheet-message">
-      {message}
+    // Clicks here keep the grid's active cell (the grid treats a click outside it as leaving it).
+    <div role="status" data-grid-shield="" onMouseDown={(e) => e.stopPropagation()} className="flex shrink-0 items-center gap-2 border-b border-caution-line bg-caution-soft px-3 py-1 text-caption text-ink" data-testid="sheet-message">
+      {text}
+      {action && (
+        <button
+          type="button"
+          className="rounded-ctl border border-caution-line bg-surface px-2 py-0.5 font-medium text-ink hover:bg-hover"
+          onMouseDown={(e) => e.preventDefault()}
+          onClick={() => {
+            onDismiss();
+            action.run();
+          }}
+        >
+          {action.label}
+        </button>
+      )}
       <button type="button" className="ml-auto text-ink-3 hover:text-ink" aria-label="Dismiss" onClick={onDismiss}>
         ×
       </button>

@@ -4,9 +4,10 @@
 import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import type { DataSheetGridRef } from 'react-datasheet-grid';
 import { SafetyNote } from '../../features/diagram/SafetyNote.js';
-import { parseCellName } from '@shared/a1.js';
+import { cellName, parseCellName } from '@shared/a1.js';
 import { readChartSpec } from '@shared/chartSpec.js';
 import { fillPairs } from '../../core/workbook/model/rangeEdits.js';
+import { revealBesideRowNumbers } from '../../features/grid/revealCell.js';
 import { FilterMenu, type SheetFilter } from '../../features/grid/components/FilterMenu.js';
 import { FormulaBar, type FormulaBarHandle } from '../../features/grid/components/FormulaBar.js';
 import { SheetGrid, type ViewCell } from '../../features/grid/components/SheetGrid.js';
@@ -16,19 +17,23 @@ import { Toolbar } from '../../features/grid/components/Toolbar.js';
 import { useSheetKeys } from '../../features/grid/components/useSheetKeys.js';
 import { addSheet, deleteSheet, moveSheet, renameSheet } from '../../core/workbook/api.js';
 import { useModelVersion, useSaveStatus, type WorkbookSession } from '../../core/workbook/session/useWorkbookSession.js';
-import { useSheetCommands, type ViewSelection } from '../../features/grid/useSheetCommands.js';
+import { StructureProgress } from '../../features/structures/StructureProgress.js';
+import { useSheetCommands, type Notice, type ViewSelection } from '../../features/grid/useSheetCommands.js';
 import { useSheetView } from '../../features/grid/useSheetView.js';
 import { ConflictResolver } from '../../features/live/ConflictResolver.js';
 import { lockSummary } from '../../features/locks/SheetLockSection.js';
 import { TeamNotices } from './TeamNotices.js';
+import { GridMenu } from './GridMenu.js';
 import { SidePanel } from './SidePanel.js';
 import { useDisplaySaver } from './useDisplaySaver.js';
 import { useFocusedCell } from './useFocusedCell.js';
 import { usePanelWidth } from './usePanelWidth.js';
 import { MessageStrip, WorkbookBar } from './WorkbookBar.js';
 import { useWorkbookTeam } from '../../features/live/useWorkbookTeam.js';
+import { ImportButton } from '../../features/io/index.js';
 import { sheetViewOnlyReason } from '../../core/team/editability.js';
 import { allows } from '@shared/permissions.js';
+import { presenceColour } from '../../lib/presenceColours.js';
 
 function gridSelection(grid: DataSheetGridRef | null): ViewSelection | null {
   const s = grid?.selection;
@@ -37,7 +42,7 @@ function gridSelection(grid: DataSheetGridRef | null): ViewSelection | null {
 
 export function Workspace({ session }: { session: WorkbookSession }) {
   const { model, queue, store } = session;
-  useModelVersion(model);
+  const modelVersion = useModelVersion(model);
   const status = useSaveStatus(queue);
   const sheets = model.sheets;
   const [sheetId, setSheetId] = useState(sheets[0]?.id ?? '');
@@ -53,7 +58,7 @@ export function Workspace({ session }: { session: WorkbookSession }) {
   const [frozenPick, setFrozenPick] = useState<number | null>(null);
   const [liveText, setLiveText] = useState<string | null>(null);
   const [panel, setPanel] = useState<'structure' | 'chart' | null>('structure');
-  const [message, setMessage] = useState<string | null>(session.restored > 0 ? `${session.restored} unsent change${session.restored === 1 ? '' : 's'} from your last visit restored; sending now.` : null);
+  const [message, setMessage] = useState<Notice>(session.restored > 0 ? `${session.restored} unsent change${session.restored === 1 ? '' : 's'} from your last visit restored; sending now.` : null);
   const editing = useRef(false);
   const gridRef = useRef<DataSheetGridRef>(null);
   const barRef = useRef<FormulaBarHandle>(null);
@@ -63,6 +68,15 @@ export function Workspace({ session }: { session: WorkbookSession }) {
   const viewOnlyHere = useRef<string | null>(null);
   const keepDisplayLocal = useCallback(() => viewOnlyHere.current !== null, []);
   const setDisplay = useDisplaySaver(session, activeSheetId, setMessage, keepDisplayLocal);
+
+  // Sheets added from a file arrive over the live stream; the first one is shown once it is here.
+  const [importedSheet, setImportedSheet] = useState<string | null>(null);
+  useEffect(() => {
+    if (importedSheet && model.hasSheet(importedSheet)) {
+      setImportedSheet(null);
+      switchSheet(importedSheet);
+    }
+  }, [importedSheet, model, modelVersion]);
 
   const switchSheet = (id: string) => {
     setSheetId(id);
@@ -146,6 +160,7 @@ export function Workspace({ session }: { session: WorkbookSession }) {
     <div className="flex h-full min-h-0 flex-col bg-canvas">
       <WorkbookBar model={model} team={team} activeSheet={{ id: activeSheetId, name: sheet.name }} selectionRange={address || undefined} status={status} storageWorks={store.storageWorks} />
       <ConflictResolver session={session} status={status} onSetAside={team.addSetAside} />
+      <StructureProgress store={session.structures} />
       <Toolbar
         canEdit={!model.readOnly && sheetViewOnly === null}
         viewOnlyReason={sheetViewOnly}
@@ -181,6 +196,7 @@ export function Workspace({ session }: { session: WorkbookSession }) {
       />
       <FormulaBar
         barRef={barRef}
+        refFor={(viewRow, col) => cellName(view.sheetRow(viewRow), col)}
         address={address}
         input={focusInput}
         liveText={liveText}
@@ -205,6 +221,7 @@ export function Workspace({ session }: { session: WorkbookSession }) {
           const v = view.viewRowOf(ref.row);
           if (v === null) return false;
           gridRef.current?.setActiveCell({ row: v, col: ref.col });
+          revealBesideRowNumbers(ref.col, widths);
           return true;
         }}
       />
@@ -239,9 +256,14 @@ export function Workspace({ session }: { session: WorkbookSession }) {
               setFrozenPick(col);
               gridRef.current?.setActiveCell(null);
             }}
+            presence={team.live.presence.flatMap((u) => {
+              if (u.userId === team.myId || !u.cell || u.cell.sheetId !== activeSheetId) return [];
+              const row = view.viewRowOf(u.cell.row);
+              return row === null ? [] : [{ userId: u.userId, name: u.name, colour: presenceColour(u.userId), row, col: u.cell.col, address: cellName(u.cell.row, u.cell.col) }];
+            })}
             onCells={(changes, fills) => {
-              const a = model.edit(changes);
-              const b = fillPairs(model, activeSheetId, fills);
+              // Typed and drag-filled cells of one gesture are one undo step.
+              const [a, b] = model.history.action(() => [model.edit(changes), fillPairs(model, activeSheetId, fills)]);
               const refused = [...a.refused, ...b.refused];
               setMessage(refused.length ? `${refused[0].reason} ${refused.length} cell${refused.length === 1 ? '' : 's'} left as they were.` : null);
             }}
@@ -279,12 +301,31 @@ export function Workspace({ session }: { session: WorkbookSession }) {
         onDelete={(id) => deleteSheet(session, id)}
         footer={
           <span className="flex items-center gap-2 px-2 text-ink-3">
+            <ImportButton
+              workbookId={model.id}
+              label="Sheets from a file…"
+              variant="ghost"
+              className="h-6 px-1.5 text-caption"
+              disabled={!allows(team.actions, 'editSheets')}
+              title="Add the sheets of an .xlsx or .csv file (or a structure file) to this workbook"
+              onImported={(result) => setImportedSheet(result.sheets[0]?.id ?? null)}
+            />
             {view.data.length.toLocaleString('en')} rows
             <button type="button" className="rounded-ctl px-1.5 text-ink-2 hover:bg-hover hover:text-ink" onClick={() => model.addDisplayRows(activeSheetId, 1000)}>
               Add 1,000 rows
             </button>
           </span>
         }
+      />
+      <GridMenu
+        gridRef={gridRef}
+        commands={commands}
+        extent={() => ({ rows: view.data.length, cols: sheet.colCount })}
+        editBlocked={model.readOnly ? 'You can view this workbook but not edit it' : null}
+        structureBlocked={model.structureRule?.(activeSheetId) ?? null}
+        canUndo={model.history.canUndo}
+        canRedo={model.history.canRedo}
+        say={setMessage}
       />
       {/* Once per workbook page, whatever panel is open: the grid itself presents computed results. */}
       <SafetyNote />

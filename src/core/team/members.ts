@@ -2,13 +2,13 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { MembersResponse } from '@shared/team.js';
 import { api, queryKeys } from '../../lib/api.js';
+import { workbookPath } from '@shared/workbooks.js';
 
-const base = (id: string) => `/workbooks/${encodeURIComponent(id)}`;
 
 export const membersQueryOptions = (workbookId: string) =>
   queryOptions({
     queryKey: queryKeys.members(workbookId),
-    queryFn: ({ signal }) => api<MembersResponse>(`${base(workbookId)}/members`, { signal }).then((r) => r.members),
+    queryFn: ({ signal }) => api<MembersResponse>(workbookPath(workbookId, 'members'), { signal }).then((r) => r.members),
   });
 
 export const useMembers = (workbookId: string, enabled = true) => useQuery({ ...membersQueryOptions(workbookId), enabled });

@@ -2,7 +2,7 @@
 // GET /api/workbooks/:id, replaced by each live `protection` event, patched by the lock mutations.
 import { queryOptions, useQuery, type QueryClient } from '@tanstack/react-query';
 import type { Protection } from '@shared/team.js';
-import type { WorkbookPayload } from '@shared/workbooks.js';
+import { workbookPath, type WorkbookPayload } from '@shared/workbooks.js';
 import { api, queryKeys } from '../../lib/api.js';
 import { noProtection } from './editability.js';
 
@@ -14,7 +14,7 @@ export const protectionQueryOptions = (workbookId: string) =>
   queryOptions({
     queryKey: queryKeys.protection(workbookId),
     // Only refetched after the live stream reconnects (events may have been missed meanwhile).
-    queryFn: ({ signal }) => api<WorkbookPayload>(`/workbooks/${encodeURIComponent(workbookId)}`, { signal }).then(protectionOf),
+    queryFn: ({ signal }) => api<WorkbookPayload>(workbookPath(workbookId), { signal }).then(protectionOf),
     staleTime: Infinity,
     // Like the workbook itself: each visit starts from what the server says now.
     gcTime: 0,

@@ -2,8 +2,10 @@
 // operations. Tab operations go straight to the server (they are rare and must not be lost or
 // reordered with cell patches), then to the engine once the server has accepted them.
 import { queryOptions } from '@tanstack/react-query';
-import type { PatchInput, PatchResult, SheetMutationResult, WorkbookPayload } from '@shared/workbooks.js';
+import { workbookPath, type PatchInput, type PatchResult, type SheetMutationResult, type WorkbookPayload } from '@shared/workbooks.js';
 import { removeSheetFromFormula, renameSheetInFormula } from '@shared/formulaText.js';
+import type { StructuresRequest, StructuresResponse } from '@shared/structures.js';
+import type { EhtResult } from '@functions/chem/ehtSummary.js';
 import { api, queryKeys } from '../../lib/api.js';
 import { writeDisplaySettings, type DisplaySettings } from './model/displaySettings.js';
 import type { WorkbookSession } from './session/useWorkbookSession.js';
@@ -11,26 +13,30 @@ import type { WorkbookSession } from './session/useWorkbookSession.js';
 export const workbookQueryOptions = (id: string) =>
   queryOptions({
     queryKey: queryKeys.workbook(id),
-    queryFn: ({ signal }) => api<WorkbookPayload>(`/workbooks/${encodeURIComponent(id)}`, { signal }),
+    queryFn: ({ signal }) => api<WorkbookPayload>(workbookPath(id), { signal }),
     // Each visit loads afresh; while open, the engine is the source of truth.
     staleTime: Infinity,
     gcTime: 0,
   });
 
-/** POST /api/workbooks/:id/patches: the save queue's one way to the server. */
-export const sendPatch = (workbookId: string, patch: PatchInput) => api<PatchResult>(`/workbooks/${encodeURIComponent(workbookId)}/patches`, { method: 'POST', body: patch });
+/** POST /api/workbooks/:id/structures: stored extended-Hückel results, null for those still being computed. */
+export const fetchStructures = (workbookId: string, inputs: StructuresRequest['inputs']) =>
+  api<StructuresResponse<EhtResult>>(`/workbooks/${encodeURIComponent(workbookId)}/structures`, { method: 'POST', body: { inputs } });
 
-const base = (s: WorkbookSession) => `/workbooks/${encodeURIComponent(s.model.id)}/sheets`;
+/** POST /api/workbooks/:id/patches: the save queue's one way to the server. */
+export const sendPatch = (workbookId: string, patch: PatchInput) => api<PatchResult>(workbookPath(workbookId, 'patches'), { method: 'POST', body: patch });
+
+const sheetsPath = (s: WorkbookSession, ...rest: string[]) => workbookPath(s.model.id, 'sheets', ...rest);
 
 export async function addSheet(s: WorkbookSession): Promise<string> {
-  const { sheet } = await api<SheetMutationResult>(base(s), { method: 'POST', body: {} });
+  const { sheet } = await api<SheetMutationResult>(sheetsPath(s), { method: 'POST', body: {} });
   s.model.addSheetState(sheet);
   return sheet.id;
 }
 
 export async function renameSheet(s: WorkbookSession, sheetId: string, name: string): Promise<void> {
   const before = s.model.sheet(sheetId).name;
-  const { sheet } = await api<SheetMutationResult>(`${base(s)}/${encodeURIComponent(sheetId)}`, { method: 'PATCH', body: { name } });
+  const { sheet } = await api<SheetMutationResult>(sheetsPath(s, sheetId), { method: 'PATCH', body: { name } });
   // The server rewrote stored formulas naming the sheet; unsent ones and the shown text follow.
   s.queue.rewritePending((input) => renameSheetInFormula(input, before, sheet.name));
   s.model.renameSheetState(sheetId, sheet.name);
@@ -38,7 +44,7 @@ export async function renameSheet(s: WorkbookSession, sheetId: string, name: str
 
 export async function deleteSheet(s: WorkbookSession, sheetId: string): Promise<void> {
   const name = s.model.sheet(sheetId).name;
-  await api(`${base(s)}/${encodeURIComponent(sheetId)}`, { method: 'DELETE' });
+  await api(sheetsPath(s, sheetId), { method: 'DELETE' });
   s.queue.dropSheet(sheetId);
   s.queue.rewritePending((input) => removeSheetFromFormula(input, name));
   s.model.removeSheetState(sheetId);
@@ -47,12 +53,12 @@ export async function deleteSheet(s: WorkbookSession, sheetId: string): Promise<
 }
 
 export async function moveSheet(s: WorkbookSession, sheetId: string, position: number): Promise<void> {
-  await api<SheetMutationResult>(`${base(s)}/${encodeURIComponent(sheetId)}`, { method: 'PATCH', body: { position } });
+  await api<SheetMutationResult>(sheetsPath(s, sheetId), { method: 'PATCH', body: { position } });
   const order = s.model.sheets.map((x) => x.id).filter((id) => id !== sheetId);
   order.splice(position, 0, sheetId);
   s.model.setPositions(order);
 }
 
 export async function saveDisplaySettings(s: WorkbookSession, sheetId: string, display: DisplaySettings): Promise<void> {
-  await api<SheetMutationResult>(`${base(s)}/${encodeURIComponent(sheetId)}`, { method: 'PATCH', body: { settings: writeDisplaySettings(display) } });
+  await api<SheetMutationResult>(sheetsPath(s, sheetId), { method: 'PATCH', body: { settings: writeDisplaySettings(display) } });
 }

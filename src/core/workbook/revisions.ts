@@ -1,15 +1,14 @@
 // One revision's patch: read by the history view and by live updates (to catch up on a missed revision).
 // Revisions never change once written, so their details are cached for the visit.
 import { queryOptions } from '@tanstack/react-query';
-import type { RevisionDetail } from '@shared/workbooks.js';
+import { workbookPath, type RevisionDetail } from '@shared/workbooks.js';
 import { api, queryKeys } from '../../lib/api.js';
 
-const base = (id: string) => `/workbooks/${encodeURIComponent(id)}/revisions`;
 
 export const revisionDetailQueryOptions = (workbookId: string, n: number) =>
   queryOptions({
     queryKey: queryKeys.revision(workbookId, n),
-    queryFn: ({ signal }) => api<RevisionDetail>(`${base(workbookId)}/${n}`, { signal }),
+    queryFn: ({ signal }) => api<RevisionDetail>(workbookPath(workbookId, 'revisions', n), { signal }),
     staleTime: Infinity,
   });
 

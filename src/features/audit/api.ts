@@ -2,11 +2,12 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { AuditResponse } from '@shared/team.js';
 import { api, queryKeys } from '../../lib/api.js';
+import { workbookPath } from '@shared/workbooks.js';
 
 export const auditQueryOptions = (workbookId: string) =>
   queryOptions({
     queryKey: queryKeys.audit(workbookId),
-    queryFn: ({ signal }) => api<AuditResponse>(`/workbooks/${encodeURIComponent(workbookId)}/audit?limit=200`, { signal }).then((r) => r.entries),
+    queryFn: ({ signal }) => api<AuditResponse>(`${workbookPath(workbookId, 'audit')}?limit=200`, { signal }).then((r) => r.entries),
     staleTime: 0,
   });
 

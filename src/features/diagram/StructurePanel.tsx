@@ -12,6 +12,7 @@ import { subjectOfCell, type SubjectSource } from './cellSubject.js';
 import { HuckelLadderSvg } from './HuckelLadderSvg.js';
 import { layoutMoDiagram } from './moLayout.js';
 import { MoDiagramSvg } from './MoDiagramSvg.js';
+import { EhtLadderView } from './EhtLadderView.js';
 
 function Fact({ label, value }: { label: string; value: string }) {
   return (
@@ -64,6 +65,30 @@ export function StructurePanel({ source, address }: { source: SubjectSource | nu
           </p>
         )}
         <p className="text-caption text-ink-3">Qualitative level order (spacing not to scale); atoms drawn neutral{a.species.charge !== 0 ? `, the molecule carries charge ${a.species.charge > 0 ? '+' : ''}${a.species.charge}` : ''}.</p>
+      </div>
+    );
+  }
+  if (subject.kind === 'eht') {
+    const name = subject.structure.includes('\n') || subject.structure.length > 40 ? `${subject.structure.split('\n')[0].slice(0, 40)}…` : subject.structure;
+    const s = subject.summary;
+    return (
+      <div className="flex flex-col gap-2 p-3" data-testid="structure-panel">
+        <h3 className="text-ui font-semibold">
+          Extended-Hückel levels of <span className="font-mono">{name}</span>
+        </h3>
+        {s === 'pending' ? (
+          <p className="text-caption text-ink-3">computing… the server is working on this structure; the ladder appears when it is ready.</p>
+        ) : (
+          <>
+            <EhtLadderView summary={s} title={`Extended-Hückel levels of ${name}`} />
+            <dl className="text-caption">
+              <Fact label="Atoms" value={`${s.atoms} (${s.source === 'smiles-conformer' ? 'generated conformer' : s.source === 'xyz' ? 'XYZ as given' : 'molfile as given'})`} />
+              <Fact label="Levels" value={String(s.levels.length)} />
+              {'homoEv' in s.frontier && <Fact label="HOMO–LUMO gap" value={`${round(s.frontier.lumoEv - s.frontier.homoEv, 2)} eV`} />}
+            </dl>
+            <p className="text-caption text-ink-3">One-electron levels, no self-consistency: energies are qualitative, charges exaggerated (docs/eht.md).</p>
+          </>
+        )}
       </div>
     );
   }

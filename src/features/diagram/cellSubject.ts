@@ -6,10 +6,15 @@ import { analyseDiatomic, type DiatomicAnalysis } from '@functions/chem/diatomic
 import { huckelModelOf } from '@functions/chem/huckelCache.js';
 import type { HuckelModel } from '@functions/chem/huckel.js';
 import { DEFAULT_PARAMETER_SET, PARAMETER_SET_NAMES, type ParameterSetName } from '@functions/chem/huckelParams.js';
+import { ChemError } from '@functions/chem/errors.js';
+import type { EhtSummary } from '@functions/chem/ehtSummary.js';
+import { ehtSummaryOf, PendingResult } from '@functions/structureResults.js';
 
 export type CellSubject =
   | { kind: 'diatomic'; text: string; analysis: DiatomicAnalysis }
   | { kind: 'huckel'; smiles: string; model: HuckelModel; parameterSet: ParameterSetName }
+  /** An extended-Hückel structure (SMILES, XYZ or molfile); its summary, or 'pending' while the server computes it. */
+  | { kind: 'eht'; structure: string; summary: EhtSummary | 'pending' }
   | { kind: 'none'; tried: string[]; problem?: string };
 
 export interface SubjectSource {
@@ -68,6 +73,19 @@ function asHuckel(text: string, set: ParameterSetName): HuckelModel | null {
   }
 }
 
+/** The structures of an extended-Hückel formula, tried in order; the first that reads (or is on its way) wins. */
+function ehtSubject(texts: string[]): CellSubject | null {
+  for (const text of texts) {
+    try {
+      return { kind: 'eht', structure: text, summary: ehtSummaryOf(text) };
+    } catch (e) {
+      if (e instanceof PendingResult) return { kind: 'eht', structure: text, summary: 'pending' };
+      if (!(e instanceof ChemError)) throw e;
+    }
+  }
+  return null;
+}
+
 export function subjectOfCell(src: SubjectSource): CellSubject {
   const tried: string[] = [];
   let wantHuckel = false;
@@ -81,6 +99,11 @@ export function subjectOfCell(src: SubjectSource): CellSubject {
       const text = src.textOf(ref);
       if (text) tried.push(text);
     }
+  }
+  if (src.input.startsWith('=') && calledFamilies(src.input).has('Extended Hückel')) {
+    // XYZ and molfile records run to thousands of characters, so these are not cut at 200.
+    const found = ehtSubject([...new Set(tried.map((t) => t.trim()).filter((t) => t.length > 0))]);
+    if (found) return found;
   }
   if (src.display) tried.push(src.display);
   const candidates = [...new Set(tried.map((t) => t.trim()).filter((t) => t.length > 0 && t.length < 200))];

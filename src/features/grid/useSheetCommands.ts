@@ -3,10 +3,11 @@
 // had to leave alone, so nothing is dropped silently.
 import { useRef } from 'react';
 import { applyStructural, redoLast, undoLast, type StructuralOp } from '../../core/workbook/model/structure.js';
-import { clearRange, fillPairs, pasteBlock, pasteCopiedCells, sortRange, type CopiedCells } from '../../core/workbook/model/rangeEdits.js';
+import { blockValues, clearRange, fillPairs, pasteBlock, pasteCopiedCells, pasteRepeats, sortRange, tileBlock, type CopiedCells } from '../../core/workbook/model/rangeEdits.js';
 import { formatTsv, parseTsv } from '../../core/workbook/model/tsv.js';
 import { shiftColumnWidths, type DisplaySettings } from '../../core/workbook/model/displaySettings.js';
-import type { SortDirection } from '../../core/workbook/model/sortFilter.js';
+import { looksLikeHeader, type SortDirection } from '../../core/workbook/model/sortFilter.js';
+import type { CellRange } from '@shared/a1.js';
 import type { EditOutcome } from '../../core/workbook/model/workbookModel.js';
 import type { WorkbookSession } from '../../core/workbook/session/useWorkbookSession.js';
 import type { SheetView } from './useSheetView.js';
@@ -28,9 +29,12 @@ export interface CommandContext {
   filtered: boolean;
   display: DisplaySettings;
   setDisplay: (d: DisplaySettings) => void;
-  say: (message: string | null) => void;
+  say: (message: Notice) => void;
   select: (sel: ViewSelection) => void;
 }
+
+/** One line of feedback, optionally with one thing to do about it (a button beside the words). */
+export type Notice = string | { text: string; action: { label: string; run: () => void } } | null;
 
 const plural = (n: number, word: string) => `${n} ${word}${n === 1 ? '' : 's'}`;
 const sentence = (text: string) => (/[.!?]$/.test(text) ? text : `${text}.`);
@@ -121,15 +125,31 @@ export function useSheetCommands(ctx: CommandContext) {
         range = { top: c.display.freezeHeaderRow ? 1 : 0, bottom: Math.max(0, rows - 1), left: 0, right: Math.max(0, cols - 1) };
       }
       const keyCol = c.activeCol ?? sel.min.col;
+      // Row 1 not frozen: a row of titles over numbers stays where it is, and the user may say otherwise.
+      if (range.top === 0 && range.bottom > 0 && looksLikeHeader(blockValues(model, c.sheetId, range))) {
+        const withHeader = range;
+        const body: CellRange = { ...range, top: 1 };
+        guard(() => {
+          const outcome = sortRange(model, c.sheetId, body, keyCol, direction);
+          report(outcome, 'sorted');
+          if (outcome.refused.length > 0) return;
+          const step = model.history.lastUndo;
+          const include = () =>
+            guard(() => {
+              // Take back the sort that kept the header (only if it is still the last step), then sort all.
+              if (outcome.applied.length > 0 && model.history.lastUndo === step) undoLast(model);
+              report(sortRange(model, c.sheetId, withHeader, keyCol, direction), 'sorted');
+            });
+          c.say({ text: 'Row 1 reads as a header (titles over numbers), so it stayed on top.', action: { label: 'Sort row 1 with the data', run: include } });
+        });
+        return;
+      }
       guard(() => report(sortRange(model, c.sheetId, range, keyCol, direction), 'sorted'));
     },
     clear: () => {
       const sel = c.getSelection();
       if (!sel) return;
-      guard(() => {
-        const outcomes = viewRows(sel).map((row) => clearRange(model, c.sheetId, { top: row, bottom: row, left: sel.min.col, right: sel.max.col }));
-        report({ applied: outcomes.flatMap((o) => o.applied), refused: outcomes.flatMap((o) => o.refused) });
-      });
+      guard(() => report(clearRange(model, c.sheetId, viewRows(sel), sel.min.col, sel.max.col)));
     },
     copy: (cut: boolean): string | null => {
       const sel = c.getSelection();
@@ -143,24 +163,18 @@ export function useSheetCommands(ctx: CommandContext) {
     paste: (text: string, table?: string[][]) => {
       const sel = c.getSelection();
       if (!sel) return;
-      const selHeight = sel.max.row - sel.min.row + 1;
-      const selWidth = sel.max.col - sel.min.col + 1;
+      const selection = { height: sel.max.row - sel.min.row + 1, width: sel.max.col - sel.min.col + 1 };
       const internal = clipboard.current && !table && text === clipboard.current.text ? clipboard.current.source : null;
       guard(() => {
-        let height: number;
-        let width: number;
-        if (internal) {
-          const single = internal.rows.length === 1 && internal.left === internal.right;
-          height = single ? selHeight : internal.rows.length;
-          width = single ? selWidth : internal.right - internal.left + 1;
-          report(pasteCopiedCells(model, c.sheetId, c.view.rowsFrom(sel.min.row, height), sel.min.col, width, internal), 'pasted');
-        } else {
-          let block = table ?? parseTsv(text);
-          if (block.length === 1 && block[0].length === 1) block = Array.from({ length: selHeight }, () => Array<string>(selWidth).fill(block[0][0]));
-          height = block.length;
-          width = Math.max(...block.map((r) => r.length));
-          report(pasteBlock(model, c.sheetId, c.view.rowsFrom(sel.min.row, height), sel.min.col, block), 'pasted');
-        }
+        const block = internal ? null : (table ?? parseTsv(text));
+        const size = internal ? { height: internal.rows.length, width: internal.right - internal.left + 1 } : { height: block!.length, width: Math.max(...block!.map((r) => r.length)) };
+        const repeats = pasteRepeats(selection, size);
+        const height = size.height * repeats.down;
+        const width = size.width * repeats.across;
+        const rows = c.view.rowsFrom(sel.min.row, height);
+        const outcome = internal ? pasteCopiedCells(model, c.sheetId, rows, sel.min.col, internal, repeats) : pasteBlock(model, c.sheetId, rows, sel.min.col, tileBlock(block!, repeats.down, repeats.across));
+        report(outcome, 'pasted');
+        if (outcome.refused.length === 0 && repeats.note) c.say(repeats.note);
         c.select({ min: sel.min, max: { row: sel.min.row + height - 1, col: sel.min.col + width - 1 } });
       });
     },

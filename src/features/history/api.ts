@@ -1,10 +1,8 @@
 // The change log of a workbook: the list of saved changes (each with its first cell changes), and
 // bringing back one sheet or the whole workbook as it was right after one of them.
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import type { RevisionSummary } from '@shared/workbooks.js';
+import { workbookPath, type RevisionSummary } from '@shared/workbooks.js';
 import { api, queryKeys } from '../../lib/api.js';
-
-const base = (id: string) => `/workbooks/${encodeURIComponent(id)}/revisions`;
 
 export interface RevisionList {
   revision: number;
@@ -14,7 +12,7 @@ export interface RevisionList {
 export const revisionsQueryOptions = (workbookId: string) =>
   queryOptions({
     queryKey: queryKeys.revisions(workbookId),
-    queryFn: ({ signal }) => api<RevisionList>(`${base(workbookId)}?limit=200`, { signal }),
+    queryFn: ({ signal }) => api<RevisionList>(`${workbookPath(workbookId, 'revisions')}?limit=200`, { signal }),
     staleTime: 0,
   });
 
@@ -24,7 +22,7 @@ export function useRestoreRevision(workbookId: string) {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: ({ n, sheetId }: { n: number; sheetId?: string }) =>
-      api<{ revision: number; changeCount: number }>(`${base(workbookId)}/${n}/restore`, { method: 'POST', body: sheetId ? { sheetId } : {} }),
+      api<{ revision: number; changeCount: number }>(workbookPath(workbookId, 'revisions', n, 'restore'), { method: 'POST', body: sheetId ? { sheetId } : {} }),
     onSuccess: () => {
       // The restored state reaches the grid as a live revision like any other; the lists refresh here.
       void queryClient.invalidateQueries({ queryKey: queryKeys.revisions(workbookId), exact: true });

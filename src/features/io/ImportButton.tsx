@@ -1,4 +1,4 @@
-// "Import…": pick or drop an .xlsx or .csv file, watch it upload, read what was taken. Without a
+// "Import…": pick or drop an .xlsx or .csv file, or structures (.sdf, .mol, .xyz), watch it upload, read what was taken. Without a
 // workbookId the file becomes a new workbook; with one, its sheets are added to that workbook.
 import { useQueryClient } from '@tanstack/react-query';
 import { useRef, useState, type DragEvent } from 'react';
@@ -10,12 +10,29 @@ import { Notice } from '../../components/ui/Notice.js';
 import { ApiError, queryKeys } from '../../lib/api.js';
 import { ImportSummaryView } from './ImportSummaryView.js';
 import { uploadSpreadsheet, type UploadProgress } from './upload.js';
+import { workbookPath } from '@shared/workbooks.js';
 
 type Stage = { kind: 'choose' } | { kind: 'uploading'; file: File; progress: UploadProgress } | { kind: 'done'; result: ImportResponse } | { kind: 'failed'; file?: File; message: string };
 
 const megabytes = (bytes: number) => `${(bytes / (1024 * 1024)).toFixed(1)} MB`;
 
-export function ImportButton({ workbookId, label = 'Import…', onImported }: { workbookId?: string; label?: string; onImported?: (result: ImportResponse) => void }) {
+export function ImportButton({
+  workbookId,
+  label = 'Import…',
+  onImported,
+  variant,
+  className,
+  disabled,
+  title,
+}: {
+  workbookId?: string;
+  label?: string;
+  onImported?: (result: ImportResponse) => void;
+  variant?: 'secondary' | 'ghost';
+  className?: string;
+  disabled?: boolean;
+  title?: string;
+}) {
   const [open, setOpen] = useState(false);
   const [stage, setStage] = useState<Stage>({ kind: 'choose' });
   const [dragging, setDragging] = useState(false);
@@ -61,7 +78,9 @@ export function ImportButton({ workbookId, label = 'Import…', onImported }: { 
 
   return (
     <>
-      <Button onClick={() => setOpen(true)}>{label}</Button>
+      <Button variant={variant} className={className} disabled={disabled} title={title} onClick={() => setOpen(true)}>
+        {label}
+      </Button>
       <Dialog
         open={open}
         onClose={close}
@@ -72,7 +91,7 @@ export function ImportButton({ workbookId, label = 'Import…', onImported }: { 
             <>
               <Button onClick={close}>Close</Button>
               {!workbookId && (
-                <Button variant="primary" onClick={() => (close(), navigate(`/workbooks/${encodeURIComponent(stage.result.workbookId)}`))}>
+                <Button variant="primary" onClick={() => (close(), navigate(workbookPath(stage.result.workbookId)))}>
                   Open workbook
                 </Button>
               )}
@@ -93,7 +112,7 @@ export function ImportButton({ workbookId, label = 'Import…', onImported }: { 
               onDrop={onDrop}
               className={`flex flex-col items-center gap-2 rounded-panel border border-dashed px-4 py-6 text-center ${dragging ? 'border-accent bg-accent-soft' : 'border-line-strong bg-raised'}`}
             >
-              <p className="text-ink">Drop an .xlsx or .csv file here</p>
+              <p className="text-ink">Drop an .xlsx or .csv file, or structures (.sdf, .mol, .xyz), here</p>
               <Button disabled={uploading} onClick={() => input.current?.click()}>
                 Choose a file…
               </Button>

@@ -13,6 +13,7 @@ import { setProtection } from '../../core/team/protection.js';
 import type { SetAsideInput } from './conflictResolution.js';
 import { applyRemoteRevision, fromRevisionDetail } from './remoteRevision.js';
 import { RevisionFeed } from './revisionFeed.js';
+import { workbookPath } from '@shared/workbooks.js';
 
 export type LiveConnection = 'connecting' | 'live' | 'reconnecting' | 'ended';
 export type EndReason = LiveEvents['closed']['reason'] | 'too_far_behind' | 'refused';
@@ -70,7 +71,7 @@ export function useLiveUpdates(session: WorkbookSession, opts: LiveOptions): Liv
     });
     queue.catchUp = (revision) => feed.catchUp(revision);
 
-    const source = new EventSource(`/api/workbooks/${encodeURIComponent(workbookId)}/events`);
+    const source = new EventSource(`/api${workbookPath(workbookId, 'events')}`);
     let opened = 0;
     const on = <E extends LiveEventName>(name: E, handle: (data: LiveEvents[E]) => void) =>
       source.addEventListener(name, (e) => {

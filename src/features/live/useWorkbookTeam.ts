@@ -17,6 +17,7 @@ import type { SetAsideInput } from './conflictResolution.js';
 import { LatestThrottle } from './presenceThrottle.js';
 import { addSetAside, loadSetAside, saveSetAside } from './setAside.js';
 import { useLiveUpdates, type LiveState } from './useLiveUpdates.js';
+import { workbookPath } from '@shared/workbooks.js';
 
 export type TeamDialog = 'team' | 'protect' | 'history' | 'audit' | null;
 
@@ -99,7 +100,7 @@ export function useWorkbookTeam(session: WorkbookSession, cursor: PresenceInput 
   // Where my cursor is, for everyone else's chips: throttled, and sent again after each reconnect
   // (the server forgets a cursor when its stream closes).
   const presence = useMutation({
-    mutationFn: (cell: PresenceInput) => api<void>(`/workbooks/${encodeURIComponent(workbookId)}/presence`, { method: 'POST', body: cell }),
+    mutationFn: (cell: PresenceInput) => api<void>(workbookPath(workbookId, 'presence'), { method: 'POST', body: cell }),
   });
   const send = useRef(presence.mutate);
   send.current = presence.mutate;

@@ -5,8 +5,9 @@ import type { ProtectedRange, ProtectedRangeInput, Protection, SheetLock, SheetL
 import { api, queryKeys } from '../../lib/api.js';
 import { setProtection } from '../../core/team/protection.js';
 import { withLock, withoutLock, withoutRange, withRange } from '../../core/team/editability.js';
+import { workbookPath } from '@shared/workbooks.js';
 
-const sheetPath = (workbookId: string, sheetId: string) => `/workbooks/${encodeURIComponent(workbookId)}/sheets/${encodeURIComponent(sheetId)}`;
+const sheetPath = (workbookId: string, sheetId: string) => workbookPath(workbookId, 'sheets', sheetId);
 
 function useProtectionMutation<V, R>(workbookId: string, call: (v: V) => Promise<R>, apply: (p: Protection, r: R, v: V) => Protection) {
   const queryClient = useQueryClient();

@@ -9,6 +9,7 @@ import { sentence } from '../../lib/fieldErrors.js';
 import { useMe, useSignOut } from '../../core/session/me.js';
 import { AuthFrame } from '../../components/ui/AuthFrame.js';
 import { useAcceptInvitation, useInvitationLink } from './api.js';
+import { workbookPath } from '@shared/workbooks.js';
 
 const closedStatus: Record<Exclude<InvitationPreview['status'], 'pending'>, string> = {
   accepted: 'This invitation has already been used. Each link works once; if you accepted it, the workbook is in your list.',
@@ -79,7 +80,7 @@ export function InvitationPage() {
               variant="primary"
               className="h-8"
               busy={accept.isPending}
-              onClick={() => accept.mutate(undefined, { onSuccess: (r) => navigate(`/workbooks/${encodeURIComponent(r.workbookId)}`, { replace: true }) })}
+              onClick={() => accept.mutate(undefined, { onSuccess: (r) => navigate(workbookPath(r.workbookId), { replace: true }) })}
             >
               Accept and open the workbook
             </Button>

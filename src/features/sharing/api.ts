@@ -12,13 +12,13 @@ import type {
 } from '@shared/team.js';
 import type { SheetRole, WorkbookRole } from '@shared/permissions.js';
 import { api, queryKeys } from '../../lib/api.js';
+import { workbookPath } from '@shared/workbooks.js';
 
-const base = (id: string) => `/workbooks/${encodeURIComponent(id)}`;
 
 export const invitationsQueryOptions = (workbookId: string) =>
   queryOptions({
     queryKey: queryKeys.invitations(workbookId),
-    queryFn: ({ signal }) => api<InvitationsResponse>(`${base(workbookId)}/invitations`, { signal }).then((r) => r.invitations),
+    queryFn: ({ signal }) => api<InvitationsResponse>(workbookPath(workbookId, 'invitations'), { signal }).then((r) => r.invitations),
   });
 
 export const invitationLinkQueryOptions = (token: string) =>
@@ -46,7 +46,7 @@ function useRefreshSharing(workbookId: string) {
 export function useAddMember(workbookId: string) {
   const refresh = useRefreshSharing(workbookId);
   return useMutation({
-    mutationFn: (input: AddMemberInput) => api<AddMemberResponse>(`${base(workbookId)}/members`, { method: 'POST', body: input }),
+    mutationFn: (input: AddMemberInput) => api<AddMemberResponse>(workbookPath(workbookId, 'members'), { method: 'POST', body: input }),
     onSuccess: refresh,
   });
 }
@@ -55,7 +55,7 @@ export function useChangeMemberRole(workbookId: string) {
   const refresh = useRefreshSharing(workbookId);
   return useMutation({
     mutationFn: ({ userId, role }: { userId: string; role: WorkbookRole }) =>
-      api<MemberRoleResult>(`${base(workbookId)}/members/${encodeURIComponent(userId)}`, { method: 'PATCH', body: { role } }),
+      api<MemberRoleResult>(workbookPath(workbookId, 'members', userId), { method: 'PATCH', body: { role } }),
     onSuccess: refresh,
   });
 }
@@ -63,7 +63,7 @@ export function useChangeMemberRole(workbookId: string) {
 export function useRemoveMember(workbookId: string) {
   const refresh = useRefreshSharing(workbookId);
   return useMutation({
-    mutationFn: (userId: string) => api<void>(`${base(workbookId)}/members/${encodeURIComponent(userId)}`, { method: 'DELETE' }),
+    mutationFn: (userId: string) => api<void>(workbookPath(workbookId, 'members', userId), { method: 'DELETE' }),
     onSuccess: refresh,
   });
 }
@@ -71,7 +71,7 @@ export function useRemoveMember(workbookId: string) {
 export function useRevokeInvitation(workbookId: string) {
   const refresh = useRefreshSharing(workbookId);
   return useMutation({
-    mutationFn: (invitationId: string) => api<void>(`${base(workbookId)}/invitations/${encodeURIComponent(invitationId)}`, { method: 'DELETE' }),
+    mutationFn: (invitationId: string) => api<void>(workbookPath(workbookId, 'invitations', invitationId), { method: 'DELETE' }),
     onSuccess: refresh,
   });
 }
@@ -92,7 +92,7 @@ export function useSetSheetRole(workbookId: string) {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: ({ sheetId, email, role }: { sheetId: string; email: string; role: SheetRole | null }) =>
-      api<SheetRolesResponse>(`${base(workbookId)}/sheets/${encodeURIComponent(sheetId)}/roles`, { method: 'PUT', body: { email, role } }),
+      api<SheetRolesResponse>(workbookPath(workbookId, 'sheets', sheetId, 'roles'), { method: 'PUT', body: { email, role } }),
     // The live `protection` event brings the new roles to every open page, this one included.
     onSuccess: () => void queryClient.invalidateQueries({ queryKey: queryKeys.audit(workbookId) }),
   });

@@ -1,6 +1,6 @@
 import { useState, type FormEvent } from 'react';
 import { useNavigate } from 'react-router';
-import { createWorkbookSchema } from '@shared/workbooks.js';
+import { createWorkbookSchema, workbookPath } from '@shared/workbooks.js';
 import { Button } from '../../components/ui/Button.js';
 import { Dialog } from '../../components/ui/Dialog.js';
 import { Notice } from '../../components/ui/Notice.js';
@@ -25,7 +25,7 @@ export function NewWorkbookDialog({ open, onClose }: { open: boolean; onClose: (
     const checked = checkForm(createWorkbookSchema, { title: new FormData(event.currentTarget).get('title') });
     if ('errors' in checked) return setErrors(checked.errors);
     create.mutate(checked.data, {
-      onSuccess: (workbook) => navigate(`/workbooks/${encodeURIComponent(workbook.id)}`),
+      onSuccess: (workbook) => navigate(workbookPath(workbook.id)),
       onError: (error) => setErrors(errorsFromApi(error, ['title'])),
     });
   }

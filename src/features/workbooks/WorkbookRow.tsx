@@ -1,7 +1,7 @@
 import { useState, type FormEvent, type KeyboardEvent } from 'react';
 import { Link } from 'react-router';
 import { allows, roleLabels } from '@shared/permissions.js';
-import { renameWorkbookSchema, type WorkbookSummary } from '@shared/workbooks.js';
+import { renameWorkbookSchema, workbookPath, type WorkbookSummary } from '@shared/workbooks.js';
 import { Button } from '../../components/ui/Button.js';
 import { SheetIcon } from '../../components/ui/icons.js';
 import { checkForm, errorsFromApi } from '../../lib/fieldErrors.js';
@@ -14,7 +14,7 @@ export function WorkbookRow({ workbook, myId, onDelete }: { workbook: WorkbookSu
   const [renaming, setRenaming] = useState(false);
   const [error, setError] = useState<string>();
   const rename = useRenameWorkbook();
-  const href = `/workbooks/${encodeURIComponent(workbook.id)}`;
+  const href = workbookPath(workbook.id);
 
   function stopRenaming() {
     setRenaming(false);

@@ -1,6 +1,6 @@
 // The workbook list: list, create, rename, delete. (Opening one is the grid feature's.)
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import type { CreateWorkbookInput, WorkbookSummary } from '@shared/workbooks.js';
+import { workbookPath, type CreateWorkbookInput, type WorkbookSummary } from '@shared/workbooks.js';
 import { api, queryKeys } from '../../lib/api.js';
 
 export const workbooksQueryOptions = queryOptions({
@@ -24,7 +24,7 @@ export function useRenameWorkbook() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: ({ id, title }: { id: string; title: string }) =>
-      api<{ workbook: WorkbookSummary }>(`/workbooks/${encodeURIComponent(id)}`, { method: 'PATCH', body: { title } }).then((r) => r.workbook),
+      api<{ workbook: WorkbookSummary }>(workbookPath(id), { method: 'PATCH', body: { title } }).then((r) => r.workbook),
     onSuccess: (workbook) => {
       queryClient.setQueryData(queryKeys.workbooks, (list: WorkbookSummary[] | undefined) => list?.map((w) => (w.id === workbook.id ? workbook : w)));
       // An open copy of this workbook shows the new title too.
@@ -36,7 +36,7 @@ export function useRenameWorkbook() {
 export function useDeleteWorkbook() {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (id: string) => api<void>(`/workbooks/${encodeURIComponent(id)}`, { method: 'DELETE' }),
+    mutationFn: (id: string) => api<void>(workbookPath(id), { method: 'DELETE' }),
     onSuccess: (_r, id) => {
       queryClient.setQueryData(queryKeys.workbooks, (list: WorkbookSummary[] | undefined) => list?.filter((w) => w.id !== id));
       queryClient.removeQueries({ queryKey: queryKeys.workbook(id) });

@@ -2,8 +2,9 @@
 // error its message ("unknown element 'Xq'"). Pure, so display rules are tested without a browser.
 import { DetailedCellError, type CellValue } from 'hyperformula';
 import { explainCellError } from '@functions/cellErrors.js';
+import { isPendingMessage } from '@functions/structureResults.js';
 
-export type CellKind = 'number' | 'text' | 'boolean' | 'error' | 'empty';
+export type CellKind = 'number' | 'text' | 'boolean' | 'error' | 'empty' | 'pending';
 
 export interface CellView {
   /** What is stored and edited ('' for a cell filled by a neighbouring array formula). */
@@ -58,8 +59,10 @@ function trimExponential(s: string): string {
 }
 
 export function cellView(input: string, value: CellValue, precision: Precision, spilled = false): CellView | undefined {
+  // Waiting for a result computed on the server: not an error, and shown as such.
+  if (value instanceof DetailedCellError && isPendingMessage(value.message)) return { input, display: 'computing…', kind: 'pending', value: null, spilled };
   if (value instanceof DetailedCellError) {
-    return { input, display: value.value, kind: 'error', value: value.value, errorCode: value.value, errorMessage: explainCellError(value), spilled };
+    return { input, display: value.value, kind: 'error', value: value.value, errorCode: value.value, errorMessage: explainCellError(value, input), spilled };
   }
   if (value === null || value === undefined) {
     if (input === '') return undefined;

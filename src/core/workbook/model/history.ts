@@ -16,18 +16,52 @@ export interface CellEdit {
 export type HistoryEntry =
   | { kind: 'cells'; changes: CellEdit[] }
   /** Rows or columns inserted or deleted; `differences` are every input it changed, per sheet. */
-  | { kind: 'structure'; sheetId: string; op: StructuralOp; differences: Map<string, InputDifference[]> };
+  | { kind: 'structure'; sheetId: string; op: StructuralOp; differences: Map<string, InputDifference[]> }
+  /** One user action that took several steps (cells typed and drag-filled at once): undone as one. */
+  | { kind: 'group'; entries: HistoryEntry[] };
 
 export class History {
   private undoStack: HistoryEntry[] = [];
   private redoStack: HistoryEntry[] = [];
+  /** Entries pushed while an action is open, and how deeply actions are nested. */
+  private open: HistoryEntry[] | null = null;
+  private depth = 0;
 
   constructor(readonly limit = 200) {}
 
+  /**
+   * Runs one user action: whatever it pushes becomes a single undo step, so Ctrl+Z never takes back
+   * half of a paste, a cleared block or a typed-and-filled change.
+   */
+  action<T>(run: () => T): T {
+    if (this.depth === 0) this.open = [];
+    this.depth += 1;
+    try {
+      return run();
+    } finally {
+      this.depth -= 1;
+      if (this.depth === 0) {
+        const entries = this.open ?? [];
+        this.open = null;
+        if (entries.length === 1) this.push(entries[0]);
+        else if (entries.length > 1) this.push({ kind: 'group', entries });
+      }
+    }
+  }
+
   push(entry: HistoryEntry) {
+    if (this.open) {
+      this.open.push(entry);
+      return;
+    }
     this.undoStack.push(entry);
     if (this.undoStack.length > this.limit) this.undoStack.shift();
     this.redoStack = [];
+  }
+
+  /** The step Ctrl+Z would take back now (to tell whether it is still the one just made). */
+  get lastUndo(): HistoryEntry | undefined {
+    return this.undoStack[this.undoStack.length - 1];
   }
 
   get canUndo() {
@@ -64,7 +98,8 @@ export class History {
 
   /** A deleted sheet's entries can no longer be replayed. */
   forgetSheet(sheetId: string) {
-    const keep = (e: HistoryEntry) => (e.kind === 'cells' ? !e.changes.some((c) => c.sheetId === sheetId) : e.sheetId !== sheetId && !e.differences.has(sheetId));
+    const keep = (e: HistoryEntry): boolean =>
+      e.kind === 'group' ? e.entries.every(keep) : e.kind === 'cells' ? !e.changes.some((c) => c.sheetId === sheetId) : e.sheetId !== sheetId && !e.differences.has(sheetId);
     this.undoStack = this.undoStack.filter(keep);
     this.redoStack = this.redoStack.filter(keep);
   }

@@ -49,6 +49,17 @@ function sortValue(model: WorkbookModel, sheetId: string, row: number, col: numb
   return { error: v.value };
 }
 
+/** The computed values of a block, row by row (for telling a header row from data). */
+export function blockValues(model: WorkbookModel, sheetId: string, r: CellRange): SortValue[][] {
+  const out: SortValue[][] = [];
+  for (let row = r.top; row <= r.bottom; row++) {
+    const line: SortValue[] = [];
+    for (let col = r.left; col <= r.right; col++) line.push(sortValue(model, sheetId, row, col));
+    out.push(line);
+  }
+  return out;
+}
+
 /** Reorders the rows of the block by the values in one of its columns. */
 export function sortRange(model: WorkbookModel, sheetId: string, r: CellRange, keyCol: number, direction: SortDirection): EditOutcome {
   const keys: SortValue[] = [];
@@ -89,17 +100,36 @@ export interface CopiedCells {
 }
 
 /**
- * Pastes cells copied inside this workbook with formulas re-pointed by the distance moved, so a
- * copied "=A1*2" pasted one row down reads "=A2*2". A single copied cell fills every target cell.
+ * How many times a copied block is laid down over a selection: as desktop spreadsheets do (common
+ * practice), a selection that is a whole multiple of the block in both directions is tiled with it;
+ * any other selection gets the block once, with the reason in words when the selection was larger.
  */
-export function pasteCopiedCells(model: WorkbookModel, sheetId: string, rows: readonly number[], left: number, width: number, source: CopiedCells): EditOutcome {
-  const single = source.rows.length === 1 && source.left === source.right;
-  const height = single ? rows.length : Math.min(rows.length, source.rows.length);
-  const cols = single ? width : source.right - source.left + 1;
+export function pasteRepeats(selection: { height: number; width: number }, block: { height: number; width: number }): { down: number; across: number; note: string | null } {
+  const fits = (sel: number, b: number) => sel >= b && sel % b === 0;
+  if (fits(selection.height, block.height) && fits(selection.width, block.width)) {
+    return { down: selection.height / block.height, across: selection.width / block.width, note: null };
+  }
+  const larger = selection.height > block.height || selection.width > block.width;
+  const size = (h: number, w: number) => `${h} × ${w}`;
+  const note = larger
+    ? `Pasted once: the selection (${size(selection.height, selection.width)} cells) is not a whole multiple of the copied block (${size(block.height, block.width)}), so it cannot be repeated evenly.`
+    : null;
+  return { down: 1, across: 1, note };
+}
+
+/**
+ * Pastes cells copied inside this workbook with formulas re-pointed by the distance moved, so a
+ * copied "=A1*2" pasted one row down reads "=A2*2". The block is laid down `down` × `across` times
+ * (see pasteRepeats); `rows` are the sheet rows of the whole target, top to bottom.
+ */
+export function pasteCopiedCells(model: WorkbookModel, sheetId: string, rows: readonly number[], left: number, source: CopiedCells, repeats: { down: number; across: number } = { down: 1, across: 1 }): EditOutcome {
+  const blockHeight = source.rows.length;
+  const blockWidth = source.right - source.left + 1;
   const changes: CellInput[] = [];
+  const height = Math.min(rows.length, blockHeight * repeats.down);
   for (let i = 0; i < height; i++) {
-    for (let j = 0; j < cols; j++) {
-      const from = { row: source.rows[single ? 0 : i], col: source.left + (single ? 0 : j) };
+    for (let j = 0; j < blockWidth * repeats.across; j++) {
+      const from = { row: source.rows[i % blockHeight], col: source.left + (j % blockWidth) };
       const to = { row: rows[i], col: left + j };
       const input = source.sheetId === sheetId ? movedInput(model, sheetId, from, to) : model.input(source.sheetId, from.row, from.col);
       changes.push({ sheetId, row: to.row, col: to.col, input });
@@ -108,8 +138,22 @@ export function pasteCopiedCells(model: WorkbookModel, sheetId: string, rows: re
   return model.edit(changes, { whole: true });
 }
 
-export function clearRange(model: WorkbookModel, sheetId: string, r: CellRange): EditOutcome {
+/** Repeats a block of text `down` × `across` times (a pasted block tiled over the selection). */
+export function tileBlock(block: readonly (readonly string[])[], down: number, across: number): string[][] {
+  const width = Math.max(0, ...block.map((r) => r.length));
+  const out: string[][] = [];
+  for (let d = 0; d < down; d++) {
+    for (const line of block) {
+      const padded = Array.from({ length: width }, (_, j) => line[j] ?? '');
+      out.push(Array.from({ length: across }, () => padded).flat());
+    }
+  }
+  return out;
+}
+
+/** Empties a block (the rows given, columns left..right) as one edit: one undo step, one patch. */
+export function clearRange(model: WorkbookModel, sheetId: string, rows: readonly number[], left: number, right: number): EditOutcome {
   const changes: CellInput[] = [];
-  for (let row = r.top; row <= r.bottom; row++) for (let col = r.left; col <= r.right; col++) if (model.input(sheetId, row, col) !== '') changes.push({ sheetId, row, col, input: '' });
+  for (const row of rows) for (let col = left; col <= right; col++) if (model.input(sheetId, row, col) !== '') changes.push({ sheetId, row, col, input: '' });
   return model.edit(changes);
 }

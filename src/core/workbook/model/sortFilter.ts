@@ -71,3 +71,21 @@ export function distinctValues(displayed: Iterable<string>, limit = 200): { text
   }
   return [...counts.values()].sort((a, b) => b.count - a.count || collator.compare(a.text, b.text)).slice(0, limit);
 }
+
+/**
+ * Whether the first row of a block reads as a header over its data (text over numbers): every filled
+ * cell of the first row is text, and in at least one column where it is, most filled cells below are
+ * numbers. A column of species names under "Species" cannot tell either way on its own, which is why
+ * a number column is needed (common practice in desktop spreadsheets' sort dialogs).
+ */
+export function looksLikeHeader(rows: readonly (readonly SortValue[])[]): boolean {
+  if (rows.length < 2) return false;
+  const [first, ...below] = rows;
+  const filled = first.filter((v) => !isEmpty(v));
+  if (filled.length === 0 || filled.some((v) => typeof v !== 'string')) return false;
+  return first.some((v, col) => {
+    if (typeof v !== 'string' || isEmpty(v)) return false;
+    const column = below.map((r) => r[col] ?? null).filter((x) => !isEmpty(x));
+    return column.length > 0 && column.filter((x) => typeof x === 'number').length * 2 > column.length;
+  });
+}

@@ -7,6 +7,7 @@
 import type { CellInput } from '../save/pendingStore.js';
 import { diffInputs, type InputDifference, type SheetInputs } from './sheetInputs.js';
 import type { WorkbookModel } from './workbookModel.js';
+import type { HistoryEntry } from './history.js';
 
 export interface StructuralOp {
   axis: 'row' | 'col';
@@ -130,24 +131,37 @@ function replay(model: WorkbookModel, side: 'before' | 'after'): boolean {
   const undoing = side === 'before';
   const entry = undoing ? model.history.takeUndo() : model.history.takeRedo();
   if (!entry) return false;
-  if (entry.kind === 'cells') {
-    model.edit(
-      entry.changes.filter((c) => model.hasSheet(c.sheetId)).map((c) => ({ sheetId: c.sheetId, row: c.row, col: c.col, input: c[side] })),
-      { record: false },
-    );
-    return true;
-  }
-  const op: StructuralOp = undoing ? { ...entry.op, action: entry.op.action === 'insert' ? 'remove' : 'insert' } : entry.op;
   try {
-    applyStructural(model, entry.sheetId, op, false);
+    bringTo(model, entry, side);
   } catch (e) {
     // Refused (a lock): the entry goes back on the stack it came from.
     if (undoing) model.history.untakeUndo();
     else model.history.untakeRedo();
     throw e;
   }
-  restore(model, entry.differences, side);
   return true;
+}
+
+/** Brings the sheets to one side of an entry (a group's steps in reverse when undoing). */
+function bringTo(model: WorkbookModel, entry: HistoryEntry, side: 'before' | 'after') {
+  const undoing = side === 'before';
+  if (entry.kind === 'group') {
+    for (const e of undoing ? [...entry.entries].reverse() : entry.entries) bringTo(model, e, side);
+    return;
+  }
+  if (entry.kind === 'cells') {
+    // All or nothing, like the action it takes back: half an undone paste would be a new state that
+    // neither the screen's history nor the server has seen.
+    const outcome = model.edit(
+      entry.changes.filter((c) => model.hasSheet(c.sheetId)).map((c) => ({ sheetId: c.sheetId, row: c.row, col: c.col, input: c[side] })),
+      { record: false, whole: true },
+    );
+    if (outcome.refused.length > 0) throw new StructureError(outcome.refused[0].reason);
+    return;
+  }
+  const op: StructuralOp = undoing ? { ...entry.op, action: entry.op.action === 'insert' ? 'remove' : 'insert' } : entry.op;
+  applyStructural(model, entry.sheetId, op, false);
+  restore(model, entry.differences, side);
 }
 
 /** Puts back inputs the engine could not restore by itself (deleted cells, #REF! formulas, typed spellings). */

@@ -202,6 +202,25 @@ export class WorkbookModel {
     return written;
   }
 
+  /** Evaluates formula cells again with their own input (their extended-Hückel results have arrived). */
+  reevaluate(cells: readonly { sheet: number; row: number; col: number }[]) {
+    const touched: { engineId: number; row: number; col: number }[] = [];
+    let engineChanges: ExportedChange[] = [];
+    this.engine.suspendEvaluation();
+    try {
+      for (const c of cells) {
+        const input = this.sheetByEngineId(c.sheet)?.inputs.get(c.row, c.col);
+        if (!input?.startsWith('=')) continue; // edited since it asked
+        this.engine.setCellContents({ sheet: c.sheet, row: c.row, col: c.col }, [[engineInput(input)]]);
+        touched.push({ engineId: c.sheet, row: c.row, col: c.col });
+      }
+    } finally {
+      engineChanges = this.engine.resumeEvaluation();
+    }
+    for (const ch of engineChanges) if (ch instanceof ExportedCellChange) touched.push({ engineId: ch.sheet, row: ch.row, col: ch.col });
+    this.refreshViews(touched);
+  }
+
   /** Recomputes the views of the given cells, replacing only the rows they are in. */
   refreshViews(cells: readonly { engineId: number; row: number; col: number }[]) {
     for (const [engineId, fixes] of groupCells(cells)) {

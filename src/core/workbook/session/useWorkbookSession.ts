@@ -4,11 +4,13 @@
 import { useQuery } from '@tanstack/react-query';
 import { useEffect, useRef, useState, useSyncExternalStore } from 'react';
 import type { WorkbookPayload } from '@shared/workbooks.js';
-import { sendPatch, workbookQueryOptions } from '../api.js';
+import { fetchStructures, sendPatch, workbookQueryOptions } from '../api.js';
 import { WorkbookModel } from '../model/workbookModel.js';
 import { PatchQueue, type SaveStatus } from '../save/patchQueue.js';
 import { PendingStore, type KeyValueStorage } from '../save/pendingStore.js';
 import { buildPreview, type SheetPreview } from '../model/windowPreview.js';
+import { PendingReevaluation } from '../model/pendingCells.js';
+import { installStructureStore, StructureStore } from '../structures/structureStore.js';
 
 export interface WorkbookSession {
   model: WorkbookModel;
@@ -16,6 +18,9 @@ export interface WorkbookSession {
   store: PendingStore;
   /** Unsent changes found from an earlier visit and put back on the sheet. */
   restored: number;
+  /** Extended-Hückel results from the server, and the cells waiting for them. */
+  structures: StructureStore;
+  reevaluation: PendingReevaluation;
 }
 
 function browserStorage(): KeyValueStorage | null {
@@ -26,12 +31,14 @@ function browserStorage(): KeyValueStorage | null {
   }
 }
 
-export function openSession(payload: WorkbookPayload, storage: KeyValueStorage | null): WorkbookSession {
+export function openSession(payload: WorkbookPayload, storage: KeyValueStorage | null, structures = new StructureStore((inputs) => fetchStructures(payload.id, inputs))): WorkbookSession {
   // Timed for the open benchmark (bench/browser-open.ts reads this measure).
   const started = performance.now();
   // The model hands every local change to the save queue; the queue shows colleagues' inputs it held
   // back. Each is given the other's method at construction, called only once both exist.
   const model: WorkbookModel = new WorkbookModel(payload, { onLocalChanges: (changes) => queue.enqueue(changes) });
+  const reevaluation = new PendingReevaluation(model);
+  structures.onArrival((cells) => reevaluation.add(cells));
   performance.measure('orbitab:build-engine', { start: started, end: performance.now() });
   const store = new PendingStore(storage, payload.id);
   const queue: PatchQueue = new PatchQueue({
@@ -49,7 +56,7 @@ export function openSession(payload: WorkbookPayload, storage: KeyValueStorage |
     queue.restore({ baseRevision: left.baseRevision, changes: known });
     restored = known.length;
   }
-  return { model, queue, store, restored };
+  return { model, queue, store, restored, structures, reevaluation };
 }
 
 export function useWorkbookSession(id: string) {
@@ -65,6 +72,9 @@ export function useWorkbookSession(id: string) {
     if (!payload) return;
     performance.mark('orbitab:workbook-loaded');
     const storage = browserStorage();
+    // Installed before the preview is built: the first screenful's EHT cells ask this store too.
+    const structures = new StructureStore((inputs) => fetchStructures(payload.id, inputs));
+    const uninstall = installStructureStore(structures);
     // A large sheet shows its first screenful first; the full engine is built after that paint.
     // Not when unsent changes are waiting: the preview would show the server's older values.
     let first: SheetPreview | null = null;
@@ -82,7 +92,7 @@ export function useWorkbookSession(id: string) {
       deferredOpen.current = null;
       if (cancelled) return;
       try {
-        s = openSession(payload, storage);
+        s = openSession(payload, storage, structures);
       } catch (e) {
         setOpenError(e as Error);
         return;
@@ -99,7 +109,9 @@ export function useWorkbookSession(id: string) {
       cancelled = true;
       deferredOpen.current = null;
       window.removeEventListener('online', online);
+      uninstall();
       if (s) {
+        s.reevaluation.stop();
         s.queue.dispose();
         s.model.dispose();
       }

@@ -2,7 +2,9 @@
 // here as well as in the cell), and, for an error or a read-only cell, the reason in plain words.
 import { useEffect, useImperativeHandle, useRef, useState, type Ref } from 'react';
 import type { CellView } from '../../../core/workbook/model/cellView.js';
+import { acceptsReference, closeBrackets } from '@functions/formulaShape.js';
 import { FunctionSuggestions, useFunctionSuggestions } from './FunctionSuggestions.js';
+import { ArgumentHint } from './ArgumentHint.js';
 
 export interface FormulaBarProps {
   address: string;
@@ -16,6 +18,8 @@ export interface FormulaBarProps {
   onCommit: (input: string) => void;
   onCancel: () => void;
   onGoTo: (address: string) => boolean;
+  /** The A1 name of a grid cell (view row, column): a click on one while a formula waits for a reference inserts it. */
+  refFor?: (viewRow: number, col: number) => string;
   /** Lets the keyboard open the bar for the cell in focus (the frozen header row is edited here). */
   barRef?: Ref<FormulaBarHandle>;
 }
@@ -28,6 +32,7 @@ export interface FormulaBarHandle {
 export function FormulaBar(p: FormulaBarProps) {
   const [draft, setDraft] = useState<string | null>(null);
   const [addressDraft, setAddressDraft] = useState<string | null>(null);
+  const [caret, setCaret] = useState(0);
   const field = useRef<HTMLInputElement>(null);
   const text = draft ?? p.liveText ?? p.input;
   const suggestions = useFunctionSuggestions(draft ?? '', field);
@@ -41,6 +46,32 @@ export function FormulaBar(p: FormulaBarProps) {
       el.focus();
     },
   }));
+
+  // Point mode in the bar: a click on a grid cell while the formula waits for a reference inserts
+  // it (window, capture phase: before the grid would take the click and the bar lose focus).
+  const pointed = useRef<{ start: number; end: number } | null>(null);
+  const refFor = p.refFor;
+  useEffect(() => {
+    if (draft === null || !refFor) return;
+    const mousedown = (e: MouseEvent) => {
+      const el = field.current;
+      const target = e.target instanceof HTMLElement ? e.target.closest<HTMLElement>('[data-view-row]') : null;
+      if (!el || !target || e.button !== 0 || document.activeElement !== el) return;
+      const at = el.selectionStart ?? el.value.length;
+      const last = pointed.current && pointed.current.end === at ? pointed.current : null;
+      if (!last && !acceptsReference(el.value, at)) return;
+      e.preventDefault();
+      e.stopPropagation();
+      const ref = refFor(Number(target.dataset.viewRow), Number(target.dataset.col));
+      const start = last ? last.start : at;
+      const next = el.value.slice(0, start) + ref + el.value.slice(last ? last.end : at);
+      pointed.current = { start, end: start + ref.length };
+      setDraft(next);
+      requestAnimationFrame(() => el.setSelectionRange(start + ref.length, start + ref.length));
+    };
+    window.addEventListener('mousedown', mousedown, true);
+    return () => window.removeEventListener('mousedown', mousedown, true);
+  }, [draft, refFor]);
 
   const problem = p.view?.kind === 'error' ? `${p.view.errorCode} ${p.view.errorMessage}` : null;
   return (
@@ -76,8 +107,9 @@ export function FormulaBar(p: FormulaBarProps) {
             }
           }}
         />
-        <span aria-hidden="true" className="font-mono text-caption text-ink-3 italic">
-          fx
+        {/* Orbitab's own mark for "this cell holds": the defining-equals sign (≔). */}
+        <span aria-hidden="true" title="The cell holds: a value, or a formula starting with =" className="flex h-5 items-center rounded-sm bg-raised px-1 font-mono text-caption text-accent" data-testid="input-mark">
+          ≔
         </span>
         <input
           ref={field}
@@ -86,7 +118,12 @@ export function FormulaBar(p: FormulaBarProps) {
           disabled={p.disabled}
           className="h-6 min-w-0 flex-1 rounded-ctl border border-transparent bg-transparent px-1.5 font-mono text-ui text-ink focus:border-accent focus:bg-surface focus:outline-none disabled:text-ink-2"
           value={text}
-          onChange={(e) => setDraft(e.target.value)}
+          onChange={(e) => {
+            pointed.current = null;
+            setDraft(e.target.value);
+            setCaret(e.target.selectionStart ?? e.target.value.length);
+          }}
+          onSelect={(e) => setCaret(e.currentTarget.selectionStart ?? 0)}
           onFocus={() => {
             // Opened from the keyboard: the typed character (or the input) becomes the draft; a value
             // set on a focused field leaves the caret at its end, so keys typed next follow it.
@@ -99,7 +136,7 @@ export function FormulaBar(p: FormulaBarProps) {
             if (suggestions.handleKey(e, setDraft)) return;
             if (e.key === 'Enter') {
               e.preventDefault();
-              if (draft !== null && draft !== p.input) p.onCommit(draft);
+              if (draft !== null && closeBrackets(draft) !== p.input) p.onCommit(closeBrackets(draft));
               else p.onCancel();
               setDraft(null);
             } else if (e.key === 'Escape') {
@@ -110,6 +147,7 @@ export function FormulaBar(p: FormulaBarProps) {
           }}
         />
         <FunctionSuggestions state={suggestions} anchor={field} apply={setDraft} />
+        {draft !== null && <ArgumentHint text={draft} caret={caret} anchor={field} hidden={suggestions.items.length > 0} />}
       </div>
       {(problem || p.readOnlyReason) && (
         <p role="status" className="flex items-center gap-2 border-t border-line bg-raised px-3 py-1 text-caption">

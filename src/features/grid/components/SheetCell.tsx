@@ -3,18 +3,36 @@
 // on its own props, so an edit re-renders only the cells whose view changed (the model replaces only
 // the rows it touched). The edit is committed when the editor closes, like the grid library's text
 // column does on blur.
-import { memo, useLayoutEffect, useRef, useState } from 'react';
+import { memo, useEffect, useLayoutEffect, useRef, useState } from 'react';
+import { acceptsReference, closeBrackets } from '@functions/formulaShape.js';
 import type { CellProps } from 'react-datasheet-grid';
 import type { CellView } from '../../../core/workbook/model/cellView.js';
 import { openedByTyping } from './editorOpening.js';
 import { FunctionSuggestions, useFunctionSuggestions } from './FunctionSuggestions.js';
+import { ArgumentHint } from './ArgumentHint.js';
 
 /** What every cell of a column shares; kept stable so cells do not re-render for nothing. */
 export interface CellColumnData {
   col: number;
   /** Tells the formula bar what is being typed in a cell. */
   onEditText: (text: string | null) => void;
+  /** The A1 name of a cell in view coordinates (the shown row may be another sheet row). */
+  refFor: (viewRow: number, col: number) => string;
+  /** How many view rows and columns there are (pointing stops at the edges). */
+  extent: () => { rows: number; cols: number };
+  /** Shows which cell a formula being typed points at (null: none). */
+  onPoint: (cell: { row: number; col: number } | null) => void;
 }
+
+/** The reference just inserted by pointing: where it sits in the text and the cells it names. */
+interface Pointed {
+  start: number;
+  end: number;
+  anchor: { row: number; col: number };
+  cell: { row: number; col: number };
+}
+
+const ARROWS: Record<string, [number, number]> = { ArrowUp: [-1, 0], ArrowDown: [1, 0], ArrowLeft: [0, -1], ArrowRight: [0, 1] };
 
 type SheetCellProps = CellProps<CellView | null | undefined, CellColumnData>;
 
@@ -26,16 +44,20 @@ function cellClass(v: CellView | null | undefined, disabled: boolean): string {
   return parts.join(' ');
 }
 
-function CellEditor({ rowData, setRowData, columnData }: SheetCellProps) {
+function CellEditor({ rowData, setRowData, columnData, rowIndex, columnIndex }: SheetCellProps) {
   const view = rowData ?? null;
   const input = useRef<HTMLInputElement>(null);
   const state = useRef({ escaped: false, changed: false, value: view?.input ?? '' });
   const [text, setText] = useState(view?.input ?? '');
+  const [caret, setCaret] = useState((view?.input ?? '').length);
+  const pointed = useRef<Pointed | null>(null);
   const suggestions = useFunctionSuggestions(text, input);
   const close = useRef(() => {});
   close.current = () => {
-    if (state.current.changed && !state.current.escaped) setRowData({ ...(view ?? {}), input: state.current.value } as CellView);
+    // Brackets left open are closed on commit: =MOCONFIG(A2 is stored as =MOCONFIG(A2).
+    if (state.current.changed && !state.current.escaped) setRowData({ ...(view ?? {}), input: closeBrackets(state.current.value) } as CellView);
     columnData.onEditText(null);
+    columnData.onPoint(null);
   };
 
   useLayoutEffect(() => {
@@ -49,16 +71,62 @@ function CellEditor({ rowData, setRowData, columnData }: SheetCellProps) {
     return () => close.current();
   }, []);
 
-  const update = (t: string) => {
+  const update = (t: string, keepPointed = false) => {
     state.current.changed = true;
     state.current.value = t;
     setText(t);
     columnData.onEditText(t);
+    if (!keepPointed && pointed.current) {
+      pointed.current = null;
+      columnData.onPoint(null);
+    }
   };
   const applySuggestion = (t: string) => {
     if (input.current) input.current.value = t;
     update(t);
   };
+
+  /** Point mode: the caret sits where a reference may go, or right after one just pointed at. */
+  const pointable = () => {
+    const el = input.current;
+    if (!el || el.selectionStart !== el.selectionEnd) return false;
+    const at = el.selectionStart ?? el.value.length;
+    return (pointed.current !== null && pointed.current.end === at) || acceptsReference(el.value, at);
+  };
+  /** Inserts (or replaces the last pointed) reference to `cell`; with `extend`, a range from the anchor. */
+  const pointAt = (cell: { row: number; col: number }, extend = false) => {
+    const el = input.current!;
+    const last = pointed.current;
+    const at = el.selectionStart ?? el.value.length;
+    const start = last && last.end === at ? last.start : at;
+    const anchor = extend && last ? last.anchor : cell;
+    const ref = anchor.row === cell.row && anchor.col === cell.col ? columnData.refFor(cell.row, cell.col) : `${columnData.refFor(Math.min(anchor.row, cell.row), Math.min(anchor.col, cell.col))}:${columnData.refFor(Math.max(anchor.row, cell.row), Math.max(anchor.col, cell.col))}`;
+    const next = el.value.slice(0, start) + ref + el.value.slice(last && last.end === at ? last.end : at);
+    el.value = next;
+    const end = start + ref.length;
+    el.setSelectionRange(end, end);
+    pointed.current = { start, end, anchor, cell };
+    update(next, true);
+    setCaret(end);
+    columnData.onPoint(cell);
+  };
+
+  // A click on another cell while pointable inserts its reference instead of leaving the editor.
+  // Window, capture phase: before the grid library's document listener would commit and move.
+  useEffect(() => {
+    const mousedown = (e: MouseEvent) => {
+      if (e.button !== 0 || !(e.target instanceof HTMLElement)) return;
+      const target = e.target.closest<HTMLElement>('[data-view-row]');
+      if (!target || !pointable()) return;
+      const cell = { row: Number(target.dataset.viewRow), col: Number(target.dataset.col) };
+      if (cell.row === rowIndex && cell.col === columnIndex && !pointed.current) return;
+      e.preventDefault(); // the caret stays in the editor
+      e.stopPropagation();
+      pointAt(cell, e.shiftKey);
+    };
+    window.addEventListener('mousedown', mousedown, true);
+    return () => window.removeEventListener('mousedown', mousedown, true);
+  });
 
   return (
     <>
@@ -68,13 +136,27 @@ function CellEditor({ rowData, setRowData, columnData }: SheetCellProps) {
         aria-label="Cell input"
         spellCheck={false}
         tabIndex={-1}
-        onChange={(e) => update(e.target.value)}
+        onChange={(e) => {
+          update(e.target.value);
+          setCaret(e.target.selectionStart ?? e.target.value.length);
+        }}
+        onSelect={(e) => setCaret(e.currentTarget.selectionStart ?? 0)}
         onKeyDown={(e) => {
           if (suggestions.handleKey(e, applySuggestion)) return;
           if (e.key === 'Escape') state.current.escaped = true;
+          const step = ARROWS[e.key];
+          if (step && !e.ctrlKey && !e.metaKey && !e.altKey && pointable()) {
+            // Arrows point at cells while a formula waits for a reference (the grid does not move).
+            e.preventDefault();
+            e.stopPropagation();
+            const from = pointed.current && pointed.current.end === input.current!.selectionStart ? pointed.current.cell : { row: rowIndex, col: columnIndex };
+            const { rows, cols } = columnData.extent();
+            pointAt({ row: Math.max(0, Math.min(rows - 1, from.row + step[0])), col: Math.max(0, Math.min(cols - 1, from.col + step[1])) }, e.shiftKey);
+          }
         }}
       />
       <FunctionSuggestions state={suggestions} anchor={input} apply={applySuggestion} />
+      <ArgumentHint text={text} caret={caret} anchor={input} hidden={suggestions.items.length > 0} />
     </>
   );
 }
@@ -82,14 +164,14 @@ function CellEditor({ rowData, setRowData, columnData }: SheetCellProps) {
 function SheetCellImpl(props: SheetCellProps) {
   if (props.focus) return <CellEditor {...props} />;
   const view = props.rowData ?? null;
-  const title = view?.kind === 'error' ? `${view.errorCode}: ${view.errorMessage}` : view?.spilled ? 'Filled by an array formula (read-only)' : view?.kind === 'number' ? String(view.value) : undefined;
+  const title = view?.kind === 'pending' ? 'Computing on the server; the value appears here when it is ready' : view?.kind === 'error' ? `${view.errorCode}: ${view.errorMessage}` : view?.spilled ? 'Filled by an array formula (read-only)' : view?.kind === 'number' ? String(view.value) : undefined;
   // The text sits in its own box so that what does not fit ends in an ellipsis (a flex container
   // would cut it off with no sign); a number's full value is in the tooltip.
   return (
-    <div className={cellClass(view, props.disabled)} title={title} data-cell-kind={view?.kind} aria-selected={props.active || undefined}>
+    <div className={cellClass(view, props.disabled)} title={title} data-cell-kind={view?.kind} data-view-row={props.rowIndex} data-col={props.columnIndex} aria-selected={props.active || undefined}>
       {view?.display ? <span className="orb-cell-text">{view.display}</span> : null}
     </div>
   );
 }
 
-export const SheetCell = memo(SheetCellImpl, (a, b) => a.rowData === b.rowData && a.focus === b.focus && a.active === b.active && a.disabled === b.disabled && a.columnData === b.columnData);
+export const SheetCell = memo(SheetCellImpl, (a, b) => a.rowData === b.rowData && a.rowIndex === b.rowIndex && a.focus === b.focus && a.active === b.active && a.disabled === b.disabled && a.columnData === b.columnData);

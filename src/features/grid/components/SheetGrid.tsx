@@ -12,7 +12,9 @@ import { defaultColumnWidthPx } from '../../../core/workbook/model/displaySettin
 import type { RowData, WorkbookModel } from '../../../core/workbook/model/workbookModel.js';
 import type { CellInput } from '../../../core/workbook/save/pendingStore.js';
 import { ColumnHeader } from './ColumnHeader.js';
+import { cellName } from '@shared/a1.js';
 import { SheetCell, type CellColumnData } from './SheetCell.js';
+import { PresenceMarks, type PresenceMark } from './PresenceMarks.js';
 
 /** The grid's change notice (its type is not exported from the package index). */
 type Operation = { type: 'UPDATE' | 'DELETE' | 'CREATE'; fromRowIndex: number; toRowIndex: number };
@@ -49,10 +51,21 @@ export interface SheetGridProps {
   onResizeEnd: (col: number, px: number) => void;
   onPickFrozen: (col: number) => void;
   onCells: (changes: CellInput[], fills: FillPair[]) => void;
+  /** Colleagues on this sheet and the cells they are on. */
+  presence?: PresenceMark[];
+}
+
+/**
+ * Marks the cell a formula being typed points at. Done on the element itself: the pointed cell
+ * changes with every arrow key, and re-rendering the grid's cells for it would be wasted work.
+ */
+function markPointed(cell: { row: number; col: number } | null) {
+  for (const el of document.querySelectorAll('.orb-cell-pointed')) el.classList.remove('orb-cell-pointed');
+  if (cell) document.querySelector(`[data-testid="sheet-grid"] [data-view-row="${cell.row}"][data-col="${cell.col}"]`)?.classList.add('orb-cell-pointed');
 }
 
 function RowNumber({ rowIndex, columnData }: { rowIndex: number; columnData: number[] | null }) {
-  return <>{(columnData ? columnData[rowIndex] : rowIndex) + 1}</>;
+  return <span data-gutter-row={rowIndex}>{(columnData ? columnData[rowIndex] : rowIndex) + 1}</span>;
 }
 
 export function SheetGrid(p: SheetGridProps) {
@@ -72,8 +85,12 @@ export function SheetGrid(p: SheetGridProps) {
 
   const onEditText = useRef(p.onEditText);
   onEditText.current = p.onEditText;
-  const columnData = useMemo<CellColumnData[]>(
-    () => Array.from({ length: p.colCount }, (_, col) => ({ col, onEditText: (t: string | null) => onEditText.current(t) })),
+  const extent = useRef({ rows: p.data.length, cols: p.colCount });
+  extent.current = { rows: p.data.length, cols: p.colCount };
+  const columnData = useMemo<CellColumnData[]>(() => {
+    const refFor = (viewRow: number, col: number) => cellName(sheetRow(viewRow), col);
+    return Array.from({ length: p.colCount }, (_, col) => ({ col, onEditText: (t: string | null) => onEditText.current(t), refFor, extent: () => extent.current, onPoint: markPointed }));
+  },
     // The sheet is a dependency on purpose: another sheet gets new column objects, so the grid
     // drops the previous sheet's cell state.
     // eslint-disable-next-line react-hooks/exhaustive-deps
@@ -179,6 +196,7 @@ export function SheetGrid(p: SheetGridProps) {
         onFocus={() => p.onEditingChange(true)}
         onBlur={() => p.onEditingChange(false)}
       />
+      <PresenceMarks box={box} marks={p.presence ?? []} widths={p.widths} headerHeight={p.frozenRow ? 48 : 24} rowHeight={24} gutterWidth={52} />
     </div>
   );
 }

@@ -2,6 +2,7 @@
 import { useState } from 'react';
 import { ConfirmDialog } from '../../../components/ui/Dialog.js';
 import { LockIcon } from '../../../components/ui/icons.js';
+import { ContextMenu } from '../../../components/ui/ContextMenu.js';
 import { sheetNameSchema } from '@shared/workbooks.js';
 
 export interface TabSheet {
@@ -33,6 +34,7 @@ export function SheetTabs(p: SheetTabsProps) {
   const [busy, setBusy] = useState(false);
   const [error, setError] = useState<string | null>(null);
   const [dragged, setDragged] = useState<string | null>(null);
+  const [menu, setMenu] = useState<{ id: string; x: number; y: number } | null>(null);
 
   const run = async (action: () => Promise<void>) => {
     setBusy(true);
@@ -92,6 +94,11 @@ export function SheetTabs(p: SheetTabsProps) {
                 setDragged(null);
               }}
               onClick={() => p.onSelect(s.id)}
+              onContextMenu={(e) => {
+                e.preventDefault();
+                p.onSelect(s.id);
+                setMenu({ id: s.id, x: e.clientX, y: e.clientY });
+              }}
               onDoubleClick={() => p.canEdit && !s.refusal && setRenaming({ id: s.id, name: s.name })}
               aria-label={s.lock ? `${s.name} (locked${s.viewOnly ? ', view only for you' : ''})` : s.viewOnly ? `${s.name} (view only for you)` : undefined}
               data-view-only={s.viewOnly ? '' : undefined}
@@ -139,6 +146,29 @@ export function SheetTabs(p: SheetTabsProps) {
         </span>
       )}
       <div className="ml-auto flex items-center">{p.footer}</div>
+      {menu && (
+        <ContextMenu
+          at={menu}
+          label="Sheet actions"
+          onClose={() => setMenu(null)}
+          groups={(() => {
+            const i = p.sheets.findIndex((s) => s.id === menu.id);
+            const sheet = p.sheets[i];
+            const noEdit = p.canEdit ? null : 'You can view this workbook but not change its sheets';
+            // Why this tab may not be renamed, moved or deleted by me (a lock or my role on it), as the buttons say.
+            const blocked = noEdit ?? sheet?.refusal ?? null;
+            return [
+              [
+                { label: 'Rename…', run: () => sheet && setRenaming({ id: sheet.id, name: sheet.name }), unavailable: blocked },
+                { label: 'Move left', run: () => void run(() => p.onMove(menu.id, i - 1)), unavailable: blocked ?? (i <= 0 ? 'Already the first sheet' : null) },
+                { label: 'Move right', run: () => void run(() => p.onMove(menu.id, i + 1)), unavailable: blocked ?? (i >= p.sheets.length - 1 ? 'Already the last sheet' : null) },
+              ],
+              [{ label: 'New sheet', run: () => void run(p.onAdd), unavailable: noEdit }],
+              [{ label: 'Delete sheet…', run: () => setDeleting(sheet ?? null), unavailable: blocked ?? (p.sheets.length <= 1 ? 'A workbook keeps at least one sheet' : null) }],
+            ];
+          })()}
+        />
+      )}
       <ConfirmDialog
         open={deleting !== null}
         title="Delete sheet"

@@ -45,6 +45,13 @@ export interface SheetKeyHandlers {
 const isEditable = (t: EventTarget | null) => t instanceof HTMLElement && !!t.closest('input, textarea, select, [contenteditable="true"]');
 const isShielded = (t: EventTarget | null) => t instanceof HTMLElement && !!t.closest('[data-grid-shield]');
 
+/**
+ * A clipboard event in a panel beside the grid belongs to the panel only when the user selected text
+ * there: a shift-click on the grid leaves the page's (empty) text selection wherever it happens to
+ * land, often in the side panel, and Ctrl+C must still copy the grid's cells.
+ */
+const leftToPanel = (t: EventTarget | null) => isShielded(t) && String(window.getSelection() ?? '') !== '';
+
 /** Reads the first table of clipboard HTML as rows of cell text (when no plain text was given). */
 function htmlTable(html: string): string[][] | null {
   const table = new DOMParser().parseFromString(html, 'text/html').querySelector('table');
@@ -188,7 +195,7 @@ export function useSheetKeys(h: SheetKeyHandlers) {
     const copyOrCut = (cut: boolean) => (e: ClipboardEvent) => {
       // Inputs (the cell editor, the formula bar) copy their own text; the grid must not react.
       e.stopPropagation();
-      if (isEditable(e.target) || isShielded(e.target) || !handlers.current.gridRef.current?.activeCell) return;
+      if (isEditable(e.target) || leftToPanel(e.target) || !handlers.current.gridRef.current?.activeCell) return;
       const text = handlers.current.copy(cut);
       if (text === null) return;
       e.clipboardData?.setData('text/plain', text);
@@ -198,7 +205,7 @@ export function useSheetKeys(h: SheetKeyHandlers) {
     const cut = copyOrCut(true);
     const paste = (e: ClipboardEvent) => {
       e.stopPropagation();
-      if (isEditable(e.target) || isShielded(e.target) || !handlers.current.gridRef.current?.activeCell) return;
+      if (isEditable(e.target) || leftToPanel(e.target) || !handlers.current.gridRef.current?.activeCell) return;
       e.preventDefault();
       const plain = e.clipboardData?.getData('text/plain') ?? '';
       if (plain) return handlers.current.paste(plain);
@@ -212,7 +219,14 @@ export function useSheetKeys(h: SheetKeyHandlers) {
       // double-click (or F2, Enter, typing) starts editing. The grid library would edit on any click.
       const t = e.target;
       if (e.button !== 0 || e.detail > 1 || e.shiftKey || e.ctrlKey || e.metaKey || handlers.current.isEditing()) return;
-      if (t instanceof HTMLElement && t.closest('.dsg-cell')?.querySelector('.orb-cell[aria-selected="true"]')) e.stopPropagation();
+      if (t instanceof HTMLElement && t.closest('.dsg-cell')?.querySelector('.orb-cell[aria-selected="true"]')) {
+        e.stopPropagation();
+        // Still a click on a cell: a block selected around it shrinks to that one cell.
+        const grid = handlers.current.gridRef.current;
+        if (grid?.activeCell && grid.selection && (grid.selection.min.row !== grid.selection.max.row || grid.selection.min.col !== grid.selection.max.col)) {
+          grid.setSelection({ min: grid.activeCell, max: grid.activeCell });
+        }
+      }
     };
     // Focus moving into a field outside the grid (a dialog, a panel) takes the keyboard from the
     // grid, so the grid library stops reading keys typed there.

@@ -3,7 +3,7 @@
 // (signature from the engine's own parameter metadata). Matching is pure so it is tested without
 // a browser.
 import { HyperFormula } from 'hyperformula';
-import { functionHelp, type FunctionHelp as CatalogHelp } from '@functions/help.js';
+import { functionHelp, type FunctionHelp as CatalogHelp, type ParamHelp } from '@functions/help.js';
 import { builtInSummaries } from './builtInSummaries.js';
 
 export interface FunctionHelp {
@@ -12,11 +12,23 @@ export interface FunctionHelp {
   signature: string;
   summary: string;
   origin: 'orbitab' | 'built-in';
+  /** Each parameter as the signature writes it (optional ones in brackets), and ours in full. */
+  params: string[];
+  paramHelp?: ParamHelp[];
+  /** The last parameter repeats (SUM(value, …)). */
+  repeats?: boolean;
 }
 
 export function catalogEntryHelp(h: CatalogHelp): FunctionHelp {
   const unit = h.returns.unit ? ` (${h.returns.unit})` : '';
-  return { name: h.name, signature: h.signature, summary: `${h.summary.replace(/\.$/, '')}${unit}.`, origin: 'orbitab' };
+  return {
+    name: h.name,
+    signature: h.signature,
+    summary: `${h.summary.replace(/\.$/, '')}${unit}.`,
+    origin: 'orbitab',
+    params: h.params.map((p) => (p.optional ? `[${p.name}]` : p.name)),
+    paramHelp: h.params,
+  };
 }
 
 const argumentWords: Record<string, string> = {
@@ -38,8 +50,34 @@ export function builtInHelp(name: string): FunctionHelp {
     const word = argumentWords[p.argumentType] ?? 'value';
     return p.defaultValue !== undefined || p.optionalArg ? `[${word}]` : word;
   });
-  if (meta?.repeatLastArgs) params.push('…');
-  return { name, signature: `${name}(${params.join(', ')})`, summary: builtInSummaries[name] ?? 'Built-in spreadsheet function.', origin: 'built-in' };
+  const signatureParams = meta?.repeatLastArgs ? [...params, '…'] : params;
+  return { name, signature: `${name}(${signatureParams.join(', ')})`, summary: builtInSummaries[name] ?? 'Built-in spreadsheet function.', origin: 'built-in', params, repeats: !!meta?.repeatLastArgs };
+}
+
+export interface ArgumentHint {
+  name: string;
+  params: string[];
+  /** Which of `params` the caret is in, or -1 past the last one (too many arguments). */
+  current: number;
+  /** The current parameter in words: its description, unit, default and choices (ours only). */
+  detail: string | null;
+}
+
+/** The hint shown while typing argument `index` of function `name`, or null for an unknown name. */
+export function argumentHint(name: string, index: number, list: readonly FunctionHelp[] = allFunctionHelp()): ArgumentHint | null {
+  const h = list.find((f) => f.name === name);
+  if (!h || h.params.length === 0) return null;
+  const current = index < h.params.length ? index : h.repeats ? h.params.length - 1 : -1;
+  const p = current >= 0 ? h.paramHelp?.[current] : undefined;
+  let detail: string | null = null;
+  if (p) {
+    const parts = [p.description.replace(/\.$/, '')];
+    if (p.unit) parts.push(`in ${p.unit}`);
+    if (p.default !== undefined) parts.push(`default ${typeof p.default === 'string' ? `"${p.default}"` : String(p.default)}`);
+    if (p.choices?.length) parts.push(`one of ${p.choices.map((c) => `"${c}"`).join(', ')}`);
+    detail = parts.join('; ');
+  } else if (current === -1) detail = `${name} takes at most ${h.params.length} argument${h.params.length === 1 ? '' : 's'}`;
+  return { name: h.name, params: h.params, current, detail };
 }
 
 let cached: FunctionHelp[] | null = null;

@@ -1,0 +1,138 @@
+// Typing formulas the way the hands expect, in Debian Chromium against the real server: a click or
+// an arrow while a formula waits for a reference inserts that cell (point mode), brackets left open
+// are closed on commit, an argument hint names the current parameter with its unit and choices, and
+// a formula that cannot be read says in plain words where. Bond order of O2 2 and its two unpaired
+// electrons (Atkins & de Paula, Physical Chemistry, MO theory of diatomics; recalled from memory).
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { gridCell, launchBrowser, screenshot, signUpWithNewWorkbook, type TestBrowser } from './helpers/browser.js';
+import { startServer, type TestServer } from './helpers/server.js';
+
+let server: TestServer;
+let browser: TestBrowser;
+let page: Page;
+
+beforeAll(async () => {
+  server = await startServer();
+  browser = await launchBrowser();
+  page = browser.page;
+  page.setDefaultTimeout(15_000);
+}, 120_000);
+
+afterAll(async () => {
+  await browser?.close();
+  await server?.stop();
+});
+
+const cell = (a1: string) => gridCell(page, a1);
+const editorText = () => page.locator('.orb-cell-input').inputValue();
+
+async function clickCell(a1: string) {
+  const c = await cell(a1);
+  if (!c) throw new Error(`cell ${a1} is not on screen`);
+  await page.mouse.click(c.x, c.y);
+}
+
+async function expectCell(a1: string, text: string) {
+  await expect.poll(async () => (await cell(a1))?.text, { timeout: 10_000, message: `cell ${a1}` }).toBe(text);
+}
+
+async function formulaOf(a1: string) {
+  await clickCell(a1);
+  return page.getByLabel('Formula bar').inputValue();
+}
+
+it('starts from a workbook with O2 in A1', async () => {
+  await signUpWithNewWorkbook(page, server.url, { name: 'Ravi Okafor', email: 'ravi@lab.example', password: 'pi-g-antibonding' }, 'Formulas');
+  await page.getByTestId('workbook-title').waitFor();
+  await clickCell('A1');
+  await page.keyboard.type('O2');
+  await page.keyboard.press('Enter');
+  await expectCell('A1', 'O2');
+}, 60_000);
+
+describe('point mode', () => {
+  it('a click on another cell while typing =BONDORDER( inserts its reference; Enter closes the bracket', async () => {
+    await clickCell('B1');
+    await page.keyboard.type('=BONDORDER(');
+    await clickCell('A1');
+    await expect.poll(editorText).toBe('=BONDORDER(A1');
+    await screenshot(page, 'grid-formula-point-click');
+    await page.keyboard.press('Enter');
+    await expectCell('B1', '2');
+    expect(await formulaOf('B1')).toBe('=BONDORDER(A1)');
+  });
+
+  it('arrows move the pointed reference instead of leaving the cell', async () => {
+    await clickCell('C2');
+    await page.keyboard.type('=UNPAIRED(');
+    await page.keyboard.press('ArrowUp');
+    await expect.poll(editorText).toBe('=UNPAIRED(C1');
+    await page.keyboard.press('ArrowLeft');
+    await page.keyboard.press('ArrowLeft');
+    await expect.poll(editorText).toBe('=UNPAIRED(A1');
+    await page.keyboard.type(')*2');
+    await page.keyboard.press('Enter');
+    await expectCell('C2', '4');
+    expect(await formulaOf('C2')).toBe('=UNPAIRED(A1)*2');
+  });
+
+  it('in the formula bar too, a click on a cell inserts its reference and Enter closes the bracket', async () => {
+    await clickCell('B3');
+    await page.getByLabel('Formula bar').click();
+    await page.keyboard.type('=BONDORDER(');
+    await clickCell('A1');
+    await expect.poll(() => page.getByLabel('Formula bar').inputValue()).toBe('=BONDORDER(A1');
+    await page.keyboard.press('Enter');
+    await expectCell('B3', '2');
+    expect(await formulaOf('B3')).toBe('=BONDORDER(A1)');
+  });
+
+  it('outside point mode an arrow still leaves the cell (after a complete value)', async () => {
+    await clickCell('D1');
+    await page.keyboard.type('=1+1');
+    await page.keyboard.press('ArrowDown');
+    await expectCell('D1', '2');
+    await expect.poll(() => page.getByLabel('Cell address').inputValue()).toBe('D2');
+  });
+});
+
+describe('argument hint', () => {
+  it('names the current parameter with its unit, then the next one with its default', async () => {
+    await clickCell('E1');
+    await page.keyboard.type('=OVERLAP1S(');
+    const hint = page.getByTestId('argument-hint');
+    await expect.poll(() => hint.textContent()).toMatch(/OVERLAP1S\(distance, \[zeta\], \[unit\]\)/);
+    expect(await hint.locator('[aria-current="true"]').textContent()).toBe('distance');
+    expect(await hint.textContent()).toMatch(/in bohr/);
+    await page.keyboard.type('1.4,');
+    await expect.poll(() => hint.locator('[aria-current="true"]').textContent()).toBe('[zeta]');
+    expect(await hint.textContent()).toMatch(/default 1/);
+    await screenshot(page, 'grid-formula-argument-hint');
+    await page.keyboard.press('Escape');
+  });
+
+  it('lists the choices of a text parameter', async () => {
+    await clickCell('E2');
+    await page.keyboard.type('=GROUNDTERM(A1,');
+    await expect.poll(() => page.getByTestId('argument-hint').textContent()).toMatch(/one of "unicode", "ascii"/);
+    await page.keyboard.press('Escape');
+  });
+});
+
+describe('a formula that cannot be read', () => {
+  it('says in plain words where it goes wrong, never the parser’s token names', async () => {
+    await clickCell('F1');
+    await page.keyboard.type('=1+*2');
+    await page.keyboard.press('Enter');
+    await expectCell('F1', '#ERROR!');
+    await clickCell('F1');
+    const said = await page.getByTestId('cell-error').textContent();
+    expect(said).toMatch(/character 4/);
+    expect(said).not.toMatch(/Parsing error|token|-->/);
+  });
+
+  it('raised no uncaught errors in the page', () => {
+    expect(browser.errors).toEqual([]);
+  });
+});
