@@ -34,12 +34,21 @@ function constantOf(value: ValuesPayload['sheets'][number]['values'][number][2] 
  * cells to put back, and the cells only an array formula fills (cleared before formulas return).
  */
 export function placeholderTable(sheetId: string, inputs: SheetInputs, stored: ValuesPayload['sheets'][number] | undefined) {
-  const table: Constant[][] = inputs.toTable();
+  // Built here rather than by inputs.toTable(): formulas are never translated for the engine (their
+  // stored values stand in), which on a large sheet is most of the cost of the first build.
+  const { rows, cols } = inputs.extent();
+  const table: Constant[][] = Array.from({ length: rows }, () => new Array<Constant>(cols).fill(null));
   const formulas: PendingCell[] = [];
   const spilled: PendingCell[] = [];
+  let ordered = true;
   for (const { row, col, input } of inputs.entries()) {
-    if (!input.startsWith('=')) continue;
-    table[row][col] = null; // an empty result is left out of the stored values
+    if (!input.startsWith('=')) {
+      table[row][col] = engineInput(input);
+      continue;
+    }
+    // Left empty: an empty result is left out of the stored values.
+    const last = formulas[formulas.length - 1];
+    if (last && (last.row > row || (last.row === row && last.col > col))) ordered = false;
     formulas.push({ sheetId, row, col });
   }
   for (const [row, col, value] of stored?.values ?? []) {
@@ -51,7 +60,7 @@ export function placeholderTable(sheetId: string, inputs: SheetInputs, stored: V
     } else if (!input.startsWith('=')) continue;
     table[row][col] = constantOf(value);
   }
-  formulas.sort((a, b) => a.row - b.row || a.col - b.col);
+  if (!ordered) formulas.sort((a, b) => a.row - b.row || a.col - b.col);
   return { table, formulas, spilled };
 }
 
