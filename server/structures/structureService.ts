@@ -92,8 +92,12 @@ export function saveFreshStructures(ctx: StructureCtx, workbookId: string, fresh
   if (fresh?.length) save(ctx, workbookId, fresh);
 }
 
-async function runBatch(batch: Job[]) {
-  const { ctx, workbookId } = batch[0];
+async function runBatch(queued: Job[]) {
+  const { ctx, workbookId } = queued[0];
+  // A /values or export job may have computed and stored some while these waited.
+  const already = stored(ctx, workbookId, queued.map((j) => j.hash));
+  const batch = queued.filter((j) => !already.has(j.hash));
+  if (batch.length === 0) return;
   try {
     const outcome = await computePool.run<{ json: string; computeMs: number }[]>({ kind: 'structures', inputs: batch.map((j) => j.input) }, [], {
       limits: recalcWorkerLimits,
