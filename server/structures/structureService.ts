@@ -11,6 +11,18 @@ import { computePool } from '../xlsx/workerPool.js';
 import { structureHash } from './structureKey.js';
 import type { FreshStructure, StoredStructures } from './workerResults.js';
 
+/** What the service uses of an app: its database and its log. */
+export type StructureCtx = Pick<AppContext, 'db' | 'logger'>;
+
+/** Called when a workbook has no structure left queued or being computed (the values keeper listens). */
+type SettledListener = (ctx: StructureCtx, workbookId: string) => void;
+const settledListeners = new Set<SettledListener>();
+
+export function onStructuresSettled(listener: SettledListener): () => void {
+  settledListeners.add(listener);
+  return () => settledListeners.delete(listener);
+}
+
 export interface StructureInput {
   structure: string;
   charge?: number;
@@ -26,7 +38,7 @@ export const maxQueuedStructures = 20_000;
 const KEYS_PER_QUERY = 500;
 
 interface Job {
-  ctx: AppContext;
+  ctx: StructureCtx;
   workbookId: string;
   hash: string;
   input: StructureInput;
@@ -46,7 +58,7 @@ export function structureComputations(): number {
   return computed;
 }
 
-function save(ctx: AppContext, workbookId: string, rows: FreshStructure[]) {
+function save(ctx: StructureCtx, workbookId: string, rows: FreshStructure[]) {
   if (rows.length === 0) return;
   ctx.db.transaction((tx) => {
     for (const r of rows)
@@ -54,7 +66,7 @@ function save(ctx: AppContext, workbookId: string, rows: FreshStructure[]) {
   });
 }
 
-function stored(ctx: AppContext, workbookId: string, hashes: string[]): Map<string, string> {
+function stored(ctx: StructureCtx, workbookId: string, hashes: string[]): Map<string, string> {
   const out = new Map<string, string>();
   for (let i = 0; i < hashes.length; i += KEYS_PER_QUERY) {
     const rows = ctx.db
@@ -68,7 +80,7 @@ function stored(ctx: AppContext, workbookId: string, hashes: string[]): Map<stri
 }
 
 /** Every stored result of a workbook, for a compute job (/values, exports). */
-export function storedStructuresOf(ctx: AppContext, workbookId: string): StoredStructures {
+export function storedStructuresOf(ctx: StructureCtx, workbookId: string): StoredStructures {
   const out: StoredStructures = {};
   for (const r of ctx.db.select({ key: structureResults.key, result: structureResults.result }).from(structureResults).where(eq(structureResults.workbookId, workbookId)).all())
     out[r.key] = r.result;
@@ -76,12 +88,16 @@ export function storedStructuresOf(ctx: AppContext, workbookId: string): StoredS
 }
 
 /** Stores what a /values or export job computed anew. */
-export function saveFreshStructures(ctx: AppContext, workbookId: string, fresh: FreshStructure[] | undefined) {
+export function saveFreshStructures(ctx: StructureCtx, workbookId: string, fresh: FreshStructure[] | undefined) {
   if (fresh?.length) save(ctx, workbookId, fresh);
 }
 
-async function runBatch(batch: Job[]) {
-  const { ctx, workbookId } = batch[0];
+async function runBatch(queued: Job[]) {
+  const { ctx, workbookId } = queued[0];
+  // A /values or export job may have computed and stored some while these waited.
+  const already = stored(ctx, workbookId, queued.map((j) => j.hash));
+  const batch = queued.filter((j) => !already.has(j.hash));
+  if (batch.length === 0) return;
   try {
     const outcome = await computePool.run<{ json: string; computeMs: number }[]>({ kind: 'structures', inputs: batch.map((j) => j.input) }, [], {
       limits: recalcWorkerLimits,
@@ -124,6 +140,8 @@ function drain() {
       for (const j of batch) underWay.delete(`${j.workbookId}:${j.hash}`);
       running--;
       drain();
+      const { ctx, workbookId } = batch[0];
+      if (structuresUnderWay(workbookId) === 0) for (const listener of settledListeners) listener(ctx, workbookId);
     });
   }
 }
@@ -132,7 +150,7 @@ function drain() {
  * The answer to POST /api/workbooks/:id/structures: for each input its stored result (JSON text, sent
  * as it is) or null while it is being computed. Missing ones are queued once.
  */
-export function requestStructures(ctx: AppContext, workbookId: string, inputs: StructureInput[]): { results: (string | null)[]; queued: number } {
+export function requestStructures(ctx: StructureCtx, workbookId: string, inputs: StructureInput[]): { results: (string | null)[]; queued: number } {
   const hashes = inputs.map((i) => structureHash(ehtKeyText(i.structure, i.charge)));
   const found = stored(ctx, workbookId, [...new Set(hashes)]);
   let queued = 0;
@@ -166,12 +184,12 @@ export interface JobStructures {
   save: (fresh: FreshStructure[] | undefined) => void;
 }
 
-export function jobStructures(ctx: AppContext, workbookId: string): JobStructures {
+export function jobStructures(ctx: StructureCtx, workbookId: string): JobStructures {
   return { stored: storedStructuresOf(ctx, workbookId), save: (fresh) => saveFreshStructures(ctx, workbookId, fresh) };
 }
 
 /** The JSON body of POST /structures; stored results are JSON text already, joined rather than parsed and serialised again. */
-export function structuresAnswer(ctx: AppContext, workbookId: string, inputs: StructureInput[]): string {
+export function structuresAnswer(ctx: StructureCtx, workbookId: string, inputs: StructureInput[]): string {
   const { results } = requestStructures(ctx, workbookId, inputs);
   return `{"results":[${results.map((r) => r ?? 'null').join(',')}],"underWay":${structuresUnderWay(workbookId)}}`;
 }

@@ -13,6 +13,8 @@ import { workbooks } from '../db/schema.js';
 import { currentRevision, patchesAfter } from '../services/revisionLog.js';
 import { loadContentInSlices } from '../services/workbookSlices.js';
 import { packCells, packedTransfer } from '../xlsx/packedCells.js';
+import { onStructuresSettled, requestStructures, storedStructuresOf, structuresUnderWay } from '../structures/structureService.js';
+import { SpreadsheetError } from '../xlsx/limits.js';
 import { runKeeperJob } from './keeperThread.js';
 import type { KeeperReply } from './keeperWorker.js';
 import { storeValues } from './store.js';
@@ -57,6 +59,11 @@ export class ValuesKeeper {
   private warm = new Map<string, number>();
   /** A revision that could not be computed: not tried again (reads compute it on demand). */
   private failed = new Map<string, number>();
+  /** Stored extended-Hückel results the worker's warm engine was given, counted. */
+  private structuresSent = new Map<string, number>();
+  /** Workbooks whose last run waited on structures: run again when the structure service is done with them. */
+  private awaitingStructures = new Set<string>();
+  private readonly unsubscribe: () => void;
   private running: Promise<void> | null = null;
   private stopped = false;
   private idleWaiters: (() => void)[] = [];
@@ -67,7 +74,12 @@ export class ValuesKeeper {
 
   constructor(
     private readonly ctx: Pick<AppContext, 'db' | 'events'> & { logger: Logger },
-  ) {}
+  ) {
+    this.unsubscribe = onStructuresSettled((from, workbookId) => {
+      if (from.db !== ctx.db || !this.awaitingStructures.delete(workbookId)) return;
+      this.nudge(workbookId);
+    });
+  }
 
   /** A revision of the workbook was committed. */
   noteRevision(workbookId: string, revision: number) {
@@ -95,6 +107,7 @@ export class ValuesKeeper {
   stop() {
     this.stopped = true;
     this.wanted.clear();
+    this.unsubscribe();
   }
 
   private async drain() {
@@ -110,6 +123,32 @@ export class ValuesKeeper {
         this.warm.delete(workbookId);
       }
     }
+  }
+
+  /** Stored extended-Hückel results of the workbook, counted (they are only ever added). */
+  private structureCount(workbookId: string): number {
+    return (this.ctx.db.$client.prepare(`select count(*) as n from structure_results where workbook_id = ?`).get(workbookId) as { n: number }).n;
+  }
+
+  /**
+   * Some cells wait on extended-Hückel results: values with cells still "computing…" are not final, so
+   * nothing is stored for this revision (reads compute it on demand meanwhile). The missing structures
+   * go to the structure service's queue — the one place they are computed — and the workbook is run
+   * again, with a fresh engine (its waiting cells hold their pending answers), once the queue is done.
+   */
+  private awaitStructures(workbookId: string, missing: { structure: string; charge?: number }[]) {
+    this.warm.delete(workbookId);
+    this.awaitingStructures.add(workbookId);
+    try {
+      requestStructures(this.ctx, workbookId, missing);
+    } catch (e) {
+      if (!(e instanceof SpreadsheetError)) throw e;
+      // The server's structure queue is full: the next revision or read asks again.
+      this.awaitingStructures.delete(workbookId);
+      return;
+    }
+    // Stored between this run's read and now: nothing is left to wait for.
+    if (missing.length > 0 && structuresUnderWay(workbookId) === 0 && this.awaitingStructures.delete(workbookId)) this.nudge(workbookId);
   }
 
   /** Non-empty cells of the workbook, counted in SQLite (an index range per sheet). */
@@ -142,7 +181,10 @@ export class ValuesKeeper {
         for (const c of p.patch.changes) changes.push({ sheetId: c.sheetId, row: c.row, col: c.col, input: c.after });
       }
       if (applicable) {
-        reply = await runKeeperJob({ kind: 'apply', workbookId, fromRevision: warmAt, revision: since.revision, changes });
+        const count = this.structureCount(workbookId);
+        const fresher = count > (this.structuresSent.get(workbookId) ?? 0);
+        if (fresher) this.structuresSent.set(workbookId, count);
+        reply = await runKeeperJob({ kind: 'apply', workbookId, fromRevision: warmAt, revision: since.revision, changes, structures: fresher ? storedStructuresOf(this.ctx, workbookId) : undefined });
         if (reply.ok && reply.stale) reply = null;
       }
     }
@@ -154,7 +196,9 @@ export class ValuesKeeper {
         return; // deleted, or edited on every try: the next revision's event brings it back
       }
       const sheets = content.tabs.map((t) => ({ id: t.id, name: t.name, packed: packCells(content.cells.get(t.id) ?? []) }));
-      reply = await runKeeperJob({ kind: 'build', workbookId, revision: content.revision, sheets }, sheets.flatMap((s) => packedTransfer(s.packed)));
+      const structures = storedStructuresOf(this.ctx, workbookId);
+      this.structuresSent.set(workbookId, Object.keys(structures).length);
+      reply = await runKeeperJob({ kind: 'build', workbookId, revision: content.revision, sheets, structures }, sheets.flatMap((s) => packedTransfer(s.packed)));
     }
     if (!reply.ok) {
       this.warm.delete(workbookId);
@@ -164,6 +208,10 @@ export class ValuesKeeper {
       return;
     }
     if (reply.stale) return;
+    if (reply.pendingCells > 0) {
+      this.awaitStructures(workbookId, reply.missingStructures);
+      return;
+    }
     this.warm.set(workbookId, reply.revision);
     const valuesGzip = Buffer.from(reply.valuesGzip.buffer, reply.valuesGzip.byteOffset, reply.valuesGzip.byteLength);
     const totalMs = performance.now() - started;

@@ -4,6 +4,7 @@
 import { DetailedCellError, ErrorType, type ExportedChange, ExportedCellChange, type HyperFormula } from 'hyperformula';
 import { explainCellError } from '../../functions/cellErrors.js';
 import { engineInput } from '../../functions/formulaTokens.js';
+import { isPendingMessage } from '../../functions/structureResults.js';
 import '../../functions/openchemlibNode.js';
 import { callsVolatileFunction } from '../../functions/volatile.js';
 import { buildWorkbookEngine } from '../../functions/workbookEngine.js';
@@ -34,6 +35,8 @@ export interface ValuesSnapshot {
   extras: StoredValueExtras;
   /** Formulas calling a function of the clock or of chance. */
   volatileFormulas: number;
+  /** Cells waiting for an extended-Hückel result: such values are not final and are not stored. */
+  pendingCells: number;
 }
 
 interface WarmSheet {
@@ -129,6 +132,7 @@ export class WarmWorkbook {
   snapshot(): ValuesSnapshot {
     const extras: StoredValueExtras = { sheets: {} };
     let cycles = 0;
+    let pendingCells = 0;
     const payload: ValuesPayload = {
       revision: this.revision,
       sheets: this.sheets.map((s) => {
@@ -149,6 +153,7 @@ export class WarmWorkbook {
           }
           if (isEngineError(v)) {
             if (v.type === ErrorType.CYCLE) cycles++;
+            if (isPendingMessage(v.message)) pendingCells++;
             if (!v.message?.trim()) (more.bareErrors ??= []).push([cell.row, cell.col]);
             values.push([cell.row, cell.col, { error: v.value, message: explainCellError(v) }]);
           } else values.push([cell.row, cell.col, v]);
@@ -159,7 +164,7 @@ export class WarmWorkbook {
     };
     extras.functionsUsed = functionsUsedIn(this.sheets.map((s) => ({ cells: [...s.inputs.values()].map((input) => [0, 0, input] as CellTriple) })));
     this.cycles = cycles;
-    return { payload: capValuesPayload(payload), extras, volatileFormulas: this.volatileCount };
+    return { payload: capValuesPayload(payload), extras, volatileFormulas: this.volatileCount, pendingCells };
   }
 
   destroy() {

@@ -6,13 +6,14 @@ import { useMemo } from 'react';
 import { frontierGap } from '@functions/chem/huckel.js';
 import { BORROWED_CENTRE_TYPES } from '@functions/chem/huckelParams.js';
 import { knownFailureFor } from '@functions/chem/knownFailures.js';
-import { pppSpectrumOf, type PppSpectrum } from '@functions/chem/ppp.js';
+import type { PppSpectrum } from '@functions/chem/ppp.js';
 import { PppSpectrumView } from './PppSpectrumSvg.js';
 import { subjectOfCell, type SubjectSource } from './cellSubject.js';
 import { HuckelLadderSvg } from './HuckelLadderSvg.js';
 import { layoutMoDiagram } from './moLayout.js';
 import { MoDiagramSvg } from './MoDiagramSvg.js';
 import { EhtLadderView } from './EhtLadderView.js';
+import { usePppSpectrum } from './usePppSpectrum.js';
 
 function Fact({ label, value }: { label: string; value: string }) {
   return (
@@ -101,14 +102,6 @@ export function StructurePanel({ source, address }: { source: SubjectSource | nu
   } catch (e) {
     gap = (e as Error).message;
   }
-  let spectrum: PppSpectrum | null = null;
-  let spectrumProblem = '';
-  try {
-    spectrum = pppSpectrumOf(subject.smiles);
-  } catch (e) {
-    spectrumProblem = (e as Error).message;
-  }
-  const strongest = spectrum?.singlets.filter((s) => s.wavelength > 200).reduce<PppSpectrum['singlets'][number] | null>((b, s) => (!b || s.f > b.f ? s : b), null);
   return (
     <div className="flex flex-col gap-2 p-3" data-testid="structure-panel">
       <h3 className="text-ui font-semibold">
@@ -126,10 +119,22 @@ export function StructurePanel({ source, address }: { source: SubjectSource | nu
           Streitwieser&apos;s table has no S or P; their values here come from Van-Catledge (J. Org. Chem. 1980).
         </p>
       )}
+      <PppBands smiles={subject.smiles} />
+    </div>
+  );
+}
+
+/** The predicted bands, computed off the page's thread (usePppSpectrum). */
+function PppBands({ smiles }: { smiles: string }) {
+  const answer = usePppSpectrum(smiles);
+  const spectrum = answer && 'singlets' in answer ? answer : null;
+  const strongest = spectrum?.singlets.filter((s) => s.wavelength > 200).reduce<PppSpectrum['singlets'][number] | null>((b, s) => (!b || s.f > b.f ? s : b), null);
+  return (
+    <>
       <h4 className="text-caption font-semibold">Predicted π→π* bands (PPP-CIS, a model estimate)</h4>
       {spectrum ? (
         <>
-          <PppSpectrumView states={spectrum.singlets} title={`Predicted π→π* bands of ${subject.smiles}`} />
+          <PppSpectrumView states={spectrum.singlets} title={`Predicted π→π* bands of ${smiles}`} />
           <dl className="text-caption">
             <Fact label="S1" value={`${Math.round(spectrum.singlets[0].wavelength)} nm, ${round(spectrum.singlets[0].energy, 2)} eV, f ${round(spectrum.singlets[0].f, 3)}`} />
             {strongest && <Fact label="Strongest above 200 nm" value={`${Math.round(strongest.wavelength)} nm, f ${round(strongest.f, 2)}`} />}
@@ -137,8 +142,8 @@ export function StructurePanel({ source, address }: { source: SubjectSource | nu
           </dl>
         </>
       ) : (
-        <p className="text-caption text-ink-3">{spectrumProblem}</p>
+        <p className="text-caption text-ink-3" data-testid="ppp-status">{answer && 'problem' in answer ? answer.problem : 'computing the predicted bands…'}</p>
       )}
-    </div>
+    </>
   );
 }
