@@ -95,7 +95,7 @@ describe('structure upload, values and export round trip', { timeout: 300_000 },
     expect(upload.body.revision).toBe(before.body.revision + 1);
     expect(upload.body.summary.skipped.map((s: { reason: string }) => s.reason)).toEqual([expect.stringMatching(/^record 2: /)]);
     const loaded = await owner.agent.get(`/api/workbooks/${workbookId}`);
-    expect(loaded.body.sheets.map((s: { name: string }) => s.name)).toEqual(['Sheet1', 'ligands']);
+    expect(loaded.body.sheets.map((s: { name: string }) => s.name)).toEqual(['Screen1', 'ligands']);
   });
 
   it('computes the EHT columns from the file’s own coordinates', async () => {

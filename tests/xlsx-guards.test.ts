@@ -29,7 +29,7 @@ describe('files that are not spreadsheets', () => {
     const png = Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 0, 0, 0, 13]);
     const e = await refusal(readSpreadsheet(png, 'spectrum.png'));
     expect([e.status, e.code]).toEqual([400, 'not_a_spreadsheet']);
-    expect(e.message).toMatch(/upload an \.xlsx workbook or a \.csv file/);
+    expect(e.message).toMatch(/upload an \.xlsx workbook, a \.csv file, or structures as \.sdf, \.mol or \.xyz/);
   });
 
   it('refuses text named .xlsx, saying it is not a zip archive', async () => {
