@@ -6,9 +6,9 @@ import '../../functions/openchemlibNode.js';
 import { buildWorkbookEngine } from '../../functions/workbookEngine.js';
 import type { ComputedValue, SheetPayload, ValueEntry, ValuesPayload, WorkbookPayload } from '../../shared/workbooks.js';
 
-function toComputed(value: CellValue): ComputedValue | null {
+function toComputed(value: CellValue, formula?: () => string | undefined): ComputedValue | null {
   if (value === null || value === undefined) return null;
-  if (value instanceof DetailedCellError) return { error: value.value, message: explainCellError(value) };
+  if (value instanceof DetailedCellError) return { error: value.value, message: explainCellError(value, formula?.()) };
   return value;
 }
 
@@ -54,7 +54,7 @@ export function computeValues(workbook: ValuesInput): ValuesPayload {
         const sheet = engine.getSheetId(s.name)!;
         const values: ValueEntry[] = [];
         for (const [row, col] of candidateCells(engine, sheet, s.cells)) {
-          const value = toComputed(engine.getCellValue({ sheet, row, col }));
+          const value = toComputed(engine.getCellValue({ sheet, row, col }), () => engine.getCellFormula({ sheet, row, col }));
           if (value !== null && value !== '') values.push([row, col, value]);
         }
         return { id: s.id, name: s.name, values };

@@ -1,6 +1,7 @@
 // Computes a workbook once with the shared engine (functions/engine.ts), for export and `cli recalc`:
 // each input cell's value, the cells array formulas spill into, and which chemistry functions are used.
-import { CellType, DetailedCellError, type CellValue, type HyperFormula } from 'hyperformula';
+import { CellError, CellType, DetailedCellError, type CellValue, type HyperFormula } from 'hyperformula';
+import { explainCellError } from '../../functions/cellErrors.js';
 import '../../functions/openchemlibNode.js';
 import { catalogByName } from '../../functions/index.js';
 import { buildWorkbookEngine } from '../../functions/workbookEngine.js';
@@ -80,7 +81,10 @@ export function computeSheet(engine: HyperFormula, sheet: number, name: string, 
     return !inputAt.has(key(row, col)) && engine.getCellType({ sheet, row, col }) === CellType.ARRAY;
   };
   const read = (row: number, col: number, input?: string): ComputedCell => {
-    const value = valueAt(row, col);
+    let value = valueAt(row, col);
+    // A parse error is written in plain words naming the position, as the grid and /values say it.
+    if (value instanceof DetailedCellError && input !== undefined && value.message?.startsWith('Parsing error'))
+      value = new DetailedCellError(new CellError(value.type, explainCellError(value, input)), value.value);
     const cell: ComputedCell = input === undefined ? { row, col, value } : { row, col, input, value };
     // A plain decimal literal is read by the engine as a plain number, never as a date or time.
     if (typeof value === 'number' && (input === undefined || literalNumber(input) === null)) {
