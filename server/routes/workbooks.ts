@@ -9,7 +9,6 @@ import {
   idSchema,
   patchSchema,
   renameWorkbookSchema,
-  restoreBodySchema,
   revisionListQuerySchema,
   updateSheetSchema,
 } from '../../shared/workbooks.js';
@@ -97,8 +96,7 @@ export function workbooksRouter(ctx: AppContext): Router {
 
   router.post('/:id/revisions/:n/restore', access('restore'), (req, res) => {
     const { n } = parse(revisionParams, req.params, 'params');
-    const { sheetId } = parse(restoreBodySchema, req.body ?? {}, 'body');
-    res.json(restoreRevision(ctx, accessOf(res).workbook.id, currentUser(res).id, n, sheetId));
+    res.json(restoreRevision(ctx, accessOf(res).workbook.id, currentUser(res).id, n));
   });
 
   router.get('/:id/values', access('view'), async (req, res) => {
