@@ -50,10 +50,16 @@ export function loadProtection(tx: Reader, workbookId: string): Protection {
     entry.overrides.push({ user: ref(r.userId), role: r.role, setBy: ref(r.setBy), viaLock: r.viaLock, since: r.createdAt });
     bySheet.set(r.sheetId, entry);
   }
-  const editorsOf = (sheetId: string) => (bySheet.get(sheetId)?.overrides ?? []).filter((o) => o.role === 'editor').map((o) => o.user);
+  // The locker first, then the others in the order they were named (rows of one lock share a
+  // timestamp, so ties fall back to the name, never to the random account id).
+  const editorsOf = (sheetId: string, lockedBy: string) =>
+    (bySheet.get(sheetId)?.overrides ?? [])
+      .filter((o) => o.role === 'editor')
+      .sort((a, b) => Number(b.user.id === lockedBy) - Number(a.user.id === lockedBy) || a.since - b.since || a.user.name.localeCompare(b.user.name))
+      .map((o) => o.user);
 
   return {
-    locks: lockRows.map((l) => ({ sheetId: l.sheetId, lockedBy: ref(l.lockedBy), reason: l.reason, editors: editorsOf(l.sheetId), createdAt: l.createdAt })),
+    locks: lockRows.map((l) => ({ sheetId: l.sheetId, lockedBy: ref(l.lockedBy), reason: l.reason, editors: editorsOf(l.sheetId, l.lockedBy), createdAt: l.createdAt })),
     sheetRoles: [...bySheet.values()],
     protectedRanges: rangeRows.map((r) => ({
       id: r.id,
