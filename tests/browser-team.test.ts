@@ -42,6 +42,8 @@ async function goTo(page: Page, a1: string) {
   await address.fill('');
   await address.fill(a1);
   await address.press('Enter');
+  // The grid takes the new cell on its next render; keys typed before that would reach no cell.
+  await expect.poll(() => address.inputValue()).toBe(a1);
 }
 
 /** Types into a cell the way a person does: select it, type, Enter. */
