@@ -91,9 +91,13 @@ export async function runEhtLibraryBench(options: { molecules?: number; write?: 
       await page.goto(`${server.url}/workbooks/${id}`);
       const first = await page.waitForFunction(() => (document.querySelectorAll('[data-testid="sheet-grid"] .orb-cell-number').length >= 4 ? performance.now() : false), undefined, { polling: 100 });
       const firstValuesMs = (await first.jsonValue()) as number;
-      // Every structure in: the progress line is gone and no cell on screen is pending.
+      // Every structure in: every formula is computed in the page (no computing state: a large open
+      // puts its formulas back in slices), the progress line is gone and no cell on screen is pending.
       const all = await page.waitForFunction(
-        () => (document.querySelector('[data-testid="sheet-grid"]') && !document.querySelector('[data-testid="structure-progress"]') && !document.querySelector('[data-cell-kind="pending"]') ? performance.now() : false),
+        () =>
+          document.querySelector('[data-testid="sheet-grid"]') && !document.querySelector('[data-testid="computing-state"]') && !document.querySelector('[data-testid="structure-progress"]') && !document.querySelector('[data-cell-kind="pending"]')
+            ? performance.now()
+            : false,
         undefined,
         { polling: 250 },
       );

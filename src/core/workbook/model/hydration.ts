@@ -75,6 +75,8 @@ export class Hydration {
     private readonly spilled: PendingCell[],
     /** The revision whose stored values are shown until the engine is live. */
     readonly revision: number,
+    /** False when nothing was stored: formulas show empty until their slice (a large first open, built in slices rather than in one long task). */
+    readonly fromStored = true,
   ) {
     this.total = formulas.length;
   }

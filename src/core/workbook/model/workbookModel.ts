@@ -84,13 +84,18 @@ export class WorkbookModel {
     // (our own, mirrored in patches), so the engine keeps no undo stack of its own.
     this.engine = buildWorkbookEngine(ordered.map((s, i) => ({ name: s.name, table: held ? held[i].table : inputs.get(s.id)!.toTable() })), { undoLimit: 0 });
     for (const s of ordered) this.addSheetState(s, inputs.get(s.id)!);
-    if (held && stored) this.hydration = new Hydration(held.flatMap((h) => h.formulas), held.flatMap((h) => h.spilled), stored.revision);
+    if (held && stored) this.hydration = new Hydration(held.flatMap((h) => h.formulas), held.flatMap((h) => h.spilled), stored.revision, stored.sheets.length > 0);
   }
 
   /** While the stored values are shown: how many formulas are live of how many. Null when all are. */
   get computing(): { done: number; total: number; revision: number } | null {
     const h = this.hydration;
     return h ? { done: h.done, total: h.total, revision: h.revision } : null;
+  }
+
+  /** Whether the cells not yet computed show stored values (false: they are empty until their slice). */
+  get computingFromStored(): boolean {
+    return this.hydration?.fromStored ?? false;
   }
 
   /** Puts back formulas for about `budgetMs` (the session calls it between frames); true once live. */
