@@ -88,6 +88,30 @@ describe('point mode', () => {
     expect(await formulaOf('B3')).toBe('=BONDORDER(A1)');
   });
 
+  it('in the formula bar, arrows point from the cell in focus and Shift+arrow makes a range', async () => {
+    await clickCell('B4');
+    await page.getByLabel('Formula bar').click();
+    await page.keyboard.type('=UNPAIRED(');
+    const bar = () => page.getByLabel('Formula bar').inputValue();
+    await page.keyboard.press('ArrowLeft');
+    await expect.poll(bar).toBe('=UNPAIRED(A4');
+    for (let i = 0; i < 3; i++) await page.keyboard.press('ArrowUp');
+    await expect.poll(bar).toBe('=UNPAIRED(A1');
+    await page.keyboard.press('Enter');
+    await expectCell('B4', '2');
+    expect(await formulaOf('B4')).toBe('=UNPAIRED(A1)');
+    // A range: Shift extends from where pointing began (two cells of O2's count, summed).
+    await clickCell('D4');
+    await page.getByLabel('Formula bar').click();
+    await page.keyboard.type('=SUM(');
+    await page.keyboard.press('ArrowUp');
+    await page.keyboard.press('Shift+ArrowLeft');
+    await expect.poll(bar).toBe('=SUM(C3:D3');
+    await page.keyboard.press('Escape');
+    // Escape hands the keyboard back to the grid: typing goes to the cell in focus again.
+    await expect.poll(() => page.evaluate(() => document.activeElement?.getAttribute('aria-label') ?? null)).not.toBe('Formula bar');
+  });
+
   it('outside point mode an arrow still leaves the cell (after a complete value)', async () => {
     await clickCell('D1');
     await page.keyboard.type('=1+1');
@@ -110,6 +134,8 @@ describe('argument hint', () => {
     expect(await hint.textContent()).toMatch(/default 1/);
     await screenshot(page, 'grid-formula-argument-hint');
     await page.keyboard.press('Escape');
+    // Escape hands the keyboard back to the grid: typing goes to the cell in focus again.
+    await expect.poll(() => page.evaluate(() => document.activeElement?.getAttribute('aria-label') ?? null)).not.toBe('Formula bar');
   });
 
   it('lists the choices of a text parameter', async () => {
@@ -117,6 +143,8 @@ describe('argument hint', () => {
     await page.keyboard.type('=GROUNDTERM(A1,');
     await expect.poll(() => page.getByTestId('argument-hint').textContent()).toMatch(/one of "unicode", "ascii"/);
     await page.keyboard.press('Escape');
+    // Escape hands the keyboard back to the grid: typing goes to the cell in focus again.
+    await expect.poll(() => page.evaluate(() => document.activeElement?.getAttribute('aria-label') ?? null)).not.toBe('Formula bar');
   });
 });
 
