@@ -112,6 +112,29 @@ describe('point mode', () => {
     await expect.poll(() => page.evaluate(() => document.activeElement?.getAttribute('aria-label') ?? null)).not.toBe('Formula bar');
   });
 
+  it('dragging from the pointed cell makes a range, in the cell and in the formula bar', async () => {
+    const drag = async (from: string, to: string) => {
+      const a = (await cell(from))!;
+      const b = (await cell(to))!;
+      await page.mouse.move(a.x, a.y);
+      await page.mouse.down();
+      await page.mouse.move((a.x + b.x) / 2, (a.y + b.y) / 2, { steps: 3 });
+      await page.mouse.move(b.x, b.y, { steps: 3 });
+      await page.mouse.up();
+    };
+    await clickCell('F1');
+    await page.keyboard.type('=SUM(');
+    await drag('C1', 'D2');
+    await expect.poll(editorText).toBe('=SUM(C1:D2');
+    await page.keyboard.press('Escape');
+    await clickCell('F2');
+    await page.getByLabel('Formula bar').click();
+    await page.keyboard.type('=SUM(');
+    await drag('D2', 'C1');
+    await expect.poll(() => page.getByLabel('Formula bar').inputValue()).toBe('=SUM(C1:D2');
+    await page.keyboard.press('Escape');
+  });
+
   it('outside point mode an arrow still leaves the cell (after a complete value)', async () => {
     await clickCell('D1');
     await page.keyboard.type('=1+1');

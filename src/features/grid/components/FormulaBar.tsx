@@ -5,6 +5,7 @@ import type { CellView } from '../../../core/workbook/model/cellView.js';
 import { acceptsReference, closeBrackets } from '@functions/formulaShape.js';
 import { FunctionSuggestions, useFunctionSuggestions } from './FunctionSuggestions.js';
 import { ArgumentHint } from './ArgumentHint.js';
+import { followDrag } from './SheetCell.js';
 
 export interface FormulaBarProps {
   address: string;
@@ -75,6 +76,9 @@ export function FormulaBar(p: FormulaBarProps) {
         : `${refFor(Math.min(anchor.row, cell.row), Math.min(anchor.col, cell.col))}:${refFor(Math.max(anchor.row, cell.row), Math.max(anchor.col, cell.col))}`;
     const next = el.value.slice(0, start) + ref + el.value.slice(last ? last.end : at);
     pointed.current = { start, end: start + ref.length, anchor, cell };
+    // Set on the field at once as well: a drag or a held arrow may point again before React renders.
+    el.value = next;
+    el.setSelectionRange(start + ref.length, start + ref.length);
     setDraft(next);
     setCaret(start + ref.length);
     requestAnimationFrame(() => el.setSelectionRange(start + ref.length, start + ref.length));
@@ -88,6 +92,7 @@ export function FormulaBar(p: FormulaBarProps) {
       e.preventDefault();
       e.stopPropagation();
       pointAt(el, { row: Number(target.dataset.viewRow), col: Number(target.dataset.col) }, e.shiftKey);
+      followDrag((over) => pointAt(el, over, true));
     };
     window.addEventListener('mousedown', mousedown, true);
     return () => window.removeEventListener('mousedown', mousedown, true);
