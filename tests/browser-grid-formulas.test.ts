@@ -3,39 +3,21 @@
 // are closed on commit, an argument hint names the current parameter with its unit and choices, and
 // a formula that cannot be read says in plain words where. Bond order of O2 2 and its two unpaired
 // electrons (Atkins & de Paula, Physical Chemistry, MO theory of diatomics; recalled from memory).
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { gridCell, launchBrowser, screenshot, signUpWithNewWorkbook, type TestBrowser } from './helpers/browser.js';
-import { startServer, type TestServer } from './helpers/server.js';
+import { screenshot, signUpWithNewWorkbook, type TestBrowser } from './helpers/browser.js';
+import type { TestServer } from './helpers/server.js';
+import { browserSuite, gridHands } from './helpers/browserSuite.js';
 
 let server: TestServer;
 let browser: TestBrowser;
 let page: Page;
+browserSuite((s) => ({ server, browser, page } = s));
 
-beforeAll(async () => {
-  server = await startServer();
-  browser = await launchBrowser();
-  page = browser.page;
-  page.setDefaultTimeout(15_000);
-}, 120_000);
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.stop();
-});
-
-const cell = (a1: string) => gridCell(page, a1);
+const { cell, clickCell, expectCell } = gridHands(() => page);
 const editorText = () => page.locator('.orb-cell-input').inputValue();
 
-async function clickCell(a1: string) {
-  const c = await cell(a1);
-  if (!c) throw new Error(`cell ${a1} is not on screen`);
-  await page.mouse.click(c.x, c.y);
-}
 
-async function expectCell(a1: string, text: string) {
-  await expect.poll(async () => (await cell(a1))?.text, { timeout: 10_000, message: `cell ${a1}` }).toBe(text);
-}
 
 async function formulaOf(a1: string) {
   await clickCell(a1);
