@@ -26,7 +26,7 @@ export interface EhtLibraryResult {
   molecules: number;
   formulas: number;
   firstOpen: { allValuesMs: number; moleculesPerSecondPerCore: number; longestLongTaskMs: number; longestTimerDelayMs: number; longTasksOver250: number };
-  colleague: { firstValuesMs: number; allValuesMs: number; recomputed: number; openedOnStoredValues: boolean; storedValuesWaitMs: number };
+  colleague: { firstValuesMs: number; allValuesMs: number; recomputed: number; openedOnStoredValues: boolean; storedValuesWaitMs: number; timeline: Record<string, number> };
   inProcess: { sample: number; moleculesPerSecond: number };
   targets: { firstValuesMs: number; stallMs: number };
   loadAverage: number[];
@@ -105,8 +105,17 @@ export async function runEhtLibraryBench(options: { molecules?: number; write?: 
       const stall = await page.evaluate(() => (window as unknown as { __stall: { longest: number; over250: number; gap: number } }).__stall);
       // Whether the server had the revision's values stored (200) or not yet (204: the page computed them from the stored structures).
       const onStoredValues = await page.evaluate(() => (performance.getEntriesByType('resource') as (PerformanceResourceTiming & { responseStatus?: number })[]).find((e) => e.name.includes('stored=only'))?.responseStatus === 200);
+      // Where the time to first values went: the page's code, the workbook's requests, the engine build (ms from navigation).
+      const timeline = await page.evaluate(() =>
+        Object.fromEntries(
+          performance
+            .getEntries()
+            .filter((e) => (e.entryType === 'resource' && /\/assets\/(index|WorkbookPage)-.*\.js$|\/api\/workbooks\//.test(e.name)) || e.name.startsWith('orbitab:'))
+            .map((e) => [`${e.name.replace(/^.*\/assets\/([A-Za-z]+)-[^/]*$/, '$1.js').replace(/^.*\/api\/workbooks\/[^/?]*/, 'workbook').replace(/\?.*/, '')} ${Math.round(e.startTime)}`, Math.round(e.startTime + e.duration)]),
+        ),
+      );
       await browser.close();
-      return { firstValuesMs, allValuesMs, stall, onStoredValues };
+      return { firstValuesMs, allValuesMs, stall, onStoredValues, timeline };
     };
 
     // The page asks only for the structures its engine evaluates (all rows), so "all values" is the library.
@@ -129,7 +138,7 @@ export async function runEhtLibraryBench(options: { molecules?: number; write?: 
         longestTimerDelayMs: Math.round(firstRun.stall.gap),
         longTasksOver250: firstRun.stall.over250,
       },
-      colleague: { firstValuesMs: Math.round(colleagueRun.firstValuesMs), allValuesMs: Math.round(colleagueRun.allValuesMs), recomputed: storedAfterColleague - storedAfterFirst, openedOnStoredValues: colleagueRun.onStoredValues, storedValuesWaitMs },
+      colleague: { firstValuesMs: Math.round(colleagueRun.firstValuesMs), allValuesMs: Math.round(colleagueRun.allValuesMs), recomputed: storedAfterColleague - storedAfterFirst, openedOnStoredValues: colleagueRun.onStoredValues, storedValuesWaitMs, timeline: colleagueRun.timeline },
       inProcess: { sample: inProcess.sample, moleculesPerSecond: Math.round(inProcess.moleculesPerSecond * 100) / 100 },
       targets: { firstValuesMs: 2_000, stallMs: 250 },
       loadAverage: (await import('node:os')).loadavg().map((x) => Math.round(x * 100) / 100),
