@@ -12,7 +12,7 @@ import type { Db } from '../db/index.js';
 import { workbooks } from '../db/schema.js';
 import { currentRevision, patchesAfter } from '../services/revisionLog.js';
 import { loadContentInSlices } from '../services/workbookSlices.js';
-import { packCells, packedTransfer } from '../xlsx/packedCells.js';
+import { packCellsInSlices, packedTransfer, type PackedCells } from '../xlsx/packedCells.js';
 import { onStructuresSettled, requestStructures, storedStructuresOf, structuresUnderWay } from '../structures/structureService.js';
 import { SpreadsheetError } from '../xlsx/limits.js';
 import { runKeeperJob } from './keeperThread.js';
@@ -20,17 +20,21 @@ import type { KeeperReply } from './keeperWorker.js';
 import { storeValues } from './store.js';
 import type { CellChange } from './warmWorkbook.js';
 
+const turn = () => new Promise<void>((resolve) => setImmediate(resolve));
+
 /** More changed cells than this since the warm revision: rebuilding costs about the same. */
 const MAX_INCREMENTAL_CHANGES = 20_000;
 
 /**
- * Workbooks with more non-empty cells than this are not kept: the engine needs about 1 KB a cell, and
- * a worker past its heap limit can take the whole process down with it (V8 does not always stop at
- * the worker). Their values are computed on demand as before. ORBITAB_STORED_VALUES_MAX_CELLS sets it.
+ * Workbooks with more non-empty cells than this are not kept; their values are computed on demand as
+ * before. The engine takes about 0.75 KB a cell (600 MB of heap for 800,000 chemistry cells, measured
+ * with bench/keeperLarge.ts), so a million cells fit the keeper thread's own heap limit
+ * (keeperWorkerLimits) with room for reading the values out. ORBITAB_STORED_VALUES_MAX_CELLS sets it.
  */
+export const defaultMaxKeptCells = 1_000_000;
 export const maxKeptCells = (() => {
   const n = Number(process.env.ORBITAB_STORED_VALUES_MAX_CELLS);
-  return Number.isFinite(n) && n >= 0 ? Math.floor(n) : 400_000;
+  return Number.isFinite(n) && n >= 0 ? Math.floor(n) : defaultMaxKeptCells;
 })();
 
 export interface KeeperRun {
@@ -195,7 +199,8 @@ export class ValuesKeeper {
         this.warm.delete(workbookId);
         return; // deleted, or edited on every try: the next revision's event brings it back
       }
-      const sheets = content.tabs.map((t) => ({ id: t.id, name: t.name, packed: packCells(content.cells.get(t.id) ?? []) }));
+      const sheets: { id: string; name: string; packed: PackedCells }[] = [];
+      for (const t of content.tabs) sheets.push({ id: t.id, name: t.name, packed: await packCellsInSlices(content.cells.get(t.id) ?? [], turn) });
       const structures = storedStructuresOf(this.ctx, workbookId);
       this.structuresSent.set(workbookId, Object.keys(structures).length);
       reply = await runKeeperJob({ kind: 'build', workbookId, revision: content.revision, sheets, structures }, sheets.flatMap((s) => packedTransfer(s.packed)));
