@@ -90,10 +90,14 @@ export class ValuesKeeper {
     if (this.stopped) return;
     if ((this.wanted.get(workbookId) ?? -1) >= revision) return;
     this.wanted.set(workbookId, revision);
-    this.running ??= this.drain().finally(() => {
-      this.running = null;
-      for (const w of this.idleWaiters.splice(0)) w();
-    });
+    // Started after a turn of the event loop: the commit that announced the revision (an import's
+    // last step, say) answers first rather than waiting on the keeper's first count and page.
+    this.running ??= turn()
+      .then(() => this.drain())
+      .finally(() => {
+        this.running = null;
+        for (const w of this.idleWaiters.splice(0)) w();
+      });
   }
 
   /** The workbook's current revision has no stored values (a read found none): compute them. */
@@ -155,21 +159,15 @@ export class ValuesKeeper {
     if (missing.length > 0 && structuresUnderWay(workbookId) === 0 && this.awaitingStructures.delete(workbookId)) this.nudge(workbookId);
   }
 
-  /** Non-empty cells of the workbook, counted in SQLite (an index range per sheet). */
-  private cellCount(workbookId: string): number {
-    const row = this.ctx.db.$client.prepare(`select count(*) as n from cells c join sheets s on s.id = c.sheet_id where s.workbook_id = ? and c.input != ''`).get(workbookId) as { n: number };
-    return row.n;
+  /** Too large to keep: left to the on-demand path, and the worker lets go of any engine it held. */
+  private async leaveTooLarge(workbookId: string) {
+    if (this.warm.delete(workbookId)) await runKeeperJob({ kind: 'forget', workbookId });
+    const at = revisionOf(this.ctx.db, workbookId);
+    if (at !== null) this.failed.set(workbookId, at);
   }
 
   private async bringUpToDate(workbookId: string) {
     const started = performance.now();
-    if (this.cellCount(workbookId) > this.maxCells) {
-      // Too large to keep warm: left to the on-demand path, and the worker lets go of any engine it held.
-      if (this.warm.delete(workbookId)) await runKeeperJob({ kind: 'forget', workbookId });
-      const at = revisionOf(this.ctx.db, workbookId);
-      if (at !== null) this.failed.set(workbookId, at);
-      return;
-    }
     const warmAt = this.warm.get(workbookId);
     let reply: KeeperReply | null = null;
     let mode: KeeperRun['mode'] = 'incremental';
@@ -194,7 +192,15 @@ export class ValuesKeeper {
     }
     if (!reply) {
       mode = 'rebuild';
-      const content = await loadContentInSlices(this.ctx, workbookId);
+      // Counted while reading, page by page: a separate count of a million cells would hold the event loop.
+      const tooMany = new Error('too many cells to keep');
+      const content = await loadContentInSlices(this.ctx, workbookId, undefined, (cells) => {
+        if (cells > this.maxCells) throw tooMany;
+      }).catch((e: unknown) => {
+        if (e === tooMany) return 'too many' as const;
+        throw e;
+      });
+      if (content === 'too many') return this.leaveTooLarge(workbookId);
       if (!content) {
         this.warm.delete(workbookId);
         return; // deleted, or edited on every try: the next revision's event brings it back
@@ -213,6 +219,8 @@ export class ValuesKeeper {
       return;
     }
     if (reply.stale) return;
+    // A warm workbook grown past the limit by its edits.
+    if (reply.cells > this.maxCells) return this.leaveTooLarge(workbookId);
     if (reply.pendingCells > 0) {
       this.awaitStructures(workbookId, reply.missingStructures);
       return;
