@@ -272,9 +272,21 @@ describe('the workbook grid in a browser', () => {
     expect((await saved).status()).toBe(200);
     await reloadWorkbook();
     await expectCell('B2', '3.00');
+    await expectCell('A1', 'O2'); // still frozen: row 1 shown in the header
+    // Changed again after the reload: these choices must be the ones the next reload shows.
+    const savedAgain = page.waitForResponse((r) => {
+      const body = r.request().postData() ?? '';
+      return r.request().method() === 'PATCH' && /\/sheets\/[^/]+$/.test(r.url()) && body.includes('"freezeHeaderRow":false') && body.includes('"precision":null');
+    });
     await page.getByLabel('Decimal places').selectOption('auto');
     await page.getByRole('button', { name: 'Freeze row 1' }).click();
     await expectCell('B1', '2');
+    expect((await savedAgain).status()).toBe(200);
+    await reloadWorkbook();
+    await expectCell('B2', '3');
+    await expectCell('B1', '2');
+    expect(await page.locator('.orb-col-frozen').count()).toBe(0);
+    expect(await page.getByLabel('Decimal places').inputValue()).toBe('auto');
   });
 
   it('widens a column by dragging its header edge', async () => {
