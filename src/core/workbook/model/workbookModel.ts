@@ -13,6 +13,7 @@ import { allows, type AccessRole, type WorkbookAction } from '@shared/permission
 import type { CellView } from './cellView.js';
 import { buildSheetRows, EMPTY_ROW, groupCells, viewOfCell, withRowsReplaced, type RowData } from './sheetViews.js';
 import { readDisplaySettings, type DisplaySettings } from './displaySettings.js';
+import { DisplaySaves } from './displaySaves.js';
 import { SheetInputs } from './sheetInputs.js';
 import { removeSheetFromFormula, renameSheetInFormula } from '@shared/formulaText.js';
 import { lastInputPerCell, type CellInput } from '../save/pendingStore.js';
@@ -70,6 +71,8 @@ export class WorkbookModel {
 
   /** Formulas still standing in as their stored values (hydration.ts); null once the workbook is live. */
   private hydration: Hydration | null = null;
+  /** Display settings of mine on their way to the server (live settings revisions wait for them). */
+  readonly displaySaves = new DisplaySaves();
 
   /**
    * `stored`: the values stored with this revision, shown at once while the rest of the rows and then
