@@ -219,6 +219,8 @@ describe('change log', () => {
     await page.keyboard.type('reference');
     await page.keyboard.press('Enter');
     await expectCellText('F2', /^reference$/);
+    // Saved first: the log lists what the server holds, and the edit must be in it.
+    await page.locator('[data-testid="save-state"][data-state="saved"]').waitFor();
     await page.getByRole('button', { name: 'Change log' }).click();
     const latest = dialog().getByRole('listitem').first();
     await expect.poll(() => latest.textContent()).toContain('Edited 1 cell');
