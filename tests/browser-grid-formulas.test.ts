@@ -3,39 +3,21 @@
 // are closed on commit, a function completed with Tab keeps the keys typed after it in place, an argument hint names the current parameter with its unit and choices, and
 // a formula that cannot be read says in plain words where. Bond order of O2 2 and its two unpaired
 // electrons (Atkins & de Paula, Physical Chemistry, MO theory of diatomics; recalled from memory).
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { gridCell, launchBrowser, screenshot, signUpWithNewWorkbook, type TestBrowser } from './helpers/browser.js';
-import { startServer, type TestServer } from './helpers/server.js';
+import { screenshot, signUpWithNewWorkbook, type TestBrowser } from './helpers/browser.js';
+import type { TestServer } from './helpers/server.js';
+import { browserSuite, gridHands } from './helpers/browserSuite.js';
 
 let server: TestServer;
 let browser: TestBrowser;
 let page: Page;
+browserSuite((s) => ({ server, browser, page } = s));
 
-beforeAll(async () => {
-  server = await startServer();
-  browser = await launchBrowser();
-  page = browser.page;
-  page.setDefaultTimeout(15_000);
-}, 120_000);
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.stop();
-});
-
-const cell = (a1: string) => gridCell(page, a1);
+const { cell, clickCell, expectCell } = gridHands(() => page);
 const editorText = () => page.locator('.orb-cell-input').inputValue();
 
-async function clickCell(a1: string) {
-  const c = await cell(a1);
-  if (!c) throw new Error(`cell ${a1} is not on screen`);
-  await page.mouse.click(c.x, c.y);
-}
 
-async function expectCell(a1: string, text: string) {
-  await expect.poll(async () => (await cell(a1))?.text, { timeout: 10_000, message: `cell ${a1}` }).toBe(text);
-}
 
 async function formulaOf(a1: string) {
   await clickCell(a1);
@@ -86,6 +68,53 @@ describe('point mode', () => {
     await page.keyboard.press('Enter');
     await expectCell('B3', '2');
     expect(await formulaOf('B3')).toBe('=BONDORDER(A1)');
+  });
+
+  it('in the formula bar, arrows point from the cell in focus and Shift+arrow makes a range', async () => {
+    await clickCell('B4');
+    await page.getByLabel('Formula bar').click();
+    await page.keyboard.type('=UNPAIRED(');
+    const bar = () => page.getByLabel('Formula bar').inputValue();
+    await page.keyboard.press('ArrowLeft');
+    await expect.poll(bar).toBe('=UNPAIRED(A4');
+    for (let i = 0; i < 3; i++) await page.keyboard.press('ArrowUp');
+    await expect.poll(bar).toBe('=UNPAIRED(A1');
+    await page.keyboard.press('Enter');
+    await expectCell('B4', '2');
+    expect(await formulaOf('B4')).toBe('=UNPAIRED(A1)');
+    // A range: Shift extends from where pointing began (two cells of O2's count, summed).
+    await clickCell('D4');
+    await page.getByLabel('Formula bar').click();
+    await page.keyboard.type('=SUM(');
+    await page.keyboard.press('ArrowUp');
+    await page.keyboard.press('Shift+ArrowLeft');
+    await expect.poll(bar).toBe('=SUM(C3:D3');
+    await page.keyboard.press('Escape');
+    // Escape hands the keyboard back to the grid: typing goes to the cell in focus again.
+    await expect.poll(() => page.evaluate(() => document.activeElement?.getAttribute('aria-label') ?? null)).not.toBe('Formula bar');
+  });
+
+  it('dragging from the pointed cell makes a range, in the cell and in the formula bar', async () => {
+    const drag = async (from: string, to: string) => {
+      const a = (await cell(from))!;
+      const b = (await cell(to))!;
+      await page.mouse.move(a.x, a.y);
+      await page.mouse.down();
+      await page.mouse.move((a.x + b.x) / 2, (a.y + b.y) / 2, { steps: 3 });
+      await page.mouse.move(b.x, b.y, { steps: 3 });
+      await page.mouse.up();
+    };
+    await clickCell('F1');
+    await page.keyboard.type('=SUM(');
+    await drag('C1', 'D2');
+    await expect.poll(editorText).toBe('=SUM(C1:D2');
+    await page.keyboard.press('Escape');
+    await clickCell('F2');
+    await page.getByLabel('Formula bar').click();
+    await page.keyboard.type('=SUM(');
+    await drag('D2', 'C1');
+    await expect.poll(() => page.getByLabel('Formula bar').inputValue()).toBe('=SUM(C1:D2');
+    await page.keyboard.press('Escape');
   });
 
   it('outside point mode an arrow still leaves the cell (after a complete value)', async () => {
@@ -164,6 +193,8 @@ describe('argument hint', () => {
     expect(await hint.textContent()).toMatch(/default 1/);
     await screenshot(page, 'grid-formula-argument-hint');
     await page.keyboard.press('Escape');
+    // Escape hands the keyboard back to the grid: typing goes to the cell in focus again.
+    await expect.poll(() => page.evaluate(() => document.activeElement?.getAttribute('aria-label') ?? null)).not.toBe('Formula bar');
   });
 
   it('lists the choices of a text parameter', async () => {
@@ -171,6 +202,8 @@ describe('argument hint', () => {
     await page.keyboard.type('=GROUNDTERM(A1,');
     await expect.poll(() => page.getByTestId('argument-hint').textContent()).toMatch(/one of "unicode", "ascii"/);
     await page.keyboard.press('Escape');
+    // Escape hands the keyboard back to the grid: typing goes to the cell in focus again.
+    await expect.poll(() => page.evaluate(() => document.activeElement?.getAttribute('aria-label') ?? null)).not.toBe('Formula bar');
   });
 });
 

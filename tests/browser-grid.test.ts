@@ -98,7 +98,10 @@ describe('the workbook grid in a browser', () => {
     expect(await list.textContent()).toMatch(/UNPAIRED\(species/);
     await screenshot(page, 'grid-autocomplete');
     await page.keyboard.press('Tab');
+    // The completion is in the cell (name and open bracket) before the argument is typed.
+    await expect.poll(() => page.locator('.orb-cell-input').inputValue()).toBe('=UNPAIRED(');
     await page.keyboard.type('A1)');
+    await expect.poll(() => page.locator('.orb-cell-input').inputValue()).toBe('=UNPAIRED(A1)');
     await page.keyboard.press('Enter');
     await expectCell('D2', '2');
   });

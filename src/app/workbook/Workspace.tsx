@@ -197,6 +197,8 @@ export function Workspace({ session }: { session: WorkbookSession }) {
       <FormulaBar
         barRef={barRef}
         refFor={(viewRow, col) => cellName(view.sheetRow(viewRow), col)}
+        pointFrom={active ? { viewRow: active.row, col: active.col } : null}
+        extent={() => ({ rows: view.data.length, cols: sheet.colCount })}
         address={address}
         input={focusInput}
         liveText={liveText}
