@@ -1,7 +1,8 @@
 // Typing formulas the way the hands expect, in Debian Chromium against the real server: a click or
 // an arrow while a formula waits for a reference inserts that cell (point mode), brackets left open
-// are closed on commit, a function completed with Tab keeps the keys typed after it in place, an argument hint names the current parameter with its unit and choices, and
-// a formula that cannot be read says in plain words where. Bond order of O2 2 and its two unpaired
+// are closed on commit, keys typed right after a completion or a pointed cell stay in place, an
+// argument hint names the current parameter with its unit and choices, and a formula that cannot be
+// read says in plain words where. Bond order of O2 2 and its two unpaired
 // electrons (Atkins & de Paula, Physical Chemistry, MO theory of diatomics; recalled from memory).
 import { describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
@@ -177,6 +178,23 @@ describe('completing a function name', () => {
     await expect.poll(() => page.getByLabel('Formula bar').inputValue()).toBe('=UNPAIRED(A1)');
     await page.keyboard.press('Enter');
     await expectCell('G2', '2');
+  });
+
+  it('and after a cell pointed at in the formula bar', async () => {
+    await clickCell('G3');
+    await page.getByLabel('Formula bar').click();
+    await page.keyboard.type('=BONDORDER(');
+    await holdFrames();
+    try {
+      await clickCell('A1');
+      await page.keyboard.type(')');
+    } finally {
+      await releaseFrames();
+    }
+    await page.keyboard.type('*2');
+    await expect.poll(() => page.getByLabel('Formula bar').inputValue()).toBe('=BONDORDER(A1)*2');
+    await page.keyboard.press('Enter');
+    await expectCell('G3', '4');
   });
 });
 
