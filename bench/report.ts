@@ -12,6 +12,9 @@ export interface BenchOutcome {
   seconds?: number;
   error?: string;
   result?: unknown;
+  /** When this benchmark ran and the 1-minute load average then (a report may keep sections of an earlier run). */
+  measuredAt?: string;
+  loadAverage?: number;
 }
 
 export interface MachineInfo {
@@ -262,13 +265,24 @@ export function summaryRows(report: BenchReport): SummaryRow[] {
 const cell = (s: string) => s.replace(/\|/g, '\\|').replace(/\n/g, ' ');
 const verdict = (met: boolean | null) => (met === null ? '' : met ? 'met' : '**not met**');
 
+/**
+ * The outcomes of a partial run (BENCH_ONLY) with the sections it did not repeat taken from the
+ * previous report, each keeping when it was measured, in the runner's order.
+ */
+export function keepUnrepeated(previous: BenchReport, fresh: BenchOutcome[], order: BenchKey[]): BenchOutcome[] {
+  const rerun = new Set(fresh.map((o) => o.key));
+  const kept = previous.outcomes.filter((o) => !rerun.has(o.key)).map((o) => ({ ...o, measuredAt: o.measuredAt ?? previous.startedAt, loadAverage: o.loadAverage ?? previous.machine.loadAverageAtStart }));
+  return [...fresh, ...kept].sort((a, b) => order.indexOf(a.key) - order.indexOf(b.key));
+}
+
 export function renderReport(report: BenchReport): string {
   const m = report.machine;
   const rows = summaryRows(report);
+  const kept = report.outcomes.filter((o) => o.measuredAt !== undefined && o.measuredAt < report.startedAt);
   const lines = [
     '# Orbitab benchmark report',
     '',
-    `Made by \`${report.command}\` from ${report.startedAt} to ${report.finishedAt}. Numbers quoted elsewhere must come from this command; rerun it to refresh them.`,
+    `Made by \`${report.command}\` from ${report.startedAt} to ${report.finishedAt}. Numbers quoted elsewhere must come from this command; rerun it to refresh them.${kept.length ? ` Kept from an earlier run (not repeated by this one): ${kept.map((o) => `${o.title} (${o.measuredAt})`).join('; ')}.` : ''}`,
     '',
     '## Machine',
     '',
@@ -289,7 +303,8 @@ export function renderReport(report: BenchReport): string {
   ];
   for (const o of report.outcomes) {
     lines.push(`### ${o.title}`, '');
-    if (o.status === 'ok') lines.push(`Ran in ${num(o.seconds, 1)} s.`, '', '```json', JSON.stringify(o.result, null, 2), '```', '');
+    const when = o.measuredAt ? ` Measured ${o.measuredAt}${o.loadAverage !== undefined ? `, load average ${o.loadAverage}` : ''}${o.measuredAt < report.startedAt ? ' (kept from an earlier run: this run did not repeat it)' : ''}.` : '';
+    if (o.status === 'ok') lines.push(`Ran in ${num(o.seconds, 1)} s.${when}`, '', '```json', JSON.stringify(o.result, null, 2), '```', '');
     else lines.push(`${o.status === 'missing' ? 'Not run: the benchmark does not exist yet' : 'Not run: it failed'} — ${o.error ?? 'no message'}`, '');
   }
   return `${lines.join('\n')}\n`;

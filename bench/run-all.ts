@@ -2,13 +2,14 @@
 // and bench/report.json. A benchmark whose file or entry point is missing, or that fails, is named in
 // the report; the others still run.
 //
-// BENCH_ONLY=functions,io   run only these (keys: functions, huckel, open, patches, io, ehtLibrary, stalls)
+// BENCH_ONLY=functions,io   run only these (keys: functions, huckel, open, patches, io, ehtLibrary, stalls);
+//                           the report keeps the other sections of the previous report, each marked with when it ran
 // BENCH_QUICK=1             small sizes, to try the runner; writes bench/tmp/report-quick.* instead
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { pathToFileURL } from 'node:url';
-import { renderReport, summaryRows, type BenchKey, type BenchOutcome, type BenchReport } from './report.js';
+import { keepUnrepeated, renderReport, summaryRows, type BenchKey, type BenchOutcome, type BenchReport } from './report.js';
 
 const quick = process.env.BENCH_QUICK === '1';
 const only = process.env.BENCH_ONLY?.split(',').map((s) => s.trim()).filter(Boolean);
@@ -34,7 +35,7 @@ const benches: BenchSpec[] = [
 ];
 
 async function runOne(spec: BenchSpec): Promise<BenchOutcome> {
-  const base = { key: spec.key, title: spec.title };
+  const base = { key: spec.key, title: spec.title, measuredAt: new Date().toISOString(), loadAverage: Math.round(os.loadavg()[0] * 100) / 100 };
   const file = path.join(import.meta.dirname, spec.file);
   if (!fs.existsSync(file)) return { ...base, status: 'missing', error: `bench/${spec.file} does not exist` };
   const started = performance.now();
@@ -74,6 +75,13 @@ async function main() {
     console.log(`[bench] ${spec.title}: ${outcome.status}${outcome.seconds !== undefined ? ` in ${outcome.seconds.toFixed(1)} s` : ''}${outcome.error ? ` — ${outcome.error}` : ''}`);
     outcomes.push(outcome);
   }
+  // A partial run keeps what it did not repeat from the report before it, in the usual order.
+  const dir = quick ? path.join(import.meta.dirname, 'tmp') : import.meta.dirname;
+  const name = quick ? 'report-quick' : 'report';
+  if (only && !quick && fs.existsSync(path.join(dir, `${name}.json`))) {
+    const previous = JSON.parse(fs.readFileSync(path.join(dir, `${name}.json`), 'utf8')) as BenchReport;
+    outcomes.splice(0, outcomes.length, ...keepUnrepeated(previous, outcomes, benches.map((b) => b.key)));
+  }
   const report: BenchReport = {
     startedAt,
     finishedAt: new Date().toISOString(),
@@ -81,8 +89,6 @@ async function main() {
     machine: machine(loadAtStart),
     outcomes,
   };
-  const dir = quick ? path.join(import.meta.dirname, 'tmp') : import.meta.dirname;
-  const name = quick ? 'report-quick' : 'report';
   fs.mkdirSync(dir, { recursive: true });
   fs.writeFileSync(path.join(dir, `${name}.json`), `${JSON.stringify({ ...report, summary: summaryRows(report) }, null, 2)}\n`);
   fs.writeFileSync(path.join(dir, `${name}.md`), renderReport(report));

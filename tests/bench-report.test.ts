@@ -1,7 +1,7 @@
 // bench/report.md from the outcomes of `npm run bench`: targets judged from the numbers, missing and
 // failed benchmarks named rather than dropped, and the machine stated. Outcomes here are made up.
 import { describe, expect, it } from 'vitest';
-import { renderReport, summaryRows, type BenchOutcome, type BenchReport } from '../bench/report.js';
+import { keepUnrepeated, renderReport, summaryRows, type BenchOutcome, type BenchReport } from '../bench/report.js';
 
 const machine = { os: 'Linux 6.1 (x64)', cpuModel: 'Test CPU 3000', cpuCount: 2, memoryGb: 7.8, node: 'v20.20.2', loadAverageAtStart: 0.4, loadAverageAtEnd: 1.1 };
 const report = (outcomes: BenchOutcome[], load = 0.4): BenchReport => ({
@@ -106,5 +106,18 @@ describe('the benchmark report', () => {
     expect(quiet).toContain('Made by `npm run bench`');
     expect(quiet).not.toContain('machine was busy');
     expect(renderReport(report([], 6.5))).toContain('the machine was busy with other work');
+  });
+
+  it('a partial run (BENCH_ONLY) keeps the sections it did not repeat, in order, each saying when it was measured', () => {
+    const earlier = { ...report([ok('functions', { ratio: 1.2 }), ok('io', { exportRatio: 2 }), ok('stalls', {})], 0.9), startedAt: '2025-01-30T08:00:00.000Z' };
+    const fresh = [{ ...ok('io', { exportRatio: 1.1 }), measuredAt: '2025-01-31T10:00:05.000Z', loadAverage: 1.2 }];
+    const merged = keepUnrepeated(earlier, fresh, ['functions', 'huckel', 'open', 'patches', 'io', 'ehtLibrary', 'stalls']);
+    expect(merged.map((o) => o.key)).toEqual(['functions', 'io', 'stalls']);
+    expect(merged[1].result).toEqual({ exportRatio: 1.1 });
+    expect(merged[0]).toMatchObject({ measuredAt: '2025-01-30T08:00:00.000Z', loadAverage: 0.9 });
+    const text = renderReport({ ...report(merged), command: 'npm run bench (BENCH_ONLY=io)' });
+    expect(text).toContain('Kept from an earlier run (not repeated by this one): functions (2025-01-30T08:00:00.000Z); stalls (2025-01-30T08:00:00.000Z).');
+    expect(text).toContain('Measured 2025-01-31T10:00:05.000Z, load average 1.2.');
+    expect(text).toContain('Measured 2025-01-30T08:00:00.000Z, load average 0.9 (kept from an earlier run: this run did not repeat it).');
   });
 });

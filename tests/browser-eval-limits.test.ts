@@ -1,31 +1,19 @@
 // A colleague opens, in Chromium, a workbook holding the formulas that used to stall a tab or run a
 // server out of memory: the page loads, those cells show #VALUE! with a message naming the limit, and
 // another cell can still be edited and recomputes. Needs `npm run build` first.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { gridCell, launchBrowser, signUpWithNewWorkbook, screenshot, type TestBrowser } from './helpers/browser.js';
-import { startServer, type TestServer } from './helpers/server.js';
+import { signUpWithNewWorkbook, screenshot, type TestBrowser } from './helpers/browser.js';
+import type { TestServer } from './helpers/server.js';
+import { browserSuite, gridHands } from './helpers/browserSuite.js';
 
 let server: TestServer;
 let browser: TestBrowser;
 let page: Page;
+browserSuite((s) => ({ server, browser, page } = s));
 
-beforeAll(async () => {
-  server = await startServer();
-  browser = await launchBrowser();
-  page = browser.page;
-  page.setDefaultTimeout(15_000);
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.stop();
-});
-
-const cell = (a1: string) => gridCell(page, a1);
-async function expectCell(a1: string, text: string) {
-  await expect.poll(async () => (await cell(a1))?.text, { timeout: 15_000, message: `cell ${a1}` }).toBe(text);
-}
+const { cell, expectCell: expectCellWithin } = gridHands(() => page);
+const expectCell = (a1: string, text: string) => expectCellWithin(a1, text, 15_000);
 
 describe('a workbook holding hostile formulas in a browser', () => {
   it('opens with those cells in error and the rest editable', async () => {

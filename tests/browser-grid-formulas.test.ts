@@ -1,41 +1,24 @@
 // Typing formulas the way the hands expect, in Debian Chromium against the real server: a click or
 // an arrow while a formula waits for a reference inserts that cell (point mode), brackets left open
-// are closed on commit, an argument hint names the current parameter with its unit and choices, and
-// a formula that cannot be read says in plain words where. Bond order of O2 2 and its two unpaired
+// are closed on commit, keys typed right after a completion or a pointed cell stay in place, an
+// argument hint names the current parameter with its unit and choices, and a formula that cannot be
+// read says in plain words where. Bond order of O2 2 and its two unpaired
 // electrons (Atkins & de Paula, Physical Chemistry, MO theory of diatomics; recalled from memory).
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { gridCell, launchBrowser, screenshot, signUpWithNewWorkbook, type TestBrowser } from './helpers/browser.js';
-import { startServer, type TestServer } from './helpers/server.js';
+import { screenshot, signUpWithNewWorkbook, type TestBrowser } from './helpers/browser.js';
+import type { TestServer } from './helpers/server.js';
+import { browserSuite, gridHands } from './helpers/browserSuite.js';
 
 let server: TestServer;
 let browser: TestBrowser;
 let page: Page;
+browserSuite((s) => ({ server, browser, page } = s));
 
-beforeAll(async () => {
-  server = await startServer();
-  browser = await launchBrowser();
-  page = browser.page;
-  page.setDefaultTimeout(15_000);
-}, 120_000);
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.stop();
-});
-
-const cell = (a1: string) => gridCell(page, a1);
+const { cell, clickCell, expectCell } = gridHands(() => page);
 const editorText = () => page.locator('.orb-cell-input').inputValue();
 
-async function clickCell(a1: string) {
-  const c = await cell(a1);
-  if (!c) throw new Error(`cell ${a1} is not on screen`);
-  await page.mouse.click(c.x, c.y);
-}
 
-async function expectCell(a1: string, text: string) {
-  await expect.poll(async () => (await cell(a1))?.text, { timeout: 10_000, message: `cell ${a1}` }).toBe(text);
-}
 
 async function formulaOf(a1: string) {
   await clickCell(a1);
@@ -88,12 +71,130 @@ describe('point mode', () => {
     expect(await formulaOf('B3')).toBe('=BONDORDER(A1)');
   });
 
+  it('in the formula bar, arrows point from the cell in focus and Shift+arrow makes a range', async () => {
+    await clickCell('B4');
+    await page.getByLabel('Formula bar').click();
+    await page.keyboard.type('=UNPAIRED(');
+    const bar = () => page.getByLabel('Formula bar').inputValue();
+    await page.keyboard.press('ArrowLeft');
+    await expect.poll(bar).toBe('=UNPAIRED(A4');
+    for (let i = 0; i < 3; i++) await page.keyboard.press('ArrowUp');
+    await expect.poll(bar).toBe('=UNPAIRED(A1');
+    await page.keyboard.press('Enter');
+    await expectCell('B4', '2');
+    expect(await formulaOf('B4')).toBe('=UNPAIRED(A1)');
+    // A range: Shift extends from where pointing began (two cells of O2's count, summed).
+    await clickCell('D4');
+    await page.getByLabel('Formula bar').click();
+    await page.keyboard.type('=SUM(');
+    await page.keyboard.press('ArrowUp');
+    await page.keyboard.press('Shift+ArrowLeft');
+    await expect.poll(bar).toBe('=SUM(C3:D3');
+    await page.keyboard.press('Escape');
+    // Escape hands the keyboard back to the grid: typing goes to the cell in focus again.
+    await expect.poll(() => page.evaluate(() => document.activeElement?.getAttribute('aria-label') ?? null)).not.toBe('Formula bar');
+  });
+
+  it('dragging from the pointed cell makes a range, in the cell and in the formula bar', async () => {
+    const drag = async (from: string, to: string) => {
+      const a = (await cell(from))!;
+      const b = (await cell(to))!;
+      await page.mouse.move(a.x, a.y);
+      await page.mouse.down();
+      await page.mouse.move((a.x + b.x) / 2, (a.y + b.y) / 2, { steps: 3 });
+      await page.mouse.move(b.x, b.y, { steps: 3 });
+      await page.mouse.up();
+    };
+    await clickCell('F1');
+    await page.keyboard.type('=SUM(');
+    await drag('C1', 'D2');
+    await expect.poll(editorText).toBe('=SUM(C1:D2');
+    await page.keyboard.press('Escape');
+    await clickCell('F2');
+    await page.getByLabel('Formula bar').click();
+    await page.keyboard.type('=SUM(');
+    await drag('D2', 'C1');
+    await expect.poll(() => page.getByLabel('Formula bar').inputValue()).toBe('=SUM(C1:D2');
+    await page.keyboard.press('Escape');
+  });
+
   it('outside point mode an arrow still leaves the cell (after a complete value)', async () => {
     await clickCell('D1');
     await page.keyboard.type('=1+1');
     await page.keyboard.press('ArrowDown');
     await expectCell('D1', '2');
     await expect.poll(() => page.getByLabel('Cell address').inputValue()).toBe('D2');
+  });
+});
+
+// A busy page (the rows of a large sheet loading in slices, the side panel laying out) may paint its
+// next frame only after the next keys have been typed. The completion's caret must not wait for that
+// frame: placed late, it jumped back before the typed characters (=UNPAIRED(1)A, unreadable).
+async function holdFrames() {
+  await page.evaluate(() => {
+    const w = window as unknown as { heldFrames: FrameRequestCallback[]; releaseFrames: () => void };
+    const real = window.requestAnimationFrame.bind(window);
+    w.heldFrames = [];
+    window.requestAnimationFrame = (cb) => (w.heldFrames.push(cb), 0);
+    w.releaseFrames = () => {
+      window.requestAnimationFrame = real;
+      for (const cb of w.heldFrames.splice(0)) cb(performance.now());
+    };
+  });
+}
+const releaseFrames = () => page.evaluate(() => (window as unknown as { releaseFrames: () => void }).releaseFrames());
+
+describe('completing a function name', () => {
+  it('keeps what is typed after Tab in place even when the next frame comes late', async () => {
+    await clickCell('G1');
+    await page.keyboard.type('=UNP');
+    await page.getByRole('listbox', { name: 'Functions' }).getByRole('option', { name: /UNPAIRED/ }).waitFor();
+    await holdFrames();
+    try {
+      await page.keyboard.press('Tab');
+      await page.keyboard.type('A');
+    } finally {
+      await releaseFrames();
+    }
+    await page.keyboard.type('1)');
+    await expect.poll(editorText).toBe('=UNPAIRED(A1)');
+    await page.keyboard.press('Enter');
+    await expectCell('G1', '2');
+  });
+
+  it('in the formula bar too', async () => {
+    await clickCell('G2');
+    await page.getByLabel('Formula bar').click();
+    await page.keyboard.type('=UNP');
+    await page.getByRole('listbox', { name: 'Functions' }).getByRole('option', { name: /UNPAIRED/ }).waitFor();
+    await holdFrames();
+    try {
+      await page.keyboard.press('Tab');
+      await page.keyboard.type('A');
+    } finally {
+      await releaseFrames();
+    }
+    await page.keyboard.type('1)');
+    await expect.poll(() => page.getByLabel('Formula bar').inputValue()).toBe('=UNPAIRED(A1)');
+    await page.keyboard.press('Enter');
+    await expectCell('G2', '2');
+  });
+
+  it('and after a cell pointed at in the formula bar', async () => {
+    await clickCell('G3');
+    await page.getByLabel('Formula bar').click();
+    await page.keyboard.type('=BONDORDER(');
+    await holdFrames();
+    try {
+      await clickCell('A1');
+      await page.keyboard.type(')');
+    } finally {
+      await releaseFrames();
+    }
+    await page.keyboard.type('*2');
+    await expect.poll(() => page.getByLabel('Formula bar').inputValue()).toBe('=BONDORDER(A1)*2');
+    await page.keyboard.press('Enter');
+    await expectCell('G3', '4');
   });
 });
 
@@ -110,6 +211,8 @@ describe('argument hint', () => {
     expect(await hint.textContent()).toMatch(/default 1/);
     await screenshot(page, 'grid-formula-argument-hint');
     await page.keyboard.press('Escape');
+    // Escape hands the keyboard back to the grid: typing goes to the cell in focus again.
+    await expect.poll(() => page.evaluate(() => document.activeElement?.getAttribute('aria-label') ?? null)).not.toBe('Formula bar');
   });
 
   it('lists the choices of a text parameter', async () => {
@@ -117,6 +220,8 @@ describe('argument hint', () => {
     await page.keyboard.type('=GROUNDTERM(A1,');
     await expect.poll(() => page.getByTestId('argument-hint').textContent()).toMatch(/one of "unicode", "ascii"/);
     await page.keyboard.press('Escape');
+    // Escape hands the keyboard back to the grid: typing goes to the cell in focus again.
+    await expect.poll(() => page.evaluate(() => document.activeElement?.getAttribute('aria-label') ?? null)).not.toBe('Formula bar');
   });
 });
 

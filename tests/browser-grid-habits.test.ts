@@ -3,26 +3,16 @@
 // Ctrl+Arrow stops at the edge of the data, and a double-click on the fill handle fills down beside
 // the data. Bond orders from MO theory: O2 2, N2 3, F2 1, CO 3 (Atkins & de Paula, Physical
 // Chemistry, MO theory of diatomics; recalled from memory).
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { gridCell, launchBrowser, screenshot, signUpWithNewWorkbook, type TestBrowser } from './helpers/browser.js';
-import { startServer, type TestServer } from './helpers/server.js';
+import { screenshot, signUpWithNewWorkbook, type TestBrowser } from './helpers/browser.js';
+import type { TestServer } from './helpers/server.js';
+import { browserSuite, gridHands } from './helpers/browserSuite.js';
 
 let server: TestServer;
 let browser: TestBrowser;
 let page: Page;
-
-beforeAll(async () => {
-  server = await startServer();
-  browser = await launchBrowser();
-  page = browser.page;
-  page.setDefaultTimeout(15_000);
-}, 120_000);
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.stop();
-});
+browserSuite((s) => ({ server, browser, page } = s));
 
 it('starts from a sheet of four species and a bond order', async () => {
   await signUpWithNewWorkbook(page, server.url, { name: 'Noor Haddad', email: 'noor@lab.example', password: 'pi-star-antibonding' }, 'Habits');
@@ -39,19 +29,11 @@ it('starts from a sheet of four species and a bond order', async () => {
   await expectCell('B1', '2');
 }, 60_000);
 
-const cell = (a1: string) => gridCell(page, a1);
+const { cell, clickCell, expectCell } = gridHands(() => page);
 const address = () => page.getByLabel('Cell address').inputValue();
 const editorOpen = () => page.locator('.orb-cell-input').count();
 
-async function expectCell(a1: string, text: string) {
-  await expect.poll(async () => (await cell(a1))?.text, { timeout: 10_000, message: `cell ${a1}` }).toBe(text);
-}
 
-async function clickCell(a1: string, clickCount = 1) {
-  const c = await cell(a1);
-  if (!c) throw new Error(`cell ${a1} is not on screen`);
-  await page.mouse.click(c.x, c.y, { clickCount });
-}
 
 describe('editing habits', () => {
   it('F2 opens the cell with the caret at the end, so typing adds to the formula', async () => {
@@ -63,7 +45,7 @@ describe('editing habits', () => {
   });
 
   it('a double-click opens the cell with the caret at the end too', async () => {
-    await clickCell('B1', 2);
+    await clickCell('B1', { clickCount: 2 });
     await expect.poll(editorOpen).toBe(1);
     await page.keyboard.type('+1');
     await page.keyboard.press('Enter');

@@ -2,39 +2,21 @@
 // right-click for cells, row numbers, column letters and sheet tabs with the toolbar's actions;
 // adding the sheets of a file to the open workbook; and a jump to a cell that leaves it in full view
 // beside the row numbers.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { gridCell, launchBrowser, screenshot, signUpWithNewWorkbook, type TestBrowser } from './helpers/browser.js';
-import { startServer, type TestServer } from './helpers/server.js';
+import { screenshot, signUpWithNewWorkbook, type TestBrowser } from './helpers/browser.js';
+import type { TestServer } from './helpers/server.js';
+import { browserSuite, gridHands } from './helpers/browserSuite.js';
 
 let server: TestServer;
 let browser: TestBrowser;
 let page: Page;
+browserSuite((s) => ({ server, browser, page } = s));
 
-beforeAll(async () => {
-  server = await startServer();
-  browser = await launchBrowser();
-  page = browser.page;
-  page.setDefaultTimeout(15_000);
-}, 120_000);
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.stop();
-});
-
-const cell = (a1: string) => gridCell(page, a1);
+const { cell, clickCell, expectCell } = gridHands(() => page);
 const address = () => page.getByLabel('Cell address').inputValue();
 
-async function clickCell(a1: string, button: 'left' | 'right' = 'left') {
-  const c = await cell(a1);
-  if (!c) throw new Error(`cell ${a1} is not on screen`);
-  await page.mouse.click(c.x, c.y, { button });
-}
 
-async function expectCell(a1: string, text: string) {
-  await expect.poll(async () => (await cell(a1))?.text, { timeout: 10_000, message: `cell ${a1}` }).toBe(text);
-}
 
 async function jump(to: string) {
   await page.getByLabel('Cell address').click();
@@ -71,7 +53,7 @@ describe('a jump to a cell', () => {
 
 describe('right-click menus', () => {
   it('a cell’s menu inserts a row above with the toolbar’s command', async () => {
-    await clickCell('A2', 'right');
+    await clickCell('A2', { button: 'right' });
     const menu = page.getByRole('menu', { name: 'Cell actions' });
     await menu.waitFor();
     await screenshot(page, 'grid-cell-menu');
@@ -102,7 +84,7 @@ describe('right-click menus', () => {
   });
 
   it('Esc closes a menu without doing anything', async () => {
-    await clickCell('A1', 'right');
+    await clickCell('A1', { button: 'right' });
     await page.getByRole('menu', { name: 'Cell actions' }).waitFor();
     await page.keyboard.press('Escape');
     await expect.poll(() => page.getByRole('menu').count()).toBe(0);

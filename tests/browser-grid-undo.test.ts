@@ -3,38 +3,19 @@
 // a header row and undo, and a column delete undone. Each step reads the stored cells back through
 // GET /api/workbooks/:id. Bond orders from MO theory: O2 2, N2 3, F2 1, CO 3 (Atkins & de Paula,
 // Physical Chemistry, MO theory of diatomics; recalled from memory).
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { cellName } from '../shared/a1.js';
-import { gridCell, launchBrowser, screenshot, signUpWithNewWorkbook, type TestBrowser } from './helpers/browser.js';
-import { startServer, type TestServer } from './helpers/server.js';
+import { screenshot, signUpWithNewWorkbook, type TestBrowser } from './helpers/browser.js';
+import type { TestServer } from './helpers/server.js';
+import { browserSuite, gridHands } from './helpers/browserSuite.js';
 
 let server: TestServer;
 let browser: TestBrowser;
 let page: Page;
+browserSuite((s) => ({ server, browser, page } = s), { permissions: ['clipboard-read', 'clipboard-write'] });
 
-beforeAll(async () => {
-  server = await startServer();
-  browser = await launchBrowser();
-  page = browser.page;
-  page.setDefaultTimeout(15_000);
-  await browser.context.grantPermissions(['clipboard-read', 'clipboard-write'], { origin: server.url });
-}, 120_000);
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.stop();
-});
-
-const cell = (a1: string) => gridCell(page, a1);
-
-async function clickCell(a1: string, modifiers: ('Shift' | 'Control')[] = []) {
-  const c = await cell(a1);
-  if (!c) throw new Error(`cell ${a1} is not on screen`);
-  for (const m of modifiers) await page.keyboard.down(m);
-  await page.mouse.click(c.x, c.y);
-  for (const m of modifiers) await page.keyboard.up(m);
-}
+const { cell, clickCell, expectCell } = gridHands(() => page);
 
 async function selectBlock(start: string, keys: string[], range: string) {
   await clickCell(start);
@@ -101,7 +82,7 @@ describe('undo per action, with the server checked after each step', () => {
   it('deleting a block is one revision, and one undo brings every row back', async () => {
     const before = await revision();
     await clickCell('A2');
-    await clickCell('B4', ['Shift']);
+    await clickCell('B4', { modifiers: ['Shift'] });
     await page.keyboard.press('Delete');
     await expectShown({ A2: '', B3: '', A4: '' });
     await expectStored({ A1: 'Species', B1: 'Bond order' });

@@ -1,10 +1,11 @@
 // The formula bar: the address of the cell in focus (type an address to jump), its input (edit it
 // here as well as in the cell), and, for an error or a read-only cell, the reason in plain words.
-import { useEffect, useImperativeHandle, useRef, useState, type Ref } from 'react';
+import { useEffect, useImperativeHandle, useRef, useState, type KeyboardEvent, type Ref } from 'react';
 import type { CellView } from '../../../core/workbook/model/cellView.js';
 import { acceptsReference, closeBrackets } from '@functions/formulaShape.js';
 import { FunctionSuggestions, useFunctionSuggestions } from './FunctionSuggestions.js';
 import { ArgumentHint } from './ArgumentHint.js';
+import { followDrag } from './SheetCell.js';
 
 export interface FormulaBarProps {
   address: string;
@@ -20,6 +21,9 @@ export interface FormulaBarProps {
   onGoTo: (address: string) => boolean;
   /** The A1 name of a grid cell (view row, column): a click on one while a formula waits for a reference inserts it. */
   refFor?: (viewRow: number, col: number) => string;
+  /** Where arrow keys start pointing from (the cell in focus, as a view row) and the grid's size. */
+  pointFrom?: { viewRow: number; col: number } | null;
+  extent?: () => { rows: number; cols: number };
   /** Lets the keyboard open the bar for the cell in focus (the frozen header row is edited here). */
   barRef?: Ref<FormulaBarHandle>;
 }
@@ -28,6 +32,9 @@ export interface FormulaBarHandle {
   /** Focuses the bar: with a typed character it replaces the input, without one the caret goes to the end. */
   edit(typed?: string): void;
 }
+
+type Cell = { row: number; col: number };
+const ARROWS: Record<string, [number, number]> = { ArrowUp: [-1, 0], ArrowDown: [1, 0], ArrowLeft: [0, -1], ArrowRight: [0, 1] };
 
 export function FormulaBar(p: FormulaBarProps) {
   const [draft, setDraft] = useState<string | null>(null);
@@ -47,31 +54,63 @@ export function FormulaBar(p: FormulaBarProps) {
     },
   }));
 
-  // Point mode in the bar: a click on a grid cell while the formula waits for a reference inserts
-  // it (window, capture phase: before the grid would take the click and the bar lose focus).
-  const pointed = useRef<{ start: number; end: number } | null>(null);
+  // Point mode in the bar: while the formula waits for a reference, a click on a grid cell or an
+  // arrow key inserts one (Shift extends it to a range from where pointing began); the next click or
+  // arrow replaces the reference just inserted.
+  const pointed = useRef<{ start: number; end: number; anchor: Cell; cell: Cell } | null>(null);
   const refFor = p.refFor;
+  const pointable = (el: HTMLInputElement) => {
+    if (el.selectionStart !== el.selectionEnd) return false;
+    const at = el.selectionStart ?? el.value.length;
+    return (pointed.current !== null && pointed.current.end === at) || acceptsReference(el.value, at);
+  };
+  const pointAt = (el: HTMLInputElement, cell: Cell, extend: boolean) => {
+    if (!refFor) return;
+    const at = el.selectionStart ?? el.value.length;
+    const last = pointed.current && pointed.current.end === at ? pointed.current : null;
+    const start = last ? last.start : at;
+    const anchor = extend && last ? last.anchor : cell;
+    const ref =
+      anchor.row === cell.row && anchor.col === cell.col
+        ? refFor(cell.row, cell.col)
+        : `${refFor(Math.min(anchor.row, cell.row), Math.min(anchor.col, cell.col))}:${refFor(Math.max(anchor.row, cell.row), Math.max(anchor.col, cell.col))}`;
+    const next = el.value.slice(0, start) + ref + el.value.slice(last ? last.end : at);
+    pointed.current = { start, end: start + ref.length, anchor, cell };
+    // Set on the field at once as well: a drag or a held arrow may point again before React renders.
+    el.value = next;
+    el.setSelectionRange(start + ref.length, start + ref.length);
+    setDraft(next);
+    setCaret(start + ref.length);
+    // Again after React's render, unless keys typed since have moved on: put back then, the caret
+    // would jump before them (a ')' typed at once would land inside the reference's bracket).
+    requestAnimationFrame(() => {
+      if (el.value === next) el.setSelectionRange(start + ref.length, start + ref.length);
+    });
+  };
   useEffect(() => {
     if (draft === null || !refFor) return;
     const mousedown = (e: MouseEvent) => {
       const el = field.current;
       const target = e.target instanceof HTMLElement ? e.target.closest<HTMLElement>('[data-view-row]') : null;
-      if (!el || !target || e.button !== 0 || document.activeElement !== el) return;
-      const at = el.selectionStart ?? el.value.length;
-      const last = pointed.current && pointed.current.end === at ? pointed.current : null;
-      if (!last && !acceptsReference(el.value, at)) return;
+      if (!el || !target || e.button !== 0 || document.activeElement !== el || !pointable(el)) return;
       e.preventDefault();
       e.stopPropagation();
-      const ref = refFor(Number(target.dataset.viewRow), Number(target.dataset.col));
-      const start = last ? last.start : at;
-      const next = el.value.slice(0, start) + ref + el.value.slice(last ? last.end : at);
-      pointed.current = { start, end: start + ref.length };
-      setDraft(next);
-      requestAnimationFrame(() => el.setSelectionRange(start + ref.length, start + ref.length));
+      pointAt(el, { row: Number(target.dataset.viewRow), col: Number(target.dataset.col) }, e.shiftKey);
+      followDrag((over) => pointAt(el, over, true));
     };
     window.addEventListener('mousedown', mousedown, true);
     return () => window.removeEventListener('mousedown', mousedown, true);
-  }, [draft, refFor]);
+  });
+  const arrowPoint = (e: KeyboardEvent<HTMLInputElement>): boolean => {
+    const step = ARROWS[e.key];
+    const el = e.currentTarget;
+    if (!step || e.ctrlKey || e.metaKey || e.altKey || draft === null || !p.pointFrom || !p.extent || !pointable(el)) return false;
+    e.preventDefault();
+    const from = pointed.current && pointed.current.end === el.selectionStart ? pointed.current.cell : { row: p.pointFrom.viewRow, col: p.pointFrom.col };
+    const { rows, cols } = p.extent();
+    pointAt(el, { row: Math.max(0, Math.min(rows - 1, from.row + step[0])), col: Math.max(0, Math.min(cols - 1, from.col + step[1])) }, e.shiftKey);
+    return true;
+  };
 
   const problem = p.view?.kind === 'error' ? `${p.view.errorCode} ${p.view.errorMessage}` : null;
   return (
@@ -134,14 +173,17 @@ export function FormulaBar(p: FormulaBarProps) {
           onBlur={() => setDraft(null)}
           onKeyDown={(e) => {
             if (suggestions.handleKey(e, setDraft)) return;
+            if (arrowPoint(e)) return;
             if (e.key === 'Enter') {
               e.preventDefault();
               if (draft !== null && closeBrackets(draft) !== p.input) p.onCommit(closeBrackets(draft));
               else p.onCancel();
               setDraft(null);
+              e.currentTarget.blur(); // the keyboard goes back to the grid
             } else if (e.key === 'Escape') {
               e.preventDefault();
               setDraft(null);
+              e.currentTarget.blur();
               p.onCancel();
             }
           }}

@@ -123,6 +123,7 @@ function CellEditor({ rowData, setRowData, columnData, rowIndex, columnIndex }: 
       e.preventDefault(); // the caret stays in the editor
       e.stopPropagation();
       pointAt(cell, e.shiftKey);
+      followDrag((over) => pointAt(over, true));
     };
     window.addEventListener('mousedown', mousedown, true);
     return () => window.removeEventListener('mousedown', mousedown, true);
@@ -159,6 +160,29 @@ function CellEditor({ rowData, setRowData, columnData, rowIndex, columnIndex }: 
       <ArgumentHint text={text} caret={caret} anchor={input} hidden={suggestions.items.length > 0} />
     </>
   );
+}
+
+/**
+ * While the button that pointed at a cell stays down, dragging over other cells makes the reference
+ * a range from the first one (the grid's own drag selection never starts: its mousedown was taken).
+ */
+export function followDrag(extendTo: (cell: { row: number; col: number }) => void) {
+  let last = '';
+  const move = (e: MouseEvent) => {
+    const target = e.target instanceof HTMLElement ? e.target.closest<HTMLElement>('[data-view-row]') : null;
+    if (!target) return;
+    e.preventDefault();
+    const key = `${target.dataset.viewRow}:${target.dataset.col}`;
+    if (key === last) return;
+    last = key;
+    extendTo({ row: Number(target.dataset.viewRow), col: Number(target.dataset.col) });
+  };
+  const up = () => {
+    window.removeEventListener('mousemove', move, true);
+    window.removeEventListener('mouseup', up, true);
+  };
+  window.addEventListener('mousemove', move, true);
+  window.addEventListener('mouseup', up, true);
 }
 
 function SheetCellImpl(props: SheetCellProps) {
