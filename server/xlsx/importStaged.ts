@@ -20,7 +20,8 @@ import type { CellTriple, ImportSummary, ParsedWorkbook } from './types.js';
 
 /** The title of a staging workbook; with no members it is what the start-up sweep removes. */
 export const stagingTitle = 'Import in progress';
-const CELLS_PER_STEP = 8_192;
+/** Cells stored per transaction when a read sheet is stored whole (a CSV, say), a turn of the event loop between. */
+const CELLS_PER_STEP = 2_048;
 
 const turn = () => new Promise<void>((resolve) => setImmediate(resolve));
 
