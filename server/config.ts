@@ -4,6 +4,8 @@ import { resolveLogLevel, type LogLevel } from './logging.js';
 
 const envSchema = z.object({
   PORT: z.coerce.number().int().min(0).max(65535).default(3000),
+  /** The address to listen on: loopback unless the operator opens it to the network on purpose. */
+  HOST: z.string().trim().min(1).default('127.0.0.1'),
   DATABASE_PATH: z.string().min(1).default('data/orbitab.sqlite'),
   SMTP_URL: z.string().url().optional(),
   /** The From of Orbitab's e-mail; a real relay usually accepts only its own domain's addresses. */
@@ -17,6 +19,8 @@ const envSchema = z.object({
 
 export interface AppConfig {
   port: number;
+  /** The listening address (HOST, default 127.0.0.1: only this machine can connect). */
+  host: string;
   databasePath: string;
   smtpUrl?: string;
   mailFrom?: string;
@@ -47,6 +51,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
   const e = parsed.data;
   return {
     port: e.PORT,
+    host: e.HOST,
     databasePath: e.DATABASE_PATH,
     smtpUrl: e.SMTP_URL,
     mailFrom: e.MAIL_FROM,
@@ -64,4 +69,10 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
 /** An absolute link into the app for e-mail: always from the configured origin, never from a request. */
 export function publicLink(config: Pick<AppConfig, 'origin'>, path: string): string {
   return `${config.origin.replace(/\/+$/, '')}${path}`;
+}
+
+/** Whether a listening address reaches only this machine (127.0.0.0/8, ::1, localhost). */
+export function isLoopbackHost(host: string): boolean {
+  const h = host.replace(/^\[|\]$/g, '').toLowerCase();
+  return h === 'localhost' || h === '::1' || /^127\.\d{1,3}\.\d{1,3}\.\d{1,3}$/.test(h) || h === '::ffff:127.0.0.1';
 }

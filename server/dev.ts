@@ -13,4 +13,4 @@ const vite = await createViteServer({ server: { middlewareMode: true }, appType:
 const app = express();
 app.use(api);
 app.use(vite.middlewares);
-app.listen(config.port, () => console.log(`Orbitab (dev) on http://localhost:${config.port}`));
+app.listen(config.port, config.host, () => console.log(`Orbitab (dev) on http://localhost:${config.port}`));

@@ -3,9 +3,9 @@
 import fs from 'node:fs';
 import type { AddressInfo } from 'node:net';
 import { createApp } from './app.js';
-import { loadConfig } from './config.js';
+import { isLoopbackHost, loadConfig } from './config.js';
 import { openDatabase } from './db/index.js';
-import { seedBanner, seedOnFirstStart } from './seed/index.js';
+import { demoAccountsWithPublicPasswords, seedBanner, seedOnFirstStart } from './seed/index.js';
 import { beginShutdown } from './services/shutdown.js';
 import { sweepStagedImports } from './xlsx/importStaged.js';
 import { warmParsePool } from './xlsx/parseInWorker.js';
@@ -29,17 +29,35 @@ if (!fs.existsSync(config.clientDir)) {
   log.warn({ clientDir: config.clientDir }, 'no built client; run `vite build` (npm start does) — serving the API only');
 }
 
-const server = app.listen(config.port);
+// HOST defaults to loopback. Opened to the network while a demo account still has its public
+// password, anyone who can reach the port signs in as that account: say so loudly, every start.
+if (!isLoopbackHost(config.host)) {
+  const open = await demoAccountsWithPublicPasswords(ctx);
+  if (open.length > 0) {
+    console.error(
+      [
+        '!!! WARNING: Orbitab listens on ' + config.host + ', reachable from other machines, and these demo accounts',
+        '!!! still sign in with the public passwords printed in the README: ' + open.join(', ') + '.',
+        '!!! Change or disable them (Account page, or the admin page), or start on a new database with ORBITAB_SEED=0,',
+        '!!! or listen on this machine only (unset HOST, or HOST=127.0.0.1).',
+      ].join('\n'),
+    );
+    log.warn({ host: config.host, demoAccounts: open }, 'listening beyond loopback with public demo passwords');
+  }
+}
+
+const server = app.listen(config.port, config.host);
 server.on('listening', () => {
   const { port } = server.address() as AddressInfo;
   // PORT=0 lets the OS choose; the default public origin names the port actually taken.
   if (!config.originConfigured) config.origin = `http://localhost:${port}`;
-  log.info({ port, databasePath: config.databasePath }, 'listening');
+  log.info({ host: config.host, port, databasePath: config.databasePath }, 'listening');
   // Plain line for the person who ran `npm start` (and for scripts that start us on PORT=0).
-  console.log(`Orbitab is serving on http://localhost:${port}`);
+  console.log(`Orbitab is serving on http://localhost:${port}` + (isLoopbackHost(config.host) ? ' (this machine only; set HOST=0.0.0.0 to open it to the network)' : ` (listening on ${config.host})`));
 });
 server.on('error', (err: NodeJS.ErrnoException) => {
-  const reason = err.code === 'EADDRINUSE' ? `port ${config.port} is already in use; set PORT to another` : err.message;
+  const reason =
+    err.code === 'EADDRINUSE' ? `port ${config.port} is already in use; set PORT to another` : err.code === 'EADDRNOTAVAIL' ? `HOST ${config.host} is not an address of this machine` : err.message;
   console.error(`Orbitab could not start: ${reason}`);
   db.$client.close();
   process.exit(1);

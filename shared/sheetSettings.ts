@@ -5,6 +5,7 @@
 // nothing a user can make by importing or in the grid is refused.
 import { z } from 'zod';
 import { maxColIndex, maxRowIndex, parseRangeName, rangeArea, rangeName } from './a1.js';
+import { chartSpecSchema } from './chartSpec.js';
 
 /** Column widths, frozen rows, number precision… kept small so a sheet row stays cheap to load. */
 export const maxSheetSettingsBytes = 16_384;
@@ -56,6 +57,7 @@ export const sheetSettingsSchema: z.ZodType<SheetSettings> = z
         }
       })
       .optional(),
+    chart: chartSpecSchema.optional(),
   })
   // Fields a later version adds ride along as plain JSON.
   .catchall(z.json())

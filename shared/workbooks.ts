@@ -227,6 +227,8 @@ export interface RevisionPatch {
   changes: CellChangeRecord[];
   /** For a restore: the revision whose state it brought back. */
   restoredFrom?: number;
+  /** For a restore of one sheet: that sheet (the others were left as they were). */
+  restoredSheetId?: string;
 }
 
 export interface RevisionSummary {
@@ -237,7 +239,31 @@ export interface RevisionSummary {
   createdAt: number;
   /** Cell changes plus sheet operations. */
   changeCount: number;
+  /** What the revision did, for the change log: its first few cell changes and tab operations. */
+  preview: RevisionPreview;
 }
+
+/** The first cell changes and tab operations of a revision (the rest are counted, not listed). */
+export interface RevisionPreview {
+  cells: CellChangeRecord[];
+  cellCount: number;
+  sheetOps: SheetOpPreview[];
+  sheetOpCount: number;
+  restoredFrom?: number;
+  restoredSheetId?: string;
+}
+
+/** A tab operation without the cells an add or delete carries. */
+export type SheetOpPreview =
+  | { op: 'add' | 'delete'; sheetId: string; name: string }
+  | { op: 'rename'; sheetId: string; before: string; after: string }
+  | { op: 'move'; sheetId: string; from: number; to: number }
+  | { op: 'settings'; sheetId: string; before: SheetSettings; after: SheetSettings };
+
+/** POST /api/workbooks/:id/revisions/:n/restore — the whole workbook, or one sheet of it. */
+export const restoreBodySchema = z
+  .object({ sheetId: z.string('must be a sheet id').min(1, 'must be a sheet id').max(64, 'must be a sheet id').optional() })
+  .strict();
 
 export interface RevisionDetail extends RevisionSummary {
   patch: RevisionPatch;

@@ -1,7 +1,8 @@
 // Typing formulas the way the hands expect, in Debian Chromium against the real server: a click or
 // an arrow while a formula waits for a reference inserts that cell (point mode), brackets left open
-// are closed on commit, an argument hint names the current parameter with its unit and choices, and
-// a formula that cannot be read says in plain words where. Bond order of O2 2 and its two unpaired
+// are closed on commit, keys typed right after a completion or a pointed cell stay in place, an
+// argument hint names the current parameter with its unit and choices, and a formula that cannot be
+// read says in plain words where. Bond order of O2 2 and its two unpaired
 // electrons (Atkins & de Paula, Physical Chemistry, MO theory of diatomics; recalled from memory).
 import { describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
@@ -123,6 +124,77 @@ describe('point mode', () => {
     await page.keyboard.press('ArrowDown');
     await expectCell('D1', '2');
     await expect.poll(() => page.getByLabel('Cell address').inputValue()).toBe('D2');
+  });
+});
+
+// A busy page (the rows of a large sheet loading in slices, the side panel laying out) may paint its
+// next frame only after the next keys have been typed. The completion's caret must not wait for that
+// frame: placed late, it jumped back before the typed characters (=UNPAIRED(1)A, unreadable).
+async function holdFrames() {
+  await page.evaluate(() => {
+    const w = window as unknown as { heldFrames: FrameRequestCallback[]; releaseFrames: () => void };
+    const real = window.requestAnimationFrame.bind(window);
+    w.heldFrames = [];
+    window.requestAnimationFrame = (cb) => (w.heldFrames.push(cb), 0);
+    w.releaseFrames = () => {
+      window.requestAnimationFrame = real;
+      for (const cb of w.heldFrames.splice(0)) cb(performance.now());
+    };
+  });
+}
+const releaseFrames = () => page.evaluate(() => (window as unknown as { releaseFrames: () => void }).releaseFrames());
+
+describe('completing a function name', () => {
+  it('keeps what is typed after Tab in place even when the next frame comes late', async () => {
+    await clickCell('G1');
+    await page.keyboard.type('=UNP');
+    await page.getByRole('listbox', { name: 'Functions' }).getByRole('option', { name: /UNPAIRED/ }).waitFor();
+    await holdFrames();
+    try {
+      await page.keyboard.press('Tab');
+      await page.keyboard.type('A');
+    } finally {
+      await releaseFrames();
+    }
+    await page.keyboard.type('1)');
+    await expect.poll(editorText).toBe('=UNPAIRED(A1)');
+    await page.keyboard.press('Enter');
+    await expectCell('G1', '2');
+  });
+
+  it('in the formula bar too', async () => {
+    await clickCell('G2');
+    await page.getByLabel('Formula bar').click();
+    await page.keyboard.type('=UNP');
+    await page.getByRole('listbox', { name: 'Functions' }).getByRole('option', { name: /UNPAIRED/ }).waitFor();
+    await holdFrames();
+    try {
+      await page.keyboard.press('Tab');
+      await page.keyboard.type('A');
+    } finally {
+      await releaseFrames();
+    }
+    await page.keyboard.type('1)');
+    await expect.poll(() => page.getByLabel('Formula bar').inputValue()).toBe('=UNPAIRED(A1)');
+    await page.keyboard.press('Enter');
+    await expectCell('G2', '2');
+  });
+
+  it('and after a cell pointed at in the formula bar', async () => {
+    await clickCell('G3');
+    await page.getByLabel('Formula bar').click();
+    await page.keyboard.type('=BONDORDER(');
+    await holdFrames();
+    try {
+      await clickCell('A1');
+      await page.keyboard.type(')');
+    } finally {
+      await releaseFrames();
+    }
+    await page.keyboard.type('*2');
+    await expect.poll(() => page.getByLabel('Formula bar').inputValue()).toBe('=BONDORDER(A1)*2');
+    await page.keyboard.press('Enter');
+    await expectCell('G3', '4');
   });
 });
 

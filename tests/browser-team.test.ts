@@ -253,7 +253,7 @@ describe('two people on one workbook', () => {
     await typeInto(b, 'D7', 'O2-');
     expect(await cell(b, 'D7').textContent()).toBe('');
     expect(await b.getByLabel('Formula bar').isDisabled()).toBe(true);
-    await expect(b.getByRole('button', { name: 'History' }).isVisible()).resolves.toBe(true);
+    await expect(b.getByRole('button', { name: 'Change log' }).isVisible()).resolves.toBe(true);
     await expect(b.getByRole('button', { name: 'Export' }).isVisible()).resolves.toBe(true); // viewers export too
     await screenshot(b, 'team-viewer-read-only');
   });
@@ -302,20 +302,18 @@ describe('two people on one workbook', () => {
     await a.getByRole('tab', { name: 'Screen1', exact: true }).click();
   });
 
-  it('lists revisions with author and time, shows an old one read-only, and restores it for everyone', async () => {
-    await a.getByRole('button', { name: 'History' }).click();
-    const dialog = a.getByRole('dialog', { name: 'History' });
-    const revisions = dialog.getByRole('list', { name: 'Revisions' });
-    await revisions.getByRole('button', { name: 'Revision 1' }).waitFor();
-    expect(await revisions.getByRole('button', { name: 'Revision 2' }).textContent()).toContain('Ada Okafor');
-    await revisions.getByRole('button', { name: 'Revision 1' }).click();
-    const table = dialog.getByRole('table', { name: 'Screen1 as of this revision (read-only)' });
-    await table.getByRole('cell', { name: 'N2', exact: true }).waitFor();
-    expect(await table.getByRole('cell', { name: '3', exact: true }).count()).toBe(1);
+  it('lists changes with author, time and cells before → after, and brings the workbook back for everyone', async () => {
+    await a.getByRole('button', { name: 'Change log' }).click();
+    const dialog = a.getByRole('dialog', { name: 'Change log' });
+    const changes = dialog.getByRole('list', { name: 'Changes' });
+    await changes.getByRole('listitem', { name: 'Change #1', exact: true }).waitFor();
+    expect(await changes.getByRole('listitem', { name: 'Change #2', exact: true }).textContent()).toContain('Ada Okafor');
+    const first = changes.getByRole('listitem', { name: 'Change #1', exact: true });
+    expect(await first.getByRole('table').textContent()).toContain('A2(empty)→N2');
     await screenshot(a, 'team-history-view');
-    await dialog.getByRole('button', { name: 'Restore this revision…' }).click();
-    await dialog.getByRole('button', { name: 'Restore #1' }).click();
-    await dialog.getByText(/Restored as revision #\d+/).waitFor();
+    await first.getByRole('button', { name: 'Bring back the whole workbook…' }).click();
+    await dialog.getByRole('button', { name: 'Bring it back' }).click();
+    await dialog.getByText(/Brought back as entry #\d+/).waitFor();
     await dialog.getByRole('button', { name: 'Close' }).click();
     await cell(b, 'A2').getByText('N2', { exact: true }).waitFor();
     await cell(a, 'A2').getByText('N2', { exact: true }).waitFor();

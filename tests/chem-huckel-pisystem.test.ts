@@ -78,10 +78,16 @@ describe('heteroatoms join only through a p orbital on the conjugated system', (
     expect(() => buildHuckelMatrix(system, 'streitwieser')).toThrow('no Hückel parameters for O⁻ with 2 π electrons (atom 1) in either published set');
   });
 
-  it('asks for Van-Catledge where Streitwieser has no value (thiophene S, N–N bonds)', () => {
-    expect(() => buildHuckelMatrix(pi('c1ccsc1'), 'streitwieser')).toThrow(
-      'the streitwieser parameter set has no value for thiophene-type S (2 π electrons) (atom 4) — try "van-catledge"',
-    );
+  it('gives the default set Van-Catledge\'s sulfur, which Streitwieser\'s table lacks (thiophene)', () => {
+    // Van-Catledge, J. Org. Chem. 45, 4801 (1980), Table I as commonly reproduced: h_S = 1.11, k_CS = 0.69 (thiophene-type S).
+    const m = buildHuckelMatrix(pi('c1ccsc1'), 'streitwieser');
+    expect(m[3][3]).toBe(1.11);
+    expect(m[2][3]).toBe(0.69);
+    // Carbon is α and β in both tables, so thiophene's matrix is the same in either set.
+    expect(m).toEqual(buildHuckelMatrix(pi('c1ccsc1'), 'van-catledge'));
+  });
+
+  it('asks for Van-Catledge where Streitwieser has no value (N–N bonds)', () => {
     expect(() => buildHuckelMatrix(pi('c1ccnnc1'), 'streitwieser')).toThrow('no k for a N1–N1 bond (atoms 4–5); it gives k only for bonds to carbon');
     expect(buildHuckelMatrix(pi('c1ccnnc1'), 'van-catledge')[3][4]).toBe(1.09);
   });

@@ -11,7 +11,6 @@ import { settleConflicts } from '../src/features/live/settleConflicts.js';
 import { applyRemoteRevision, type RemoteRevision } from '../src/features/live/remoteRevision.js';
 import { addSetAside, loadSetAside, maxSetAside, saveSetAside } from '../src/features/live/setAside.js';
 import { cellAddress as cellAddressOf } from '../shared/a1.js';
-import { snapshotSheets } from '../src/features/history/snapshotValues.js';
 import { describeAudit } from '../src/features/audit/describeAudit.js';
 import { memoryStorage, session } from './helpers/workbookSession.js';
 import { twoAnalysts } from './helpers/liveSession.js';
@@ -138,28 +137,6 @@ describe('no silent overwrite of a colleague’s input (a real server, live even
     expect(cells).toContainEqual([5, 0, 'F2']);
     w.deliverLiveEvents();
     expect(cells.map(([row, col, input]) => w.model.input(w.sheetId, row, col) === input)).not.toContain(false);
-  });
-});
-
-describe('the workbook as of a revision', () => {
-  it('computes the values of that revision’s inputs, read-only, across sheets (O2 has two unpaired electrons: Atkins & de Paula, Physical Chemistry, MO theory of O2; from memory)', () => {
-    const [first, second] = snapshotSheets({
-      revision: 3,
-      sheets: [
-        { id: 's2', name: 'Notes', position: 1, settings: {}, cells: [[0, 0, '=Sheet1!B1*10']] },
-        { id: 's1', name: 'Sheet1', position: 0, settings: {}, cells: [[0, 0, 'O2'], [0, 1, '=UNPAIRED(A1)']] },
-      ],
-    });
-    expect(first.name).toBe('Sheet1');
-    expect(first.cells[0][1]?.display).toBe('2');
-    expect(second.cells[0][0]?.display).toBe('20');
-  });
-
-  it('shows only the first block of a long sheet and says how much there is', () => {
-    const cells: [number, number, string][] = Array.from({ length: 500 }, (_, i) => [i, 0, String(i)]);
-    const [sheet] = snapshotSheets({ revision: 1, sheets: [{ id: 's1', name: 'Long', position: 0, settings: {}, cells }] }, 300, 40);
-    expect(sheet.cells).toHaveLength(300);
-    expect(sheet.usedRows).toBe(500);
   });
 });
 

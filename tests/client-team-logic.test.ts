@@ -139,6 +139,40 @@ describe('a colleague’s revision arriving over the live stream', () => {
   });
 });
 
+describe('display settings of mine on their way to the server', () => {
+  const settingsOp = (after: Record<string, unknown>) => ({ op: 'settings', sheetId: 's1', before: {}, after });
+
+  it('are not put back by a settings revision that arrives while they wait (my previous save coming back)', () => {
+    const { model, queue } = session([[0, 0, 'N2']]);
+    const mine = { ...model.sheet('s1').display, precision: 2, freezeHeaderRow: true };
+    model.displaySaves.begin('s1');
+    model.setDisplay('s1', mine);
+    applyRemoteRevision(model, queue, rev(5, [], [settingsOp({ precision: null, freezeHeaderRow: false })]));
+    expect(model.sheet('s1').display.precision).toBe(2);
+    expect(model.sheet('s1').display.freezeHeaderRow).toBe(true);
+    expect(model.displaySaves.end('s1', 6)).toBeNull(); // my save (revision 6) came after it
+    expect(model.sheet('s1').display.precision).toBe(2);
+  });
+
+  it('give way to a colleague’s change the server took after my save', () => {
+    const { model, queue } = session([[0, 0, 'N2']]);
+    model.displaySaves.begin('s1');
+    model.displaySaves.begin('s1'); // a second save while the first is under way
+    applyRemoteRevision(model, queue, rev(7, [], [settingsOp({ precision: 4 })]));
+    expect(model.displaySaves.end('s1', 5)).toBeNull(); // one of mine still waits
+    expect(model.displaySaves.end('s1', 6)?.precision).toBe(4);
+    applyRemoteRevision(model, queue, rev(8, [], [settingsOp({ precision: 1 })]));
+    expect(model.sheet('s1').display.precision).toBe(1); // nothing of mine waiting: shown at once
+  });
+
+  it('leave the server’s settings on screen when my save failed', () => {
+    const { model, queue } = session([[0, 0, 'N2']]);
+    model.displaySaves.begin('s1');
+    applyRemoteRevision(model, queue, rev(5, [], [settingsOp({ precision: 3 })]));
+    expect(model.displaySaves.end('s1', null)?.precision).toBe(3);
+  });
+});
+
 describe('revisions in order, each once', () => {
   const make = (start: number, fetched: Record<number, RemoteRevision> = {}) => {
     const applied: number[] = [];

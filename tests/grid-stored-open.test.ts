@@ -89,4 +89,39 @@ describe('a workbook opened on its stored values', () => {
       model.dispose();
     }
   });
+
+  it('builds the engine from the first rows only, loads the rest in slices, and keeps an edit made to a row not yet loaded', () => {
+    const sent: CellInput[][] = [];
+    const model = new WorkbookModel(payload, { stored, firstRows: 1, onLocalChanges: (c) => sent.push(c) });
+    const reference = new WorkbookModel(payload);
+    try {
+      expect(model.view('s1', 0, 1)?.display).toBe('2'); // O2 bond order, stored, in the first build
+      expect(model.engine.getCellValue({ sheet: 0, row: 1, col: 0 })).toBeNull(); // row 2 not in the engine yet
+      model.edit([{ sheetId: 's1', row: 1, col: 0, input: 'F2' }]);
+      expect(sent).toEqual([[{ sheetId: 's1', row: 1, col: 0, input: 'F2' }]]);
+      while (!model.computeSlice(0));
+      reference.edit([{ sheetId: 's1', row: 1, col: 0, input: 'F2' }]);
+      expect(model.input('s1', 1, 0)).toBe('F2');
+      expect(shown(model)).toEqual(shown(reference));
+      expect(model.view('s1', 1, 1)?.display).toBe('1'); // F2: bond order 1 (any general chemistry text)
+      expect(model.view('s1', 4, 0)?.display).toBe('6'); // (2 + 1) × 2
+    } finally {
+      model.dispose();
+      reference.dispose();
+    }
+  });
+
+  it('shows each later row once it is loaded, before any formula is computed', () => {
+    const model = new WorkbookModel(payload, { stored, firstRows: 1 });
+    try {
+      expect(model.view('s1', 3, 0)).toBeUndefined(); // not loaded yet: shown empty, not as a wrong value
+      while (model.view('s1', 3, 0) === undefined) model.computeSlice(0);
+      expect(model.view('s1', 3, 0)?.errorCode).toBe('#DIV/0!'); // the stored error
+      expect(model.computing?.done).toBe(0);
+      model.ensureLive();
+      expect(model.view('s1', 4, 0)?.display).toBe('10'); // (2 + 3) × 2
+    } finally {
+      model.dispose();
+    }
+  });
 });

@@ -28,7 +28,7 @@ const params: ParamSpec = {
   type: 'string',
   optional: true,
   choices: ['streitwieser', 'van-catledge'],
-  description: 'Heteroatom parameter set for SMILES input: "streitwieser" when omitted, or "van-catledge". Not used with a matrix.',
+  description: 'Heteroatom parameter set for SMILES input: "streitwieser" when omitted (its S and P values are taken from Van-Catledge 1980, which Streitwieser\'s table lacks), or "van-catledge". Not used with a matrix.',
 };
 const electrons: ParamSpec = {
   name: 'electrons',

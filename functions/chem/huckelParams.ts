@@ -4,6 +4,9 @@
 // - "streitwieser" (default): A. Streitwieser, Jr., Molecular Orbital Theory for Organic Chemists
 //   (Wiley, 1961), Table 5-1 (p. 135), the "recommended" values. Transcribed from memory; they
 //   agree with the table as it is commonly reproduced. The set gives k only for bonds to carbon.
+//   Streitwieser's table has no sulfur or phosphorus, so for those centres (thione/thiophene S,
+//   phosphinine/phosphole P) and their bonds to carbon this set takes Van-Catledge's values below.
+//   Both tables put α_C = α and β_CC = β, so the borrowed h and k sit on the same scale.
 // - "van-catledge": F. A. Van-Catledge, "A Pariser-Parr-Pople-based set of Hückel molecular orbital
 //   parameters", J. Org. Chem. 45, 4801–4802 (1980), Table I: h_X and k_XY for every pair of the
 //   listed centre types. Values as commonly reproduced from that table (not checked against the
@@ -39,24 +42,6 @@ function table(entries: [CentreType, CentreType, number][]): Record<string, numb
   return Object.fromEntries(entries.map(([a, b, k]) => [pairKey(a, b), k]));
 }
 
-/** Streitwieser (1961), Table 5-1 — from memory, as commonly reproduced. */
-const STREITWIESER: ParameterSet = {
-  h: { C: 0, B: -1.0, N1: 0.5, N2: 1.5, 'N+': 2.0, O1: 1.0, O2: 2.0, 'O+': 2.5, F: 3.0, Cl: 2.0, Br: 1.5 },
-  k: table([
-    ['C', 'C', 1.0],
-    ['C', 'B', 0.7],
-    ['C', 'N1', 1.0],
-    ['C', 'N2', 0.8],
-    ['C', 'N+', 1.0],
-    ['C', 'O1', 1.0],
-    ['C', 'O2', 0.8],
-    ['C', 'O+', 1.0],
-    ['C', 'F', 0.7],
-    ['C', 'Cl', 0.4],
-    ['C', 'Br', 0.3],
-  ]),
-};
-
 /** Van-Catledge (1980), Table I — as commonly reproduced (no Br, N+ or O+ types in this set). */
 const VAN_CATLEDGE: ParameterSet = {
   h: { B: -0.45, C: 0, N1: 0.51, N2: 1.37, O1: 0.97, O2: 2.09, F: 2.71, Cl: 1.48, S1: 0.46, S2: 1.11, P1: 0.19, P2: 0.75 },
@@ -79,6 +64,32 @@ const VAN_CATLEDGE: ParameterSet = {
     ['P2', 'P2', 0.63], ['P2', 'S1', 0.65], ['P2', 'S2', 0.6],
     ['S1', 'S1', 0.68], ['S1', 'S2', 0.58], ['S2', 'S2', 0.63],
   ]),
+};
+
+/** Centre types Streitwieser's table lacks; the default set borrows Van-Catledge's values for them. */
+export const BORROWED_CENTRE_TYPES: readonly CentreType[] = ['S1', 'S2', 'P1', 'P2'];
+
+/** Streitwieser (1961), Table 5-1 — from memory, as commonly reproduced; S and P from Van-Catledge (1980). */
+const STREITWIESER_TABLE: ParameterSet = {
+  h: { C: 0, B: -1.0, N1: 0.5, N2: 1.5, 'N+': 2.0, O1: 1.0, O2: 2.0, 'O+': 2.5, F: 3.0, Cl: 2.0, Br: 1.5 },
+  k: table([
+    ['C', 'C', 1.0],
+    ['C', 'B', 0.7],
+    ['C', 'N1', 1.0],
+    ['C', 'N2', 0.8],
+    ['C', 'N+', 1.0],
+    ['C', 'O1', 1.0],
+    ['C', 'O2', 0.8],
+    ['C', 'O+', 1.0],
+    ['C', 'F', 0.7],
+    ['C', 'Cl', 0.4],
+    ['C', 'Br', 0.3],
+  ]),
+};
+
+const STREITWIESER: ParameterSet = {
+  h: { ...STREITWIESER_TABLE.h, ...Object.fromEntries(BORROWED_CENTRE_TYPES.map((t) => [t, VAN_CATLEDGE.h[t]])) },
+  k: { ...STREITWIESER_TABLE.k, ...Object.fromEntries(BORROWED_CENTRE_TYPES.map((t) => [pairKey('C', t), VAN_CATLEDGE.k[pairKey('C', t)]])) },
 };
 
 const SETS: Record<ParameterSetName, ParameterSet> = { streitwieser: STREITWIESER, 'van-catledge': VAN_CATLEDGE };

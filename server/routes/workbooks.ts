@@ -9,6 +9,7 @@ import {
   idSchema,
   patchSchema,
   renameWorkbookSchema,
+  restoreBodySchema,
   revisionListQuerySchema,
   updateSheetSchema,
 } from '../../shared/workbooks.js';
@@ -96,7 +97,8 @@ export function workbooksRouter(ctx: AppContext): Router {
 
   router.post('/:id/revisions/:n/restore', access('restore'), (req, res) => {
     const { n } = parse(revisionParams, req.params, 'params');
-    res.json(restoreRevision(ctx, accessOf(res).workbook.id, currentUser(res).id, n));
+    const { sheetId } = parse(restoreBodySchema, req.body ?? {}, 'body');
+    res.json(restoreRevision(ctx, accessOf(res).workbook.id, currentUser(res).id, n, sheetId));
   });
 
   router.get('/:id/values', access('view'), async (req, res) => {

@@ -5,7 +5,7 @@
 import type { User } from 'lucia';
 import { patchSchema } from '../../shared/workbooks.js';
 import { protectedRangeSchema, sheetLockSchema } from '../../shared/team.js';
-import { hashPassword } from '../auth/password.js';
+import { hashPassword, verifyPassword } from '../auth/password.js';
 import type { AppContext } from '../context.js';
 import { users } from '../db/schema.js';
 import { requireWorkbook } from '../services/access.js';
@@ -13,7 +13,7 @@ import { lockSheet, protectRange } from '../services/locks.js';
 import { addMember } from '../services/members.js';
 import { applyPatch } from '../services/patches.js';
 import { addSheet, updateSheet } from '../services/sheetStore.js';
-import { createUser, type UserRow } from '../services/users.js';
+import { createUser, findUserByEmail, type UserRow } from '../services/users.js';
 import { createWorkbook, loadWorkbook } from '../services/workbookStore.js';
 import { demoTeam } from './demoTeam.js';
 import { dyeCandidatesWorkbook } from './dyeCandidates.js';
@@ -88,4 +88,17 @@ export function seedBanner(result: SeedResult): string | null {
     ...result.people.map((p) => `  ${p.role.padEnd(6)}  ${p.email.padEnd(width)}  password: ${p.password}`),
     'These demo passwords are public (they are in the README); for real work start on a new database with ORBITAB_SEED=0.',
   ].join('\n');
+}
+
+/**
+ * The demo accounts that still sign in with the password printed in the README. Listening beyond
+ * this machine while any exist lets anyone on the network in as their owner.
+ */
+export async function demoAccountsWithPublicPasswords(ctx: AppContext): Promise<string[]> {
+  const open: string[] = [];
+  for (const person of demoTeam) {
+    const user = findUserByEmail(ctx.db, person.email);
+    if (user && !user.disabled && (await verifyPassword(user.passwordHash, person.password))) open.push(person.email);
+  }
+  return open;
 }

@@ -5,6 +5,9 @@
 // changes back to their `before`, sheet operations inverted). The inverted sheet operations are then
 // replayed on the database in the same order (so deleted tabs come back with their ids and names,
 // added ones go), and finally every cell that differs from the computed state is written.
+//
+// Restoring one sheet computes the same state but writes only that sheet's cells and settings: the
+// other tabs, and the tab list itself (names, order, added or removed tabs), stay as they are now.
 import type { CellChangeRecord, RevisionPatch, SheetOp, SheetSettings } from '../../shared/workbooks.js';
 import type { AppContext } from '../context.js';
 import { cellKey } from '../../shared/a1.js';
@@ -12,6 +15,7 @@ import { badRequest, notFound } from '../errors.js';
 import { sheetCells, writeCell, type Tx } from './cellStore.js';
 import { currentRevision, nextRevision, patchesAfter, recordRevision } from './revisionLog.js';
 import { recordAudit } from './audit.js';
+import type { SheetActor } from '../../shared/team.js';
 import { sheetActor } from './access.js';
 import { assertMayChangeSheet, assertMayEditCells } from './protection.js';
 import { applySheetOp, invertSheetOp, workbookSheets } from './sheetOps.js';
@@ -128,7 +132,7 @@ function cellDifferences(tx: Tx, sheet: ModelSheet): CellChangeRecord[] {
   return changes.sort((a, b) => a.row - b.row || a.col - b.col);
 }
 
-export function restoreRevision(ctx: AppContext, workbookId: string, authorId: string, target: number): { revision: number; changeCount: number } {
+export function restoreRevision(ctx: AppContext, workbookId: string, authorId: string, target: number, sheetId?: string): { revision: number; changeCount: number } {
   const result = ctx.db.transaction(
     (tx) => {
       const current = currentRevision(tx, workbookId);
@@ -142,6 +146,7 @@ export function restoreRevision(ctx: AppContext, workbookId: string, authorId: s
       // Decided with the author's role on each sheet: a restore that would change a sheet they only
       // view is refused whole, naming the sheet, rather than applied in part.
       const actor = sheetActor(tx, workbookId, authorId);
+      if (sheetId !== undefined) return restoreOneSheet(ctx, tx, workbookId, actor, target, model, sheetId, rewrittenOnly);
       const namesNow = new Map(workbookSheets(tx, workbookId).map((s) => [s.id, s.name]));
       for (const op of undoOps) {
         if (op.op !== 'add' && namesNow.has(op.sheetId)) assertMayChangeSheet(tx, workbookId, actor, op.sheetId, namesNow.get(op.sheetId)!, { deleting: op.op === 'delete' });
@@ -169,4 +174,29 @@ export function restoreRevision(ctx: AppContext, workbookId: string, authorId: s
   );
   ctx.events.publish(workbookId, { type: 'revision', workbookId, revision: result.revision, kind: 'restore', authorId, patch: result.patch });
   return { revision: result.revision, changeCount: result.patch.changes.length + result.patch.sheetOps.length };
+}
+
+/** One sheet back to its state in `model` (the workbook as of `target`); the rest is left alone. */
+function restoreOneSheet(ctx: AppContext, tx: Tx, workbookId: string, actor: SheetActor, target: number, model: Model, sheetId: string, rewrittenOnly: Set<string>): { revision: number; patch: RevisionPatch } {
+  const now = workbookSheets(tx, workbookId).find((s) => s.id === sheetId);
+  if (!now) throw notFound('sheet');
+  const then = model.sheets.get(sheetId);
+  if (!then) throw badRequest(`sheet “${now.name}” did not exist after revision ${target}; bring back the whole workbook instead`);
+  const differences = cellDifferences(tx, then);
+  const settingsChanged = JSON.stringify(now.settings) !== JSON.stringify(then.settings);
+  if (differences.length === 0 && !settingsChanged) throw badRequest(`sheet “${now.name}” is already as it was after revision ${target}; there is nothing to restore`);
+  const names = new Map(workbookSheets(tx, workbookId).map((s) => [s.id, s.name]));
+  const authorId = actor.id;
+  if (settingsChanged) assertMayChangeSheet(tx, workbookId, actor, sheetId, now.name);
+  assertMayEditCells(tx, workbookId, actor, differences.filter((c) => !rewrittenOnly.has(cellKey(c))), names);
+
+  const revision = nextRevision(tx, workbookId);
+  const rewrites: CellChangeRecord[] = [];
+  const sheetOps = settingsChanged ? [applySheetOp(tx, workbookId, { op: 'settings', sheetId, before: now.settings, after: then.settings }, revision, authorId, rewrites)] : [];
+  for (const c of differences) writeCell(ctx.db, c.sheetId, c.row, c.col, c.after, revision);
+  const changes = mergeChanges(rewrites, differences);
+  const patch: RevisionPatch = { sheetOps, changes, restoredFrom: target, restoredSheetId: sheetId };
+  recordRevision(tx, workbookId, revision, authorId, 'restore', patch);
+  recordAudit(tx, workbookId, authorId, 'revision.restored', { restoredFrom: target, sheetId, sheetName: now.name, revision, changeCount: changes.length + sheetOps.length });
+  return { revision, patch };
 }

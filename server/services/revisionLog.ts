@@ -1,7 +1,7 @@
 // The revision counter and the history table: every change to a workbook's content is one numbered
 // revision holding what it changed (before and after), so any revision can be viewed and undone.
 import { and, desc, eq, gt, lt, sql } from 'drizzle-orm';
-import type { RevisionDetail, RevisionKind, RevisionPatch, RevisionSummary } from '../../shared/workbooks.js';
+import type { CellChangeRecord, RevisionDetail, RevisionKind, RevisionPatch, RevisionSummary, SheetOpPreview } from '../../shared/workbooks.js';
 import type { Db } from '../db/index.js';
 import { revisions, users, workbooks } from '../db/schema.js';
 import { notFound } from '../errors.js';
@@ -25,6 +25,11 @@ export function nextRevision(tx: Tx, workbookId: string): number {
   return row.revision;
 }
 
+/** recordRevision with the patch already as JSON text (an import's, written batch by batch). */
+export function recordRevisionJson(tx: Tx, workbookId: string, number: number, authorId: string, kind: RevisionKind, patchJson: string): void {
+  tx.insert(revisions).values({ workbookId, number, authorId, kind, patch: sql`${patchJson}` }).run();
+}
+
 export function recordRevision(tx: Tx, workbookId: string, number: number, authorId: string, kind: RevisionKind, patch: RevisionPatch): void {
   tx.insert(revisions).values({ workbookId, number, authorId, kind, patch }).run();
 }
@@ -40,7 +45,35 @@ const summaryColumns = {
   changeCount: sql<number>`json_array_length(${revisions.patch}, '$.changes') + json_array_length(${revisions.patch}, '$.sheetOps')`,
 };
 
-type SummaryRow = { number: number; kind: string; createdAt: number; authorId: string | null; authorName: string | null; authorEmail: string | null; changeCount: number };
+/** Cell changes and tab operations a change-log entry lists; the rest are counted. */
+export const previewLength = 5;
+
+// The first few of each, taken in SQLite so an import of 100,000 cells is not parsed to list five.
+// Tab adds and deletes carry their cells: those are left out of the preview.
+const previewColumns = {
+  cellCount: sql<number>`json_array_length(${revisions.patch}, '$.changes')`,
+  sheetOpCount: sql<number>`json_array_length(${revisions.patch}, '$.sheetOps')`,
+  firstCells: sql<string>`(select json_group_array(json(c.value)) from (select value from json_each(${revisions.patch}, '$.changes') limit ${previewLength}) c)`,
+  firstSheetOps: sql<string>`(select json_group_array(json_remove(o.value, '$.cells', '$.settings', '$.position')) from (select value from json_each(${revisions.patch}, '$.sheetOps') limit ${previewLength}) o)`,
+  restoredFrom: sql<number | null>`json_extract(${revisions.patch}, '$.restoredFrom')`,
+  restoredSheetId: sql<string | null>`json_extract(${revisions.patch}, '$.restoredSheetId')`,
+};
+
+type SummaryRow = {
+  number: number;
+  kind: string;
+  createdAt: number;
+  authorId: string | null;
+  authorName: string | null;
+  authorEmail: string | null;
+  changeCount: number;
+  cellCount: number;
+  sheetOpCount: number;
+  firstCells: string;
+  firstSheetOps: string;
+  restoredFrom: number | null;
+  restoredSheetId: string | null;
+};
 
 function toSummary(r: SummaryRow): RevisionSummary {
   return {
@@ -49,6 +82,14 @@ function toSummary(r: SummaryRow): RevisionSummary {
     author: r.authorId ? { id: r.authorId, name: r.authorName ?? '', email: r.authorEmail ?? '' } : null,
     createdAt: r.createdAt,
     changeCount: r.changeCount,
+    preview: {
+      cells: JSON.parse(r.firstCells) as CellChangeRecord[],
+      cellCount: r.cellCount,
+      sheetOps: JSON.parse(r.firstSheetOps) as SheetOpPreview[],
+      sheetOpCount: r.sheetOpCount,
+      ...(r.restoredFrom !== null ? { restoredFrom: r.restoredFrom } : {}),
+      ...(r.restoredSheetId !== null ? { restoredSheetId: r.restoredSheetId } : {}),
+    },
   };
 }
 
@@ -56,7 +97,7 @@ function toSummary(r: SummaryRow): RevisionSummary {
 export function listRevisions(db: Db, workbookId: string, opts: { before?: number; limit: number }): RevisionSummary[] {
   const where = opts.before !== undefined ? and(eq(revisions.workbookId, workbookId), lt(revisions.number, opts.before)) : eq(revisions.workbookId, workbookId);
   return db
-    .select(summaryColumns)
+    .select({ ...summaryColumns, ...previewColumns })
     .from(revisions)
     .leftJoin(users, eq(users.id, revisions.authorId))
     .where(where)
@@ -68,7 +109,7 @@ export function listRevisions(db: Db, workbookId: string, opts: { before?: numbe
 
 export function getRevision(db: Db, workbookId: string, number: number): RevisionDetail {
   const row = db
-    .select({ ...summaryColumns, patch: revisions.patch })
+    .select({ ...summaryColumns, ...previewColumns, patch: revisions.patch })
     .from(revisions)
     .leftJoin(users, eq(users.id, revisions.authorId))
     .where(and(eq(revisions.workbookId, workbookId), eq(revisions.number, number)))

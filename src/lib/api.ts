@@ -47,7 +47,6 @@ export const queryKeys = {
   members: (id: string) => ['workbooks', id, 'members'] as const,
   audit: (id: string) => ['workbooks', id, 'audit'] as const,
   revision: (id: string, n: number) => ['workbooks', id, 'revisions', n] as const,
-  revisionSnapshot: (id: string, n: number) => ['workbooks', id, 'revisions', n, 'snapshot'] as const,
   invitations: (id: string) => ['workbooks', id, 'invitations'] as const,
   protection: (id: string) => ['workbooks', id, 'protection'] as const,
   invitationLink: (token: string) => ['invitation-links', token] as const,

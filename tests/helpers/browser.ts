@@ -95,12 +95,19 @@ export interface GridCell {
 /**
  * The grid cell at an A1 address (its column found by header letter, its row by row number), or
  * null while that cell is not rendered (not loaded yet, or scrolled out of the grid's window).
+ * Row 1, when frozen, is shown under the column letter in the header: it is read from there.
  */
 export async function gridCell(page: Page, a1: string): Promise<GridCell | null> {
   return page.evaluate((address) => {
     const [, letters, digits] = /^([A-Z]+)(\d+)$/.exec(address)!;
-    const header = document.querySelector(`.orb-col-header[data-col="${letters}"]`)?.closest('.dsg-cell') as HTMLElement | null;
+    const headerLabel = document.querySelector(`[data-testid="sheet-grid"] .orb-col-header[data-col="${letters}"]`);
+    const header = headerLabel?.closest('.dsg-cell') as HTMLElement | null;
     if (!header) return null;
+    const frozen = digits === '1' ? (headerLabel!.querySelector('.orb-col-frozen') as HTMLElement | null) : null;
+    if (frozen) {
+      const r = frozen.getBoundingClientRect();
+      return { text: frozen.textContent ?? '', title: frozen.title, x: r.x + r.width / 2, y: r.y + r.height / 2 };
+    }
     for (const row of document.querySelectorAll('[data-testid="sheet-grid"] .dsg-row:not(.dsg-row-header)')) {
       const cells = [...row.children] as HTMLElement[];
       if (cells[0]?.textContent !== digits) continue;

@@ -43,6 +43,9 @@ export function gridHands(pageOf: () => Page) {
       const page = pageOf();
       const c = await cell(a1);
       if (!c) throw new Error(`cell ${a1} is not on screen`);
+      // A cell rendered past the grid's edge (under the side panel) would take no click: say so.
+      const inGrid = await page.evaluate(([x, y]) => document.elementFromPoint(x, y)?.closest('[data-testid="sheet-grid"]') != null, [c.x, c.y]);
+      if (!inGrid) throw new Error(`cell ${a1} is covered by another part of the page`);
       for (const m of options.modifiers ?? []) await page.keyboard.down(m);
       await page.mouse.click(c.x, c.y, { button: options.button, clickCount: options.clickCount });
       for (const m of options.modifiers ?? []) await page.keyboard.up(m);

@@ -1,5 +1,5 @@
 // The team controls of an open workbook, in its title bar: whether it is live and how many are here,
-// and Team, Protect, History and Audit (each shown only to roles that can use it; the API checks again).
+// and Team, Protect, Change log and Audit (each shown only to roles that can use it; the API checks again).
 import { useNavigate } from 'react-router';
 import { allows } from '@shared/permissions.js';
 import { Button } from '../../components/ui/Button.js';
@@ -17,7 +17,9 @@ export function TeamToolbar({ team, model, activeSheet, selectionRange }: { team
   const close = () => openDialog(null);
   const isMember = role !== 'site-admin';
   return (
-    <div className="flex items-center gap-1.5" data-grid-shield="">
+    // A press here must not reach the grid, which clears its selection on any press outside it:
+    // Protect starts from the selected range.
+    <div className="flex items-center gap-1.5" data-grid-shield="" onMouseDown={(e) => e.stopPropagation()}>
       <LiveIndicator users={team.live.presence} myId={team.myId} connection={team.live.connection} onShowTeam={isMember ? () => openDialog('team') : undefined} />
       <span aria-hidden="true" className="mx-1 h-4 w-px bg-line" />
       {isMember && (
@@ -30,7 +32,7 @@ export function TeamToolbar({ team, model, activeSheet, selectionRange }: { team
       </Button>
       {allows(actions, 'viewHistory') && (
         <Button variant="ghost" onClick={() => openDialog('history')}>
-          History
+          Change log
         </Button>
       )}
       {allows(actions, 'viewAudit') && (
@@ -65,7 +67,7 @@ export function TeamToolbar({ team, model, activeSheet, selectionRange }: { team
         myId={team.myId}
         suggestedRange={selectionRange}
       />
-      {allows(actions, 'viewHistory') && <HistoryDialog open={dialog === 'history'} onClose={close} workbookId={model.id} actions={actions} />}
+      {allows(actions, 'viewHistory') && <HistoryDialog open={dialog === 'history'} onClose={close} workbookId={model.id} actions={actions} sheetName={(id) => (model.hasSheet(id) ? model.sheet(id).name : null)} />}
       {allows(actions, 'viewAudit') && <AuditDialog open={dialog === 'audit'} onClose={close} workbookId={model.id} />}
     </div>
   );

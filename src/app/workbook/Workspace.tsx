@@ -5,6 +5,7 @@ import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import type { DataSheetGridRef } from 'react-datasheet-grid';
 import { SafetyNote } from '../../features/diagram/SafetyNote.js';
 import { cellName, parseCellName } from '@shared/a1.js';
+import { readChartSpec } from '@shared/chartSpec.js';
 import { fillPairs } from '../../core/workbook/model/rangeEdits.js';
 import { revealBesideRowNumbers } from '../../features/grid/revealCell.js';
 import { FilterMenu, type SheetFilter } from '../../features/grid/components/FilterMenu.js';
@@ -26,6 +27,7 @@ import { GridMenu } from './GridMenu.js';
 import { SidePanel } from './SidePanel.js';
 import { useDisplaySaver } from './useDisplaySaver.js';
 import { useFocusedCell } from './useFocusedCell.js';
+import { usePanelWidth } from './usePanelWidth.js';
 import { MessageStrip, WorkbookBar } from './WorkbookBar.js';
 import { useWorkbookTeam } from '../../features/live/useWorkbookTeam.js';
 import { ImportButton } from '../../features/io/index.js';
@@ -139,6 +141,8 @@ export function Workspace({ session }: { session: WorkbookSession }) {
   });
 
   const widths = useMemo(() => ({ ...display.columnWidths, ...dragWidths }), [display.columnWidths, dragWidths]);
+  const gridRow = useRef<HTMLDivElement>(null);
+  const panelWidth = usePanelWidth(gridRow, panel !== null, sheet.colCount, widths);
   useEffect(() => setDragWidths({}), [display.columnWidths]);
   // Leaving the formula bar: back to the cell in the grid; on the frozen header row, Enter moves
   // down into the grid (as it would from any cell) and Escape stays on the header cell.
@@ -226,7 +230,7 @@ export function Workspace({ session }: { session: WorkbookSession }) {
       <MessageStrip message={message} onDismiss={() => setMessage(null)} />
       <TeamNotices team={team} model={model} activeSheetId={activeSheetId} />
       <StarterTemplate model={model} sheetId={activeSheetId} />
-      <div className="flex min-h-0 flex-1">
+      <div className="flex min-h-0 flex-1" ref={gridRow}>
         <div className="flex min-w-0 flex-1 flex-col">
           <SheetGrid
             model={model}
@@ -267,7 +271,23 @@ export function Workspace({ session }: { session: WorkbookSession }) {
             }}
           />
         </div>
-        {panel && <SidePanel panel={panel} structureSource={structureSource} address={address} view={view} colCount={sheet.colCount} firstRow={display.freezeHeaderRow ? 1 : 0} initialX={focus?.col ?? 0} />}
+        {panel && (
+          <SidePanel
+            panel={panel}
+            structureSource={structureSource}
+            address={address}
+            view={view}
+            colCount={sheet.colCount}
+            filtered={filter !== null}
+            sheetName={sheet.name}
+            chart={readChartSpec(display.kept)}
+            // Kept with the sheet's other settings: saved with the workbook, back on the next open.
+            onChart={(chart) => setDisplay({ ...display, kept: { ...display.kept, chart } })}
+            initialX={focus?.col ?? 0}
+            widthPx={panelWidth}
+            key={activeSheetId}
+          />
+        )}
       </div>
       <SheetTabs
         sheets={sheets.map((s) => {

@@ -91,6 +91,7 @@ export async function moveSheet(s: WorkbookSession, sheetId: string, position: n
   s.model.setPositions(order);
 }
 
-export async function saveDisplaySettings(s: WorkbookSession, sheetId: string, display: DisplaySettings): Promise<void> {
-  await api<SheetMutationResult>(sheetsPath(s, sheetId), { method: 'PATCH', body: { settings: writeDisplaySettings(display) } });
+/** Saves a sheet's display settings; resolves to the workbook's revision after the save. */
+export async function saveDisplaySettings(s: WorkbookSession, sheetId: string, display: DisplaySettings): Promise<number> {
+  return (await api<SheetMutationResult>(sheetsPath(s, sheetId), { method: 'PATCH', body: { settings: writeDisplaySettings(display) } })).revision;
 }

@@ -40,7 +40,9 @@ export function describeAudit(entry: AuditEntry, nameOf: (userId: string) => str
     case 'range.unprotected':
       return `removed the protection of ${text(d.range)} ${where}`;
     case 'revision.restored':
-      return `restored revision #${String(d.restoredFrom)} as revision #${String(d.revision)}`;
+      return d.sheetName !== undefined
+        ? `brought back sheet “${text(d.sheetName)}” as it was after revision #${String(d.restoredFrom)}, as revision #${String(d.revision)}`
+        : `restored revision #${String(d.restoredFrom)} as revision #${String(d.revision)}`;
     default:
       return String(entry.action);
   }

@@ -2,12 +2,14 @@
 // levels side by side; electrons as arrows; α marked by a dashed line.
 import type { HuckelModel } from '@functions/chem/huckel.js';
 import { Electrons } from './ElectronArrows.js';
-import { ladderLevels, levelLabel } from './huckelLayout.js';
+import { ladderLevels, levelLabel, separateLabels } from './huckelLayout.js';
 
 const WIDTH = 420;
 const ORBITAL = 26;
 const GAP = 6;
 const CX = 170;
+/** Closest two levels are drawn: the electron arrows span 20 units (ElectronArrows), labels 12. */
+const LEVEL_GAP = 24;
 
 export function HuckelLadderSvg({ model, electrons, title }: { model: HuckelModel; electrons: number; title: string }) {
   const levels = ladderLevels(model, electrons);
@@ -18,7 +20,14 @@ export function HuckelLadderSvg({ model, electrons, title }: { model: HuckelMode
   const xmin = Math.min(...xs, 0);
   // Larger x is lower in energy: y grows with x.
   const y = (x: number) => top + ((x - xmin) / span) * plotPx;
-  const height = top + plotPx + 30;
+  // Nearly equal levels (pyridine's α + β and α + 1.167β) are set apart so their arrows and labels
+  // stay readable; the labels carry the exact energies.
+  const levelY = separateLabels(
+    levels.map((l) => y(l.x)),
+    LEVEL_GAP,
+  );
+  const moved = levels.some((l, i) => Math.abs(levelY[i] - y(l.x)) > 0.5);
+  const height = Math.max(top + plotPx + 30, Math.max(...levelY) + 16) + (moved ? 14 : 0);
   return (
     <svg role="img" aria-label={title} viewBox={`0 0 ${WIDTH} ${height}`} width="100%" className="select-none" data-testid="huckel-ladder">
       <title>{title}</title>
@@ -42,17 +51,22 @@ export function HuckelLadderSvg({ model, electrons, title }: { model: HuckelMode
               const c = x0 + k * (ORBITAL + GAP) + ORBITAL / 2;
               return (
                 <g key={k}>
-                  <line x1={c - ORBITAL / 2} x2={c + ORBITAL / 2} y1={y(l.x)} y2={y(l.x)} stroke={colour} strokeWidth={2.2} />
-                  <Electrons cx={c} y={y(l.x)} filling={f} />
+                  <line x1={c - ORBITAL / 2} x2={c + ORBITAL / 2} y1={levelY[i]} y2={levelY[i]} stroke={colour} strokeWidth={2.2} />
+                  <Electrons cx={c} y={levelY[i]} filling={f} />
                 </g>
               );
             })}
-            <text x={x0 + total + 8} y={y(l.x) + 4} className="fill-ink-2 font-mono" fontSize={12}>
+            <text x={x0 + total + 8} y={levelY[i] + 4} className="fill-ink-2 font-mono" fontSize={12}>
               {levelLabel(l.x)}
             </text>
           </g>
         );
       })}
+      {moved && (
+        <text x={20} y={height - 6} className="fill-ink-3 font-sans" fontSize={10}>
+          Levels closer than their arrows are drawn apart; the labels give each energy.
+        </text>
+      )}
     </svg>
   );
 }

@@ -4,6 +4,7 @@
 // diatomic species where simple MO filling is known to fail.
 import { useMemo } from 'react';
 import { frontierGap } from '@functions/chem/huckel.js';
+import { BORROWED_CENTRE_TYPES } from '@functions/chem/huckelParams.js';
 import { knownFailureFor } from '@functions/chem/knownFailures.js';
 import type { PppSpectrum } from '@functions/chem/ppp.js';
 import { PppSpectrumView } from './PppSpectrumSvg.js';
@@ -93,6 +94,7 @@ export function StructurePanel({ source, address }: { source: SubjectSource | nu
     );
   }
   const model = subject.model;
+  const borrowed = subject.parameterSet === 'streitwieser' && (model.pi?.centres ?? []).some((c) => c.type && BORROWED_CENTRE_TYPES.includes(c.type));
   let gap = '—';
   try {
     const f = frontierGap(model, model.electrons);
@@ -110,7 +112,13 @@ export function StructurePanel({ source, address }: { source: SubjectSource | nu
         <Fact label="π centres" value={String(model.levels.length)} />
         <Fact label="π electrons" value={String(model.electrons)} />
         <Fact label="HOMO–LUMO gap" value={gap} />
+        <Fact label="Heteroatom parameters" value={subject.parameterSet} />
       </dl>
+      {borrowed && (
+        <p className="text-caption text-ink-3" data-testid="parameter-note">
+          Streitwieser&apos;s table has no S or P; their values here come from Van-Catledge (J. Org. Chem. 1980).
+        </p>
+      )}
       <PppBands smiles={subject.smiles} />
     </div>
   );

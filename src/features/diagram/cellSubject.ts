@@ -5,13 +5,14 @@ import { catalogByName } from '@functions/catalog/index.js';
 import { analyseDiatomic, type DiatomicAnalysis } from '@functions/chem/diatomic.js';
 import { huckelModelOf } from '@functions/chem/huckelCache.js';
 import type { HuckelModel } from '@functions/chem/huckel.js';
+import { DEFAULT_PARAMETER_SET, PARAMETER_SET_NAMES, type ParameterSetName } from '@functions/chem/huckelParams.js';
 import { ChemError } from '@functions/chem/errors.js';
 import type { EhtSummary } from '@functions/chem/ehtSummary.js';
 import { ehtSummaryOf, PendingResult } from '@functions/structureResults.js';
 
 export type CellSubject =
   | { kind: 'diatomic'; text: string; analysis: DiatomicAnalysis }
-  | { kind: 'huckel'; smiles: string; model: HuckelModel }
+  | { kind: 'huckel'; smiles: string; model: HuckelModel; parameterSet: ParameterSetName }
   /** An extended-Hückel structure (SMILES, XYZ or molfile); its summary, or 'pending' while the server computes it. */
   | { kind: 'eht'; structure: string; summary: EhtSummary | 'pending' }
   | { kind: 'none'; tried: string[]; problem?: string };
@@ -53,10 +54,20 @@ function asDiatomic(text: string): DiatomicAnalysis | null {
   }
 }
 
-function asHuckel(text: string): HuckelModel | null {
+/** A Hückel parameter set named in the formula (as text or in a cell it reads), else the default. */
+function parameterSetOf(texts: readonly string[]): ParameterSetName {
+  for (const t of texts) {
+    const name = t.trim().toLowerCase();
+    if ((PARAMETER_SET_NAMES as string[]).includes(name)) return name as ParameterSetName;
+  }
+  return DEFAULT_PARAMETER_SET;
+}
+
+function asHuckel(text: string, set: ParameterSetName): HuckelModel | null {
   if (/\s/.test(text)) return null; // SMILES never holds spaces; a sentence is not a structure
+  if ((PARAMETER_SET_NAMES as string[]).includes(text.trim().toLowerCase())) return null;
   try {
-    return huckelModelOf([[text.trim()]]);
+    return huckelModelOf([[text.trim()]], set);
   } catch {
     return null;
   }
@@ -96,14 +107,16 @@ export function subjectOfCell(src: SubjectSource): CellSubject {
   }
   if (src.display) tried.push(src.display);
   const candidates = [...new Set(tried.map((t) => t.trim()).filter((t) => t.length > 0 && t.length < 200))];
+  // The panel draws what the cell computes: with the parameter set the formula names.
+  const parameterSet = parameterSetOf(src.input.startsWith('=') ? candidates : []);
   for (const text of candidates) {
     if (!wantHuckel) {
       const analysis = asDiatomic(text);
       if (analysis) return { kind: 'diatomic', text, analysis };
     }
     if (!wantDiatomic) {
-      const model = asHuckel(text);
-      if (model) return { kind: 'huckel', smiles: text, model };
+      const model = asHuckel(text, parameterSet);
+      if (model) return { kind: 'huckel', smiles: text, model, parameterSet };
     }
   }
   return { kind: 'none', tried: candidates };

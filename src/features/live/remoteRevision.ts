@@ -109,7 +109,11 @@ export function applyRemoteRevision(model: WorkbookModel, queue: PatchQueue, rev
         if (model.hasSheet(op.sheetId)) model.setPositions(reorder(order(), op.sheetId, op.to));
         break;
       case 'settings':
-        if (model.hasSheet(op.sheetId)) model.setDisplay(op.sheetId, readDisplaySettings(op.after));
+        if (model.hasSheet(op.sheetId)) {
+          const display = readDisplaySettings(op.after);
+          // Older than display settings of mine still being saved: shown, if at all, once mine is answered.
+          if (!model.displaySaves.holdBack(op.sheetId, rev.revision, display)) model.setDisplay(op.sheetId, display);
+        }
         break;
     }
   }

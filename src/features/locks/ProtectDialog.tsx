@@ -1,4 +1,5 @@
 // The "Protect" dialog of one sheet: its lock and its protected ranges.
+import { useState } from 'react';
 import { sheetManageRefusal, type AccessRole, type WorkbookAction } from '@shared/permissions.js';
 import { sheetStanding, type Protection, type SheetActor } from '@shared/team.js';
 import { Button } from '../../components/ui/Button.js';
@@ -32,6 +33,11 @@ export function ProtectDialog({
   suggestedRange?: string;
 }) {
   const members = useMembers(workbookId, open);
+  // The selection as the dialog opened: clicks inside the dialog may clear the grid's selection, and
+  // the range field must not empty itself when they do.
+  const [openedWith, setOpenedWith] = useState<{ open: boolean; range?: string }>({ open: false });
+  if (openedWith.open !== open) setOpenedWith({ open, range: open ? suggestedRange : undefined });
+  const startRange = open === openedWith.open ? openedWith.range : suggestedRange;
   // Owners on any sheet, editors on sheets they created and still edit (the rule the server refuses
   // with): a control that would be refused is disabled and says why.
   const lock = protection.locks.find((l) => l.sheetId === sheet.id);
@@ -55,7 +61,7 @@ export function ProtectDialog({
             members={members.data ?? []}
             myId={myId}
             canProtect={canLock}
-            suggestedRange={suggestedRange}
+            suggestedRange={startRange}
           />
         </div>
       )}

@@ -92,8 +92,7 @@ export function ProtectedRangesSection({
               name="range"
               defaultValue={suggestedRange}
               key={suggestedRange}
-              placeholder="A1:C1"
-              hint="A cell (B2), a block (A1:C3), columns (A:C) or rows (2:5)."
+              hint="Starts as the cells selected when you opened this; or type a cell (B2), a block (A1:C3), columns (A:C) or rows (2:5)."
               error={errors.fields.range}
               className="flex-1"
             />

@@ -68,7 +68,7 @@ export function SheetLockSection({
         </div>
       ) : canLock ? (
         <form noValidate onSubmit={submit} className="flex flex-col gap-2.5">
-          <TextField label="Why lock it?" name="reason" maxLength={500} placeholder="Values checked against the reference tables" error={errors.fields.reason} />
+          <TextField label="Why lock it?" name="reason" maxLength={500} hint="Everyone sees it, for example: values checked against the reference tables." error={errors.fields.reason} />
           <EditorPicker legend="Who else may still change it" members={members} myId={myId} selected={editors} onChange={setEditors} viewersToo />
           {errors.form && (
             <p role="alert" className="text-caption text-danger">

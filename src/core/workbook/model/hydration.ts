@@ -1,7 +1,10 @@
 // Opening a workbook at once from the values stored with its revision: the engine is first built
-// with every formula replaced by its stored value (as cheap as a sheet of plain numbers), so the
-// grid shows the revision's values and takes edits immediately; then the formulas are put back a
-// slice at a time between frames, each slice computed by the engine, until the workbook is live.
+// from the first rows of each sheet only, with every formula replaced by its stored value, so the
+// grid shows the first screenful and takes edits immediately; then, a slice at a time between
+// frames, the rest of the rows' constants and stored values go in (building 100,000 cells at once
+// holds the page for seconds), and after them the formulas are put back, each slice computed by
+// the engine, until the workbook is live. Constants come first so that no formula is ever
+// computed against rows not yet loaded.
 // A cell edited meanwhile keeps the edit (its stored placeholder is forgotten); whatever depends on
 // a not-yet-live formula catches up when that formula's slice comes.
 import type { ValuesPayload } from '@shared/workbooks.js';
@@ -31,12 +34,21 @@ function constantOf(value: ValuesPayload['sheets'][number]['values'][number][2] 
  * cells to put back, and the cells only an array formula fills (cleared before formulas return).
  */
 export function placeholderTable(sheetId: string, inputs: SheetInputs, stored: ValuesPayload['sheets'][number] | undefined) {
-  const table: Constant[][] = inputs.toTable();
+  // Built here rather than by inputs.toTable(): formulas are never translated for the engine (their
+  // stored values stand in), which on a large sheet is most of the cost of the first build.
+  const { rows, cols } = inputs.extent();
+  const table: Constant[][] = Array.from({ length: rows }, () => new Array<Constant>(cols).fill(null));
   const formulas: PendingCell[] = [];
   const spilled: PendingCell[] = [];
+  let ordered = true;
   for (const { row, col, input } of inputs.entries()) {
-    if (!input.startsWith('=')) continue;
-    table[row][col] = null; // an empty result is left out of the stored values
+    if (!input.startsWith('=')) {
+      table[row][col] = engineInput(input);
+      continue;
+    }
+    // Left empty: an empty result is left out of the stored values.
+    const last = formulas[formulas.length - 1];
+    if (last && (last.row > row || (last.row === row && last.col > col))) ordered = false;
     formulas.push({ sheetId, row, col });
   }
   for (const [row, col, value] of stored?.values ?? []) {
@@ -48,7 +60,7 @@ export function placeholderTable(sheetId: string, inputs: SheetInputs, stored: V
     } else if (!input.startsWith('=')) continue;
     table[row][col] = constantOf(value);
   }
-  formulas.sort((a, b) => a.row - b.row || a.col - b.col);
+  if (!ordered) formulas.sort((a, b) => a.row - b.row || a.col - b.col);
   return { table, formulas, spilled };
 }
 
@@ -59,10 +71,23 @@ export interface HydrationTarget {
   inputOf(sheetId: string, row: number, col: number): string;
   /** Writes the cells with evaluation suspended, then refreshes the views of what changed. */
   writeEngine(cells: { sheetId: string; row: number; col: number; content: Constant }[]): void;
+  /** Writes a block of rows from `row` on (column A first) and shows them. */
+  writeRows(sheetId: string, row: number, block: Constant[][]): void;
+}
+
+/** Rows of one sheet's placeholder table still to be written to the engine, from `next` on. */
+export interface PendingRows {
+  sheetId: string;
+  table: Constant[][];
+  next: number;
 }
 
 export class Hydration {
   private at = 0;
+  /** Sheets whose later rows are not in the engine yet, in tab order. */
+  private readonly rest: PendingRows[];
+  /** Rows per constant slice, tuned like `chunk`. */
+  private rowChunk = 100;
   private spillsCleared = false;
   private readonly edited = new Set<string>();
   /** Formula cells per slice, tuned to the time a slice may take. */
@@ -75,10 +100,18 @@ export class Hydration {
     private readonly spilled: PendingCell[],
     /** The revision whose stored values are shown until the engine is live. */
     readonly revision: number,
+    rest: PendingRows[] = [],
     /** False when nothing was stored: formulas show empty until their slice (a large first open, built in slices rather than in one long task). */
     readonly fromStored = true,
   ) {
     this.total = formulas.length;
+    this.rest = rest.filter((r) => r.next < r.table.length);
+  }
+
+  /** Rows of the sheet the engine holds so far (every row once its constants are in). */
+  rowsLoaded(sheetId: string): number {
+    const r = this.rest.find((x) => x.sheetId === sheetId);
+    return r ? r.next : Number.POSITIVE_INFINITY;
   }
 
   get done(): number {
@@ -96,6 +129,10 @@ export class Hydration {
 
   /** Puts back formulas for about `budgetMs`; returns whether the workbook is now live. */
   slice(target: HydrationTarget, budgetMs: number): boolean {
+    if (this.rest.length > 0) {
+      this.loadRows(target, budgetMs);
+      return false;
+    }
     const started = performance.now();
     const cells: { sheetId: string; row: number; col: number; content: Constant }[] = [];
     if (!this.spillsCleared) {
@@ -115,5 +152,33 @@ export class Hydration {
     const perCell = (performance.now() - started) / Math.max(1, cells.length);
     this.chunk = Math.max(20, Math.min(20_000, Math.floor(budgetMs / Math.max(perCell, 0.001))));
     return this.finished;
+  }
+
+  /** Writes the next rows of placeholder constants; a cell written since the open keeps what was written. */
+  private loadRows(target: HydrationTarget, budgetMs: number) {
+    const started = performance.now();
+    const pending = this.rest[0];
+    if (!target.hasSheet(pending.sheetId)) {
+      this.rest.shift(); // removed meanwhile: nothing of it to load
+      return;
+    }
+    const from = pending.next;
+    const to = Math.min(pending.table.length, from + this.rowChunk);
+    const block = pending.table.slice(from, to);
+    for (const key of this.edited) {
+      const [, sheetId, r, c] = /^(.*):(\d+):(\d+)$/.exec(key)!;
+      const row = Number(r);
+      if (sheetId !== pending.sheetId || row < from || row >= to) continue;
+      const col = Number(c);
+      const input = target.inputOf(sheetId, row, col);
+      const line = (block[row - from] = [...(block[row - from] ?? [])]);
+      while (line.length < col) line.push(null);
+      line[col] = input === '' ? null : engineInput(input);
+    }
+    target.writeRows(pending.sheetId, from, block);
+    pending.next = to;
+    if (to >= pending.table.length) this.rest.shift();
+    const perRow = (performance.now() - started) / Math.max(1, to - from);
+    this.rowChunk = Math.max(10, Math.min(50_000, Math.floor(budgetMs / Math.max(perRow, 0.001))));
   }
 }

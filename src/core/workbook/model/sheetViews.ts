@@ -31,11 +31,12 @@ export function viewOfCell(engine: HyperFormula, s: SheetLike, row: number, col:
  * spill. Not the engine's own sheet size: a formula such as =BXX1000000 stretches that to a million
  * rows by two thousand columns, and reading it whole would stall the tab.
  */
-export function valueExtent(engine: HyperFormula, s: Pick<SheetLike, 'engineId' | 'inputs'>): { rows: number; cols: number } {
+export function valueExtent(engine: HyperFormula, s: Pick<SheetLike, 'engineId' | 'inputs'>, rowLimit = Number.POSITIVE_INFINITY): { rows: number; cols: number } {
   let { rows, cols } = s.inputs.extent();
+  rows = Math.min(rows, rowLimit);
   const inArray = (row: number, col: number) => engine.isCellPartOfArray({ sheet: s.engineId, row, col });
   for (const { row, col, input } of s.inputs.entries()) {
-    if (!input.startsWith('=') || !inArray(row, col)) continue;
+    if (row >= rowLimit || !input.startsWith('=') || !inArray(row, col)) continue;
     // A spill is at most functions/limits.ts maxSpillCells, so these walks stay short.
     let r = row;
     while (inArray(r + 1, col)) r++;
@@ -53,9 +54,12 @@ export function blockValues(engine: HyperFormula, engineId: number, rows: number
   return engine.getRangeValues({ start: { sheet: engineId, row: 0, col: 0 }, end: { sheet: engineId, row: rows - 1, col: cols - 1 } });
 }
 
-/** Every row of a sheet; rows without content share one frozen empty object. */
-export function buildSheetRows(engine: HyperFormula, s: SheetLike, readOnly: ReadOnlyLabel): RowData[] {
-  const { rows: valueRows, cols: valueCols } = valueExtent(engine, s);
+/**
+ * Every row of a sheet; rows without content share one frozen empty object. `rowLimit`: only the
+ * rows the engine holds so far (the rest are shown as they are loaded, through `withRowsReplaced`).
+ */
+export function buildSheetRows(engine: HyperFormula, s: SheetLike, readOnly: ReadOnlyLabel, rowLimit = Number.POSITIVE_INFINITY): RowData[] {
+  const { rows: valueRows, cols: valueCols } = valueExtent(engine, s, rowLimit);
   const values = blockValues(engine, s.engineId, valueRows, valueCols);
   const rows = new Array<RowData>(Math.max(s.rowCount, values.length)).fill(EMPTY_ROW);
   for (let r = 0; r < values.length; r++) {

@@ -13,6 +13,7 @@ import { allows, type AccessRole, type WorkbookAction } from '@shared/permission
 import type { CellView } from './cellView.js';
 import { buildSheetRows, EMPTY_ROW, groupCells, viewOfCell, withRowsReplaced, type RowData } from './sheetViews.js';
 import { readDisplaySettings, type DisplaySettings } from './displaySettings.js';
+import { DisplaySaves } from './displaySaves.js';
 import { SheetInputs } from './sheetInputs.js';
 import { removeSheetFromFormula, renameSheetInFormula } from '@shared/formulaText.js';
 import { lastInputPerCell, type CellInput } from '../save/pendingStore.js';
@@ -23,6 +24,8 @@ export type { RowData };
 /** Rows and columns shown beyond the used area, so there is room to type. */
 export const minRowsShown = 1000;
 export const minColsShown = 26;
+/** Rows of each sheet in the engine's first build when opening on stored values: well over a screenful. */
+export const firstRowsBuilt = 300;
 
 export interface SheetState {
   id: string;
@@ -68,9 +71,14 @@ export class WorkbookModel {
 
   /** Formulas still standing in as their stored values (hydration.ts); null once the workbook is live. */
   private hydration: Hydration | null = null;
+  /** Display settings of mine on their way to the server (live settings revisions wait for them). */
+  readonly displaySaves = new DisplaySaves();
 
-  /** `stored`: the values stored with this revision, shown at once while the formulas are put back in slices. */
-  constructor(payload: WorkbookPayload, options: { onLocalChanges?: (changes: CellInput[]) => void; stored?: ValuesPayload | null } = {}) {
+  /**
+   * `stored`: the values stored with this revision, shown at once while the rest of the rows and then
+   * the formulas are put back in slices; `firstRows`: how many rows of each sheet the engine is built with.
+   */
+  constructor(payload: WorkbookPayload, options: { onLocalChanges?: (changes: CellInput[]) => void; stored?: ValuesPayload | null; firstRows?: number } = {}) {
     this.onLocalChanges = options.onLocalChanges ?? (() => {});
     this.id = payload.id;
     this.title = payload.title;
@@ -82,9 +90,13 @@ export class WorkbookModel {
     const held = stored ? ordered.map((s) => placeholderTable(s.id, inputs.get(s.id)!, stored.sheets.find((x) => x.id === s.id))) : null;
     // Built once from whole tables: no per-cell setCellContents on load. Undo lives in History
     // (our own, mirrored in patches), so the engine keeps no undo stack of its own.
-    this.engine = buildWorkbookEngine(ordered.map((s, i) => ({ name: s.name, table: held ? held[i].table : inputs.get(s.id)!.toTable() })), { undoLimit: 0 });
+    const firstRows = Math.max(1, options.firstRows ?? firstRowsBuilt);
+    this.engine = buildWorkbookEngine(ordered.map((s, i) => ({ name: s.name, table: held ? held[i].table.slice(0, firstRows) : inputs.get(s.id)!.toTable() })), { undoLimit: 0 });
     for (const s of ordered) this.addSheetState(s, inputs.get(s.id)!);
-    if (held && stored) this.hydration = new Hydration(held.flatMap((h) => h.formulas), held.flatMap((h) => h.spilled), stored.revision, stored.sheets.length > 0);
+    if (held && stored) {
+      const rest = ordered.map((s, i) => ({ sheetId: s.id, table: held[i].table, next: firstRows }));
+      this.hydration = new Hydration(held.flatMap((h) => h.formulas), held.flatMap((h) => h.spilled), stored.revision, rest, stored.sheets.length > 0);
+    }
   }
 
   /** While the stored values are shown: how many formulas are live of how many. Null when all are. */
@@ -107,6 +119,7 @@ export class WorkbookModel {
         engineIdOf: (id) => this.sheet(id).engineId,
         inputOf: (id, row, col) => this.input(id, row, col),
         writeEngine: (cells) => this.writeEngine(cells.map((c) => ({ engineId: this.sheet(c.sheetId).engineId, row: c.row, col: c.col, content: c.content }))),
+        writeRows: (sheetId, row, block) => this.writeRows(sheetId, row, block),
       },
       budgetMs,
     );
@@ -118,6 +131,23 @@ export class WorkbookModel {
   /** Finishes putting back every formula now (before work that reads formulas from the engine: structure changes, fills). */
   ensureLive() {
     while (!this.computeSlice(Number.POSITIVE_INFINITY));
+  }
+
+  private writeRows(sheetId: string, row: number, block: (string | number | boolean | null)[][]) {
+    const s = this.sheet(sheetId);
+    let changes: ExportedChange[] = [];
+    this.engine.suspendEvaluation();
+    try {
+      this.engine.setCellContents({ sheet: s.engineId, row, col: 0 }, block);
+    } finally {
+      changes = this.engine.resumeEvaluation();
+    }
+    const touched: { engineId: number; row: number; col: number }[] = [];
+    block.forEach((line, i) => {
+      for (let col = 0; col < line.length; col++) if (line[col] !== null || s.inputs.get(row + i, col) !== '') touched.push({ engineId: s.engineId, row: row + i, col });
+    });
+    for (const ch of changes) if (ch instanceof ExportedCellChange) touched.push({ engineId: ch.sheet, row: ch.row, col: ch.col });
+    this.refreshViews(touched);
   }
 
   private writeEngine(cells: { engineId: number; row: number; col: number; content: string | number | boolean | null }[]) {
@@ -317,7 +347,7 @@ export class WorkbookModel {
   }
 
   private buildRows(s: SheetState): RowData[] {
-    return buildSheetRows(this.engine, s, this.readOnlyLabel(s.id));
+    return buildSheetRows(this.engine, s, this.readOnlyLabel(s.id), this.hydration?.rowsLoaded(s.id));
   }
 
   /** The per-cell read-only marking the views carry (the role, or the extra rule). */

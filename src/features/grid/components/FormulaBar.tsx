@@ -81,7 +81,11 @@ export function FormulaBar(p: FormulaBarProps) {
     el.setSelectionRange(start + ref.length, start + ref.length);
     setDraft(next);
     setCaret(start + ref.length);
-    requestAnimationFrame(() => el.setSelectionRange(start + ref.length, start + ref.length));
+    // Again after React's render, unless keys typed since have moved on: put back then, the caret
+    // would jump before them (a ')' typed at once would land inside the reference's bracket).
+    requestAnimationFrame(() => {
+      if (el.value === next) el.setSelectionRange(start + ref.length, start + ref.length);
+    });
   };
   useEffect(() => {
     if (draft === null || !refFor) return;

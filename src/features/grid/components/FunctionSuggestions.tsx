@@ -26,7 +26,21 @@ export function useFunctionSuggestions(text: string, input: RefObject<HTMLInputE
     if (!token || !items[i]) return;
     const next = acceptSuggestion(text, token, items[i].name);
     apply(next.text);
-    requestAnimationFrame(() => input.current?.setSelectionRange(next.caret, next.caret));
+    // The caret goes after the bracket as soon as the field holds the completed text: at once where
+    // `apply` wrote the field itself (the cell editor), after React's commit where it sets state (the
+    // formula bar). Never later than a key typed since: a caret placed by a late frame would jump back
+    // before what was typed (=UNPAIRED(A1) read as =UNPAIRED(1)A).
+    let placed = false;
+    const place = () => {
+      const el = input.current;
+      if (placed || !el) return;
+      if (el.value === next.text) el.setSelectionRange(next.caret, next.caret);
+      // Typed over already: the typing put the caret where it belongs.
+      if (el.value !== text) placed = true;
+    };
+    place();
+    queueMicrotask(place);
+    requestAnimationFrame(place);
   };
 
   const handleKey = (e: KeyboardEvent, apply: (t: string) => void) => {
