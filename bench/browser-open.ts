@@ -129,7 +129,7 @@ export async function createWorkbook(api: ApiClient, title: string, cells: [numb
 }
 
 /** Waits until the server has stored the workbook's values (it computes them in the background); ms waited, or -1. */
-async function storedValuesReady(api: ApiClient, id: string, timeoutMs = 600_000): Promise<number> {
+export async function storedValuesReady(api: ApiClient, id: string, timeoutMs = 600_000): Promise<number> {
   const started = performance.now();
   while (performance.now() - started < timeoutMs) {
     const res = await fetch(`${api.base}/api/workbooks/${id}/values?stored=only`, { headers: { cookie: api.cookie } });

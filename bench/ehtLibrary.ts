@@ -3,8 +3,8 @@
 //   1. the first person opens it with nothing computed: the server's compute pool computes every
 //      structure once while the page shows progress; measured: molecules per second per core, and the
 //      page's longest main-thread stall (PerformanceObserver long tasks, and the longest delay of a 50 ms timer) until every value is shown;
-//   2. a colleague opens it afterwards in a fresh browser (no cache): time to the first values, and
-//      to all of them, with nothing recomputed;
+//   2. a colleague opens it afterwards (once the server has stored the revision's values) in a fresh
+//      browser (no cache): time to the first values, and to all of them, with nothing recomputed;
 //   3. for comparison, one core computing structures in this process (geometry, solve, summary).
 // Run: `npm run build`, then `npm run bench:eht-library` (EHT_LIBRARY_MOLECULES=200 for a shorter run).
 // Writes bench/results/eht-library.json.
@@ -15,7 +15,7 @@ import '../functions/openchemlibNode.js';
 import { computeEhtResult } from '../functions/chem/ehtSummary.js';
 import { launchBrowser } from '../tests/helpers/browser.js';
 import { startServer } from '../tests/helpers/server.js';
-import { ApiClient, createWorkbook } from './browser-open.js';
+import { ApiClient, createWorkbook, storedValuesReady } from './browser-open.js';
 import { benchMolecules } from './ehtMolecules.js';
 
 const COLUMNS = ['EHTHOMO', 'EHTLUMO', 'EHTGAP', 'EHTCHARGE'];
@@ -26,7 +26,7 @@ export interface EhtLibraryResult {
   molecules: number;
   formulas: number;
   firstOpen: { allValuesMs: number; moleculesPerSecondPerCore: number; longestLongTaskMs: number; longestTimerDelayMs: number; longTasksOver250: number };
-  colleague: { firstValuesMs: number; allValuesMs: number; recomputed: number };
+  colleague: { firstValuesMs: number; allValuesMs: number; recomputed: number; openedOnStoredValues: boolean; storedValuesWaitMs: number; timeline: Record<string, number> };
   inProcess: { sample: number; moleculesPerSecond: number };
   targets: { firstValuesMs: number; stallMs: number };
   loadAverage: number[];
@@ -91,22 +91,40 @@ export async function runEhtLibraryBench(options: { molecules?: number; write?: 
       await page.goto(`${server.url}/workbooks/${id}`);
       const first = await page.waitForFunction(() => (document.querySelectorAll('[data-testid="sheet-grid"] .orb-cell-number').length >= 4 ? performance.now() : false), undefined, { polling: 100 });
       const firstValuesMs = (await first.jsonValue()) as number;
-      // Every structure in: the progress line is gone and no cell on screen is pending.
+      // Every structure in: every formula is computed in the page (no computing state: a large open
+      // puts its formulas back in slices), the progress line is gone and no cell on screen is pending.
       const all = await page.waitForFunction(
-        () => (document.querySelector('[data-testid="sheet-grid"]') && !document.querySelector('[data-testid="structure-progress"]') && !document.querySelector('[data-cell-kind="pending"]') ? performance.now() : false),
+        () =>
+          document.querySelector('[data-testid="sheet-grid"]') && !document.querySelector('[data-testid="computing-state"]') && !document.querySelector('[data-testid="structure-progress"]') && !document.querySelector('[data-cell-kind="pending"]')
+            ? performance.now()
+            : false,
         undefined,
         { polling: 250 },
       );
       const allValuesMs = (await all.jsonValue()) as number;
       const stall = await page.evaluate(() => (window as unknown as { __stall: { longest: number; over250: number; gap: number } }).__stall);
+      // Whether the server had the revision's values stored (200) or not yet (204: the page computed them from the stored structures).
+      const onStoredValues = await page.evaluate(() => (performance.getEntriesByType('resource') as (PerformanceResourceTiming & { responseStatus?: number })[]).find((e) => e.name.includes('stored=only'))?.responseStatus === 200);
+      // Where the time to first values went: the page's code, the workbook's requests, the engine build (ms from navigation).
+      const timeline = await page.evaluate(() =>
+        Object.fromEntries(
+          performance
+            .getEntries()
+            .filter((e) => (e.entryType === 'resource' && /\/assets\/(index|WorkbookPage)-.*\.js$|\/api\/workbooks\//.test(e.name)) || e.name.startsWith('orbitab:'))
+            .map((e) => [`${e.name.replace(/^.*\/assets\/([A-Za-z]+)-[^/]*$/, '$1.js').replace(/^.*\/api\/workbooks\/[^/?]*/, 'workbook').replace(/\?.*/, '')} ${Math.round(e.startTime)}`, Math.round(e.startTime + e.duration)]),
+        ),
+      );
       await browser.close();
-      return { firstValuesMs, allValuesMs, stall };
+      return { firstValuesMs, allValuesMs, stall, onStoredValues, timeline };
     };
 
     // The page asks only for the structures its engine evaluates (all rows), so "all values" is the library.
     const countStored = async () => (await api.call<{ results: unknown[] }>('POST', `/workbooks/${id}/structures`, { inputs: smiles.slice(0, 500).map((structure) => ({ structure })) })).results.filter((r) => r !== null).length;
     const firstRun = await open();
     const storedAfterFirst = await countStored();
+    // A colleague comes later: by then the server has stored the revision's values (its keeper runs
+    // once the last structure is in); how long that took after the first page had every value is reported.
+    const storedValuesWaitMs = await storedValuesReady(api, id, 120_000);
     const colleagueRun = await open();
     const storedAfterColleague = await countStored();
 
@@ -120,7 +138,7 @@ export async function runEhtLibraryBench(options: { molecules?: number; write?: 
         longestTimerDelayMs: Math.round(firstRun.stall.gap),
         longTasksOver250: firstRun.stall.over250,
       },
-      colleague: { firstValuesMs: Math.round(colleagueRun.firstValuesMs), allValuesMs: Math.round(colleagueRun.allValuesMs), recomputed: storedAfterColleague - storedAfterFirst },
+      colleague: { firstValuesMs: Math.round(colleagueRun.firstValuesMs), allValuesMs: Math.round(colleagueRun.allValuesMs), recomputed: storedAfterColleague - storedAfterFirst, openedOnStoredValues: colleagueRun.onStoredValues, storedValuesWaitMs, timeline: colleagueRun.timeline },
       inProcess: { sample: inProcess.sample, moleculesPerSecond: Math.round(inProcess.moleculesPerSecond * 100) / 100 },
       targets: { firstValuesMs: 2_000, stallMs: 250 },
       loadAverage: (await import('node:os')).loadavg().map((x) => Math.round(x * 100) / 100),

@@ -13,7 +13,9 @@ import { ImportButton } from '../features/io/index.js';
 import { WorkbookListPage } from '../features/workbooks/WorkbookListPage.js';
 import { redirectIfSignedIn, requireSignedIn, signInPath } from './guards.js';
 import { AppLayout } from './layout/AppLayout.js';
-import { onSessionLost } from './queryClient.js';
+import { onSessionLost, queryClient } from './queryClient.js';
+import { meQueryOptions } from '../core/session/me.js';
+import { startWorkbookLoad } from '../core/workbook/api.js';
 import { NotFoundPage, RouteError } from './RouteError.js';
 
 export const router = createBrowserRouter([
@@ -38,6 +40,11 @@ export const router = createBrowserRouter([
           { index: true, Component: () => <WorkbookListPage importControl={<ImportButton label="Import file…" />} /> },
           {
             path: 'workbooks/:id',
+            // The workbook starts loading while the page's code downloads (for a signed-in visitor only).
+            loader: ({ params }) => {
+              void queryClient.ensureQueryData(meQueryOptions).then((user) => user && params.id && startWorkbookLoad(queryClient, params.id), () => undefined);
+              return null;
+            },
             lazy: async () => ({ Component: (await import('./workbook/WorkbookPage.js')).WorkbookPage }),
           },
           {

@@ -1,7 +1,7 @@
 // Every request the open workbook makes: loading it, sending a patch of cell inputs, and tab
 // operations. Tab operations go straight to the server (they are rare and must not be lost or
 // reordered with cell patches), then to the engine once the server has accepted them.
-import { queryOptions } from '@tanstack/react-query';
+import { queryOptions, type QueryClient } from '@tanstack/react-query';
 import { workbookPath, type PatchInput, type PatchResult, type SheetMutationResult, type ValuesPayload, type WorkbookPayload } from '@shared/workbooks.js';
 import { removeSheetFromFormula, renameSheetInFormula } from '@shared/formulaText.js';
 import type { StructuresRequest, StructuresResponse } from '@shared/structures.js';
@@ -36,6 +36,24 @@ export const storedValuesQueryOptions = (id: string) =>
     gcTime: 0,
     retry: false,
   });
+
+/** How long a load started before the page's code arrived is kept for it (the page's own query keeps none). */
+const earlyLoadKeptMs = 60_000;
+
+/**
+ * Starts loading the workbook and its stored values as soon as the route is known, while the page's
+ * code is still downloading (the route's loader calls it): the page's queries then find the loads
+ * under way instead of starting them after the code has run. A load nobody is showing is dropped
+ * first, so every visit still loads afresh.
+ */
+export function startWorkbookLoad(client: QueryClient, id: string) {
+  for (const options of [workbookQueryOptions(id), storedValuesQueryOptions(id)] as const) {
+    const cached = client.getQueryCache().find({ queryKey: options.queryKey, exact: true });
+    if (cached && cached.getObserversCount() === 0) client.removeQueries({ queryKey: options.queryKey, exact: true });
+  }
+  void client.prefetchQuery({ ...workbookQueryOptions(id), gcTime: earlyLoadKeptMs });
+  void client.prefetchQuery({ ...storedValuesQueryOptions(id), gcTime: earlyLoadKeptMs });
+}
 
 /** POST /api/workbooks/:id/patches: the save queue's one way to the server. */
 export const sendPatch = (workbookId: string, patch: PatchInput) => api<PatchResult>(workbookPath(workbookId, 'patches'), { method: 'POST', body: patch });

@@ -101,6 +101,8 @@ export class Hydration {
     /** The revision whose stored values are shown until the engine is live. */
     readonly revision: number,
     rest: PendingRows[] = [],
+    /** False when nothing was stored: formulas show empty until their slice (a large first open, built in slices rather than in one long task). */
+    readonly fromStored = true,
   ) {
     this.total = formulas.length;
     this.rest = rest.filter((r) => r.next < r.table.length);

@@ -95,7 +95,7 @@ export class WorkbookModel {
     for (const s of ordered) this.addSheetState(s, inputs.get(s.id)!);
     if (held && stored) {
       const rest = ordered.map((s, i) => ({ sheetId: s.id, table: held[i].table, next: firstRows }));
-      this.hydration = new Hydration(held.flatMap((h) => h.formulas), held.flatMap((h) => h.spilled), stored.revision, rest);
+      this.hydration = new Hydration(held.flatMap((h) => h.formulas), held.flatMap((h) => h.spilled), stored.revision, rest, stored.sheets.length > 0);
     }
   }
 
@@ -103,6 +103,11 @@ export class WorkbookModel {
   get computing(): { done: number; total: number; revision: number } | null {
     const h = this.hydration;
     return h ? { done: h.done, total: h.total, revision: h.revision } : null;
+  }
+
+  /** Whether the cells not yet computed show stored values (false: they are empty until their slice). */
+  get computingFromStored(): boolean {
+    return this.hydration?.fromStored ?? false;
   }
 
   /** Puts back formulas for about `budgetMs` (the session calls it between frames); true once live. */

@@ -11,6 +11,7 @@ import { PendingStore, type KeyValueStorage } from '../save/pendingStore.js';
 import { buildPreview, type SheetPreview } from '../model/windowPreview.js';
 import { PendingReevaluation } from '../model/pendingCells.js';
 import { installStructureStore, StructureStore } from '../structures/structureStore.js';
+import { structureInputsOf } from '../structures/structureInputs.js';
 
 export interface WorkbookSession {
   model: WorkbookModel;
@@ -33,6 +34,22 @@ function browserStorage(): KeyValueStorage | null {
 
 /** How long one slice of putting formulas back may hold the page (well inside a 250 ms stall). */
 export const computeSliceMs = 40;
+
+/**
+ * With no stored values, a workbook with more formulas than this is still opened in slices (its
+ * formula cells empty until their slice): built whole, a library of a thousand extended-Hückel rows
+ * held the page for most of a second in one task.
+ */
+export const slicedOpenMinFormulas = 200;
+
+/** How long the stored structure results may hold back the first slice: longer, and the cells ask for them as usual. */
+const prefetchWaitMs = 3_000;
+
+function formulaCount(payload: WorkbookPayload): number {
+  let n = 0;
+  for (const sheet of payload.sheets) for (const cell of sheet.cells) if (cell[2].charCodeAt(0) === 61 /* = */) n++;
+  return n;
+}
 
 export function openSession(
   payload: WorkbookPayload,
@@ -105,6 +122,13 @@ export function useWorkbookSession(id: string) {
       first = null; // the full build below reports any real problem
     }
     if (first) performance.measure('orbitab:build-preview', { start: previewStarted, end: performance.now() });
+    else if (formulaCount(payload) > slicedOpenMinFormulas) {
+      const close = openOnStoredValues(payload, storage, structures, { revision: payload.revision, sheets: [] }, setSession, setOpenError);
+      return () => {
+        close();
+        uninstall();
+      };
+    }
     let s: WorkbookSession | null = null;
     let cancelled = false;
     const online = () => s?.queue.flushNow();
@@ -155,10 +179,12 @@ export function useWorkbookSession(id: string) {
 }
 
 /**
- * Opens on the values stored with the loaded revision, then puts the formulas back a slice at a time
- * after each paint until the workbook is live. Edits in the meantime (and unsent ones from an earlier
- * visit) go to the engine and the save queue as usual; what depends on a formula not yet back is
- * brought up to date when its slice comes. Returns the clean-up.
+ * Opens on the values stored with the loaded revision (none: formula cells empty), then puts the
+ * formulas back a slice at a time after each paint until the workbook is live. Edits in the meantime
+ * (and unsent ones from an earlier visit) go to the engine and the save queue as usual; what depends
+ * on a formula not yet back is brought up to date when its slice comes. The first slice also waits
+ * (briefly) for the stored extended-Hückel results of the structures the formulas name, so those
+ * cells go from stored value to computed value without showing "computing…". Returns the clean-up.
  */
 function openOnStoredValues(
   payload: WorkbookPayload,
@@ -168,6 +194,8 @@ function openOnStoredValues(
   setSession: (s: WorkbookSession | null) => void,
   setOpenError: (e: Error) => void,
 ): () => void {
+  // Asked first: the request is under way while the engine is built and the stored values painted.
+  const prefetched = structures.prefetch(structureInputsOf(payload));
   let s: WorkbookSession;
   try {
     s = openSession(payload, storage, structures, stored);
@@ -180,6 +208,7 @@ function openOnStoredValues(
   const online = () => s.queue.flushNow();
   window.addEventListener('online', online);
   let timer: ReturnType<typeof setTimeout> | undefined;
+  let waitTimer: ReturnType<typeof setTimeout> | undefined;
   let frame = 0;
   let cancelled = false;
   const step = () => {
@@ -187,12 +216,29 @@ function openOnStoredValues(
     if (s.model.computeSlice(computeSliceMs)) performance.measure('orbitab:live', { start: opened, end: performance.now() });
     else timer = setTimeout(step, 0);
   };
-  // The first slice waits for the first paint of the stored values.
-  frame = requestAnimationFrame(() => (timer = setTimeout(step, 0)));
+  // The first slice waits for the first paint of the stored values, and for the stored structure results.
+  let painted = false;
+  let fetched = false;
+  const begin = () => {
+    if (cancelled || !painted || !fetched || timer !== undefined) return;
+    clearTimeout(waitTimer);
+    timer = setTimeout(step, 0);
+  };
+  frame = requestAnimationFrame(() => {
+    painted = true;
+    begin();
+  });
+  const fetchedNow = () => {
+    fetched = true;
+    begin();
+  };
+  waitTimer = setTimeout(fetchedNow, prefetchWaitMs);
+  void prefetched.then(fetchedNow);
   return () => {
     cancelled = true;
     cancelAnimationFrame(frame);
     clearTimeout(timer);
+    clearTimeout(waitTimer);
     window.removeEventListener('online', online);
     s.reevaluation.stop();
     s.queue.dispose();

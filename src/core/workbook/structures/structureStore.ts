@@ -5,7 +5,7 @@
 // its worker pool, and this store asks again until all have arrived. Each arrival is announced, and
 // the model re-evaluates the waiting cells a slice at a time (workbookModel.reevaluatePending).
 import { setStructureResolver, type FormulaCell, type StructureResolver } from '@functions/structureResults.js';
-import type { EhtResult } from '@functions/chem/ehtSummary.js';
+import { ehtKeyText, type EhtResult } from '@functions/chem/ehtSummary.js';
 import { maxStructuresPerRequest, type StructuresResponse } from '@shared/structures.js';
 
 export type StructureFetcher = (inputs: { structure: string; charge?: number }[]) => Promise<StructuresResponse<EhtResult>>;
@@ -70,6 +70,47 @@ export class StructureStore {
     return () => this.arrivals.delete(listener);
   }
 
+  /**
+   * Fetches the stored results of structures the workbook is known to need before any cell asks
+   * (structureInputs.ts), so cells find them at once. Ones not stored yet are left to the usual
+   * asking (the server queues them on this request already). Never rejects: on failure the cells
+   * simply ask as usual.
+   */
+  async prefetch(inputs: readonly { structure: string; charge?: number }[]): Promise<void> {
+    for (let i = 0; i < inputs.length && !this.closed; i += maxStructuresPerRequest) {
+      const batch = inputs.slice(i, i + maxStructuresPerRequest);
+      let answer: StructuresResponse<EhtResult>;
+      try {
+        answer = await this.fetcher(batch);
+      } catch {
+        return;
+      }
+      if (this.closed) return;
+      const keys = batch.map((b) => ehtKeyText(b.structure, b.charge));
+      this.take(answer.results.map((result, k) => [keys[k], result]));
+    }
+  }
+
+  /** Keeps arrived results; cells already waiting for one are announced, as after an ask. */
+  private take(answers: [key: string, result: EhtResult | null][]): number {
+    const ready: FormulaCell[] = [];
+    let arrived = 0;
+    for (const [key, result] of answers) {
+      if (result === null) continue;
+      if (this.results.size >= MAX_RESULTS) this.results.clear();
+      this.results.set(key, result);
+      if (!this.waiting.delete(key)) continue;
+      ready.push(...(this.cellsWaiting.get(key) ?? []));
+      this.cellsWaiting.delete(key);
+      arrived++;
+    }
+    if (arrived > 0) {
+      this.setProgress({ ...this.progress, done: this.progress.done + arrived, problem: null });
+      for (const l of this.arrivals) l(ready);
+    }
+    return arrived;
+  }
+
   get pending(): number {
     return this.waiting.size;
   }
@@ -98,32 +139,23 @@ export class StructureStore {
     if (this.waiting.size === 0 || this.closed) return;
     this.busy = true;
     const batch = [...this.waiting].slice(0, maxStructuresPerRequest);
-    let arrived = 0;
-    const ready: FormulaCell[] = [];
     let next = POLL_MS;
+    let answer: StructuresResponse<EhtResult> | null = null;
     try {
-      const answer = await this.fetcher(batch.map(([, input]) => input));
-      if (this.closed) return;
-      answer.results.forEach((result, i) => {
-        if (result === null) return;
-        const [key] = batch[i];
-        this.waiting.delete(key);
-        if (this.results.size >= MAX_RESULTS) this.results.clear();
-        this.results.set(key, result);
-        ready.push(...(this.cellsWaiting.get(key) ?? []));
-        this.cellsWaiting.delete(key);
-        arrived++;
-      });
-      this.setProgress({ ...this.progress, done: this.progress.done + arrived, problem: null });
-      // More waiting than one request holds: ask for the next batch straight away.
-      if (batch.length === maxStructuresPerRequest && this.waiting.size > 0) next = 0;
+      answer = await this.fetcher(batch.map(([, input]) => input));
     } catch (e) {
-      this.setProgress({ ...this.progress, problem: e instanceof Error ? e.message : String(e) });
+      if (!this.closed) this.setProgress({ ...this.progress, problem: e instanceof Error ? e.message : String(e) });
       next = RETRY_MS;
     } finally {
       this.busy = false;
     }
-    if (arrived > 0) for (const l of this.arrivals) l(ready);
+    if (this.closed) return;
+    if (answer) {
+      const results = answer.results;
+      if (this.take(batch.map(([key], i) => [key, results[i] ?? null])) === 0 && this.progress.problem) this.setProgress({ ...this.progress, problem: null });
+      // More waiting than one request holds: ask for the next batch straight away.
+      if (batch.length === maxStructuresPerRequest && this.waiting.size > 0) next = 0;
+    }
     if (this.waiting.size > 0) this.schedule(next);
   }
 }

@@ -14,7 +14,11 @@ export function ComputingState({ model }: { model: WorkbookModel }) {
       data-testid="computing-state"
       data-done={computing.done}
       data-total={computing.total}
-      title={`Showing the results saved with revision ${computing.revision} while formulas are computed in this tab; cells that depend on your newest edits catch up when it finishes.`}
+      title={
+        model.computingFromStored
+          ? `Showing the results saved with revision ${computing.revision} while formulas are computed in this tab; cells that depend on your newest edits catch up when it finishes.`
+          : 'Formulas are being computed in this tab a part at a time, so the page stays responsive; formula cells not reached yet are empty for a moment.'
+      }
       className="flex items-center gap-1.5 text-caption text-ink-2"
     >
       <span aria-hidden="true" className="size-2 animate-pulse rounded-full bg-current" />
