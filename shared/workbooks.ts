@@ -99,25 +99,28 @@ export const cellChangeSchema = z.object({
 });
 export type CellChange = z.infer<typeof cellChangeSchema>;
 
-export const patchSchema = z
-  .object({
-    /** The workbook revision the client's view was based on; cells changed after it are conflicts. */
-    baseRevision: wholeNumber().min(0, 'must be 0 or more'),
-    changes: z
-      .array(cellChangeSchema, { error: required('a list of changes') })
-      .min(1, 'must hold at least one change')
-      .max(maxCellsPerPatch, `a patch may change at most ${maxCellsPerPatch} cells; send the rest in another patch`),
-  })
-  .superRefine((patch, ctx) => {
-    // Two inputs for one cell in one patch would make the result depend on order: refuse it.
-    const seen = new Map<string, number>();
-    patch.changes.forEach((c, i) => {
-      const key = cellKey(c);
-      const first = seen.get(key);
-      if (first !== undefined) ctx.addIssue({ code: 'custom', path: ['changes', i], message: `the same cell as changes.${first}; send one input per cell` });
-      else seen.set(key, i);
+/** A patch of at most `limit` cells; the API takes patchSchema (benchmarks try larger limits). */
+export const patchSchemaUpTo = (limit: number) =>
+  z
+    .object({
+      /** The workbook revision the client's view was based on; cells changed after it are conflicts. */
+      baseRevision: wholeNumber().min(0, 'must be 0 or more'),
+      changes: z
+        .array(cellChangeSchema, { error: required('a list of changes') })
+        .min(1, 'must hold at least one change')
+        .max(limit, `a patch may change at most ${limit} cells; send the rest in another patch`),
+    })
+    .superRefine((patch, ctx) => {
+      // Two inputs for one cell in one patch would make the result depend on order: refuse it.
+      const seen = new Map<string, number>();
+      patch.changes.forEach((c, i) => {
+        const key = cellKey(c);
+        const first = seen.get(key);
+        if (first !== undefined) ctx.addIssue({ code: 'custom', path: ['changes', i], message: `the same cell as changes.${first}; send one input per cell` });
+        else seen.set(key, i);
+      });
     });
-  });
+export const patchSchema = patchSchemaUpTo(maxCellsPerPatch);
 export type PatchInput = z.infer<typeof patchSchema>;
 
 export const revisionListQuerySchema = z.object({
