@@ -257,7 +257,7 @@ export async function runOpenBench(options: { rows?: number; cols?: number; runs
       const largeCols = 8;
       const largeRows = 100_000;
       const largeId = await createWorkbook(api, 'Open benchmark: 100,000 rows', chemistryCells(largeRows).filter(([, c]) => c < largeCols));
-      // The server keeps values of workbooks up to 400,000 cells (ORBITAB_STORED_VALUES_MAX_CELLS); past
+      // The server keeps values of workbooks up to 1,000,000 cells (ORBITAB_STORED_VALUES_MAX_CELLS); past
       // that the page opens by computing, and this says so (openedOnStoredValues false).
       const storedAfterMs = await storedValuesReady(api, largeId, 120_000);
       const run = await openOnce(largeId).catch((e: Error) => {

@@ -1,7 +1,7 @@
 // Checks on what a cell may hold beyond its length, found by fuzzing (tests/fuzz-cells.test.ts):
 // inputs the database or the formula engine cannot take as they are. The patch schema and the
 // importers refuse them with these messages instead of storing something else or failing later.
-import { formulaSizeProblem } from '../functions/limits.js';
+import { evaluationLimits, formulaSizeProblem } from '../functions/limits.js';
 
 /**
  * Deepest nesting of parentheses and array braces a formula may have. The engine's parser recurses
@@ -43,7 +43,8 @@ export function cellInputProblem(input: string): string | null {
   if (numberLiteral.test(input) && !Number.isFinite(Number(input.trim().replace(/%$/, '')))) {
     return 'is a number beyond the largest a cell can hold (about 1.8e308); start it with an apostrophe to keep it as text';
   }
-  if (input.startsWith('=')) {
+  // A formula this short can neither nest too deep nor chain too many operators (each takes a character).
+  if (input.startsWith('=') && input.length > Math.min(maxFormulaNesting, evaluationLimits.maxFormulaOperators)) {
     const depth = formulaNestingDepth(input);
     if (depth > maxFormulaNesting) return `the formula nests ${depth} levels of parentheses; at most ${maxFormulaNesting} are allowed`;
     const size = formulaSizeProblem(input);

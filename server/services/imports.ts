@@ -6,9 +6,8 @@ import type { User } from 'lucia';
 import { titleSchema } from '../../shared/workbooks.js';
 import type { AppContext } from '../context.js';
 import { badRequest } from '../errors.js';
-import { importStaged } from '../xlsx/importStaged.js';
+import { readAndImport } from '../xlsx/importStaged.js';
 import { refusalAbout } from '../xlsx/limits.js';
-import { parseInWorker } from '../xlsx/parseInWorker.js';
 import { sheetNameFromFilename } from '../xlsx/readCsv.js';
 import type { ImportOutcome } from '../xlsx/importStore.js';
 import { requireWorkbook } from './access.js';
@@ -30,13 +29,16 @@ export async function importUpload(ctx: AppContext, user: Pick<User, 'id' | 'sit
   if (stopping) throw stopping;
   if (!file) throw badRequest('file: required; send the spreadsheet as multipart/form-data in the field "file"');
 
-  const parsed = await parseInWorker(file.buffer, file.originalname || 'upload', { owner: user.id }).catch(refusalAbout('file'));
-
-  // The read may take a while: the user must still be allowed to add sheets there when it is done.
-  if (workbookId) requireWorkbook(ctx, user, workbookId, 'editSheets');
   const title = titleSchema.safeParse(sheetNameFromFilename(file.originalname || '').replace(/_/g, ' '));
-  const outcome = await importStaged(ctx, workbookId ? { workbookId } : { newWorkbook: { title: title.success ? title.data : 'Imported workbook' } }, user.id, parsed, {
+  const target = workbookId ? { workbookId } : { newWorkbook: { title: title.success ? title.data : 'Imported workbook' } };
+  // Stored into a staging workbook as it is read; nothing shows until the last step.
+  const outcome = await readAndImport(ctx, target, user.id, { buffer: file.buffer, filename: file.originalname || 'upload' }, {
+    owner: user.id,
     stopReason: shutdownRefusal,
-  });
+    // The read may take a while: the user must still be allowed to add sheets there when it is done.
+    beforeFinish: () => {
+      if (workbookId) requireWorkbook(ctx, user, workbookId, 'editSheets');
+    },
+  }).catch(refusalAbout('file'));
   return { workbookId: outcome.workbookId, revision: outcome.revision, sheets: outcome.sheets, summary: outcome.summary };
 }

@@ -25,6 +25,11 @@ export function nextRevision(tx: Tx, workbookId: string): number {
   return row.revision;
 }
 
+/** recordRevision with the patch already as JSON text (an import's, written batch by batch). */
+export function recordRevisionJson(tx: Tx, workbookId: string, number: number, authorId: string, kind: RevisionKind, patchJson: string): void {
+  tx.insert(revisions).values({ workbookId, number, authorId, kind, patch: sql`${patchJson}` }).run();
+}
+
 export function recordRevision(tx: Tx, workbookId: string, number: number, authorId: string, kind: RevisionKind, patch: RevisionPatch): void {
   tx.insert(revisions).values({ workbookId, number, authorId, kind, patch }).run();
 }

@@ -12,7 +12,7 @@ import type { Db } from '../db/index.js';
 import { workbooks } from '../db/schema.js';
 import { currentRevision, patchesAfter } from '../services/revisionLog.js';
 import { loadContentInSlices } from '../services/workbookSlices.js';
-import { packCells, packedTransfer } from '../xlsx/packedCells.js';
+import { packCellsInSlices, packedTransfer, type PackedCells } from '../xlsx/packedCells.js';
 import { onStructuresSettled, requestStructures, storedStructuresOf, structuresUnderWay } from '../structures/structureService.js';
 import { SpreadsheetError } from '../xlsx/limits.js';
 import { runKeeperJob } from './keeperThread.js';
@@ -20,17 +20,21 @@ import type { KeeperReply } from './keeperWorker.js';
 import { storeValues } from './store.js';
 import type { CellChange } from './warmWorkbook.js';
 
+const turn = () => new Promise<void>((resolve) => setImmediate(resolve));
+
 /** More changed cells than this since the warm revision: rebuilding costs about the same. */
 const MAX_INCREMENTAL_CHANGES = 20_000;
 
 /**
- * Workbooks with more non-empty cells than this are not kept: the engine needs about 1 KB a cell, and
- * a worker past its heap limit can take the whole process down with it (V8 does not always stop at
- * the worker). Their values are computed on demand as before. ORBITAB_STORED_VALUES_MAX_CELLS sets it.
+ * Workbooks with more non-empty cells than this are not kept; their values are computed on demand as
+ * before. The engine takes about 0.75 KB a cell (600 MB of heap for 800,000 chemistry cells, measured
+ * with bench/keeperLarge.ts), so a million cells fit the keeper thread's own heap limit
+ * (keeperWorkerLimits) with room for reading the values out. ORBITAB_STORED_VALUES_MAX_CELLS sets it.
  */
+export const defaultMaxKeptCells = 1_000_000;
 export const maxKeptCells = (() => {
   const n = Number(process.env.ORBITAB_STORED_VALUES_MAX_CELLS);
-  return Number.isFinite(n) && n >= 0 ? Math.floor(n) : 400_000;
+  return Number.isFinite(n) && n >= 0 ? Math.floor(n) : defaultMaxKeptCells;
 })();
 
 export interface KeeperRun {
@@ -86,10 +90,14 @@ export class ValuesKeeper {
     if (this.stopped) return;
     if ((this.wanted.get(workbookId) ?? -1) >= revision) return;
     this.wanted.set(workbookId, revision);
-    this.running ??= this.drain().finally(() => {
-      this.running = null;
-      for (const w of this.idleWaiters.splice(0)) w();
-    });
+    // Started after a turn of the event loop: the commit that announced the revision (an import's
+    // last step, say) answers first rather than waiting on the keeper's first count and page.
+    this.running ??= turn()
+      .then(() => this.drain())
+      .finally(() => {
+        this.running = null;
+        for (const w of this.idleWaiters.splice(0)) w();
+      });
   }
 
   /** The workbook's current revision has no stored values (a read found none): compute them. */
@@ -151,21 +159,15 @@ export class ValuesKeeper {
     if (missing.length > 0 && structuresUnderWay(workbookId) === 0 && this.awaitingStructures.delete(workbookId)) this.nudge(workbookId);
   }
 
-  /** Non-empty cells of the workbook, counted in SQLite (an index range per sheet). */
-  private cellCount(workbookId: string): number {
-    const row = this.ctx.db.$client.prepare(`select count(*) as n from cells c join sheets s on s.id = c.sheet_id where s.workbook_id = ? and c.input != ''`).get(workbookId) as { n: number };
-    return row.n;
+  /** Too large to keep: left to the on-demand path, and the worker lets go of any engine it held. */
+  private async leaveTooLarge(workbookId: string) {
+    if (this.warm.delete(workbookId)) await runKeeperJob({ kind: 'forget', workbookId });
+    const at = revisionOf(this.ctx.db, workbookId);
+    if (at !== null) this.failed.set(workbookId, at);
   }
 
   private async bringUpToDate(workbookId: string) {
     const started = performance.now();
-    if (this.cellCount(workbookId) > this.maxCells) {
-      // Too large to keep warm: left to the on-demand path, and the worker lets go of any engine it held.
-      if (this.warm.delete(workbookId)) await runKeeperJob({ kind: 'forget', workbookId });
-      const at = revisionOf(this.ctx.db, workbookId);
-      if (at !== null) this.failed.set(workbookId, at);
-      return;
-    }
     const warmAt = this.warm.get(workbookId);
     let reply: KeeperReply | null = null;
     let mode: KeeperRun['mode'] = 'incremental';
@@ -190,12 +192,21 @@ export class ValuesKeeper {
     }
     if (!reply) {
       mode = 'rebuild';
-      const content = await loadContentInSlices(this.ctx, workbookId);
+      // Counted while reading, page by page: a separate count of a million cells would hold the event loop.
+      const tooMany = new Error('too many cells to keep');
+      const content = await loadContentInSlices(this.ctx, workbookId, undefined, (cells) => {
+        if (cells > this.maxCells) throw tooMany;
+      }).catch((e: unknown) => {
+        if (e === tooMany) return 'too many' as const;
+        throw e;
+      });
+      if (content === 'too many') return this.leaveTooLarge(workbookId);
       if (!content) {
         this.warm.delete(workbookId);
         return; // deleted, or edited on every try: the next revision's event brings it back
       }
-      const sheets = content.tabs.map((t) => ({ id: t.id, name: t.name, packed: packCells(content.cells.get(t.id) ?? []) }));
+      const sheets: { id: string; name: string; packed: PackedCells }[] = [];
+      for (const t of content.tabs) sheets.push({ id: t.id, name: t.name, packed: await packCellsInSlices(content.cells.get(t.id) ?? [], turn) });
       const structures = storedStructuresOf(this.ctx, workbookId);
       this.structuresSent.set(workbookId, Object.keys(structures).length);
       reply = await runKeeperJob({ kind: 'build', workbookId, revision: content.revision, sheets, structures }, sheets.flatMap((s) => packedTransfer(s.packed)));
@@ -208,6 +219,8 @@ export class ValuesKeeper {
       return;
     }
     if (reply.stale) return;
+    // A warm workbook grown past the limit by its edits.
+    if (reply.cells > this.maxCells) return this.leaveTooLarge(workbookId);
     if (reply.pendingCells > 0) {
       this.awaitStructures(workbookId, reply.missingStructures);
       return;

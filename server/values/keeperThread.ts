@@ -1,9 +1,9 @@
 // The one worker thread that keeps warm engines (keeperWorker.ts), shared by every app in the process
-// (tests mount many). It runs one job at a time, under the compute limits every recalculation has
-// (server/xlsx/limits.ts): a job that runs out of memory or time ends the thread, every warm engine
+// (tests mount many). It runs one job at a time, under limits of its own (server/xlsx/limits.ts
+// keeperWorkerLimits): a job that runs out of memory or time ends the thread, every warm engine
 // with it, and the next job starts a fresh one.
 import { Worker } from 'node:worker_threads';
-import { recalcWorkerLimits } from '../xlsx/limits.js';
+import { keeperWorkerLimits } from '../xlsx/limits.js';
 import type { KeeperJob, KeeperReply } from './keeperWorker.js';
 
 const bootUrl = new URL('../xlsx/ioWorkerBoot.mjs', import.meta.url);
@@ -25,7 +25,7 @@ let queue: Promise<unknown> = Promise.resolve();
 function spawn(): Thread {
   const worker = new Worker(bootUrl, {
     workerData: { entry: entryUrl.href },
-    resourceLimits: { maxOldGenerationSizeMb: recalcWorkerLimits.maxOldGenerationSizeMb, maxYoungGenerationSizeMb: recalcWorkerLimits.maxYoungGenerationSizeMb, stackSizeMb: 4 },
+    resourceLimits: { maxOldGenerationSizeMb: keeperWorkerLimits.maxOldGenerationSizeMb, maxYoungGenerationSizeMb: keeperWorkerLimits.maxYoungGenerationSizeMb, stackSizeMb: 4 },
   });
   worker.unref();
   const pending = new Map<number, (reply: KeeperReply) => void>();
@@ -45,7 +45,7 @@ function spawn(): Thread {
     for (const [id, settle] of pending) settle({ id, ok: false, message });
     pending.clear();
   };
-  worker.on('error', (e: Error & { code?: string }) => ended(e.code === 'ERR_WORKER_OUT_OF_MEMORY' ? `computing needed more than the ${recalcWorkerLimits.maxOldGenerationSizeMb} MB of memory one calculation may use` : e.message));
+  worker.on('error', (e: Error & { code?: string }) => ended(e.code === 'ERR_WORKER_OUT_OF_MEMORY' ? `computing needed more than the ${keeperWorkerLimits.maxOldGenerationSizeMb} MB of memory one calculation may use` : e.message));
   worker.on('exit', (code) => ended(`the values worker stopped (code ${code})`));
   return { worker, ready, pending };
 }
@@ -62,11 +62,11 @@ async function runNow(body: JobBody, transfer: ArrayBuffer[]): Promise<KeeperRep
   }
   return new Promise<KeeperReply>((resolve) => {
     const timer = setTimeout(() => {
-      resolve({ id, ok: false, message: `computing took longer than ${recalcWorkerLimits.timeoutMs / 1000} s and was stopped` });
+      resolve({ id, ok: false, message: `computing took longer than ${keeperWorkerLimits.timeoutMs / 1000} s and was stopped` });
       t.pending.delete(id);
       if (thread === t) thread = null;
       void t.worker.terminate();
-    }, recalcWorkerLimits.timeoutMs);
+    }, keeperWorkerLimits.timeoutMs);
     t.pending.set(id, (reply) => {
       clearTimeout(timer);
       resolve(reply);

@@ -26,7 +26,10 @@ export interface MissingStructure {
   charge?: number;
 }
 
-/** Warm engines kept at once, and the cells over all of them (about 1 KB of engine per cell). */
+/**
+ * Warm engines kept at once, and the cells over all of them (about 0.75 KB of engine per cell); one
+ * workbook larger than that (up to the keeper's limit, keeper.ts) is still kept, alone.
+ */
 const MAX_WARM = 4;
 const MAX_WARM_CELLS = 400_000;
 
@@ -70,6 +73,16 @@ function keep(workbookId: string, workbook: WarmWorkbook) {
   }
 }
 
+/** Lets go of the least recently used engines until `incoming` more cells fit the budget (or none is left). */
+function makeRoom(incoming: number) {
+  let total = [...warm.values()].reduce((n, w) => n + w.cellCount, 0);
+  for (const [id, w] of warm) {
+    if (total + incoming <= MAX_WARM_CELLS) break;
+    forget(id);
+    total -= w.cellCount;
+  }
+}
+
 function forget(workbookId: string) {
   warm.get(workbookId)?.destroy();
   warm.delete(workbookId);
@@ -96,6 +109,9 @@ function run(job: KeeperJob): KeeperReply {
       workbook = held;
     } else {
       forget(job.workbookId);
+      // Held engines go first when this one would not fit beside them: a million-cell build next to
+      // another large engine would double the thread's peak.
+      makeRoom(job.sheets.reduce((n, s) => n + s.packed.rows.length, 0));
       results.set(job.workbookId, { stored: job.structures, parsed: new Map() });
       resolveFrom(job.workbookId, missing);
       workbook = new WarmWorkbook(

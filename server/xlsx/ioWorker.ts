@@ -7,16 +7,17 @@ import { computeWorkbook } from './engineValues.js';
 import { capComputedWorkbook, capValuesPayload } from './longTexts.js';
 import { computeValuesIsolated } from '../services/valuesIsolated.js';
 import { computedFromStored, decodeValues } from '../values/storedFormat.js';
-import { packSheets, unpackCells, unpackSheets, type PackedCells, type PackedExportWorkbook } from './packedCells.js';
+import { packCells, packedTransfer, packSheets, unpackCells, unpackSheets, type PackedCells, type PackedExportWorkbook } from './packedCells.js';
 import { SpreadsheetError, type ImportLimits } from './limits.js';
 import { readSpreadsheet } from './read.js';
-import type { ExportMode, ExportWorkbook } from './types.js';
+import type { CellTriple, ExportMode, ExportWorkbook } from './types.js';
 import { writeSheetCsv } from './writeCsv.js';
 import { writeComputedXlsx } from './writeXlsx.js';
 import { computeStructures, useStructures, type StoredStructures } from '../structures/workerResults.js';
 
 export type IoJob =
-  | { kind: 'parse'; buffer: Uint8Array; filename: string; limits: ImportLimits }
+  /** `stream`: each sheet's cells go back in batches as they are read ({ cells } messages), not in the result. */
+  | { kind: 'parse'; buffer: Uint8Array; filename: string; limits: ImportLimits; stream?: boolean }
   | { kind: 'xlsx'; workbook: PackedExportWorkbook; mode: ExportMode; structures?: StoredStructures }
   | { kind: 'csv'; workbook: PackedExportWorkbook; sheetIndex: number; structures?: StoredStructures }
   /** GET …/values of a large workbook (services/valuesInWorker.ts): answered as UTF-8 JSON bytes. */
@@ -52,10 +53,22 @@ function computedFor(workbook: ExportWorkbook) {
 async function run(job: IoJob): Promise<{ result: unknown; transfer?: ArrayBuffer[] }> {
   switch (job.kind) {
     case 'parse': {
-      const parsed = await readSpreadsheet(Buffer.from(job.buffer.buffer, job.buffer.byteOffset, job.buffer.byteLength), job.filename, job.limits);
+      const streamed = new Set<number>();
+      let streamPackMs = 0;
+      const onCells = job.stream
+        ? (sheet: number, cells: CellTriple[]) => {
+            const started = performance.now();
+            const packed = packCells(cells);
+            streamPackMs += performance.now() - started;
+            streamed.add(sheet);
+            parentPort!.postMessage({ cells: { sheet, packed } }, packedTransfer(packed));
+          }
+        : undefined;
+      const parsed = await readSpreadsheet(Buffer.from(job.buffer.buffer, job.buffer.byteOffset, job.buffer.byteLength), job.filename, job.limits, onCells);
       const packStart = performance.now();
-      const { packed, transfer } = packSheets(parsed);
-      return { result: { ...packed, packMs: performance.now() - packStart }, transfer };
+      // Sheets whose cells went out in batches are sent without them.
+      const { packed, transfer } = packSheets({ ...parsed, sheets: parsed.sheets.map((s, i) => (streamed.has(i) ? { ...s, cells: [] } : s)) });
+      return { result: { ...packed, streamed: [...streamed], packMs: streamPackMs + performance.now() - packStart }, transfer };
     }
     case 'structures':
       return { result: computeStructures(job.inputs) };

@@ -65,6 +65,17 @@ export const recalcWorkerLimits: WorkerLimits = {
   timeoutMs: envNumber('ORBITAB_COMPUTE_TIMEOUT_MS', 60_000),
 };
 
+/**
+ * For the values keeper's thread (server/values/keeperThread.ts), which builds engines of up to a
+ * million cells in the background and keeps the last one warm: more heap than one recalculation may
+ * use, and more time, since nobody waits on it. ORBITAB_KEEPER_HEAP_MB and ORBITAB_KEEPER_TIMEOUT_MS set them.
+ */
+export const keeperWorkerLimits: WorkerLimits = {
+  maxOldGenerationSizeMb: envNumber('ORBITAB_KEEPER_HEAP_MB', 2560),
+  maxYoungGenerationSizeMb: 64,
+  timeoutMs: envNumber('ORBITAB_KEEPER_TIMEOUT_MS', 300_000),
+};
+
 /** Jobs (uploads, exports, /values) one person may have queued or running at once. */
 export const maxJobsPerUser = envNumber('ORBITAB_JOBS_PER_USER', 3);
 

@@ -28,6 +28,35 @@ export function packCells(cells: readonly CellTriple[]): PackedCells {
   return { rows, cols, lengths, text: inputs.join('') };
 }
 
+/** Cells packed between turns of the event loop. */
+const PACK_SLICE = 32_768;
+
+/**
+ * packCells a slice at a time with a turn of the event loop between slices: packing 800,000 cells
+ * at once holds the thread for over half a second.
+ */
+export async function packCellsInSlices(cells: readonly CellTriple[], turn: () => Promise<void>): Promise<PackedCells> {
+  const n = cells.length;
+  const rows = new Uint32Array(n);
+  const cols = new Uint32Array(n);
+  const lengths = new Uint32Array(n);
+  const texts: string[] = [];
+  for (let from = 0; from < n; from += PACK_SLICE) {
+    const to = Math.min(n, from + PACK_SLICE);
+    const inputs: string[] = new Array(to - from);
+    for (let i = from; i < to; i++) {
+      const [row, col, input] = cells[i];
+      rows[i] = row;
+      cols[i] = col;
+      lengths[i] = input.length;
+      inputs[i - from] = input;
+    }
+    texts.push(inputs.join(''));
+    if (to < n) await turn();
+  }
+  return { rows, cols, lengths, text: texts.join('') };
+}
+
 export function unpackCells(packed: PackedCells): CellTriple[] {
   const { rows, cols, lengths, text } = packed;
   const cells: CellTriple[] = new Array(rows.length);

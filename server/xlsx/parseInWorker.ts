@@ -1,21 +1,29 @@
 // readSpreadsheet in a worker of the shared pool (workerPool.ts), under its memory and time limits.
 // Cheap refusals (size, magic bytes) happen here first, so an obviously wrong upload costs no worker.
 import { defaultImportLimits, defaultWorkerLimits, type ImportLimits, type WorkerLimits } from './limits.js';
-import { unpackSheets, type PackedParsedWorkbook } from './packedCells.js';
+import { unpackCells, unpackSheets, type PackedCells, type PackedParsedWorkbook } from './packedCells.js';
 import { maxColIndex } from '../../shared/workbooks.js';
 import { checkCsvShape, decodeText, guessDelimiter } from './csvCount.js';
 import { extensionOf, sniffSpreadsheet } from './sniff.js';
-import type { ParsedWorkbook } from './types.js';
+import type { CellTriple, ParsedWorkbook } from './types.js';
 import { computePool, ioPool } from './workerPool.js';
 
 export interface ParseResult extends ParsedWorkbook {
   stats: { elapsedMs: number; workerHeapUsedBytes: number; /** Packing the cells for the trip back (packedCells.ts). */ packMs: number };
+  /** Sheets (by index) whose cells were handed to `onCells` as they were read; their `cells` hold them all too. */
+  streamedSheets: number[];
 }
 
 export async function parseInWorker(
   buffer: Uint8Array,
   filename: string,
-  options: { limits?: ImportLimits; workerLimits?: WorkerLimits; owner?: string } = {},
+  options: {
+    limits?: ImportLimits;
+    workerLimits?: WorkerLimits;
+    owner?: string;
+    /** Each .xlsx sheet's cells in order, a batch at a time while the rest is still being read. */
+    onCells?: (sheet: number, cells: CellTriple[]) => void;
+  } = {},
 ): Promise<ParseResult> {
   const limits = options.limits ?? defaultImportLimits;
   if (sniffSpreadsheet(buffer, filename, limits) === 'csv') {
@@ -25,14 +33,37 @@ export async function parseInWorker(
   // A private copy, moved (not copied again) into the worker.
   const copy = new Uint8Array(buffer);
   // The worker sends each sheet's cells packed (packedCells.ts): cheaper to move than 100,000 small arrays.
-  const outcome = await ioPool.run<PackedParsedWorkbook & { packMs: number }>({ kind: 'parse', buffer: copy, filename, limits }, [copy.buffer], {
+  const { onCells } = options;
+  const collected: CellTriple[][] = [];
+  let failed: unknown = null;
+  const onProgress = (m: unknown) => {
+    const batch = (m as { cells?: { sheet: number; packed: PackedCells } }).cells;
+    if (!batch || failed) return;
+    const cells = unpackCells(batch.packed);
+    const into = (collected[batch.sheet] ??= []);
+    for (const cell of cells) into.push(cell);
+    try {
+      onCells!(batch.sheet, cells);
+    } catch (e) {
+      failed = e; // the read is stopped; this error, not the stop, is what the caller gets
+      stop.abort();
+    }
+  };
+  const stop = new AbortController();
+  const outcome = await ioPool.run<PackedParsedWorkbook & { packMs: number; streamed: number[] }>({ kind: 'parse', buffer: copy, filename, limits, stream: onCells !== undefined }, [copy.buffer], {
     limits: options.workerLimits ?? defaultWorkerLimits,
     doing: 'reading the file',
     owner: options.owner,
+    onProgress: onCells && onProgress,
+    signal: onCells && stop.signal,
+  }).catch((e: unknown) => {
+    throw failed ?? e;
   });
-  const { packMs, ...packed } = outcome.result;
+  if (failed) throw failed;
+  const { packMs, streamed, ...packed } = outcome.result;
   const parsed: ParsedWorkbook = unpackSheets(packed);
-  return { ...parsed, stats: { elapsedMs: outcome.elapsedMs, workerHeapUsedBytes: outcome.workerHeapUsedBytes, packMs } };
+  for (const i of streamed) parsed.sheets[i].cells = collected[i] ?? [];
+  return { ...parsed, streamedSheets: streamed, stats: { elapsedMs: outcome.elapsedMs, workerHeapUsedBytes: outcome.workerHeapUsedBytes, packMs } };
 }
 
 /** Stops the idle workers of both pools (tests, shutdown). */

@@ -5,7 +5,7 @@ import { cellName, parseRangeName, type CellRange } from '../../shared/a1.js';
 import { readCell } from './cellInput.js';
 import { SpreadsheetError, type ImportLimits } from './limits.js';
 import { asTextInput, textsNeedingApostrophe } from './textLiterals.js';
-import { ABOUT_SHEET_MARK, ABOUT_SHEET_NAME, WORKBOOK_CREATOR, type ParsedSheet, type ParsedWorkbook, type SkippedCell } from './types.js';
+import { ABOUT_SHEET_MARK, ABOUT_SHEET_NAME, WORKBOOK_CREATOR, type CellTriple, type ParsedSheet, type ParsedWorkbook, type SkippedCell } from './types.js';
 import { inspectXlsxZip } from './zipGuard.js';
 
 // Parts Orbitab does not import. Skipping them also keeps exceljs from expanding a data-validation
@@ -22,7 +22,16 @@ interface PendingText {
   text: string;
 }
 
-export async function readXlsx(buffer: Buffer, limits: ImportLimits): Promise<ParsedWorkbook> {
+/** Cells handed to `onCells` at a time while reading (readSpreadsheet's streaming mode). */
+export const CELLS_PER_BATCH = 8_192;
+
+/**
+ * Receives each sheet's cells in order, a batch at a time, as they are read: the caller can store one
+ * batch while the next is read. `sheet` counts the sheets of the result (the provenance page skipped).
+ */
+export type CellBatchSink = (sheet: number, cells: CellTriple[]) => void;
+
+export async function readXlsx(buffer: Buffer, limits: ImportLimits, onCells?: CellBatchSink): Promise<ParsedWorkbook> {
   const started = performance.now();
   await inspectXlsxZip(buffer, limits);
   const guardedAt = performance.now();
@@ -49,6 +58,15 @@ export async function readXlsx(buffer: Buffer, limits: ImportLimits): Promise<Pa
     if (ws.state && ws.state !== 'visible') notes.push(`sheet "${ws.name}" was hidden in the file; it is imported visible`);
     const sheet: ParsedSheet = { name: ws.name, cells: [], columnWidths: columnWidthsOf(ws), ...frozenPaneOf(ws), merged: mergedRangesOf(ws) };
     const arrays: CellRange[] = [];
+    const sheetIndex = sheets.length;
+    let sent = 0;
+    // A batch goes out once its texts know whether they need an apostrophe.
+    const flush = () => {
+      resolveTexts(pending);
+      pending.length = 0;
+      onCells!(sheetIndex, sheet.cells.slice(sent));
+      sent = sheet.cells.length;
+    };
 
     ws.eachRow({ includeEmpty: false }, (row, rowNumber) => {
       row.eachCell({ includeEmpty: false }, (cell, colNumber) => {
@@ -81,19 +99,25 @@ export async function readXlsx(buffer: Buffer, limits: ImportLimits): Promise<Pa
           }
         }
         sheet.cells.push([r, c, reading.input]);
+        if (onCells && sheet.cells.length - sent >= CELLS_PER_BATCH) flush();
       });
     });
+    if (onCells) flush();
     sheets.push(sheet);
   }
 
   if (cellCount > limits.maxCells) {
     throw new SpreadsheetError('too_many_cells', `the workbook has ${cellCount.toLocaleString('en')} cells with content; the limit is ${limits.maxCells.toLocaleString('en')}`);
   }
-  const quote = textsNeedingApostrophe(pending.map((p) => p.text));
-  pending.forEach((p, i) => (p.sheet.cells[p.index][2] = asTextInput(p.text, quote[i])));
+  resolveTexts(pending);
 
   const timing = { guardMs: guardedAt - started, loadMs: loadedAt - guardedAt, cellsMs: performance.now() - loadedAt };
   return { sheets, summary: { sheets: sheets.length, cells: cellCount, formulas, skipped, notes }, timing };
+}
+
+function resolveTexts(pending: PendingText[]) {
+  const quote = textsNeedingApostrophe(pending.map((p) => p.text));
+  pending.forEach((p, i) => (p.sheet.cells[p.index][2] = asTextInput(p.text, quote[i])));
 }
 
 function isOrbitabAboutSheet(workbook: ExcelJS.Workbook, ws: ExcelJS.Worksheet): boolean {
