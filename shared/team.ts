@@ -205,10 +205,25 @@ export type EditBlock = { kind: 'sheet'; sheetId: string; standing: SheetStandin
  * grid's greyed cells both call this, so they cannot disagree.
  */
 export function editBlock(protection: Protection, who: SheetActor, sheetId: string, row: number, col: number): EditBlock | null {
+  return sheetEditBlocker(protection, who, sheetId)?.(row, col) ?? null;
+}
+
+/**
+ * editBlock for many cells of one sheet: the standing and the ranges that bind `who` are looked up
+ * once, not per cell (a patch may hold tens of thousands). Null when no cell of the sheet is blocked.
+ */
+export function sheetEditBlocker(protection: Protection, who: SheetActor, sheetId: string): ((row: number, col: number) => EditBlock | null) | null {
   const standing = sheetStanding(protection, who, sheetId);
-  if (standing.role !== 'editor') return { kind: 'sheet', sheetId, standing };
-  const range = protection.protectedRanges.find((r) => r.sheetId === sheetId && boundsContain(r.bounds, row, col) && !r.editors.some((e) => e.id === who.id));
-  return range ? { kind: 'range', range } : null;
+  if (standing.role !== 'editor') {
+    const block: EditBlock = { kind: 'sheet', sheetId, standing };
+    return () => block;
+  }
+  const binding = protection.protectedRanges.filter((r) => r.sheetId === sheetId && !r.editors.some((e) => e.id === who.id));
+  if (binding.length === 0) return null;
+  return (row, col) => {
+    const range = binding.find((r) => boundsContain(r.bounds, row, col));
+    return range ? { kind: 'range', range } : null;
+  };
 }
 
 /** Whether the sheet itself (name, position, settings, deletion) is closed to `who`: their standing when they only view it. */

@@ -116,6 +116,19 @@ describe('patch queue', () => {
     expect(store.load()?.changes).toEqual([cell(0, 0, 'x')]);
   });
 
+  it('sends one action of 12,000 changes (a column deleted on a 1,200-row sheet) as one patch', async () => {
+    const server = scriptedServer();
+    const { q } = newQueue(server.transport);
+    const action = Array.from({ length: 12_000 }, (_, i) => cell(Math.floor(i / 10), i % 10, i % 10 === 9 ? '' : `=BONDORDER(A${i})`));
+    q.enqueue(action);
+    await vi.advanceTimersByTimeAsync(300);
+    await settle();
+    expect(server.sent).toHaveLength(1);
+    expect(server.sent[0]).toEqual({ baseRevision: 7, changes: action });
+    expect(q.status).toEqual({ kind: 'saved' });
+    expect(q.baseRevision).toBe(8);
+  });
+
   it('splits a patch the server finds too large and sends the halves', async () => {
     const server = scriptedServer();
     server.answers.push(() => Promise.reject(new ApiError(413, 'too_large', 'patch too large')));

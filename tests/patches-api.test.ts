@@ -186,6 +186,43 @@ describe('refusing malformed and oversized patches', () => {
     expect((await w.load()).sheets[0].cells).toHaveLength(maxCellsPerPatch);
   });
 
+  it('saves a column deleted on a 1,280-row sheet (12,800 cells shifted) as one patch and one revision', async () => {
+    const rows = 1_280;
+    const species = ['O2', 'N2', 'NO', 'CO', 'CN-'];
+    const filled = Array.from({ length: rows * 10 }, (_, i) => {
+      const row = Math.floor(i / 10);
+      const col = i % 10;
+      return cell(w.sheetId, row, col, col === 0 ? species[row % species.length] : `=BONDORDER(A${row + 1})*${col}`);
+    });
+    const seeded = await post({ baseRevision: 0, changes: filled });
+    expect(seeded.body).toEqual({ revision: 1, applied: rows * 10 });
+    // Deleting column A: every cell takes its right-hand neighbour's input, the last column empties.
+    const inputAt = new Map(filled.map((c) => [`${c.row}:${c.col}`, c.input]));
+    const shifted = filled.map((c) => ({ ...c, input: inputAt.get(`${c.row}:${c.col + 1}`) ?? '' }));
+    expect(shifted.length).toBeGreaterThan(10_000);
+    const res = await post({ baseRevision: 1, changes: shifted });
+    expect(res.status).toBe(200);
+    expect(res.body).toEqual({ revision: 2, applied: rows * 10 });
+    const history = await t.ann.agent.get(`/api/workbooks/${w.id}/revisions`).expect(200);
+    expect(history.body.revision).toBe(2);
+    expect(history.body.revisions.map((r: { number: number; changeCount: number }) => [r.number, r.changeCount])).toEqual([
+      [2, rows * 10],
+      [1, rows * 10],
+    ]);
+    const detail = await t.ann.agent.get(`/api/workbooks/${w.id}/revisions/2`).expect(200);
+    expect(detail.body.patch.changes[0]).toEqual({ sheetId: w.sheetId, row: 0, col: 0, before: 'O2', after: '=BONDORDER(A1)*1' });
+    const stored = (await w.load()).sheets[0].cells;
+    expect(stored).toHaveLength(rows * 9);
+    expect(stored[0]).toEqual([0, 0, '=BONDORDER(A1)*1']);
+  });
+
+  it('fits a patch at the cell limit of long formulas on long ids inside the body limit', () => {
+    const id = 'x'.repeat(36); // a sheet id as long as a UUID
+    const input = `=BONDORDER(A1)*${'9'.repeat(100)}`;
+    const body = JSON.stringify({ baseRevision: 999_999, changes: Array.from({ length: maxCellsPerPatch }, () => ({ sheetId: id, row: 999_999, col: 1_999, input })) });
+    expect(Buffer.byteLength(body)).toBeLessThan(maxBodyBytes);
+  });
+
   it('refuses a body over the size limit with 413 naming the limit, and saves nothing', async () => {
     const big = 'x'.repeat(32_000);
     const changes = Array.from({ length: Math.ceil(maxBodyBytes / big.length) + 1 }, (_, i) => cell(w.sheetId, 20_000 + i, 0, big));

@@ -11,6 +11,17 @@ import { maxUnsentBytes, moveCursor, startLiveStream, type LiveStreamConnection 
 import { PresenceBoard } from '../services/presence.js';
 import { accessMiddleware, accessOf } from './access.js';
 
+// The JSON of each revision's data, kept while the data object lives: every stream watching a
+// workbook gets the same object (services/liveStream.ts), and a 30,000-cell revision takes a while to
+// serialise. Only revisions: their data is never changed once published.
+const serialised = new WeakMap<object, string>();
+function json(event: string, data: unknown): string {
+  if (event !== 'revision' || typeof data !== 'object' || data === null) return JSON.stringify(data);
+  let text = serialised.get(data);
+  if (text === undefined) serialised.set(data, (text = JSON.stringify(data)));
+  return text;
+}
+
 function openStream(res: Response, user: { id: string; name: string }): LiveStreamConnection {
   res.status(200).set({
     'Content-Type': 'text/event-stream; charset=utf-8',
@@ -32,7 +43,7 @@ function openStream(res: Response, user: { id: string; name: string }): LiveStre
         res.destroy();
         return;
       }
-      res.write(`${id !== undefined ? `id: ${id}\n` : ''}event: ${event}\ndata: ${JSON.stringify(data)}\n\n`);
+      res.write(`${id !== undefined ? `id: ${id}\n` : ''}event: ${event}\ndata: ${json(event, data)}\n\n`);
     },
     keepAlive() {
       if (res.writableLength > maxUnsentBytes) res.destroy();

@@ -33,7 +33,17 @@ export interface LiveStreamConnection extends LiveConnection {
   readonly gone: boolean;
 }
 
+// One data object per published revision, shared by every stream watching the workbook, so the
+// connection serialises a large revision once (routes/live.ts), not once per watcher.
+const sharedData = new WeakMap<object, LiveEvents['revision']>();
+
 function revisionData(r: { revision: number; kind: RevisionKind; authorId: string | null; patch: RevisionPatch }): LiveEvents['revision'] {
+  let data = sharedData.get(r);
+  if (!data) sharedData.set(r, (data = revisionDataOf(r)));
+  return data;
+}
+
+function revisionDataOf(r: { revision: number; kind: RevisionKind; authorId: string | null; patch: RevisionPatch }): LiveEvents['revision'] {
   return { revision: r.revision, kind: r.kind, authorId: r.authorId ?? '', changes: r.patch.changes, sheetOps: r.patch.sheetOps, ...(r.patch.restoredFrom !== undefined ? { restoredFrom: r.patch.restoredFrom } : {}) };
 }
 

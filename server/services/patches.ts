@@ -5,7 +5,7 @@ import type { CellChangeRecord, CellConflict, PatchInput, PatchResult, RevisionP
 import type { AppContext } from '../context.js';
 import { badRequest, conflict, HttpError } from '../errors.js';
 import { cellAddress } from '../../shared/a1.js';
-import { readCell, writeCell } from './cellStore.js';
+import { readCells, writeCells } from './cellStore.js';
 import { currentRevision, nextRevision, recordRevision } from './revisionLog.js';
 import { sheetActor } from './access.js';
 import { assertMayEditCells } from './protection.js';
@@ -13,6 +13,24 @@ import { workbookSheets } from './sheetOps.js';
 
 /** How many conflicting cells the 409 message names before "and n more" (details list them all). */
 const namedInMessage = 5;
+
+/**
+ * What is stored at each changed cell, in the patch's order: one query per sheet (cellStore's
+ * readCells) instead of one per cell.
+ */
+function storedAt(db: AppContext['db'], changes: PatchInput['changes']): ReturnType<typeof readCells> {
+  const bySheet = new Map<string, number[]>();
+  changes.forEach((c, i) => {
+    const indices = bySheet.get(c.sheetId);
+    if (indices) indices.push(i);
+    else bySheet.set(c.sheetId, [i]);
+  });
+  const stored: ReturnType<typeof readCells> = new Array(changes.length).fill(undefined);
+  for (const [sheetId, indices] of bySheet) {
+    readCells(db, sheetId, indices.map((i) => changes[i])).forEach((cell, k) => (stored[indices[k]] = cell));
+  }
+  return stored;
+}
 
 export function applyPatch(ctx: AppContext, workbookId: string, authorId: string, input: PatchInput): PatchResult {
   const result = ctx.db.transaction(
@@ -31,16 +49,17 @@ export function applyPatch(ctx: AppContext, workbookId: string, authorId: string
 
       const conflicts: CellConflict[] = [];
       const writes: CellChangeRecord[] = [];
-      for (const c of input.changes) {
-        const stored = readCell(ctx.db, c.sheetId, c.row, c.col);
-        const before = stored?.input ?? '';
-        if (before === c.input) continue; // already so: nothing to write, nothing to fight over
-        if (stored && stored.revision > input.baseRevision) {
-          conflicts.push({ sheetId: c.sheetId, row: c.row, col: c.col, theirs: before, mine: c.input, revision: stored.revision });
+      const stored = storedAt(ctx.db, input.changes);
+      input.changes.forEach((c, i) => {
+        const cell = stored[i];
+        const before = cell?.input ?? '';
+        if (before === c.input) return; // already so: nothing to write, nothing to fight over
+        if (cell && cell.revision > input.baseRevision) {
+          conflicts.push({ sheetId: c.sheetId, row: c.row, col: c.col, theirs: before, mine: c.input, revision: cell.revision });
         } else {
           writes.push({ sheetId: c.sheetId, row: c.row, col: c.col, before, after: c.input });
         }
-      }
+      });
       if (conflicts.length > 0) {
         const named = conflicts.slice(0, namedInMessage).map((k) => `${cellAddress(sheetNames.get(k.sheetId)!, k.row, k.col)} (revision ${k.revision})`);
         const more = conflicts.length > namedInMessage ? ` and ${conflicts.length - namedInMessage} more` : '';
@@ -49,7 +68,7 @@ export function applyPatch(ctx: AppContext, workbookId: string, authorId: string
       if (writes.length === 0) return { revision: current, applied: 0, patch: null };
 
       const revision = nextRevision(tx, workbookId);
-      for (const w of writes) writeCell(ctx.db, w.sheetId, w.row, w.col, w.after, revision);
+      writeCells(ctx.db, revision, writes);
       const patch: RevisionPatch = { sheetOps: [], changes: writes };
       recordRevision(tx, workbookId, revision, authorId, 'edit', patch);
       return { revision, applied: writes.length, patch };

@@ -5,7 +5,7 @@
 import { eq, inArray } from 'drizzle-orm';
 import { parseCellRange } from '../../shared/cellRange.js';
 import { sheetRefusalReason } from '../../shared/permissions.js';
-import { editBlock, sheetClosedTo, type EditBlock, type Protection, type SheetActor, type SheetStanding, type UserRef } from '../../shared/team.js';
+import { sheetClosedTo, sheetEditBlocker, type EditBlock, type Protection, type SheetActor, type SheetStanding, type UserRef } from '../../shared/team.js';
 import { protectedRanges, sheetLocks, sheetRoles, sheets, users } from '../db/schema.js';
 import { HttpError } from '../errors.js';
 import { cellAddress, sheetReference } from '../../shared/a1.js';
@@ -108,8 +108,11 @@ const namedInMessage = 3;
 export function assertMayEditCells(tx: Reader, workbookId: string, who: SheetActor, changes: readonly { sheetId: string; row: number; col: number }[], sheetNames: ReadonlyMap<string, string>): void {
   const protection = loadProtection(tx, workbookId);
   const refused: { sheetId: string; row: number; col: number; message: string; lockedSheet?: string; viewOnlySheet?: string; rangeId?: string }[] = [];
+  const blockers = new Map<string, ReturnType<typeof sheetEditBlocker>>();
   for (const c of changes) {
-    const block = editBlock(protection, who, c.sheetId, c.row, c.col);
+    let blocker = blockers.get(c.sheetId);
+    if (blocker === undefined) blockers.set(c.sheetId, (blocker = sheetEditBlocker(protection, who, c.sheetId)));
+    const block = blocker?.(c.row, c.col);
     if (!block) continue;
     const name = sheetNames.get(c.sheetId) ?? c.sheetId;
     refused.push({
