@@ -2,10 +2,10 @@
 // here as well as in the cell), and, for an error or a read-only cell, the reason in plain words.
 import { useEffect, useImperativeHandle, useRef, useState, type KeyboardEvent, type Ref } from 'react';
 import type { CellView } from '../../../core/workbook/model/cellView.js';
-import { acceptsReference, closeBrackets } from '@functions/formulaShape.js';
+import { closeBrackets } from '@functions/formulaShape.js';
 import { FunctionSuggestions, useFunctionSuggestions } from './FunctionSuggestions.js';
 import { ArgumentHint } from './ArgumentHint.js';
-import { followDrag } from './SheetCell.js';
+import { arrowTarget, canPoint, followDrag, placeOf, withReference, type GridPlace, type Pointed } from './pointing.js';
 
 export interface FormulaBarProps {
   address: string;
@@ -33,9 +33,6 @@ export interface FormulaBarHandle {
   edit(typed?: string): void;
 }
 
-type Cell = { row: number; col: number };
-const ARROWS: Record<string, [number, number]> = { ArrowUp: [-1, 0], ArrowDown: [1, 0], ArrowLeft: [0, -1], ArrowRight: [0, 1] };
-
 export function FormulaBar(p: FormulaBarProps) {
   const [draft, setDraft] = useState<string | null>(null);
   const [addressDraft, setAddressDraft] = useState<string | null>(null);
@@ -57,58 +54,45 @@ export function FormulaBar(p: FormulaBarProps) {
   // Point mode in the bar: while the formula waits for a reference, a click on a grid cell or an
   // arrow key inserts one (Shift extends it to a range from where pointing began); the next click or
   // arrow replaces the reference just inserted.
-  const pointed = useRef<{ start: number; end: number; anchor: Cell; cell: Cell } | null>(null);
+  const pointed = useRef<Pointed | null>(null);
   const refFor = p.refFor;
-  const pointable = (el: HTMLInputElement) => {
-    if (el.selectionStart !== el.selectionEnd) return false;
-    const at = el.selectionStart ?? el.value.length;
-    return (pointed.current !== null && pointed.current.end === at) || acceptsReference(el.value, at);
-  };
-  const pointAt = (el: HTMLInputElement, cell: Cell, extend: boolean) => {
+  const pointAt = (el: HTMLInputElement, cell: GridPlace, extend: boolean) => {
     if (!refFor) return;
-    const at = el.selectionStart ?? el.value.length;
-    const last = pointed.current && pointed.current.end === at ? pointed.current : null;
-    const start = last ? last.start : at;
-    const anchor = extend && last ? last.anchor : cell;
-    const ref =
-      anchor.row === cell.row && anchor.col === cell.col
-        ? refFor(cell.row, cell.col)
-        : `${refFor(Math.min(anchor.row, cell.row), Math.min(anchor.col, cell.col))}:${refFor(Math.max(anchor.row, cell.row), Math.max(anchor.col, cell.col))}`;
-    const next = el.value.slice(0, start) + ref + el.value.slice(last ? last.end : at);
-    pointed.current = { start, end: start + ref.length, anchor, cell };
+    const made = withReference(el, pointed.current, cell, extend, refFor);
+    const end = made.pointed.end;
+    pointed.current = made.pointed;
     // Set on the field at once as well: a drag or a held arrow may point again before React renders.
-    el.value = next;
-    el.setSelectionRange(start + ref.length, start + ref.length);
-    setDraft(next);
-    setCaret(start + ref.length);
+    el.value = made.text;
+    el.setSelectionRange(end, end);
+    setDraft(made.text);
+    setCaret(end);
     // Again after React's render, unless keys typed since have moved on: put back then, the caret
     // would jump before them (a ')' typed at once would land inside the reference's bracket).
     requestAnimationFrame(() => {
-      if (el.value === next) el.setSelectionRange(start + ref.length, start + ref.length);
+      if (el.value === made.text) el.setSelectionRange(end, end);
     });
   };
   useEffect(() => {
     if (draft === null || !refFor) return;
     const mousedown = (e: MouseEvent) => {
       const el = field.current;
-      const target = e.target instanceof HTMLElement ? e.target.closest<HTMLElement>('[data-view-row]') : null;
-      if (!el || !target || e.button !== 0 || document.activeElement !== el || !pointable(el)) return;
+      const cell = e.button === 0 ? placeOf(e.target) : null;
+      if (!el || !cell || document.activeElement !== el || !canPoint(el, pointed.current)) return;
       e.preventDefault();
       e.stopPropagation();
-      pointAt(el, { row: Number(target.dataset.viewRow), col: Number(target.dataset.col) }, e.shiftKey);
+      pointAt(el, cell, e.shiftKey);
       followDrag((over) => pointAt(el, over, true));
     };
     window.addEventListener('mousedown', mousedown, true);
     return () => window.removeEventListener('mousedown', mousedown, true);
   });
   const arrowPoint = (e: KeyboardEvent<HTMLInputElement>): boolean => {
-    const step = ARROWS[e.key];
     const el = e.currentTarget;
-    if (!step || e.ctrlKey || e.metaKey || e.altKey || draft === null || !p.pointFrom || !p.extent || !pointable(el)) return false;
+    if (e.ctrlKey || e.metaKey || e.altKey || draft === null || !p.pointFrom || !p.extent) return false;
+    const target = arrowTarget(e.key, el, pointed.current, { row: p.pointFrom.viewRow, col: p.pointFrom.col }, p.extent());
+    if (!target || !canPoint(el, pointed.current)) return false;
     e.preventDefault();
-    const from = pointed.current && pointed.current.end === el.selectionStart ? pointed.current.cell : { row: p.pointFrom.viewRow, col: p.pointFrom.col };
-    const { rows, cols } = p.extent();
-    pointAt(el, { row: Math.max(0, Math.min(rows - 1, from.row + step[0])), col: Math.max(0, Math.min(cols - 1, from.col + step[1])) }, e.shiftKey);
+    pointAt(el, target, e.shiftKey);
     return true;
   };
 

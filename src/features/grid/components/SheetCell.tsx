@@ -4,12 +4,13 @@
 // the rows it touched). The edit is committed when the editor closes, like the grid library's text
 // column does on blur.
 import { memo, useEffect, useLayoutEffect, useRef, useState } from 'react';
-import { acceptsReference, closeBrackets } from '@functions/formulaShape.js';
+import { closeBrackets } from '@functions/formulaShape.js';
 import type { CellProps } from 'react-datasheet-grid';
 import type { CellView } from '../../../core/workbook/model/cellView.js';
 import { openedByTyping } from './editorOpening.js';
 import { FunctionSuggestions, useFunctionSuggestions } from './FunctionSuggestions.js';
 import { ArgumentHint } from './ArgumentHint.js';
+import { arrowTarget, canPoint, followDrag, placeOf, withReference, type GridPlace, type Pointed } from './pointing.js';
 
 /** What every cell of a column shares; kept stable so cells do not re-render for nothing. */
 export interface CellColumnData {
@@ -23,16 +24,6 @@ export interface CellColumnData {
   /** Shows which cell a formula being typed points at (null: none). */
   onPoint: (cell: { row: number; col: number } | null) => void;
 }
-
-/** The reference just inserted by pointing: where it sits in the text and the cells it names. */
-interface Pointed {
-  start: number;
-  end: number;
-  anchor: { row: number; col: number };
-  cell: { row: number; col: number };
-}
-
-const ARROWS: Record<string, [number, number]> = { ArrowUp: [-1, 0], ArrowDown: [1, 0], ArrowLeft: [0, -1], ArrowRight: [0, 1] };
 
 type SheetCellProps = CellProps<CellView | null | undefined, CellColumnData>;
 
@@ -86,28 +77,16 @@ function CellEditor({ rowData, setRowData, columnData, rowIndex, columnIndex }: 
     update(t);
   };
 
-  /** Point mode: the caret sits where a reference may go, or right after one just pointed at. */
-  const pointable = () => {
-    const el = input.current;
-    if (!el || el.selectionStart !== el.selectionEnd) return false;
-    const at = el.selectionStart ?? el.value.length;
-    return (pointed.current !== null && pointed.current.end === at) || acceptsReference(el.value, at);
-  };
+  const pointable = () => input.current !== null && canPoint(input.current, pointed.current);
   /** Inserts (or replaces the last pointed) reference to `cell`; with `extend`, a range from the anchor. */
-  const pointAt = (cell: { row: number; col: number }, extend = false) => {
+  const pointAt = (cell: GridPlace, extend = false) => {
     const el = input.current!;
-    const last = pointed.current;
-    const at = el.selectionStart ?? el.value.length;
-    const start = last && last.end === at ? last.start : at;
-    const anchor = extend && last ? last.anchor : cell;
-    const ref = anchor.row === cell.row && anchor.col === cell.col ? columnData.refFor(cell.row, cell.col) : `${columnData.refFor(Math.min(anchor.row, cell.row), Math.min(anchor.col, cell.col))}:${columnData.refFor(Math.max(anchor.row, cell.row), Math.max(anchor.col, cell.col))}`;
-    const next = el.value.slice(0, start) + ref + el.value.slice(last && last.end === at ? last.end : at);
-    el.value = next;
-    const end = start + ref.length;
-    el.setSelectionRange(end, end);
-    pointed.current = { start, end, anchor, cell };
-    update(next, true);
-    setCaret(end);
+    const made = withReference(el, pointed.current, cell, extend, columnData.refFor);
+    el.value = made.text;
+    el.setSelectionRange(made.pointed.end, made.pointed.end);
+    pointed.current = made.pointed;
+    update(made.text, true);
+    setCaret(made.pointed.end);
     columnData.onPoint(cell);
   };
 
@@ -115,10 +94,8 @@ function CellEditor({ rowData, setRowData, columnData, rowIndex, columnIndex }: 
   // Window, capture phase: before the grid library's document listener would commit and move.
   useEffect(() => {
     const mousedown = (e: MouseEvent) => {
-      if (e.button !== 0 || !(e.target instanceof HTMLElement)) return;
-      const target = e.target.closest<HTMLElement>('[data-view-row]');
-      if (!target || !pointable()) return;
-      const cell = { row: Number(target.dataset.viewRow), col: Number(target.dataset.col) };
+      const cell = e.button === 0 ? placeOf(e.target) : null;
+      if (!cell || !pointable()) return;
       if (cell.row === rowIndex && cell.col === columnIndex && !pointed.current) return;
       e.preventDefault(); // the caret stays in the editor
       e.stopPropagation();
@@ -145,14 +122,12 @@ function CellEditor({ rowData, setRowData, columnData, rowIndex, columnIndex }: 
         onKeyDown={(e) => {
           if (suggestions.handleKey(e, applySuggestion)) return;
           if (e.key === 'Escape') state.current.escaped = true;
-          const step = ARROWS[e.key];
-          if (step && !e.ctrlKey && !e.metaKey && !e.altKey && pointable()) {
-            // Arrows point at cells while a formula waits for a reference (the grid does not move).
+          // Arrows point at cells while a formula waits for a reference (the grid does not move).
+          const target = e.ctrlKey || e.metaKey || e.altKey ? null : arrowTarget(e.key, input.current!, pointed.current, { row: rowIndex, col: columnIndex }, columnData.extent());
+          if (target && pointable()) {
             e.preventDefault();
             e.stopPropagation();
-            const from = pointed.current && pointed.current.end === input.current!.selectionStart ? pointed.current.cell : { row: rowIndex, col: columnIndex };
-            const { rows, cols } = columnData.extent();
-            pointAt({ row: Math.max(0, Math.min(rows - 1, from.row + step[0])), col: Math.max(0, Math.min(cols - 1, from.col + step[1])) }, e.shiftKey);
+            pointAt(target, e.shiftKey);
           }
         }}
       />
@@ -160,29 +135,6 @@ function CellEditor({ rowData, setRowData, columnData, rowIndex, columnIndex }: 
       <ArgumentHint text={text} caret={caret} anchor={input} hidden={suggestions.items.length > 0} />
     </>
   );
-}
-
-/**
- * While the button that pointed at a cell stays down, dragging over other cells makes the reference
- * a range from the first one (the grid's own drag selection never starts: its mousedown was taken).
- */
-export function followDrag(extendTo: (cell: { row: number; col: number }) => void) {
-  let last = '';
-  const move = (e: MouseEvent) => {
-    const target = e.target instanceof HTMLElement ? e.target.closest<HTMLElement>('[data-view-row]') : null;
-    if (!target) return;
-    e.preventDefault();
-    const key = `${target.dataset.viewRow}:${target.dataset.col}`;
-    if (key === last) return;
-    last = key;
-    extendTo({ row: Number(target.dataset.viewRow), col: Number(target.dataset.col) });
-  };
-  const up = () => {
-    window.removeEventListener('mousemove', move, true);
-    window.removeEventListener('mouseup', up, true);
-  };
-  window.addEventListener('mousemove', move, true);
-  window.addEventListener('mouseup', up, true);
 }
 
 function SheetCellImpl(props: SheetCellProps) {
