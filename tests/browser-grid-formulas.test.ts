@@ -130,7 +130,8 @@ describe('point mode', () => {
 // A busy page (the rows of a large sheet loading in slices, the side panel laying out) may paint its
 // next frame only after the next keys have been typed. The completion's caret must not wait for that
 // frame: placed late, it jumped back before the typed characters (=UNPAIRED(1)A, unreadable).
-async function holdFrames() {
+/** Runs `keys` while the page's animation frames are held back, then lets the held frames run. */
+async function withFramesHeld(keys: () => Promise<void>) {
   await page.evaluate(() => {
     const w = window as unknown as { heldFrames: FrameRequestCallback[]; releaseFrames: () => void };
     const real = window.requestAnimationFrame.bind(window);
@@ -141,21 +142,22 @@ async function holdFrames() {
       for (const cb of w.heldFrames.splice(0)) cb(performance.now());
     };
   });
+  try {
+    await keys();
+  } finally {
+    await page.evaluate(() => (window as unknown as { releaseFrames: () => void }).releaseFrames());
+  }
 }
-const releaseFrames = () => page.evaluate(() => (window as unknown as { releaseFrames: () => void }).releaseFrames());
 
 describe('completing a function name', () => {
   it('keeps what is typed after Tab in place even when the next frame comes late', async () => {
     await clickCell('G1');
     await page.keyboard.type('=UNP');
     await page.getByRole('listbox', { name: 'Functions' }).getByRole('option', { name: /UNPAIRED/ }).waitFor();
-    await holdFrames();
-    try {
+    await withFramesHeld(async () => {
       await page.keyboard.press('Tab');
       await page.keyboard.type('A');
-    } finally {
-      await releaseFrames();
-    }
+    });
     await page.keyboard.type('1)');
     await expect.poll(editorText).toBe('=UNPAIRED(A1)');
     await page.keyboard.press('Enter');
@@ -167,13 +169,10 @@ describe('completing a function name', () => {
     await page.getByLabel('Formula bar').click();
     await page.keyboard.type('=UNP');
     await page.getByRole('listbox', { name: 'Functions' }).getByRole('option', { name: /UNPAIRED/ }).waitFor();
-    await holdFrames();
-    try {
+    await withFramesHeld(async () => {
       await page.keyboard.press('Tab');
       await page.keyboard.type('A');
-    } finally {
-      await releaseFrames();
-    }
+    });
     await page.keyboard.type('1)');
     await expect.poll(() => page.getByLabel('Formula bar').inputValue()).toBe('=UNPAIRED(A1)');
     await page.keyboard.press('Enter');
@@ -184,13 +183,10 @@ describe('completing a function name', () => {
     await clickCell('G3');
     await page.getByLabel('Formula bar').click();
     await page.keyboard.type('=BONDORDER(');
-    await holdFrames();
-    try {
+    await withFramesHeld(async () => {
       await clickCell('A1');
       await page.keyboard.type(')');
-    } finally {
-      await releaseFrames();
-    }
+    });
     await page.keyboard.type('*2');
     await expect.poll(() => page.getByLabel('Formula bar').inputValue()).toBe('=BONDORDER(A1)*2');
     await page.keyboard.press('Enter');

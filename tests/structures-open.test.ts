@@ -18,13 +18,18 @@ const molecules = ['C=C', 'O=C=O', 'N#N', 'CC=O'];
 /** Rows of the library, the molecules over and over: more formulas than one slice puts back. */
 const ROWS = 60;
 
+/** A one-sheet workbook holding these cells. */
+function payloadOf(cells: [number, number, string][]): WorkbookPayload {
+  return { id: 'wb', title: 'Library', revision: 3, role: 'editor', actions: allowedActions(['editor']), sheets: [{ id: 's1', name: 'Sheet1', position: 0, settings: {}, cells }] };
+}
+
 function libraryPayload(): WorkbookPayload {
   const cells: [number, number, string][] = [[0, 0, 'SMILES']];
   Array.from({ length: ROWS }, (_, i) => molecules[i % molecules.length]).forEach((m, i) => {
     const r = i + 1;
     cells.push([r, 0, m], [r, 1, `=EHTHOMO(A${r + 1})`], [r, 2, `=EHTGAP($A$${r + 1})`], [r, 3, `=EHTCHARGE(A${r + 1},1)`], [r, 4, `=B${r + 1}*2`]);
   });
-  return { id: 'wb', title: 'Library', revision: 3, role: 'editor', actions: allowedActions(['editor']), sheets: [{ id: 's1', name: 'Sheet1', position: 0, settings: {}, cells }] };
+  return payloadOf(cells);
 }
 
 /** Every cell's shown text, as the grid draws it. */
@@ -60,28 +65,17 @@ afterAll(() => setStructureResolver(null));
 
 describe('the structures a workbook names, read from its formulas', () => {
   it('finds the library shapes: a cell reference (relative or absolute), quoted text, a literal charge', () => {
-    const payload: WorkbookPayload = {
-      ...libraryPayload(),
-      sheets: [
-        {
-          id: 's1',
-          name: 'Sheet1',
-          position: 0,
-          settings: {},
-          cells: [
-            [0, 0, 'C=C'],
-            [0, 1, '=EHTHOMO(A1)'],
-            [0, 2, '=ehtgap($A$1)'],
-            [0, 3, '=EHTHOMO(A1,-1)'],
-            [0, 4, '=EHTCHARGE(A1,2,1)'],
-            [0, 5, '=EHTCHARGE(A1,2)'],
-            [0, 6, '=EHTBONDPOP("N#N",1,2)'],
-            [0, 7, '=EHTGEOMETRY("O=C=O")'],
-            [0, 8, '=EHTHOMO(A1,0)'],
-          ],
-        },
-      ],
-    };
+    const payload = payloadOf([
+      [0, 0, 'C=C'],
+      [0, 1, '=EHTHOMO(A1)'],
+      [0, 2, '=ehtgap($A$1)'],
+      [0, 3, '=EHTHOMO(A1,-1)'],
+      [0, 4, '=EHTCHARGE(A1,2,1)'],
+      [0, 5, '=EHTCHARGE(A1,2)'],
+      [0, 6, '=EHTBONDPOP("N#N",1,2)'],
+      [0, 7, '=EHTGEOMETRY("O=C=O")'],
+      [0, 8, '=EHTHOMO(A1,0)'],
+    ]);
     expect(structureInputsOf(payload)).toEqual([
       { structure: 'C=C' },
       { structure: 'C=C', charge: -1 },
@@ -93,28 +87,17 @@ describe('the structures a workbook names, read from its formulas', () => {
   });
 
   it('leaves to the engine what it cannot read for certain', () => {
-    const payload: WorkbookPayload = {
-      ...libraryPayload(),
-      sheets: [
-        {
-          id: 's1',
-          name: 'Sheet1',
-          position: 0,
-          settings: {},
-          cells: [
-            [0, 0, '12'],
-            [0, 1, '=EHTHOMO(A1)'], // a number, not a structure
-            [1, 0, '=LOWER("C=C")'],
-            [1, 1, '=EHTHOMO(A2)'], // a formula's value
-            [2, 1, '=EHTHOMO(A3)'], // an empty cell
-            [3, 1, '=EHTHOMO(Other!A1)'], // another sheet
-            [4, 1, '=EHTHOMO(A1,B1)'], // a charge worked out by the engine
-            [5, 1, '=EHTHOMO(TRIM(A1))'],
-            [6, 1, '=HUCKELHOMO(A1)'], // not an extended-Hückel function
-          ],
-        },
-      ],
-    };
+    const payload = payloadOf([
+      [0, 0, '12'],
+      [0, 1, '=EHTHOMO(A1)'], // a number, not a structure
+      [1, 0, '=LOWER("C=C")'],
+      [1, 1, '=EHTHOMO(A2)'], // a formula's value
+      [2, 1, '=EHTHOMO(A3)'], // an empty cell
+      [3, 1, '=EHTHOMO(Other!A1)'], // another sheet
+      [4, 1, '=EHTHOMO(A1,B1)'], // a charge worked out by the engine
+      [5, 1, '=EHTHOMO(TRIM(A1))'],
+      [6, 1, '=HUCKELHOMO(A1)'], // not an extended-Hückel function
+    ]);
     expect(structureInputsOf(payload)).toEqual([]);
   });
 });
