@@ -4,43 +4,18 @@
 // tab-separated text, copying out, the MO diagram panel, the address box and the export menu.
 // Screenshots go to tests/artifacts/.
 import fs from 'node:fs';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { gridCell, launchBrowser, signUpWithNewWorkbook, screenshot, type TestBrowser } from './helpers/browser.js';
-import { startServer, type TestServer } from './helpers/server.js';
+import { signUpWithNewWorkbook, screenshot, type TestBrowser } from './helpers/browser.js';
+import type { TestServer } from './helpers/server.js';
+import { browserSuite, gridHands } from './helpers/browserSuite.js';
 
 let server: TestServer;
 let browser: TestBrowser;
 let page: Page;
+browserSuite((s) => ({ server, browser, page } = s), { permissions: ['clipboard-read', 'clipboard-write'] });
 
-beforeAll(async () => {
-  server = await startServer();
-  browser = await launchBrowser();
-  page = browser.page;
-  page.setDefaultTimeout(15_000);
-  await browser.context.grantPermissions(['clipboard-read', 'clipboard-write'], { origin: server.url });
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.stop();
-});
-
-/** The grid cell at an A1 address, as the page shows it (found by its column header and row number). */
-const cell = (a1: string) => gridCell(page, a1);
-
-async function expectCell(a1: string, text: string) {
-  await expect.poll(async () => (await cell(a1))?.text, { timeout: 10_000, message: `cell ${a1}` }).toBe(text);
-}
-
-async function clickCell(a1: string) {
-  const c = await cell(a1);
-  if (!c) throw new Error(`cell ${a1} is not on screen`);
-  // A cell rendered past the grid's edge (under the side panel) would take no click: say so.
-  const inGrid = await page.evaluate(([x, y]) => document.elementFromPoint(x, y)?.closest('[data-testid="sheet-grid"]') != null, [c.x, c.y]);
-  if (!inGrid) throw new Error(`cell ${a1} is covered by another part of the page`);
-  await page.mouse.click(c.x, c.y);
-}
+const { cell, clickCell, expectCell } = gridHands(() => page);
 
 /** Types a row of inputs from the active cell: Tab between cells, Enter at the end. */
 async function typeRow(inputs: string[]) {

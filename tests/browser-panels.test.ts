@@ -4,37 +4,20 @@
 // titles its axes, names each point, spreads coincident points, comes back after a reload and saves
 // as SVG and PNG; Protect starts from the selected range.
 import fs from 'node:fs';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { gridCell, launchBrowser, screenshot, signUpWithNewWorkbook, type TestBrowser } from './helpers/browser.js';
-import { startServer, type TestServer } from './helpers/server.js';
+import { screenshot, signUpWithNewWorkbook, type TestBrowser } from './helpers/browser.js';
+import type { TestServer } from './helpers/server.js';
+import { browserSuite, gridHands } from './helpers/browserSuite.js';
 
 let server: TestServer;
 let browser: TestBrowser;
 let page: Page;
+browserSuite((s) => ({ server, browser, page } = s));
 
-beforeAll(async () => {
-  server = await startServer();
-  browser = await launchBrowser();
-  page = browser.page;
-  page.setDefaultTimeout(15_000);
-}, 120_000);
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.stop();
-});
-
-const cell = (a1: string) => gridCell(page, a1);
+const { cell, clickCell } = gridHands(() => page);
 async function expectCellText(a1: string, pattern: RegExp) {
   await expect.poll(async () => (await cell(a1))?.text ?? '', { timeout: 15_000, message: `cell ${a1}` }).toMatch(pattern);
-}
-async function clickCell(a1: string, modifiers: ('Shift' | 'Control')[] = []) {
-  const c = await cell(a1);
-  if (!c) throw new Error(`cell ${a1} is not on screen`);
-  for (const m of modifiers) await page.keyboard.down(m);
-  await page.mouse.click(c.x, c.y);
-  for (const m of modifiers) await page.keyboard.up(m);
 }
 async function typeColumn(top: string, values: string[]) {
   await clickCell(top);
@@ -200,7 +183,7 @@ describe('Protect dialog', () => {
   it('starts from the selected range, with no example text that looks filled in', async () => {
     await expectCellText('A3', /pyridine/);
     await clickCell('A3');
-    await clickCell('B5', ['Shift']);
+    await clickCell('B5', { modifiers: ['Shift'] });
     await page.getByRole('button', { name: 'Protect' }).click();
     const field = page.getByRole('dialog').getByLabel('Range to protect');
     expect(await field.inputValue()).toBe('A3:B5');
