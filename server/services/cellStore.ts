@@ -1,6 +1,6 @@
 // Cell rows inside a transaction. Cells are sparse; a cleared cell stays as '' with the revision that
 // cleared it, so a later patch based on an older revision still sees the clearing as a conflict.
-import { and, asc, eq, ne, sql } from 'drizzle-orm';
+import { and, asc, eq, ne } from 'drizzle-orm';
 import type { CellEntry } from '../../shared/workbooks.js';
 import { maxColIndex } from '../../shared/a1.js';
 import type { Db } from '../db/index.js';
@@ -8,28 +8,12 @@ import { cells } from '../db/schema.js';
 
 export type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 
-const writeStatement = (db: Db) =>
-  db
-    .insert(cells)
-    .values({ sheetId: sql.placeholder('sheetId'), row: sql.placeholder('row'), col: sql.placeholder('col'), input: sql.placeholder('input'), revision: sql.placeholder('revision') })
-    .onConflictDoUpdate({ target: [cells.sheetId, cells.row, cells.col], set: { input: sql`excluded.input`, revision: sql`excluded.revision` } })
-    .prepare();
-
-// Prepared once per connection: building the SQL on every call made a 10,000-cell patch take ~2.1 s
-// (~0.4 s prepared), and preparing per transaction slowed one-cell patches. A statement prepared on
-// the connection runs inside whatever transaction is open on it.
-const prepared = new WeakMap<Db, { write: ReturnType<typeof writeStatement> }>();
-
-function statements(db: Db) {
-  let s = prepared.get(db);
-  if (!s) prepared.set(db, (s = { write: writeStatement(db) }));
-  return s;
-}
-
-// The patch path's statements, on the driver itself: a large patch reads and writes tens of
-// thousands of cells, and the query builder's per-call mapping was a good part of that time.
-// Reading goes by the patch's own [row, col] pairs (json_each joined to the primary key), one query
-// per sheet, so it costs what the patch touches, not what the sheet holds.
+// The statements of patches and restores, on the driver itself and prepared once per connection:
+// building the SQL on every call made a 10,000-cell patch take ~2.1 s (~0.4 s prepared), and the
+// query builder's per-call mapping was a good part of what remained. A statement prepared on the
+// connection runs inside whatever transaction is open on it. Reading goes by the patch's own
+// [row, col] pairs (json_each joined to the primary key), one query per sheet, so it costs what the
+// patch touches, not what the sheet holds.
 const rawStatements = (db: Db) => ({
   readMany: db.$client
     .prepare<[string, string], [number, string, number]>(
@@ -41,11 +25,11 @@ const rawStatements = (db: Db) => ({
   ),
 });
 if (maxColIndex >= 2048) throw new Error('readCells packs a column into 11 bits: widen it');
-const preparedRaw = new WeakMap<Db, ReturnType<typeof rawStatements>>();
+const prepared = new WeakMap<Db, ReturnType<typeof rawStatements>>();
 
 function raw(db: Db) {
-  let s = preparedRaw.get(db);
-  if (!s) preparedRaw.set(db, (s = rawStatements(db)));
+  let s = prepared.get(db);
+  if (!s) prepared.set(db, (s = rawStatements(db)));
   return s;
 }
 
@@ -67,11 +51,6 @@ export function readCells(db: Db, sheetId: string, places: readonly { row: numbe
 export function writeCells(db: Db, revision: number, changes: readonly { sheetId: string; row: number; col: number; after: string }[]): void {
   const write = raw(db).write;
   for (const c of changes) write.run(c.sheetId, c.row, c.col, c.after, revision);
-}
-
-/** Call inside a transaction opened on `db`. */
-export function writeCell(db: Db, sheetId: string, row: number, col: number, input: string, revision: number): void {
-  statements(db).write.run({ sheetId, row, col, input, revision });
 }
 
 /** Inserts a new sheet's cells, many rows per statement. */

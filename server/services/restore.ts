@@ -12,7 +12,7 @@ import type { CellChangeRecord, RevisionPatch, SheetOp, SheetSettings } from '..
 import type { AppContext } from '../context.js';
 import { cellKey } from '../../shared/a1.js';
 import { badRequest, notFound } from '../errors.js';
-import { sheetCells, writeCell, type Tx } from './cellStore.js';
+import { sheetCells, writeCells, type Tx } from './cellStore.js';
 import { currentRevision, nextRevision, patchesAfter, recordRevision } from './revisionLog.js';
 import { recordAudit } from './audit.js';
 import type { SheetActor } from '../../shared/team.js';
@@ -162,7 +162,7 @@ export function restoreRevision(ctx: AppContext, workbookId: string, authorId: s
       const differences = model.order.flatMap((id) => cellDifferences(tx, model.sheets.get(id)!));
       const userLevel = differences.filter((c) => !rewrittenOnly.has(cellKey(c)));
       assertMayEditCells(tx, workbookId, actor, userLevel, new Map(workbookSheets(tx, workbookId).map((s) => [s.id, s.name])));
-      for (const c of differences) writeCell(ctx.db, c.sheetId, c.row, c.col, c.after, revision);
+      writeCells(ctx.db, revision, differences);
       const changes = mergeChanges(rewrites, differences);
 
       const patch: RevisionPatch = { sheetOps, changes, restoredFrom: target };
@@ -193,7 +193,7 @@ function restoreOneSheet(ctx: AppContext, tx: Tx, workbookId: string, actor: She
   const revision = nextRevision(tx, workbookId);
   const rewrites: CellChangeRecord[] = [];
   const sheetOps = settingsChanged ? [applySheetOp(tx, workbookId, { op: 'settings', sheetId, before: now.settings, after: then.settings }, revision, authorId, rewrites)] : [];
-  for (const c of differences) writeCell(ctx.db, c.sheetId, c.row, c.col, c.after, revision);
+  writeCells(ctx.db, revision, differences);
   const changes = mergeChanges(rewrites, differences);
   const patch: RevisionPatch = { sheetOps, changes, restoredFrom: target, restoredSheetId: sheetId };
   recordRevision(tx, workbookId, revision, authorId, 'restore', patch);
