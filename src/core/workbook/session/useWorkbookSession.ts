@@ -104,14 +104,15 @@ export function useWorkbookSession(id: string) {
     const structures = new StructureStore((inputs) => fetchStructures(payload.id, inputs));
     const uninstall = installStructureStore(structures);
     const unsent = new PendingStore(storage, payload.id).load() !== null;
-    // Values stored with this very revision: open at once on them, then compute in slices.
-    if (stored && stored.revision === payload.revision) {
-      const close = openOnStoredValues(payload, storage, structures, stored, setSession, setOpenError);
+    const openInSlices = (values: ValuesPayload) => {
+      const close = openOnStoredValues(payload, storage, structures, values, setSession, setOpenError);
       return () => {
         close();
         uninstall();
       };
-    }
+    };
+    // Values stored with this very revision: open at once on them, then compute in slices.
+    if (stored && stored.revision === payload.revision) return openInSlices(stored);
     // A large sheet shows its first screenful first; the full engine is built after that paint.
     // Not when unsent changes are waiting: the preview would show the server's older values.
     let first: SheetPreview | null = null;
@@ -122,13 +123,7 @@ export function useWorkbookSession(id: string) {
       first = null; // the full build below reports any real problem
     }
     if (first) performance.measure('orbitab:build-preview', { start: previewStarted, end: performance.now() });
-    else if (formulaCount(payload) > slicedOpenMinFormulas) {
-      const close = openOnStoredValues(payload, storage, structures, { revision: payload.revision, sheets: [] }, setSession, setOpenError);
-      return () => {
-        close();
-        uninstall();
-      };
-    }
+    else if (formulaCount(payload) > slicedOpenMinFormulas) return openInSlices({ revision: payload.revision, sheets: [] });
     let s: WorkbookSession | null = null;
     let cancelled = false;
     const online = () => s?.queue.flushNow();
