@@ -48,6 +48,8 @@ export function Workspace({ session }: { session: WorkbookSession }) {
   const [sheetId, setSheetId] = useState(sheets[0]?.id ?? '');
   const activeSheetId = model.hasSheet(sheetId) ? sheetId : (sheets[0]?.id ?? '');
   const sheet = model.sheet(activeSheetId);
+  /** How many view rows and columns the grid shows (pointing and jumps stop at its edges). */
+  const extent = () => ({ rows: view.data.length, cols: sheet.colCount });
   const display = sheet.display;
 
   const [filters, setFilters] = useState<Record<string, SheetFilter | null>>({});
@@ -113,7 +115,7 @@ export function Workspace({ session }: { session: WorkbookSession }) {
   useSheetKeys({
     gridRef,
     isEditing: () => editing.current,
-    extent: () => ({ rows: view.data.length, cols: sheet.colCount }),
+    extent,
     lastUsed: () => {
       const { rows, cols } = sheet.inputs.extent();
       let row = view.data.length - 1;
@@ -198,7 +200,7 @@ export function Workspace({ session }: { session: WorkbookSession }) {
         barRef={barRef}
         refFor={(viewRow, col) => cellName(view.sheetRow(viewRow), col)}
         pointFrom={active ? { viewRow: active.row, col: active.col } : null}
-        extent={() => ({ rows: view.data.length, cols: sheet.colCount })}
+        extent={extent}
         address={address}
         input={focusInput}
         liveText={liveText}
@@ -322,7 +324,7 @@ export function Workspace({ session }: { session: WorkbookSession }) {
       <GridMenu
         gridRef={gridRef}
         commands={commands}
-        extent={() => ({ rows: view.data.length, cols: sheet.colCount })}
+        extent={extent}
         editBlocked={model.readOnly ? 'You can view this workbook but not edit it' : null}
         structureBlocked={model.structureRule?.(activeSheetId) ?? null}
         canUndo={model.history.canUndo}
