@@ -12,6 +12,7 @@ import { buildPreview, type SheetPreview } from '../model/windowPreview.js';
 import { PendingReevaluation } from '../model/pendingCells.js';
 import { installStructureStore, StructureStore } from '../structures/structureStore.js';
 import { structureInputsOf } from '../structures/structureInputs.js';
+import { useStructureToolkit } from '../structures/structureToolkit.js';
 
 export interface WorkbookSession {
   model: WorkbookModel;
@@ -95,9 +96,11 @@ export function useWorkbookSession(id: string) {
   /** The full open, held back until the preview has been painted. */
   const deferredOpen = useRef<(() => void) | null>(null);
   const payload = query.data;
+  // SMILES functions read structures with openchemlib, loaded apart from the page's code: no engine before it is in.
+  const toolkit = useStructureToolkit();
 
   useEffect(() => {
-    if (!payload || stored === undefined) return;
+    if (!payload || stored === undefined || toolkit !== 'ready') return;
     performance.mark('orbitab:workbook-loaded');
     const storage = browserStorage();
     // Installed before the preview is built: the first screenful's EHT cells ask this store too.
@@ -156,7 +159,7 @@ export function useWorkbookSession(id: string) {
       }
       setSession(null);
     };
-  }, [payload, stored]);
+  }, [payload, stored, toolkit]);
 
   // Runs after the preview is committed: the frame callback comes just before that frame is
   // painted, and the timeout after it, so the long full build never hides the preview.
@@ -170,7 +173,7 @@ export function useWorkbookSession(id: string) {
     };
   }, [preview]);
 
-  return { session, preview, payload, error: query.error ?? openError, isLoading: query.isLoading };
+  return { session, preview, payload, error: query.error ?? openError ?? (toolkit instanceof Error ? toolkit : null), isLoading: query.isLoading };
 }
 
 /**
