@@ -18,6 +18,16 @@ export const maxInputLength = 32_768;
  */
 export const maxCellsPerPatch = 20_000;
 /**
+ * One user action larger than a patch is sent as parts of at most maxCellsPerPatch cells, held by the
+ * server unapplied, and the last part applies them all as one revision (patchPartSchema). The
+ * applying is one transaction, so this bounds how long it holds the event loop: `npm run
+ * bench:big-patch` measured 50,000 cells at ~200 ms of CPU (see DEVELOPERS.md, "Large actions").
+ * The grid refuses a larger action with a message saying so, rather than saving it as several revisions.
+ */
+export const maxCellsPerAction = 50_000;
+/** How long the server holds the parts of an unfinished action after the last one arrived. */
+export const stagedActionTtlMs = 60_000;
+/**
  * The JSON body limit of the whole API (server/app.ts); a larger body is refused with 413. Room for
  * a patch of maxCellsPerPatch changes of ~200 bytes each (an id, a place and a formula).
  */
@@ -132,6 +142,20 @@ export const patchSchemaUpTo = (limit: number) =>
 export const patchSchema = patchSchemaUpTo(maxCellsPerPatch);
 export type PatchInput = z.infer<typeof patchSchema>;
 
+/**
+ * `part` of a patch body: this patch is part `index` (from 0) of `count` parts of one action. Every
+ * part carries the same baseRevision; the parts are sent in order, one at a time.
+ */
+export const patchPartSchema = z.object({
+  actionId: idSchema,
+  index: wholeNumber().min(0, 'must be 0 or more'),
+  count: wholeNumber()
+    .min(2, 'must be 2 or more (a one-part action is a plain patch)')
+    .max(Math.ceil(maxCellsPerAction / 100), `must be at most ${Math.ceil(maxCellsPerAction / 100)}`),
+}).refine((p) => p.index < p.count, { path: ['index'], message: 'must be less than count' });
+export type PatchPart = z.infer<typeof patchPartSchema>;
+export const patchPartBodySchema = z.object({ part: patchPartSchema.optional() });
+
 export const revisionListQuerySchema = z.object({
   /** Only revisions numbered below this (paging backwards). */
   before: z.coerce.number().int('must be a whole number').min(1, 'must be 1 or more').optional(),
@@ -192,6 +216,11 @@ export interface PatchResult {
   revision: number;
   /** How many cells actually changed. */
   applied: number;
+}
+
+/** The answer to a part of an action other than the last: held, not applied. */
+export interface PatchPartResult {
+  staged: { actionId: string; received: number; count: number; cells: number };
 }
 
 /** One refused cell of a 409: what is stored now and which revision wrote it. */

@@ -1,0 +1,158 @@
+// One user action larger than a patch (deleting column A of a 4,500 × 10 sheet: 45,000 cells) is sent
+// as parts and saved as ONE revision, by the last part; parts out of order, missing or expired are
+// refused with a clear 4xx and nothing of the action is saved; a colleague's edit in between is a
+// conflict exactly as for a plain patch.
+import { afterEach, beforeAll, beforeEach, describe, expect, it, vi } from 'vitest';
+import { workbookMembers } from '../server/db/schema.js';
+import { maxCellsPerAction, maxCellsPerPatch, stagedActionTtlMs, type CellConflict, type WorkbookPayload } from '../shared/workbooks.js';
+import { makeTestApp } from './helpers/app.js';
+
+type Change = { sheetId: string; row: number; col: number; input: string };
+const rows = 4_500;
+const cols = 10;
+
+async function setup() {
+  const t = makeTestApp();
+  await t.signUp('admin@lab.test', 'Site Admin');
+  const ann = await t.signUp('ann@lab.test', 'Ann Analyst');
+  const bob = await t.signUp('bob@lab.test', 'Bob Bench');
+  return { ...t, ann, bob };
+}
+type Setup = Awaited<ReturnType<typeof setup>>;
+
+/** Row r, column c of the filled sheet: distinct per cell, so a shifted cell is told from an unshifted one. */
+const filledInput = (r: number, c: number) => (c === 0 ? `S${r}` : `=${String.fromCharCode(65 + c)}${r + 1}*${c}+${r}`);
+
+describe('an action larger than one patch', () => {
+  let t: Setup;
+  let id: string;
+  let sheetId: string;
+  let filledAt: number;
+  let filled: Change[];
+  const load = async (): Promise<WorkbookPayload> => (await t.ann.agent.get(`/api/workbooks/${id}`).expect(200)).body;
+  const post = (who: 'ann' | 'bob', body: object) => t[who].agent.post(`/api/workbooks/${id}/patches`).send(body);
+  /** Deleting column A: every cell takes its right-hand neighbour's input, the last column is cleared. */
+  const deleteColumnA = (): Change[] => filled.map((c) => ({ ...c, input: c.col + 1 < cols ? filledInput(c.row, c.col + 1) : '' }));
+  const partsOf = (changes: Change[], size = maxCellsPerPatch) => Array.from({ length: Math.ceil(changes.length / size) }, (_, i) => changes.slice(i * size, (i + 1) * size));
+  const sendParts = async (changes: Change[], baseRevision: number, actionId = 'delete-col-a', order?: number[]) => {
+    const parts = partsOf(changes);
+    const answers = [];
+    for (const i of order ?? parts.keys()) answers.push(await post('ann', { baseRevision, changes: parts[i], part: { actionId, index: i, count: parts.length } }));
+    return answers;
+  };
+
+  beforeAll(async () => {
+    t = await setup();
+  });
+  beforeEach(async () => {
+    id = (await t.ann.agent.post('/api/workbooks').send({ title: 'Long screen' }).expect(201)).body.workbook.id;
+    t.db.insert(workbookMembers).values({ workbookId: id, userId: t.bob.user.id, role: 'editor' }).run();
+    sheetId = (await load()).sheets[0].id;
+    filled = [];
+    for (let r = 0; r < rows; r++) for (let c = 0; c < cols; c++) filled.push({ sheetId, row: r, col: c, input: filledInput(r, c) });
+    // The sheet is filled with plain patches of the usual size (that is not what is under test).
+    let revision = 0;
+    for (const part of partsOf(filled)) revision = (await post('ann', { baseRevision: revision, changes: part }).expect(200)).body.revision;
+    filledAt = revision;
+  });
+  afterEach(() => {
+    vi.useRealTimers();
+  });
+
+  const expectUnchanged = async () => {
+    const wb = await load();
+    expect(wb.revision).toBe(filledAt);
+    expect(wb.sheets[0].cells).toHaveLength(rows * cols);
+    expect(wb.sheets[0].cells[1]).toEqual([0, 1, filledInput(0, 1)]);
+  };
+
+  it('saves deleting column A of a 4,500 × 10 sheet (45,000 cells) as one revision the change log lists', async () => {
+    const changes = deleteColumnA();
+    expect(changes.length).toBeGreaterThan(maxCellsPerPatch * 2);
+    const answers = await sendParts(changes, filledAt);
+    expect(answers.map((a) => a.status)).toEqual([202, 202, 200]);
+    expect(answers[0].body).toEqual({ staged: { actionId: 'delete-col-a', received: 1, count: 3, cells: maxCellsPerPatch } });
+    expect(answers[2].body).toEqual({ revision: filledAt + 1, applied: rows * cols });
+
+    const wb = await load();
+    expect(wb.revision).toBe(filledAt + 1);
+    const expected = deleteColumnA()
+      .filter((c) => c.input !== '')
+      .map((c) => [c.row, c.col, c.input]);
+    expect(wb.sheets[0].cells).toEqual(expected);
+
+    const log = (await t.ann.agent.get(`/api/workbooks/${id}/revisions?limit=2`).expect(200)).body;
+    expect(log.revisions[0]).toMatchObject({ number: filledAt + 1, kind: 'edit', changeCount: rows * cols });
+    expect(log.revisions[0].preview.cells[0]).toEqual({ sheetId, row: 0, col: 0, before: 'S0', after: filledInput(0, 1) });
+    // Its undo is one revision too: the before values, sent the same way.
+    const undo = filled.map((c) => ({ ...c }));
+    const undone = await sendParts(undo, filledAt + 1, 'undo-delete-col-a');
+    expect(undone.at(-1)!.body).toEqual({ revision: filledAt + 2, applied: rows * cols });
+    expect((await load()).sheets[0].cells).toEqual(filled.map((c) => [c.row, c.col, c.input]));
+  });
+
+  it('refuses a part out of order with a clear 400 and saves nothing of the action', async () => {
+    const answers = await sendParts(deleteColumnA(), filledAt, 'jumbled', [0, 2, 1]);
+    expect(answers[1].status).toBe(400);
+    expect(answers[1].body.error).toEqual({ code: 'part_refused', message: expect.stringContaining('part 3 of 3 of action jumbled came after part 1 of 3; send the parts in order') });
+    // The action was forgotten: the remaining part has nothing to join.
+    expect(answers[2].status).toBe(410);
+    await expectUnchanged();
+  });
+
+  it('answers 410 for a part whose earlier parts the server never had or no longer holds', async () => {
+    const parts = partsOf(deleteColumnA());
+    const missing = await post('ann', { baseRevision: filledAt, changes: parts[1], part: { actionId: 'never-started', index: 1, count: 3 } });
+    expect(missing.status).toBe(410);
+    expect(missing.body.error.code).toBe('action_expired');
+    expect(missing.body.error.message).toMatch(/earlier parts are no longer held .*send it again from its first part/);
+
+    vi.useFakeTimers({ toFake: ['Date'], now: Date.now() });
+    await post('ann', { baseRevision: filledAt, changes: parts[0], part: { actionId: 'slow', index: 0, count: 3 } }).expect(202);
+    vi.setSystemTime(Date.now() + stagedActionTtlMs + 1);
+    const late = await post('ann', { baseRevision: filledAt, changes: parts[1], part: { actionId: 'slow', index: 1, count: 3 } });
+    expect(late.status).toBe(410);
+    expect(late.body.error.code).toBe('action_expired');
+    await expectUnchanged();
+  });
+
+  it('treats a colleague’s edit made between the parts as a conflict, as for a plain patch, and saves nothing', async () => {
+    const parts = partsOf(deleteColumnA());
+    await post('ann', { baseRevision: filledAt, changes: parts[0], part: { actionId: 'raced', index: 0, count: 3 } }).expect(202);
+    const bobs = await post('bob', { baseRevision: filledAt, changes: [{ sheetId, row: 10, col: 3, input: 'bob was here' }] }).expect(200);
+    await post('ann', { baseRevision: filledAt, changes: parts[1], part: { actionId: 'raced', index: 1, count: 3 } }).expect(202);
+    const last = await post('ann', { baseRevision: filledAt, changes: parts[2], part: { actionId: 'raced', index: 2, count: 3 } });
+    expect(last.status).toBe(409);
+    expect(last.body.error.code).toBe('conflict');
+    expect(last.body.error.details.conflicts as CellConflict[]).toEqual([
+      { sheetId, row: 10, col: 3, theirs: 'bob was here', mine: filledInput(10, 4), revision: bobs.body.revision },
+    ]);
+    const wb = await load();
+    expect(wb.revision).toBe(bobs.body.revision);
+    expect(wb.sheets[0].cells[0]).toEqual([0, 0, 'S0']);
+  });
+
+  it('refuses an action over the limit, a cell sent twice and a changed base, naming why', async () => {
+    const over = Math.ceil((maxCellsPerAction + 1) / maxCellsPerPatch);
+    const big = Array.from({ length: maxCellsPerAction + 1 }, (_, i) => ({ sheetId, row: 5_000 + Math.floor(i / cols), col: i % cols, input: 'x' }));
+    let answer;
+    for (const [i, part] of partsOf(big).entries()) {
+      answer = await post('ann', { baseRevision: filledAt, changes: part, part: { actionId: 'huge', index: i, count: over } });
+      if (answer.status !== 202) break;
+    }
+    expect(answer!.status).toBe(413);
+    expect(answer!.body.error).toEqual({ code: 'action_too_large', message: expect.stringContaining(`one action may change at most ${maxCellsPerAction.toLocaleString('en-US')} cells`) });
+
+    const cellA1 = [{ sheetId, row: 0, col: 0, input: 'a' }];
+    await post('ann', { baseRevision: filledAt, changes: cellA1, part: { actionId: 'twice', index: 0, count: 2 } }).expect(202);
+    const twice = await post('ann', { baseRevision: filledAt, changes: cellA1, part: { actionId: 'twice', index: 1, count: 2 } });
+    expect(twice.status).toBe(400);
+    expect(twice.body.error.message).toContain('a cell an earlier part already changed');
+
+    await post('ann', { baseRevision: filledAt, changes: cellA1, part: { actionId: 'rebased', index: 0, count: 2 } }).expect(202);
+    const rebased = await post('ann', { baseRevision: filledAt - 1, changes: [{ sheetId, row: 0, col: 1, input: 'b' }], part: { actionId: 'rebased', index: 1, count: 2 } });
+    expect(rebased.status).toBe(400);
+    expect(rebased.body.error.message).toContain(`differs from the first part's ${filledAt}`);
+    await expectUnchanged();
+  });
+});
