@@ -146,12 +146,13 @@ export type PatchInput = z.infer<typeof patchSchema>;
  * `part` of a patch body: this patch is part `index` (from 0) of `count` parts of one action. Every
  * part carries the same baseRevision; the parts are sent in order, one at a time.
  */
+export const maxPartsPerAction = 500;
 export const patchPartSchema = z.object({
   actionId: idSchema,
   index: wholeNumber().min(0, 'must be 0 or more'),
   count: wholeNumber()
     .min(2, 'must be 2 or more (a one-part action is a plain patch)')
-    .max(Math.ceil(maxCellsPerAction / 100), `must be at most ${Math.ceil(maxCellsPerAction / 100)}`),
+    .max(maxPartsPerAction, `must be at most ${maxPartsPerAction}`),
 }).refine((p) => p.index < p.count, { path: ['index'], message: 'must be less than count' });
 export type PatchPart = z.infer<typeof patchPartSchema>;
 export const patchPartBodySchema = z.object({ part: patchPartSchema.optional() });
