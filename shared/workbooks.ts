@@ -25,6 +25,9 @@ export const maxCellsPerPatch = 20_000;
  * The grid refuses a larger action with a message saying so, rather than saving it as several revisions.
  */
 export const maxCellsPerAction = 50_000;
+/** Why the grid refuses an action of `cells` changed cells (over maxCellsPerAction). */
+export const actionTooLargeReason = (cells: number) =>
+  `this would change ${cells.toLocaleString('en-US')} cells, and one action may change at most ${maxCellsPerAction.toLocaleString('en-US')} (each action is saved as one revision, in one go); work on a smaller block.`;
 /** How long the server holds the parts of an unfinished action after the last one arrived. */
 export const stagedActionTtlMs = 60_000;
 /**
