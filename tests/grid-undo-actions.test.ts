@@ -91,7 +91,7 @@ describe('one action, one undo step', () => {
     expect(outcome.refused).toHaveLength(60_000);
     expect(outcome.refused[0].reason).toBe(actionTooLargeReason(60_000));
     expect(outcome.refused[0].reason).toContain(`at most ${maxCellsPerAction.toLocaleString('en-US')}`);
-    expect(() => applyStructural(m, 's1', { axis: 'col', action: 'delete', at: 0, count: 1 })).toThrow(actionTooLargeReason(60_000));
+    expect(() => applyStructural(m, 's1', { axis: 'col', action: 'remove', at: 0, count: 1 })).toThrow(actionTooLargeReason(60_000));
     expect(inputs(m)).toEqual(before);
     expect(m.view('s1', 0, 0)?.display).toBe('v0:0');
     expect(sent).toEqual([]);

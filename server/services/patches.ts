@@ -6,7 +6,7 @@ import type { AppContext } from '../context.js';
 import { badRequest, conflict, HttpError } from '../errors.js';
 import { cellAddress } from '../../shared/a1.js';
 import { readCells, writeCells } from './cellStore.js';
-import { currentRevision, nextRevision, recordRevision } from './revisionLog.js';
+import { currentRevision, nextRevision, recordRevisionJson } from './revisionLog.js';
 import { sheetActor } from './access.js';
 import { assertMayEditCells } from './protection.js';
 import { workbookSheets } from './sheetOps.js';
@@ -70,7 +70,7 @@ export function applyPatch(ctx: AppContext, workbookId: string, authorId: string
       const revision = nextRevision(tx, workbookId);
       writeCells(ctx.db, revision, writes);
       const patch: RevisionPatch = { sheetOps: [], changes: writes };
-      recordRevision(tx, workbookId, revision, authorId, 'edit', patch);
+      recordRevisionJson(ctx.db, workbookId, revision, authorId, 'edit', JSON.stringify(patch));
       return { revision, applied: writes.length, patch };
     },
     { behavior: 'immediate' },
