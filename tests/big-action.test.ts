@@ -84,6 +84,8 @@ describe('an action larger than one patch', () => {
     const log = (await t.ann.agent.get(`/api/workbooks/${id}/revisions?limit=2`).expect(200)).body;
     expect(log.revisions[0]).toMatchObject({ number: filledAt + 1, kind: 'edit', changeCount: rows * cols });
     expect(log.revisions[0].preview.cells[0]).toEqual({ sheetId, row: 0, col: 0, before: 'S0', after: filledInput(0, 1) });
+    const detail = (await t.ann.agent.get(`/api/workbooks/${id}/revisions/${filledAt + 1}`).expect(200)).body;
+    expect(detail.patch).toEqual({ sheetOps: [], changes: filled.map((c, i) => ({ sheetId, row: c.row, col: c.col, before: c.input, after: changes[i].input })) });
     // Its undo is one revision too: the before values, sent the same way.
     const undo = filled.map((c) => ({ ...c }));
     const undone = await sendParts(undo, filledAt + 1, 'undo-delete-col-a');
@@ -130,6 +132,33 @@ describe('an action larger than one patch', () => {
     const wb = await load();
     expect(wb.revision).toBe(bobs.body.revision);
     expect(wb.sheets[0].cells[0]).toEqual([0, 0, 'S0']);
+  });
+
+  it('reports a conflict already there when the first part arrives only with the last part, naming every cell', async () => {
+    const bobs = await post('bob', { baseRevision: filledAt, changes: [{ sheetId, row: 0, col: 0, input: 'bob first' }, { sheetId, row: 4_499, col: 9, input: 'bob last' }] }).expect(200);
+    const answers = await sendParts(deleteColumnA(), filledAt, 'stale');
+    expect(answers.map((a) => a.status)).toEqual([202, 202, 409]);
+    expect((answers[2].body.error.details.conflicts as CellConflict[]).map((c) => [c.row, c.col, c.theirs, c.revision])).toEqual([
+      [0, 0, 'bob first', bobs.body.revision],
+      [4_499, 9, 'bob last', bobs.body.revision],
+    ]);
+    expect(answers[2].body.error.message).toBe(`changed by someone else after revision ${filledAt}: Screen1!A1 (revision ${bobs.body.revision}), Screen1!J4500 (revision ${bobs.body.revision}); nothing was saved`);
+    expect((await load()).revision).toBe(bobs.body.revision);
+  });
+
+  it('applies the action on top of a colleague’s edit elsewhere that landed between its parts, with exact before values', async () => {
+    const parts = partsOf(deleteColumnA());
+    await post('ann', { baseRevision: filledAt, changes: parts[0], part: { actionId: 'beside', index: 0, count: 3 } }).expect(202);
+    const bobs = await post('bob', { baseRevision: filledAt, changes: [{ sheetId, row: 4_600, col: 0, input: 'CO' }] }).expect(200);
+    await post('ann', { baseRevision: filledAt, changes: parts[1], part: { actionId: 'beside', index: 1, count: 3 } }).expect(202);
+    const last = await post('ann', { baseRevision: filledAt, changes: parts[2], part: { actionId: 'beside', index: 2, count: 3 } });
+    expect(last.body).toEqual({ revision: bobs.body.revision + 1, applied: rows * cols });
+    const cells = (await load()).sheets[0].cells;
+    expect(cells.at(-1)).toEqual([4_600, 0, 'CO']);
+    expect(cells).toHaveLength(rows * (cols - 1) + 1);
+    const detail = (await t.ann.agent.get(`/api/workbooks/${id}/revisions/${last.body.revision}`).expect(200)).body;
+    expect(detail.patch.changes).toHaveLength(rows * cols);
+    expect(detail.patch.changes).toEqual(filled.map((c) => ({ sheetId, row: c.row, col: c.col, before: c.input, after: c.col + 1 < cols ? filledInput(c.row, c.col + 1) : '' })));
   });
 
   it('refuses an action over the limit, a cell sent twice and a changed base, naming why', async () => {

@@ -8,7 +8,7 @@
 import { maxCellsPerAction, stagedActionTtlMs, type PatchInput, type PatchPart, type PatchPartResult, type PatchResult } from '../../shared/workbooks.js';
 import type { AppContext } from '../context.js';
 import { badRequest, HttpError } from '../errors.js';
-import { applyPatch } from './patches.js';
+import { applyPatch, planPatch, writesText, type PatchPlan } from './patches.js';
 
 /** Actions held at once, all people and workbooks together (~8 MB each at the cell limit). */
 export const maxHeldActions = 32;
@@ -19,6 +19,9 @@ interface HeldAction {
   count: number;
   received: number;
   changes: PatchInput['changes'][];
+  /** What each part would write, read when it arrived (a read transaction of its own, so the last part's request does less). */
+  plans: PatchPlan[];
+  writesJson: string[];
   cells: number;
   /** Row × 2048 + col of every cell so far, per sheet: a cell may appear in one part only. */
   places: Map<string, Set<number>>;
@@ -61,7 +64,7 @@ export function takePatchPart(ctx: AppContext, workbookId: string, authorId: str
     if (held.size >= maxHeldActions) {
       throw new HttpError(503, 'busy', `the server is holding ${held.size} unfinished large actions; try again in a minute`, undefined, { 'Retry-After': '30' });
     }
-    action = { actionId: part.actionId, baseRevision: patch.baseRevision, count: part.count, received: 0, changes: [], cells: 0, places: new Map(), expiresAt: 0 };
+    action = { actionId: part.actionId, baseRevision: patch.baseRevision, count: part.count, received: 0, changes: [], plans: [], writesJson: [], cells: 0, places: new Map(), expiresAt: 0 };
     held.set(key, action);
   } else if (!action || action.actionId !== part.actionId) {
     throw gone(`${where}: its earlier parts are no longer held (they are kept ${stagedActionTtlMs / 1000} s after the last one, and not over a restart); nothing of it was saved — send it again from its first part`);
@@ -81,6 +84,12 @@ export function takePatchPart(ctx: AppContext, workbookId: string, authorId: str
       if (places.has(place)) throw badRequest(`${where}: changes.${i} is a cell an earlier part already changed; send one input per cell. Nothing of the action was saved`);
       places.add(place);
     });
+    if (part.index + 1 < part.count) {
+      // Conflicts are kept, not thrown: the last part reports all of them, as one patch would.
+      const plan = ctx.db.transaction((tx) => planPatch(ctx, tx, workbookId, patch), { behavior: 'deferred' });
+      action.plans.push(plan);
+      action.writesJson.push(writesText(plan));
+    }
   } catch (e) {
     held.delete(key);
     throw e;
@@ -94,5 +103,5 @@ export function takePatchPart(ctx: AppContext, workbookId: string, authorId: str
     return { staged: { actionId: action.actionId, received: action.received, count: action.count, cells: action.cells } };
   }
   held.delete(key);
-  return applyPatch(ctx, workbookId, authorId, { baseRevision: action.baseRevision, changes: action.changes.flat() });
+  return applyPatch(ctx, workbookId, authorId, { baseRevision: action.baseRevision, changes: action.changes.flat() }, { plans: action.plans, writesJson: action.writesJson, unplanned: patch.changes });
 }
