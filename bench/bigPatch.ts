@@ -9,8 +9,8 @@
 //                revision's record, the live event to one watcher that serialises it as the stream does);
 //   request      what the route does on the loop: JSON.parse of the body, its validation, applyPatch.
 //                Above maxCellsPerPatch cells the action goes as parts (server/services/stagedActions.ts):
-//                each part is its own request; `request` is then the last part, which applies the whole
-//                action, and `part` the longest of the earlier parts (which only hold their cells).
+//                each part is its own request (full parts, then a short one); `request` is then the last
+//                part, which applies the whole action, and `part` the longest of the earlier parts (which only hold their cells).
 // The database is a file in WAL mode, as the server opens it. The values keeper is stopped: its
 // notification is a constant-time call and its work runs later, off the request. Each size is run
 // BENCH_REPEATS times (default 3); the median and the worst are reported. Results: bench/results/big-patch.json.
@@ -26,7 +26,7 @@ import { applyPatch } from '../server/services/patches.js';
 import { workbookSheets } from '../server/services/sheetOps.js';
 import { createWorkbook } from '../server/services/workbookStore.js';
 import { takePatchPart } from '../server/services/stagedActions.js';
-import { maxCellsPerAction, maxCellsPerPatch, patchSchemaUpTo, type CellChange, type PatchInput } from '../shared/workbooks.js';
+import { actionPartSizes, maxCellsPerAction, maxCellsPerPatch, patchSchemaUpTo, type CellChange, type PatchInput } from '../shared/workbooks.js';
 import { plainPatch } from '../shared/plainPatch.js';
 import { screeningCells } from './ioWorkload.js';
 
@@ -104,9 +104,11 @@ export function runBigPatchBench(sizes: number[], repeats: number): BigPatchResu
         // As the save queue sends it: one body, or parts of at most maxCellsPerPatch cells.
         // Past the action limit (the grid refuses such an action) one body of all the cells is timed,
         // to show what the limit avoids.
-        const parts = n > maxCellsPerAction ? 1 : Math.ceil(n / maxCellsPerPatch);
-        const bodies = Array.from({ length: parts }, (_, i) =>
-          JSON.stringify({ baseRevision: seeded.revision, changes: parts > 1 ? changes.slice(i * maxCellsPerPatch, (i + 1) * maxCellsPerPatch) : changes, ...(parts > 1 ? { part: { actionId: `a${r}`, index: i, count: parts } } : {}) }),
+        const sizes = n > maxCellsPerAction ? [n] : actionPartSizes(n, maxCellsPerPatch);
+        const parts = sizes.length;
+        const starts = sizes.map((_, i) => sizes.slice(0, i).reduce((a, b) => a + b, 0));
+        const bodies = sizes.map((size, i) =>
+          JSON.stringify({ baseRevision: seeded.revision, changes: changes.slice(starts[i], starts[i] + size), ...(parts > 1 ? { part: { actionId: `a${r}`, index: i, count: parts } } : {}) }),
         );
         bodyBytes = Buffer.byteLength(JSON.stringify({ baseRevision: seeded.revision, changes }));
         const take = (body: string) => {
@@ -134,7 +136,7 @@ export function runBigPatchBench(sizes: number[], repeats: number): BigPatchResu
         (viaRequest ? request : apply).push(took);
         (viaRequest ? requestCpu : applyCpu).push((cpu.user + cpu.system) / 1000);
       }
-      rows.push({ cells: n, bodyBytes, applyMs: { median: ms(median(apply)), worst: ms(Math.max(...apply)) }, requestMs: { median: ms(median(request)), worst: ms(Math.max(...request)) }, applyCpuMs: ms(median(applyCpu)), requestCpuMs: ms(median(requestCpu)), parts: n > maxCellsPerAction ? 1 : Math.ceil(n / maxCellsPerPatch), partMs: ms(median(partHold)) });
+      rows.push({ cells: n, bodyBytes, applyMs: { median: ms(median(apply)), worst: ms(Math.max(...apply)) }, requestMs: { median: ms(median(request)), worst: ms(Math.max(...request)) }, applyCpuMs: ms(median(applyCpu)), requestCpuMs: ms(median(requestCpu)), parts: n > maxCellsPerAction ? 1 : actionPartSizes(n, maxCellsPerPatch).length, partMs: ms(median(partHold)) });
     }
   } finally {
     db.$client.close();

@@ -158,6 +158,21 @@ export const patchPartSchema = z.object({
     .max(maxPartsPerAction, `must be at most ${maxPartsPerAction}`),
 }).refine((p) => p.index < p.count, { path: ['index'], message: 'must be less than count' });
 export type PatchPart = z.infer<typeof patchPartSchema>;
+
+/** The cells the last part of an action carries at most: its request applies the whole action, so it parses and reads little. */
+export const lastPartCells = 1_000;
+
+/**
+ * How an action of `total` cells is cut into parts of at most `size` cells: one part when it fits,
+ * else full parts and a short last one (lastPartCells), whose request does the applying.
+ */
+export function actionPartSizes(total: number, size: number): number[] {
+  if (total <= size) return [total];
+  const tail = Math.min(lastPartCells, size, total - 1);
+  const head = total - tail;
+  const sizes = Array.from({ length: Math.ceil(head / size) }, (_, i) => Math.min(size, head - i * size));
+  return [...sizes, tail];
+}
 export const patchPartBodySchema = z.object({ part: patchPartSchema.optional() });
 
 export const revisionListQuerySchema = z.object({

@@ -5,7 +5,7 @@ import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { PatchQueue, type PatchTransport, type SaveStatus } from '../src/core/workbook/save/patchQueue.js';
 import { PendingStore, pendingKey } from '../src/core/workbook/save/pendingStore.js';
 import { ApiError } from '../src/lib/api.js';
-import { maxCellsPerPatch } from '../shared/workbooks.js';
+import { lastPartCells, maxCellsPerPatch } from '../shared/workbooks.js';
 import { cell, MemoryStorage, scriptedServer, settle } from './helpers/scriptedServer.js';
 
 let storage: MemoryStorage;
@@ -140,10 +140,12 @@ describe('patch queue', () => {
     q.enqueue(action);
     await vi.advanceTimersByTimeAsync(300);
     await settle();
+    // Full parts, then a short last one: its request applies the whole action, so it should carry little.
     expect(server.sent.map((p) => [p.baseRevision, p.changes.length, p.part?.index, p.part?.count])).toEqual([
-      [7, maxCellsPerPatch, 0, 3],
-      [7, maxCellsPerPatch, 1, 3],
-      [7, 45_000 - 2 * maxCellsPerPatch, 2, 3],
+      [7, maxCellsPerPatch, 0, 4],
+      [7, maxCellsPerPatch, 1, 4],
+      [7, 45_000 - 2 * maxCellsPerPatch - lastPartCells, 2, 4],
+      [7, lastPartCells, 3, 4],
     ]);
     expect(new Set(server.sent.map((p) => p.part?.actionId)).size).toBe(1);
     expect(server.sent.flatMap((p) => p.changes)).toEqual(action);
@@ -154,12 +156,13 @@ describe('patch queue', () => {
     q.enqueue(bigAction((r, c) => `S${r}:${c}`));
     await vi.advanceTimersByTimeAsync(300);
     await settle();
-    expect(server.sent.slice(3).map((p) => [p.baseRevision, p.part?.index])).toEqual([
+    expect(server.sent.slice(4).map((p) => [p.baseRevision, p.part?.index])).toEqual([
       [8, 0],
       [8, 1],
       [8, 2],
+      [8, 3],
     ]);
-    expect(server.sent[3].part?.actionId).not.toBe(server.sent[0].part?.actionId);
+    expect(server.sent[4].part?.actionId).not.toBe(server.sent[0].part?.actionId);
     expect(q.baseRevision).toBe(9);
     expect(store.load()).toBeNull();
   });
@@ -174,7 +177,7 @@ describe('patch queue', () => {
     q.enqueue(bigAction(() => 'x'));
     await vi.advanceTimersByTimeAsync(300);
     await settle();
-    expect(server.sent.map((p) => p.part?.index)).toEqual([0, 0, 1, 2]);
+    expect(server.sent.map((p) => p.part?.index)).toEqual([0, 0, 1, 2, 3]);
     expect(server.sent[1].part?.actionId).not.toBe(server.sent[0].part?.actionId);
     expect(q.status).toEqual({ kind: 'saved' });
     expect(q.baseRevision).toBe(8);

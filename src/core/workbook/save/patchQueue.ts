@@ -5,7 +5,7 @@
 // RevisionLedger's rule: only revisions whose changes this browser has taken in. What is sent at once
 // is one revision: above maxCellsPerPatch cells it goes as parts of one action, which the server
 // holds until the last part and then applies together (server/services/stagedActions.ts).
-import { maxCellsPerAction, maxCellsPerPatch, maxPartsPerAction, type CellConflict, type PatchPart, type PatchPartResult, type PatchResult } from '@shared/workbooks.js';
+import { actionPartSizes, maxCellsPerAction, maxCellsPerPatch, maxPartsPerAction, type CellConflict, type PatchPart, type PatchPartResult, type PatchResult } from '@shared/workbooks.js';
 import { ApiError } from '../../../lib/api.js';
 import type { CellInput, PendingStore } from './pendingStore.js';
 import { cellKey, RevisionLedger } from './revisionLedger.js';
@@ -264,8 +264,8 @@ export class PatchQueue {
   }
 
   /**
-   * One patch, or parts of one action (each at most batchLimit cells) whose last part answers as the
-   * patch would. If the server lost the earlier parts (expired, restarted) the action is sent again
+   * One patch, or parts of one action (each at most batchLimit cells, the last a short one) whose
+   * last part answers as the patch would. If the server lost the earlier parts (expired, restarted) the action is sent again
    * from its first part, once; a second loss is reported.
    */
   private async sendAction(baseRevision: number, batch: CellInput[], again = true): Promise<PatchResult> {
@@ -275,9 +275,10 @@ export class PatchQueue {
       return this.opts.transport.send({ baseRevision, changes: batch }) as Promise<PatchResult>;
     }
     const actionId = newActionId();
-    const count = Math.ceil(batch.length / size);
-    for (let index = 0; index < count; index++) {
-      const changes = batch.slice(index * size, (index + 1) * size);
+    const sizes = actionPartSizes(batch.length, size);
+    const count = sizes.length;
+    for (let index = 0, from = 0; index < count; from += sizes[index], index++) {
+      const changes = batch.slice(from, from + sizes[index]);
       this.lastBatchSize = changes.length;
       let answer: PatchResult | PatchPartResult;
       try {
