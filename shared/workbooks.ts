@@ -21,10 +21,11 @@ export const maxCellsPerPatch = 20_000;
  * One user action larger than a patch is sent as parts of at most maxCellsPerPatch cells, held by the
  * server unapplied, and the last part applies them all as one revision (patchPartSchema). The
  * applying is one transaction, so this bounds how long it holds the event loop: `npm run
- * bench:big-patch` measured 50,000 cells at ~200 ms of CPU (see DEVELOPERS.md, "Large actions").
+ * bench:big-patch` measured that last request at ~220 ms of CPU for 40,000 cells, ~245 ms for 45,000
+ * and ~290 ms for 50,000 (load ~11 on the 2-core machine; see DEVELOPERS.md, "Large actions").
  * The grid refuses a larger action with a message saying so, rather than saving it as several revisions.
  */
-export const maxCellsPerAction = 50_000;
+export const maxCellsPerAction = 40_000;
 /** Why the grid refuses an action of `cells` changed cells (over maxCellsPerAction). */
 export const actionTooLargeReason = (cells: number) =>
   `this would change ${cells.toLocaleString('en-US')} cells, and one action may change at most ${maxCellsPerAction.toLocaleString('en-US')} (each action is saved as one revision, in one go); work on a smaller block.`;

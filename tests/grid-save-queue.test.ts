@@ -5,7 +5,7 @@ import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { PatchQueue, type PatchTransport, type SaveStatus } from '../src/core/workbook/save/patchQueue.js';
 import { PendingStore, pendingKey } from '../src/core/workbook/save/pendingStore.js';
 import { ApiError } from '../src/lib/api.js';
-import { lastPartCells, maxCellsPerPatch } from '../shared/workbooks.js';
+import { lastPartCells, maxCellsPerAction, maxCellsPerPatch } from '../shared/workbooks.js';
 import { cell, MemoryStorage, scriptedServer, settle } from './helpers/scriptedServer.js';
 
 let storage: MemoryStorage;
@@ -130,8 +130,8 @@ describe('patch queue', () => {
     expect(q.baseRevision).toBe(8);
   });
 
-  /** Deleting column A of a 4,500 × 10 sheet: 45,000 changed cells, more than one patch may carry. */
-  const bigAction = (input: (row: number, col: number) => string) => Array.from({ length: 45_000 }, (_, i) => cell(Math.floor(i / 10), i % 10, input(Math.floor(i / 10), i % 10)));
+  /** Deleting column A of a 4,000 × 10 sheet: 40,000 changed cells (the most one action may change), more than one patch may carry. */
+  const bigAction = (input: (row: number, col: number) => string) => Array.from({ length: maxCellsPerAction }, (_, i) => cell(Math.floor(i / 10), i % 10, input(Math.floor(i / 10), i % 10)));
 
   it('sends one action over the patch limit as parts of one action, saved as one revision; its undo too', async () => {
     const server = scriptedServer();
@@ -142,10 +142,9 @@ describe('patch queue', () => {
     await settle();
     // Full parts, then a short last one: its request applies the whole action, so it should carry little.
     expect(server.sent.map((p) => [p.baseRevision, p.changes.length, p.part?.index, p.part?.count])).toEqual([
-      [7, maxCellsPerPatch, 0, 4],
-      [7, maxCellsPerPatch, 1, 4],
-      [7, 45_000 - 2 * maxCellsPerPatch - lastPartCells, 2, 4],
-      [7, lastPartCells, 3, 4],
+      [7, maxCellsPerPatch, 0, 3],
+      [7, maxCellsPerAction - maxCellsPerPatch - lastPartCells, 1, 3],
+      [7, lastPartCells, 2, 3],
     ]);
     expect(new Set(server.sent.map((p) => p.part?.actionId)).size).toBe(1);
     expect(server.sent.flatMap((p) => p.changes)).toEqual(action);
@@ -156,13 +155,12 @@ describe('patch queue', () => {
     q.enqueue(bigAction((r, c) => `S${r}:${c}`));
     await vi.advanceTimersByTimeAsync(300);
     await settle();
-    expect(server.sent.slice(4).map((p) => [p.baseRevision, p.part?.index])).toEqual([
+    expect(server.sent.slice(3).map((p) => [p.baseRevision, p.part?.index])).toEqual([
       [8, 0],
       [8, 1],
       [8, 2],
-      [8, 3],
     ]);
-    expect(server.sent[4].part?.actionId).not.toBe(server.sent[0].part?.actionId);
+    expect(server.sent[3].part?.actionId).not.toBe(server.sent[0].part?.actionId);
     expect(q.baseRevision).toBe(9);
     expect(store.load()).toBeNull();
   });
@@ -177,7 +175,7 @@ describe('patch queue', () => {
     q.enqueue(bigAction(() => 'x'));
     await vi.advanceTimersByTimeAsync(300);
     await settle();
-    expect(server.sent.map((p) => p.part?.index)).toEqual([0, 0, 1, 2, 3]);
+    expect(server.sent.map((p) => p.part?.index)).toEqual([0, 0, 1, 2]);
     expect(server.sent[1].part?.actionId).not.toBe(server.sent[0].part?.actionId);
     expect(q.status).toEqual({ kind: 'saved' });
     expect(q.baseRevision).toBe(8);
@@ -186,12 +184,12 @@ describe('patch queue', () => {
   it('says why when the server refuses an action as too large, and does not split it into several revisions', async () => {
     const server = scriptedServer();
     const { q } = newQueue(server.transport);
-    server.answers.push(() => Promise.reject(new ApiError(413, 'action_too_large', 'one action may change at most 50,000 cells')));
+    server.answers.push(() => Promise.reject(new ApiError(413, 'action_too_large', 'one action may change at most 40,000 cells')));
     q.enqueue(bigAction(() => 'x'));
     await vi.advanceTimersByTimeAsync(300);
     await settle();
     expect(server.sent).toHaveLength(1);
-    expect(q.status).toEqual({ kind: 'refused', waiting: 45_000, message: 'one action may change at most 50,000 cells' });
+    expect(q.status).toEqual({ kind: 'refused', waiting: maxCellsPerAction, message: 'one action may change at most 40,000 cells' });
   });
 
   it('splits a patch the server finds too large and sends the halves', async () => {
