@@ -8,8 +8,9 @@ import { actionPartSizes, maxCellsPerAction, maxCellsPerPatch, stagedActionTtlMs
 import { makeTestApp } from './helpers/app.js';
 
 type Change = { sheetId: string; row: number; col: number; input: string };
-const rows = 4_000;
 const cols = 10;
+/** A sheet whose column A, deleted, changes exactly as many cells as one action may: 4,000 rows. */
+const rows = maxCellsPerAction / cols;
 
 async function setup() {
   const t = makeTestApp();
@@ -70,7 +71,7 @@ describe('an action larger than one patch', () => {
     expect(wb.sheets[0].cells[1]).toEqual([0, 1, filledInput(0, 1)]);
   };
 
-  it('saves deleting column A of a 4,000 × 10 sheet (40,000 cells, the most one action may change) as one revision the change log lists', async () => {
+  it(`saves deleting column A of a ${rows} × ${cols} sheet (${rows * cols} cells, the most one action may change) as one revision the change log lists`, async () => {
     const changes = deleteColumnA();
     expect(changes.length).toBe(maxCellsPerAction);
     const answers = await sendParts(changes, filledAt);
@@ -139,26 +140,26 @@ describe('an action larger than one patch', () => {
   });
 
   it('reports a conflict already there when the first part arrives only with the last part, naming every cell', async () => {
-    const bobs = await post('bob', { baseRevision: filledAt, changes: [{ sheetId, row: 0, col: 0, input: 'bob first' }, { sheetId, row: 3_999, col: 9, input: 'bob last' }] }).expect(200);
+    const bobs = await post('bob', { baseRevision: filledAt, changes: [{ sheetId, row: 0, col: 0, input: 'bob first' }, { sheetId, row: rows - 1, col: 9, input: 'bob last' }] }).expect(200);
     const answers = await sendParts(deleteColumnA(), filledAt, 'stale');
     expect(answers.map((a) => a.status)).toEqual([202, 202, 409]);
     expect((answers[2].body.error.details.conflicts as CellConflict[]).map((c) => [c.row, c.col, c.theirs, c.revision])).toEqual([
       [0, 0, 'bob first', bobs.body.revision],
-      [3_999, 9, 'bob last', bobs.body.revision],
+      [rows - 1, 9, 'bob last', bobs.body.revision],
     ]);
-    expect(answers[2].body.error.message).toBe(`changed by someone else after revision ${filledAt}: Screen1!A1 (revision ${bobs.body.revision}), Screen1!J4000 (revision ${bobs.body.revision}); nothing was saved`);
+    expect(answers[2].body.error.message).toBe(`changed by someone else after revision ${filledAt}: Screen1!A1 (revision ${bobs.body.revision}), Screen1!J${rows} (revision ${bobs.body.revision}); nothing was saved`);
     expect((await load()).revision).toBe(bobs.body.revision);
   });
 
   it('applies the action on top of a colleague’s edit elsewhere that landed between its parts, with exact before values', async () => {
     const parts = partsOf(deleteColumnA());
     await post('ann', { baseRevision: filledAt, changes: parts[0], part: { actionId: 'beside', index: 0, count: 3 } }).expect(202);
-    const bobs = await post('bob', { baseRevision: filledAt, changes: [{ sheetId, row: 4_600, col: 0, input: 'CO' }] }).expect(200);
+    const bobs = await post('bob', { baseRevision: filledAt, changes: [{ sheetId, row: rows + 600, col: 0, input: 'CO' }] }).expect(200);
     await post('ann', { baseRevision: filledAt, changes: parts[1], part: { actionId: 'beside', index: 1, count: 3 } }).expect(202);
     const last = await post('ann', { baseRevision: filledAt, changes: parts[2], part: { actionId: 'beside', index: 2, count: 3 } });
     expect(last.body).toEqual({ revision: bobs.body.revision + 1, applied: rows * cols });
     const cells = (await load()).sheets[0].cells;
-    expect(cells.at(-1)).toEqual([4_600, 0, 'CO']);
+    expect(cells.at(-1)).toEqual([rows + 600, 0, 'CO']);
     expect(cells).toHaveLength(rows * (cols - 1) + 1);
     const detail = (await t.ann.agent.get(`/api/workbooks/${id}/revisions/${last.body.revision}`).expect(200)).body;
     expect(detail.patch.changes).toHaveLength(rows * cols);
@@ -166,8 +167,8 @@ describe('an action larger than one patch', () => {
   });
 
   it('refuses an action over the limit, a cell sent twice and a changed base, naming why', async () => {
-    // Deleting column A of a 4,500 × 10 sheet would change 45,000 cells.
-    const big = Array.from({ length: 45_000 }, (_, i) => ({ sheetId, row: 5_000 + Math.floor(i / cols), col: i % cols, input: 'x' }));
+    // Deleting column A of a sheet 500 rows longer would change 5,000 cells too many.
+    const big = Array.from({ length: maxCellsPerAction + 5_000 }, (_, i) => ({ sheetId, row: rows + 1_000 + Math.floor(i / cols), col: i % cols, input: 'x' }));
     expect(big.length).toBeGreaterThan(maxCellsPerAction);
     const over = partsOf(big).length;
     let answer;
