@@ -11,10 +11,10 @@ export { maxColIndex, maxRowIndex } from './a1.js';
 /** One cell's input; longer text is almost certainly a paste gone wrong. */
 export const maxInputLength = 32_768;
 /**
- * One user action (a column deleted, a sort, a paste) is one patch and one revision up to this many
- * cells. A patch is applied synchronously, so it bounds how long one request holds the event loop
- * (target ≤ 250 ms): `npm run bench:big-patch` measured 20,000 cells at ~170 ms (request ~200 ms)
- * at load ~4.5 on the 2-core development machine; 30,000 took ~200 ms of CPU but ~360 ms there.
+ * The cells one request carries: a user action up to this size is one patch; a larger one goes as
+ * the parts of one action (maxCellsPerAction), still one revision. A patch is applied synchronously,
+ * so it bounds how long one request holds the event loop (target ≤ 250 ms): `npm run bench:big-patch`
+ * measured 20,000 cells at ~170 ms (request ~200 ms) at load ~4.5 on the 2-core development machine.
  */
 export const maxCellsPerPatch = 20_000;
 /**
