@@ -12,6 +12,8 @@ export interface ZipInspection {
   uncompressedBytes: number;
   /** Cells with content (closing </c> tags) per worksheet part. */
   cellTagsByPart: Record<string, number>;
+  /** Every part inflated, by name (leading slashes dropped), for the direct reader; null when two names collide that way. */
+  parts: Map<string, Buffer> | null;
 }
 
 interface JsZipInternals {
@@ -58,10 +60,13 @@ export async function inspectXlsxZip(buffer: Buffer, limits: ImportLimits): Prom
   const cellTagsByPart: Record<string, number> = {};
   let realTotal = 0;
   let cells = 0;
+  let parts: Map<string, Buffer> | null = new Map();
   for (const f of files) {
     const d = (f as unknown as { _data: JsZipInternals })._data;
     const xml = inflatePart(f.name, d, limits.maxUncompressedBytes - realTotal);
     realTotal += xml.length;
+    if (parts?.has(partName(f))) parts = null;
+    parts?.set(partName(f), xml);
     if (/^xl\/worksheets\/[^/]+\.xml$/.test(partName(f))) {
       const prefix = namespacePrefix(xml);
       const count = countOccurrences(xml, `</${prefix}c>`);
@@ -73,7 +78,7 @@ export async function inspectXlsxZip(buffer: Buffer, limits: ImportLimits): Prom
       checkExpansions(f.name, xml, prefix, limits);
     }
   }
-  return { entries: files.length, uncompressedBytes: realTotal, cellTagsByPart };
+  return { entries: files.length, uncompressedBytes: realTotal, cellTagsByPart, parts };
 }
 
 function inflatePart(name: string, d: JsZipInternals, budget: number): Buffer {
