@@ -7,7 +7,7 @@ import { engineConfig } from '../../functions/engine.js';
 import { parseRangeName } from '../../shared/a1.js';
 import { readCell } from './cellInput.js';
 import { SpreadsheetError, type ImportLimits } from './limits.js';
-import { readXlsxDirect } from './readXlsxDirect.js';
+import { readXlsxDirect, type DirectRead } from './readXlsxDirect.js';
 import { CELLS_PER_BATCH, ReadTally, SheetCells, type CellBatchSink } from './sheetCollector.js';
 import { ABOUT_SHEET_MARK, ABOUT_SHEET_NAME, WORKBOOK_CREATOR, type ParsedSheet, type ParsedWorkbook } from './types.js';
 import { NotDirect } from './xmlText.js';
@@ -33,31 +33,40 @@ export async function readXlsx(buffer: Buffer, limits: ImportLimits, onCells?: C
   const inspection = await inspectXlsxZip(buffer, limits);
   const guardedAt = performance.now();
   let fallback: string | undefined;
+  let read: DirectRead | null = null;
   if (options.reader !== 'exceljs' && inspection.parts) {
     try {
-      const read = readXlsxDirect(inspection.parts);
-      inspection.parts = null;
-      // Handed on only now that the whole file has been read.
-      if (onCells) {
-        read.tally.resolveTexts();
-        read.sheets.forEach((sheet, i) => {
-          for (let at = 0; at < sheet.cells.length || at === 0; at += CELLS_PER_BATCH) onCells(i, sheet.cells.slice(at, at + CELLS_PER_BATCH));
-        });
-      }
-      return finish(read.sheets, read.tally, limits, { guardMs: guardedAt - started, loadMs: read.partsMs, cellsMs: read.sheetsMs, reader: 'direct' });
+      read = readXlsxDirect(inspection.parts);
     } catch (e) {
-      if (!(e instanceof NotDirect)) throw e;
-      fallback = e.message;
+      // NotDirect: a file it does not read. Anything else it threw is a shape it did not foresee;
+      // exceljs reads the file as it always has (or refuses it in its own words).
+      if (e instanceof SpreadsheetError) throw e;
+      fallback = e instanceof NotDirect ? e.message : `unexpected: ${e instanceof Error ? e.message : String(e)}`;
     }
   }
   inspection.parts = null;
+  if (read) {
+    checkCellCount(read.tally, limits);
+    // Handed on only now that the whole file has been read.
+    if (onCells) {
+      read.tally.resolveTexts();
+      read.sheets.forEach((sheet, i) => {
+        for (let at = 0; at < sheet.cells.length || at === 0; at += CELLS_PER_BATCH) onCells(i, sheet.cells.slice(at, at + CELLS_PER_BATCH));
+      });
+    }
+    return finish(read.sheets, read.tally, limits, { guardMs: guardedAt - started, loadMs: read.partsMs, cellsMs: read.sheetsMs, reader: 'direct' });
+  }
   return readWithExceljs(buffer, limits, onCells, guardedAt - started, fallback);
 }
 
-function finish(sheets: ParsedSheet[], tally: ReadTally, limits: ImportLimits, timing: NonNullable<ParsedWorkbook['timing']>): ParsedWorkbook {
+function checkCellCount(tally: ReadTally, limits: ImportLimits) {
   if (tally.cellCount > limits.maxCells) {
     throw new SpreadsheetError('too_many_cells', `the workbook has ${tally.cellCount.toLocaleString('en')} cells with content; the limit is ${limits.maxCells.toLocaleString('en')}`);
   }
+}
+
+function finish(sheets: ParsedSheet[], tally: ReadTally, limits: ImportLimits, timing: NonNullable<ParsedWorkbook['timing']>): ParsedWorkbook {
+  checkCellCount(tally, limits);
   tally.resolveTexts();
   return { sheets, summary: { sheets: sheets.length, cells: tally.cellCount, formulas: tally.formulas, skipped: tally.skipped, notes: tally.notes }, timing };
 }
