@@ -1,5 +1,6 @@
-// The import half of bench/io.ts alone (`npx tsx bench/importOnly.ts`): quicker to repeat while
-// working on the import path. Same workbook, same warm worker, same file database in WAL mode.
+// The import half of bench/io.ts alone (`npm run bench:import`): quicker to repeat while working on
+// the import path. Same workbook, same warm worker, same file database in WAL mode. Prints each run
+// and the fastest of each figure; `timing` says which reader read the file and where its time went.
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
