@@ -36,9 +36,12 @@ export async function parseInWorker(
   const { onCells } = options;
   const collected: CellTriple[][] = [];
   let failed: unknown = null;
-  const onProgress = (m: unknown) => {
-    const batch = (m as { cells?: { sheet: number; packed: PackedCells } }).cells;
-    if (!batch || failed) return;
+  // Batches can arrive faster than they are stored (the direct reader hands a whole sheet on at
+  // once, and a port delivers every waiting message in one go), so they queue here and are stored
+  // one per turn of the event loop: storing never holds the loop for more than one batch.
+  const queue: { sheet: number; packed: PackedCells }[] = [];
+  let draining: Promise<void> | null = null;
+  const store = (batch: { sheet: number; packed: PackedCells }) => {
     const cells = unpackCells(batch.packed);
     const into = (collected[batch.sheet] ??= []);
     for (const cell of cells) into.push(cell);
@@ -49,6 +52,19 @@ export async function parseInWorker(
       stop.abort();
     }
   };
+  const drain = async () => {
+    for (let batch = queue.shift(); batch && !failed; batch = queue.shift()) {
+      store(batch);
+      await new Promise<void>((resolve) => setImmediate(resolve));
+    }
+    draining = null;
+  };
+  const onProgress = (m: unknown) => {
+    const batch = (m as { cells?: { sheet: number; packed: PackedCells } }).cells;
+    if (!batch || failed) return;
+    queue.push(batch);
+    draining ??= drain();
+  };
   const stop = new AbortController();
   const outcome = await ioPool.run<PackedParsedWorkbook & { packMs: number; streamed: number[] }>({ kind: 'parse', buffer: copy, filename, limits, stream: onCells !== undefined }, [copy.buffer], {
     limits: options.workerLimits ?? defaultWorkerLimits,
@@ -56,9 +72,13 @@ export async function parseInWorker(
     owner: options.owner,
     onProgress: onCells && onProgress,
     signal: onCells && stop.signal,
-  }).catch((e: unknown) => {
+  }).catch(async (e: unknown) => {
+    // The read failed: what is queued is not stored (the caller discards what was).
+    queue.length = 0;
+    await draining;
     throw failed ?? e;
   });
+  while (draining) await draining;
   if (failed) throw failed;
   const { packMs, streamed, ...packed } = outcome.result;
   const parsed: ParsedWorkbook = unpackSheets(packed);

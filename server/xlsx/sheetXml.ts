@@ -7,7 +7,7 @@ import { createRequire } from 'node:module';
 import { cellName, parseRangeName, type CellRange } from '../../shared/a1.js';
 import { cleanFormulaText, dateInput, numberInput, type CellReading } from './cellInput.js';
 import { relationshipsOf, stringItemText, type Parts, type SheetEntry } from './xlsxParts.js';
-import { attributesOf, NotDirect, tagsNamed, textBetween } from './xmlText.js';
+import { attributesOf, eachAttribute, NotDirect, tagsNamed, textBetween } from './xmlText.js';
 
 const require = createRequire(import.meta.url);
 // exceljs's own translation of a shared formula from its master cell to another cell.
@@ -156,11 +156,11 @@ export function scanCells(data: SheetXml, layout: SheetLayout, ctx: CellContext,
   let lastRow = -1;
   let lastCol = -1;
   let i = data.from;
+  const cell: RawCell = { address: '', fText: '' };
   for (;;) {
     const lt = xml.indexOf('<', i);
     if (lt === -1 || lt >= to) break;
     if (xml.charCodeAt(lt + 1) === 99 /* c */ && isNameEnd(xml.charCodeAt(lt + 2))) {
-      const cell: RawCell = { address: '', fText: '' };
       i = readCell(xml, lt, to, cell);
       const [r, c] = decodeAddress(cell.address);
       if (r < lastRow || (r === lastRow && c <= lastCol)) throw new NotDirect('cells out of order');
@@ -180,15 +180,24 @@ export function scanCells(data: SheetXml, layout: SheetLayout, ctx: CellContext,
   }
 }
 
-/** Reads the <c> element starting at `lt` into `cell`; returns where it ends. */
+// The cell whose attributes are being read (one function for every cell, not a closure each).
+let currentCell: RawCell;
+function takeCellAttribute(name: string, value: string) {
+  if (name === 'r') currentCell.address = value;
+  else if (name === 't') currentCell.t = value;
+  else if (name === 's') currentCell.s = value;
+}
+
+/** Reads the <c> element starting at `lt` into `cell` (reset first); returns where it ends. */
 function readCell(xml: string, lt: number, to: number, cell: RawCell): number {
   const gt = xml.indexOf('>', lt);
   const empty = xml.charCodeAt(gt - 1) === 47;
-  const a = attributesOf(xml, lt + 2, empty ? gt - 1 : gt);
-  if (a.r === undefined) throw new NotDirect('a cell without its address');
-  cell.address = a.r;
-  cell.t = a.t;
-  cell.s = a.s;
+  cell.address = '';
+  cell.t = cell.s = cell.f = cell.v = cell.inline = undefined;
+  cell.fText = '';
+  currentCell = cell;
+  eachAttribute(xml, lt + 2, empty ? gt - 1 : gt, takeCellAttribute);
+  if (cell.address === '') throw new NotDirect('a cell without its address');
   if (empty) return gt + 1;
   let j = gt + 1;
   for (;;) {

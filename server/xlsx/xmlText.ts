@@ -48,6 +48,12 @@ export function decodeXstring(text: string): string {
 /** Attributes of the start tag whose text (name excluded) runs from `from` to `to`. */
 export function attributesOf(xml: string, from: number, to: number): Record<string, string> {
   const out: Record<string, string> = {};
+  eachAttribute(xml, from, to, (name, value) => (out[name] = value));
+  return out;
+}
+
+/** Calls `take` with each attribute of the start tag whose text (name excluded) runs from `from` to `to`. */
+export function eachAttribute(xml: string, from: number, to: number, take: (name: string, value: string) => void): void {
   let i = from;
   while (i < to) {
     const c = xml.charCodeAt(i);
@@ -67,10 +73,9 @@ export function attributesOf(xml: string, from: number, to: number): Record<stri
     if (end === -1 || end >= to) throw new NotDirect('an unterminated attribute');
     const value = xml.slice(q + 1, end);
     if (value.indexOf('<') !== -1) throw new NotDirect('"<" inside an attribute');
-    out[name] = decodeEntities(value);
+    take(name, decodeEntities(value));
     i = end + 1;
   }
-  return out;
 }
 
 /** Every start (or empty-element) tag named `name` in xml[from, to): its attributes, in order. */
