@@ -8,6 +8,9 @@ import { extensionOf, sniffSpreadsheet } from './sniff.js';
 import type { CellTriple, ParsedWorkbook } from './types.js';
 import { computePool, ioPool } from './workerPool.js';
 
+/** Cells handed to `onCells` per turn of the event loop. */
+const STORE_STEP = 2_048;
+
 export interface ParseResult extends ParsedWorkbook {
   stats: { elapsedMs: number; workerHeapUsedBytes: number; /** Packing the cells for the trip back (packedCells.ts). */ packMs: number };
   /** Sheets (by index) whose cells were handed to `onCells` as they were read; their `cells` hold them all too. */
@@ -41,12 +44,9 @@ export async function parseInWorker(
   // one per turn of the event loop: storing never holds the loop for more than one batch.
   const queue: { sheet: number; packed: PackedCells }[] = [];
   let draining: Promise<void> | null = null;
-  const store = (batch: { sheet: number; packed: PackedCells }) => {
-    const cells = unpackCells(batch.packed);
-    const into = (collected[batch.sheet] ??= []);
-    for (const cell of cells) into.push(cell);
+  const store = (sheet: number, cells: CellTriple[]) => {
     try {
-      onCells!(batch.sheet, cells);
+      onCells!(sheet, cells);
     } catch (e) {
       failed = e; // the read is stopped; this error, not the stop, is what the caller gets
       stop.abort();
@@ -54,8 +54,14 @@ export async function parseInWorker(
   };
   const drain = async () => {
     for (let batch = queue.shift(); batch && !failed; batch = queue.shift()) {
-      store(batch);
-      await new Promise<void>((resolve) => setImmediate(resolve));
+      const cells = unpackCells(batch.packed);
+      const into = (collected[batch.sheet] ??= []);
+      for (const cell of cells) into.push(cell);
+      // A step at a time, as importStaged stores a sheet read whole.
+      for (let at = 0; (at < cells.length || at === 0) && !failed; at += STORE_STEP) {
+        store(batch.sheet, cells.length <= STORE_STEP ? cells : cells.slice(at, at + STORE_STEP));
+        await new Promise<void>((resolve) => setImmediate(resolve));
+      }
     }
     draining = null;
   };
