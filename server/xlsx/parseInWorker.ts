@@ -1,7 +1,7 @@
 // readSpreadsheet in a worker of the shared pool (workerPool.ts), under its memory and time limits.
 // Cheap refusals (size, magic bytes) happen here first, so an obviously wrong upload costs no worker.
 import { defaultImportLimits, defaultWorkerLimits, type ImportLimits, type WorkerLimits } from './limits.js';
-import { unpackCells, unpackSheets, type PackedCells, type PackedParsedWorkbook } from './packedCells.js';
+import { unpackCellsFrom, unpackSheets, type PackedCells, type PackedParsedWorkbook } from './packedCells.js';
 import { maxColIndex } from '../../shared/workbooks.js';
 import { checkCsvShape, decodeText, guessDelimiter } from './csvCount.js';
 import { extensionOf, sniffSpreadsheet } from './sniff.js';
@@ -54,12 +54,16 @@ export async function parseInWorker(
   };
   const drain = async () => {
     for (let batch = queue.shift(); batch && !failed; batch = queue.shift()) {
-      const cells = unpackCells(batch.packed);
       const into = (collected[batch.sheet] ??= []);
-      for (const cell of cells) into.push(cell);
-      // A step at a time, as importStaged stores a sheet read whole.
-      for (let at = 0; (at < cells.length || at === 0) && !failed; at += STORE_STEP) {
-        store(batch.sheet, cells.length <= STORE_STEP ? cells : cells.slice(at, at + STORE_STEP));
+      const count = batch.packed.rows.length;
+      // A step at a time, unpacked as it is stored (a sheet's 100,000 cells made at once held the
+      // loop, and its collector, for one long turn), as importStaged stores a sheet read whole.
+      let offset = 0;
+      for (let from = 0; (from < count || from === 0) && !failed; from += STORE_STEP) {
+        const step = unpackCellsFrom(batch.packed, from, offset, from + STORE_STEP);
+        offset = step.at;
+        for (const cell of step.cells) into.push(cell);
+        store(batch.sheet, step.cells);
         await new Promise<void>((resolve) => setImmediate(resolve));
       }
     }
