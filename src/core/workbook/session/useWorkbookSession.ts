@@ -98,6 +98,7 @@ export function useWorkbookSession(id: string) {
   const deferredOpen = useRef<(() => void) | null>(null);
   const payload = query.data;
   // Set-up that runs while the workbook is still on its way (engineSetup.ts); the open waits for it.
+  const markedLoad = useRef<WorkbookPayload | null>(null);
   const [setUp, setSetUp] = useState(() => {
     void prepareEngine();
     return 0;
@@ -105,7 +106,9 @@ export function useWorkbookSession(id: string) {
 
   useEffect(() => {
     if (!payload || stored === undefined) return;
-    performance.mark('orbitab:workbook-loaded');
+    // Once per load (the effect runs again when the set-up it waits for is in).
+    if (markedLoad.current !== payload) performance.mark('orbitab:workbook-loaded');
+    markedLoad.current = payload;
     const storage = browserStorage();
     const unsent = new PendingStore(storage, payload.id).load() !== null;
     const onStored = stored !== null && stored.revision === payload.revision && !unsent;
