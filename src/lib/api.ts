@@ -1,5 +1,6 @@
 // The one API client. Components never call fetch: features wrap these calls in TanStack Query
 // `queryOptions`/mutations, with keys from `queryKeys` below.
+import { JsonAssembly, type JsonFetchReply, type JsonFetchRequest } from './jsonParts.js';
 
 export class ApiError extends Error {
   constructor(
@@ -53,3 +54,55 @@ export const queryKeys = {
   adminUsers: ['admin', 'users'] as const,
   adminMail: ['admin', 'mail'] as const,
 };
+
+let jsonWorker: Worker | null = null;
+let nextRequest = 1;
+const waiting = new Map<number, { path: string; assembly: JsonAssembly; resolve: (v: unknown) => void; reject: (e: Error) => void }>();
+
+function workerForJson(): Worker | null {
+  if (jsonWorker) return jsonWorker;
+  if (typeof Worker === 'undefined') return null;
+  try {
+    jsonWorker = new Worker(new URL('./jsonFetch.worker.ts', import.meta.url), { type: 'module' });
+  } catch {
+    return null;
+  }
+  jsonWorker.onmessage = (e: MessageEvent<JsonFetchReply>) => {
+    const reply = e.data;
+    const w = waiting.get(reply.id);
+    if (!w) return; // aborted meanwhile
+    if (reply.kind === 'failed') {
+      waiting.delete(reply.id);
+      const err = (reply.body as { error?: { code?: string; message?: string; details?: unknown } } | null)?.error;
+      w.reject(new ApiError(reply.status, err?.code ?? 'http_error', err?.message ?? `${reply.status} ${reply.statusText}`, err?.details));
+      return;
+    }
+    // Marked for the open benchmark, as a resource entry would show it had the page fetched it.
+    if (reply.kind === 'head') performance.mark(`orbitab:json-received ${w.path}`, { startTime: Math.max(0, reply.receivedAt - performance.timeOrigin) });
+    const taken = w.assembly.take(reply);
+    if (taken.done) {
+      waiting.delete(reply.id);
+      w.resolve(taken.data);
+    }
+  };
+  return jsonWorker;
+}
+
+/**
+ * GET of an answer that grows with the workbook (its cells, its stored values): fetched and parsed
+ * in a worker and handed over in parts (jsonFetch.worker.ts), so the page never stops for the whole
+ * answer at once. The same result and errors as `api`; `api` itself where workers are unavailable.
+ */
+export function apiLarge<T>(path: string, init: { signal?: AbortSignal } = {}): Promise<T> {
+  const worker = workerForJson();
+  if (!worker) return api<T>(path, init);
+  const id = nextRequest++;
+  return new Promise<T>((resolve, reject) => {
+    if (init.signal?.aborted) return reject(init.signal.reason);
+    waiting.set(id, { path, assembly: new JsonAssembly(), resolve: resolve as (v: unknown) => void, reject });
+    init.signal?.addEventListener('abort', () => {
+      if (waiting.delete(id)) reject(init.signal!.reason);
+    });
+    worker.postMessage({ id, url: new URL(`/api${path}`, location.href).href } satisfies JsonFetchRequest);
+  });
+}

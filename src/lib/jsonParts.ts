@@ -1,0 +1,30 @@
+// The messages between the page and jsonFetch.worker.ts, and the page's side: put the parts back
+// together into the answer the server sent, one short task per message.
+
+/** Entries per part: small enough that the page copies one in a few milliseconds. */
+export const partItems = 20_000;
+
+export interface JsonFetchRequest {
+  id: number;
+  url: string;
+}
+
+export type JsonFetchReply =
+  | { id: number; kind: 'head'; data: unknown; /** When the whole answer had arrived, on the clock of performance.timeOrigin (ms since the epoch). */ receivedAt: number }
+  | { id: number; kind: 'part'; sheet: number; key: string; items: unknown[] }
+  | { id: number; kind: 'end' }
+  | { id: number; kind: 'failed'; status: number; statusText: string; body: unknown };
+
+/** Reassembles one answer from its messages; `take` returns the answer once the last part is in. */
+export class JsonAssembly {
+  private data: unknown = null;
+
+  take(reply: Exclude<JsonFetchReply, { kind: 'failed' }>): { done: true; data: unknown } | { done: false } {
+    if (reply.kind === 'head') this.data = reply.data;
+    else if (reply.kind === 'part') {
+      const list = (this.data as { sheets: Record<string, unknown[]>[] }).sheets[reply.sheet][reply.key];
+      for (const item of reply.items) list.push(item);
+    } else return { done: true, data: this.data };
+    return { done: false };
+  }
+}
