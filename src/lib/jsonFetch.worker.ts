@@ -3,7 +3,7 @@
 // per-sheet list emptied first, then those lists a slice at a time, each slice its own message, so
 // the page takes them in short tasks between frames. Only lists under `sheets[i]` are sliced: the
 // workbook's cells and the stored values, the two answers that grow with the sheet.
-import { partItems, type JsonFetchReply, type JsonFetchRequest } from './jsonParts.js';
+import { splitIntoParts, type JsonFetchReply, type JsonFetchRequest } from './jsonParts.js';
 
 const scope = self as unknown as { onmessage: ((e: MessageEvent<JsonFetchRequest>) => void) | null; postMessage(m: JsonFetchReply): void };
 
@@ -30,20 +30,8 @@ scope.onmessage = async (e) => {
     scope.postMessage({ id, kind: 'failed', status: res.status, statusText: res.statusText, body: data });
     return;
   }
-  const sheets = (data as { sheets?: unknown } | null)?.sheets;
-  const parts: { sheet: number; key: string; list: unknown[] }[] = [];
-  if (Array.isArray(sheets)) {
-    sheets.forEach((sheet: Record<string, unknown>, i) => {
-      for (const [key, value] of Object.entries(sheet ?? {})) {
-        if (!Array.isArray(value) || value.length <= partItems) continue;
-        parts.push({ sheet: i, key, list: value });
-        sheet[key] = [];
-      }
-    });
-  }
+  const parts = splitIntoParts(data);
   scope.postMessage({ id, kind: 'head', data, receivedAt });
-  for (const { sheet, key, list } of parts) {
-    for (let at = 0; at < list.length; at += partItems) scope.postMessage({ id, kind: 'part', sheet, key, items: list.slice(at, at + partItems) });
-  }
+  for (const part of parts) scope.postMessage({ id, kind: 'part', ...part });
   scope.postMessage({ id, kind: 'end' });
 };

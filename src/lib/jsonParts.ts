@@ -15,6 +15,31 @@ export type JsonFetchReply =
   | { id: number; kind: 'end' }
   | { id: number; kind: 'failed'; status: number; statusText: string; body: unknown };
 
+export interface JsonPart {
+  sheet: number;
+  key: string;
+  items: unknown[];
+}
+
+/**
+ * Splits an answer for sending: every list longer than `partItems` directly under `sheets[i]` is
+ * emptied in the answer (changed in place) and returned as parts of at most `partItems` entries.
+ */
+export function splitIntoParts(data: unknown): JsonPart[] {
+  const sheets = (data as { sheets?: unknown } | null)?.sheets;
+  const parts: JsonPart[] = [];
+  if (!Array.isArray(sheets)) return parts;
+  sheets.forEach((sheet: Record<string, unknown> | null, i) => {
+    if (!sheet || typeof sheet !== 'object') return;
+    for (const [key, value] of Object.entries(sheet)) {
+      if (!Array.isArray(value) || value.length <= partItems) continue;
+      for (let at = 0; at < value.length; at += partItems) parts.push({ sheet: i, key, items: value.slice(at, at + partItems) });
+      sheet[key] = [];
+    }
+  });
+  return parts;
+}
+
 /** Reassembles one answer from its messages; `take` returns the answer once the last part is in. */
 export class JsonAssembly {
   private data: unknown = null;

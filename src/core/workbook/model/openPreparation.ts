@@ -65,7 +65,8 @@ export class OpenPreparation {
   /** About `budgetMs` of work; true once everything is prepared. */
   step(budgetMs: number): boolean {
     const started = performance.now();
-    while (!this.done && performance.now() - started < budgetMs) this.advance();
+    do this.advance();
+    while (!this.done && performance.now() - started < budgetMs);
     return this.done;
   }
 
