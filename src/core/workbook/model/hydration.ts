@@ -37,6 +37,8 @@ export interface PendingRows {
   next: number;
 }
 
+const released: Constant[] = [];
+
 export class Hydration {
   private at = 0;
   /** Sheets whose later rows are not in the engine yet, in tab order. */
@@ -131,6 +133,8 @@ export class Hydration {
       line[col] = input === '' ? null : engineInput(input);
     }
     target.writeRows(pending.sheetId, from, block);
+    // The engine holds these rows now: let their placeholders go (a large sheet's table is a good part of the page's memory).
+    pending.table.fill(released, from, to);
     pending.next = to;
     if (to >= pending.table.length) this.rest.shift();
     const perRow = (performance.now() - started) / Math.max(1, to - from);
