@@ -42,8 +42,9 @@ try {
   const live = await page.waitForFunction(() => (document.querySelector('[data-testid="computing-state"]') ? false : performance.now()), undefined, { polling: 'raf', timeout: 600_000 });
   const liveMs = (await live.jsonValue()) as number;
   const tasks = (await page.evaluate('window.__orbTasks')) as [number, number][];
+  const heapMb = Math.round(((await page.evaluate('performance.memory ? performance.memory.usedJSHeapSize : 0')) as number) / 1e6);
   const longest = Math.max(0, ...tasks.map((t) => t[1]));
-  console.log(`first rows ${Math.round(firstMs)} ms, editable ${Math.round(editableMs)} ms, live ${Math.round(liveMs)} ms, wall ${Date.now() - t0} ms; longest task ${longest} ms; loadavg ${fs.readFileSync('/proc/loadavg', 'utf8').trim()}`);
+  console.log(`first rows ${Math.round(firstMs)} ms, editable ${Math.round(editableMs)} ms, live ${Math.round(liveMs)} ms, wall ${Date.now() - t0} ms; longest task ${longest} ms; JS heap at live ${heapMb} MB; loadavg ${fs.readFileSync('/proc/loadavg', 'utf8').trim()}`);
   console.log('long tasks (start, duration):', JSON.stringify(tasks.filter((t) => t[1] > STALL_MS)));
   if (profile) {
     const { profile: p } = (await cdp.send('Profiler.stop')) as { profile: Profile };
