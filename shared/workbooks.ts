@@ -11,12 +11,26 @@ export { maxColIndex, maxRowIndex } from './a1.js';
 /** One cell's input; longer text is almost certainly a paste gone wrong. */
 export const maxInputLength = 32_768;
 /**
- * One user action (a column deleted, a sort, a paste) is one patch and one revision up to this many
- * cells. A patch is applied synchronously, so it bounds how long one request holds the event loop
- * (target ≤ 250 ms): `npm run bench:big-patch` measured 20,000 cells at ~170 ms (request ~200 ms)
- * at load ~4.5 on the 2-core development machine; 30,000 took ~200 ms of CPU but ~360 ms there.
+ * The cells one request carries: a user action up to this size is one patch; a larger one goes as
+ * the parts of one action (maxCellsPerAction), still one revision. A patch is applied synchronously,
+ * so it bounds how long one request holds the event loop (target ≤ 250 ms): `npm run bench:big-patch`
+ * measured 20,000 cells at ~170 ms (request ~200 ms) at load ~4.5 on the 2-core development machine.
  */
 export const maxCellsPerPatch = 20_000;
+/**
+ * One user action larger than a patch is sent as parts of at most maxCellsPerPatch cells, held by the
+ * server unapplied, and the last part applies them all as one revision (patchPartSchema). The
+ * applying is one transaction, so this bounds how long it holds the event loop: `npm run
+ * bench:big-patch` measured that last request at ~220 ms of CPU for 40,000 cells, ~245 ms for 45,000
+ * and ~290 ms for 50,000 (load ~11 on the 2-core machine; see DEVELOPERS.md, "Large actions").
+ * The grid refuses a larger action with a message saying so, rather than saving it as several revisions.
+ */
+export const maxCellsPerAction = 40_000;
+/** Why the grid refuses an action of `cells` changed cells (over maxCellsPerAction). */
+export const actionTooLargeReason = (cells: number) =>
+  `this would change ${cells.toLocaleString('en-US')} cells, and one action may change at most ${maxCellsPerAction.toLocaleString('en-US')} (each action is saved as one revision, in one go); work on a smaller block.`;
+/** How long the server holds the parts of an unfinished action after the last one arrived. */
+export const stagedActionTtlMs = 60_000;
 /**
  * The JSON body limit of the whole API (server/app.ts); a larger body is refused with 413. Room for
  * a patch of maxCellsPerPatch changes of ~200 bytes each (an id, a place and a formula).
@@ -132,6 +146,36 @@ export const patchSchemaUpTo = (limit: number) =>
 export const patchSchema = patchSchemaUpTo(maxCellsPerPatch);
 export type PatchInput = z.infer<typeof patchSchema>;
 
+/**
+ * `part` of a patch body: this patch is part `index` (from 0) of `count` parts of one action. Every
+ * part carries the same baseRevision; the parts are sent in order, one at a time.
+ */
+export const maxPartsPerAction = 500;
+export const patchPartSchema = z.object({
+  actionId: idSchema,
+  index: wholeNumber().min(0, 'must be 0 or more'),
+  count: wholeNumber()
+    .min(2, 'must be 2 or more (a one-part action is a plain patch)')
+    .max(maxPartsPerAction, `must be at most ${maxPartsPerAction}`),
+}).refine((p) => p.index < p.count, { path: ['index'], message: 'must be less than count' });
+export type PatchPart = z.infer<typeof patchPartSchema>;
+
+/** The cells the last part of an action carries at most: its request applies the whole action, so it parses and reads little. */
+export const lastPartCells = 1_000;
+
+/**
+ * How an action of `total` cells is cut into parts of at most `size` cells: one part when it fits,
+ * else full parts and a short last one (lastPartCells), whose request does the applying.
+ */
+export function actionPartSizes(total: number, size: number): number[] {
+  if (total <= size) return [total];
+  const tail = Math.min(lastPartCells, size, total - 1);
+  const head = total - tail;
+  const sizes = Array.from({ length: Math.ceil(head / size) }, (_, i) => Math.min(size, head - i * size));
+  return [...sizes, tail];
+}
+export const patchPartBodySchema = z.object({ part: patchPartSchema.optional() });
+
 export const revisionListQuerySchema = z.object({
   /** Only revisions numbered below this (paging backwards). */
   before: z.coerce.number().int('must be a whole number').min(1, 'must be 1 or more').optional(),
@@ -192,6 +236,11 @@ export interface PatchResult {
   revision: number;
   /** How many cells actually changed. */
   applied: number;
+}
+
+/** The answer to a part of an action other than the last: held, not applied. */
+export interface PatchPartResult {
+  staged: { actionId: string; received: number; count: number; cells: number };
 }
 
 /** One refused cell of a 409: what is stored now and which revision wrote it. */

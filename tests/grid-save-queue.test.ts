@@ -5,6 +5,7 @@ import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { PatchQueue, type PatchTransport, type SaveStatus } from '../src/core/workbook/save/patchQueue.js';
 import { PendingStore, pendingKey } from '../src/core/workbook/save/pendingStore.js';
 import { ApiError } from '../src/lib/api.js';
+import { lastPartCells, maxCellsPerAction, maxCellsPerPatch } from '../shared/workbooks.js';
 import { cell, MemoryStorage, scriptedServer, settle } from './helpers/scriptedServer.js';
 
 let storage: MemoryStorage;
@@ -127,6 +128,68 @@ describe('patch queue', () => {
     expect(server.sent[0]).toEqual({ baseRevision: 7, changes: action });
     expect(q.status).toEqual({ kind: 'saved' });
     expect(q.baseRevision).toBe(8);
+  });
+
+  /** Deleting column A of a 4,000 × 10 sheet: 40,000 changed cells (the most one action may change), more than one patch may carry. */
+  const bigAction = (input: (row: number, col: number) => string) => Array.from({ length: maxCellsPerAction }, (_, i) => cell(Math.floor(i / 10), i % 10, input(Math.floor(i / 10), i % 10)));
+
+  it('sends one action over the patch limit as parts of one action, saved as one revision; its undo too', async () => {
+    const server = scriptedServer();
+    const { q } = newQueue(server.transport);
+    const action = bigAction((r, c) => (c === 9 ? '' : `=BONDORDER(A${r}${c})`));
+    q.enqueue(action);
+    await vi.advanceTimersByTimeAsync(300);
+    await settle();
+    // Full parts, then a short last one: its request applies the whole action, so it should carry little.
+    expect(server.sent.map((p) => [p.baseRevision, p.changes.length, p.part?.index, p.part?.count])).toEqual([
+      [7, maxCellsPerPatch, 0, 3],
+      [7, maxCellsPerAction - maxCellsPerPatch - lastPartCells, 1, 3],
+      [7, lastPartCells, 2, 3],
+    ]);
+    expect(new Set(server.sent.map((p) => p.part?.actionId)).size).toBe(1);
+    expect(server.sent.flatMap((p) => p.changes)).toEqual(action);
+    expect(q.status).toEqual({ kind: 'saved' });
+    expect(q.baseRevision).toBe(8);
+
+    // Undoing it is the same size of action: one revision again, on the revision the first made.
+    q.enqueue(bigAction((r, c) => `S${r}:${c}`));
+    await vi.advanceTimersByTimeAsync(300);
+    await settle();
+    expect(server.sent.slice(3).map((p) => [p.baseRevision, p.part?.index])).toEqual([
+      [8, 0],
+      [8, 1],
+      [8, 2],
+    ]);
+    expect(server.sent[3].part?.actionId).not.toBe(server.sent[0].part?.actionId);
+    expect(q.baseRevision).toBe(9);
+    expect(store.load()).toBeNull();
+  });
+
+  it('sends the whole action again from its first part when the server no longer holds the earlier ones', async () => {
+    const server = scriptedServer();
+    let calls = 0;
+    const transport: PatchTransport = {
+      send: (p) => (++calls === 2 ? Promise.reject(new ApiError(410, 'action_expired', 'its earlier parts are no longer held')) : server.transport.send(p)),
+    };
+    const { q } = newQueue(transport);
+    q.enqueue(bigAction(() => 'x'));
+    await vi.advanceTimersByTimeAsync(300);
+    await settle();
+    expect(server.sent.map((p) => p.part?.index)).toEqual([0, 0, 1, 2]);
+    expect(server.sent[1].part?.actionId).not.toBe(server.sent[0].part?.actionId);
+    expect(q.status).toEqual({ kind: 'saved' });
+    expect(q.baseRevision).toBe(8);
+  });
+
+  it('says why when the server refuses an action as too large, and does not split it into several revisions', async () => {
+    const server = scriptedServer();
+    const { q } = newQueue(server.transport);
+    server.answers.push(() => Promise.reject(new ApiError(413, 'action_too_large', 'one action may change at most 40,000 cells')));
+    q.enqueue(bigAction(() => 'x'));
+    await vi.advanceTimersByTimeAsync(300);
+    await settle();
+    expect(server.sent).toHaveLength(1);
+    expect(q.status).toEqual({ kind: 'refused', waiting: maxCellsPerAction, message: 'one action may change at most 40,000 cells' });
   });
 
   it('splits a patch the server finds too large and sends the halves', async () => {

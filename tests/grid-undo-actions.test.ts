@@ -4,6 +4,7 @@
 // recalled from memory).
 import { describe, expect, it } from 'vitest';
 import { allowedActions } from '../shared/permissions.js';
+import { actionTooLargeReason, maxCellsPerAction } from '../shared/workbooks.js';
 import { WorkbookModel } from '../src/core/workbook/model/workbookModel.js';
 import { applyStructural, redoLast, undoLast } from '../src/core/workbook/model/structure.js';
 import { clearRange, fillPairs, pasteBlock, pasteCopiedCells, pasteRepeats, tileBlock } from '../src/core/workbook/model/rangeEdits.js';
@@ -76,6 +77,31 @@ describe('one action, one undo step', () => {
     m.setEditRule(null);
     expect(undoLast(m)).toBe(true);
     expect([m.input('s1', 0, 0), m.input('s1', 1, 0)]).toEqual(['O2', 'N2']);
+  });
+
+  it('refuses an action over the per-action limit whole, saying why, instead of saving it as several revisions', () => {
+    // A 6,000 × 10 block: deleting column A changes 60,000 cells, over maxCellsPerAction.
+    const big: [number, number, string][] = [];
+    for (let r = 0; r < 6_000; r++) for (let c = 0; c < 10; c++) big.push([r, c, `v${r}:${c}`]);
+    expect(big.length).toBeGreaterThan(maxCellsPerAction);
+    const { m, sent } = open(big);
+    const before = inputs(m);
+    const outcome = m.edit(big.map(([row, col]) => ({ sheetId: 's1', row, col, input: '' })));
+    expect(outcome.applied).toEqual([]);
+    expect(outcome.refused).toHaveLength(60_000);
+    expect(outcome.refused[0].reason).toBe(actionTooLargeReason(60_000));
+    expect(outcome.refused[0].reason).toContain(`at most ${maxCellsPerAction.toLocaleString('en-US')}`);
+    expect(() => applyStructural(m, 's1', { axis: 'col', action: 'remove', at: 0, count: 1 })).toThrow(actionTooLargeReason(60_000));
+    expect(inputs(m)).toEqual(before);
+    expect(m.view('s1', 0, 0)?.display).toBe('v0:0');
+    expect(sent).toEqual([]);
+    expect(undoLast(m)).toBe(false);
+    // At the limit it is one action, one undo step.
+    const atLimit = big.slice(0, maxCellsPerAction).map(([row, col]) => ({ sheetId: 's1', row, col, input: 'z' }));
+    expect(m.edit(atLimit).applied).toHaveLength(maxCellsPerAction);
+    expect(sent).toHaveLength(1);
+    expect(undoLast(m)).toBe(true);
+    expect(inputs(m)).toEqual(before);
   });
 
   it('an action that pushes nothing leaves the history alone', () => {

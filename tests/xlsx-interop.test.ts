@@ -104,6 +104,8 @@ describe.skipIf(!available)('LibreOffice and Orbitab files', () => {
     await convert(csv, 'xlsx', ['--infilter=CSV:44,34,76,1']);
     const parsed = await readSpreadsheet(fs.readFileSync(path.join(dir, 'made-by-lo.xlsx')), 'made-by-lo.xlsx');
     expect(parsed.summary).toMatchObject({ sheets: 1, cells: 15, formulas: 1, skipped: [] });
+    // Read by the direct reader, not handed to exceljs.
+    expect(parsed.timing).toMatchObject({ reader: 'direct' });
     expect(parsed.sheets[0].cells).toEqual([
       [0, 0, 'Species'], [0, 1, 'Bond order'], [0, 2, 'Measured on'], [0, 3, 'Note'],
       [1, 0, 'O2'], [1, 1, '2'], [1, 2, '2024-03-01'], [1, 3, 'paramagnetic, two unpaired'],

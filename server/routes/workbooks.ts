@@ -7,6 +7,7 @@ import {
   createSheetSchema,
   createWorkbookSchema,
   idSchema,
+  patchPartBodySchema,
   patchSchema,
   renameWorkbookSchema,
   restoreBodySchema,
@@ -18,6 +19,7 @@ import type { AppContext } from '../context.js';
 import { parse } from '../errors.js';
 import { listVisibleWorkbooks } from '../services/access.js';
 import { applyPatch } from '../services/patches.js';
+import { takePatchPart } from '../services/stagedActions.js';
 import { plainPatch } from '../../shared/plainPatch.js';
 import { restoreRevision } from '../services/restore.js';
 import { getRevision, listRevisions } from '../services/revisionLog.js';
@@ -83,7 +85,11 @@ export function workbooksRouter(ctx: AppContext): Router {
   router.post('/:id/patches', access('editCells'), (req, res) => {
     // The usual patch is checked without zod's per-object walk; anything else gets patchSchema's refusal.
     const patch = plainPatch(req.body) ?? parse(patchSchema, req.body);
-    res.json(applyPatch(ctx, accessOf(res).workbook.id, currentUser(res).id, patch));
+    // A part of an action larger than one patch: held until its last part, which applies them all.
+    const { part } = parse(patchPartBodySchema, req.body);
+    if (!part) return res.json(applyPatch(ctx, accessOf(res).workbook.id, currentUser(res).id, patch));
+    const result = takePatchPart(ctx, accessOf(res).workbook.id, currentUser(res).id, patch, part);
+    res.status('staged' in result ? 202 : 200).json(result);
   });
 
   router.get('/:id/revisions', access('viewHistory'), (req, res) => {

@@ -171,7 +171,7 @@ export class StagedImport {
         }
         const revision = nextRevision(tx, targetId);
         const patch: RevisionPatch = { sheetOps: ops, changes: [] };
-        recordRevisionJson(tx, targetId, revision, userId, 'import' as RevisionKind, `{"sheetOps":[${opsJson.join(',')}],"changes":[]}`);
+        recordRevisionJson(ctx.db, targetId, revision, userId, 'import' as RevisionKind, `{"sheetOps":[${opsJson.join(',')}],"changes":[]}`);
         if (targetId !== stagingId) tx.delete(workbooks).where(eq(workbooks.id, stagingId)).run();
         return { revision, sheets: added, patch };
       },

@@ -58,15 +58,23 @@ export async function packCellsInSlices(cells: readonly CellTriple[], turn: () =
 }
 
 export function unpackCells(packed: PackedCells): CellTriple[] {
+  return unpackCellsFrom(packed, 0, 0, packed.rows.length).cells;
+}
+
+/**
+ * Cells `from`..`to` (exclusive), the first one's input starting at character `at` of the text:
+ * a large batch is unpacked a step at a time, so no turn of the event loop makes all its cells.
+ */
+export function unpackCellsFrom(packed: PackedCells, from: number, at: number, to: number): { cells: CellTriple[]; at: number } {
   const { rows, cols, lengths, text } = packed;
-  const cells: CellTriple[] = new Array(rows.length);
-  let at = 0;
-  for (let i = 0; i < rows.length; i++) {
-    const end = at + lengths[i];
-    cells[i] = [rows[i], cols[i], text.slice(at, end)];
-    at = end;
+  const end = Math.min(to, rows.length);
+  const cells: CellTriple[] = new Array(Math.max(0, end - from));
+  for (let i = from; i < end; i++) {
+    const stop = at + lengths[i];
+    cells[i - from] = [rows[i], cols[i], text.slice(at, stop)];
+    at = stop;
   }
-  return cells;
+  return { cells, at };
 }
 
 /** The buffers to list as transferables when posting `packed`. */

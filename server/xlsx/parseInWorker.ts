@@ -1,12 +1,15 @@
 // readSpreadsheet in a worker of the shared pool (workerPool.ts), under its memory and time limits.
 // Cheap refusals (size, magic bytes) happen here first, so an obviously wrong upload costs no worker.
 import { defaultImportLimits, defaultWorkerLimits, type ImportLimits, type WorkerLimits } from './limits.js';
-import { unpackCells, unpackSheets, type PackedCells, type PackedParsedWorkbook } from './packedCells.js';
+import { unpackCellsFrom, unpackSheets, type PackedCells, type PackedParsedWorkbook } from './packedCells.js';
 import { maxColIndex } from '../../shared/workbooks.js';
 import { checkCsvShape, decodeText, guessDelimiter } from './csvCount.js';
 import { extensionOf, sniffSpreadsheet } from './sniff.js';
 import type { CellTriple, ParsedWorkbook } from './types.js';
 import { computePool, ioPool } from './workerPool.js';
+
+/** Cells handed to `onCells` per turn of the event loop. */
+const STORE_STEP = 2_048;
 
 export interface ParseResult extends ParsedWorkbook {
   stats: { elapsedMs: number; workerHeapUsedBytes: number; /** Packing the cells for the trip back (packedCells.ts). */ packMs: number };
@@ -36,18 +39,41 @@ export async function parseInWorker(
   const { onCells } = options;
   const collected: CellTriple[][] = [];
   let failed: unknown = null;
-  const onProgress = (m: unknown) => {
-    const batch = (m as { cells?: { sheet: number; packed: PackedCells } }).cells;
-    if (!batch || failed) return;
-    const cells = unpackCells(batch.packed);
-    const into = (collected[batch.sheet] ??= []);
-    for (const cell of cells) into.push(cell);
+  // Batches can arrive faster than they are stored (the direct reader hands a whole sheet on at
+  // once, and a port delivers every waiting message in one go), so they queue here and are stored
+  // one per turn of the event loop: storing never holds the loop for more than one batch.
+  const queue: { sheet: number; packed: PackedCells }[] = [];
+  let draining: Promise<void> | null = null;
+  const store = (sheet: number, cells: CellTriple[]) => {
     try {
-      onCells!(batch.sheet, cells);
+      onCells!(sheet, cells);
     } catch (e) {
       failed = e; // the read is stopped; this error, not the stop, is what the caller gets
       stop.abort();
     }
+  };
+  const drain = async () => {
+    for (let batch = queue.shift(); batch && !failed; batch = queue.shift()) {
+      const into = (collected[batch.sheet] ??= []);
+      const count = batch.packed.rows.length;
+      // A step at a time, unpacked as it is stored (a sheet's 100,000 cells made at once held the
+      // loop, and its collector, for one long turn), as importStaged stores a sheet read whole.
+      let offset = 0;
+      for (let from = 0; (from < count || from === 0) && !failed; from += STORE_STEP) {
+        const step = unpackCellsFrom(batch.packed, from, offset, from + STORE_STEP);
+        offset = step.at;
+        for (const cell of step.cells) into.push(cell);
+        store(batch.sheet, step.cells);
+        await new Promise<void>((resolve) => setImmediate(resolve));
+      }
+    }
+    draining = null;
+  };
+  const onProgress = (m: unknown) => {
+    const batch = (m as { cells?: { sheet: number; packed: PackedCells } }).cells;
+    if (!batch || failed) return;
+    queue.push(batch);
+    draining ??= drain();
   };
   const stop = new AbortController();
   const outcome = await ioPool.run<PackedParsedWorkbook & { packMs: number; streamed: number[] }>({ kind: 'parse', buffer: copy, filename, limits, stream: onCells !== undefined }, [copy.buffer], {
@@ -56,9 +82,13 @@ export async function parseInWorker(
     owner: options.owner,
     onProgress: onCells && onProgress,
     signal: onCells && stop.signal,
-  }).catch((e: unknown) => {
+  }).catch(async (e: unknown) => {
+    // The read failed: what is queued is not stored (the caller discards what was).
+    queue.length = 0;
+    await draining;
     throw failed ?? e;
   });
+  while (draining) await draining;
   if (failed) throw failed;
   const { packMs, streamed, ...packed } = outcome.result;
   const parsed: ParsedWorkbook = unpackSheets(packed);

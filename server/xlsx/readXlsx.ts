@@ -1,40 +1,78 @@
-// .xlsx → sheets of cell inputs, after the zip guard has passed the file.
+// .xlsx → sheets of cell inputs, after the zip guard has passed the file. The direct reader
+// (readXlsxDirect.ts) reads the parts the guard inflated; a file it does not read — an unusual
+// layout, a namespace prefix, a feature exceljs reads its own way (see NotDirect's uses) — is read
+// by exceljs as before, with the same result shape, notes and refusals.
 import ExcelJS from 'exceljs';
 import { engineConfig } from '../../functions/engine.js';
-import { cellName, parseRangeName, type CellRange } from '../../shared/a1.js';
+import { parseRangeName } from '../../shared/a1.js';
 import { readCell } from './cellInput.js';
 import { SpreadsheetError, type ImportLimits } from './limits.js';
-import { asTextInput, textsNeedingApostrophe } from './textLiterals.js';
-import { ABOUT_SHEET_MARK, ABOUT_SHEET_NAME, WORKBOOK_CREATOR, type CellTriple, type ParsedSheet, type ParsedWorkbook, type SkippedCell } from './types.js';
+import { readXlsxDirect, type DirectRead } from './readXlsxDirect.js';
+import { CELLS_PER_BATCH, ReadTally, SheetCells, type CellBatchSink } from './sheetCollector.js';
+import { ABOUT_SHEET_MARK, ABOUT_SHEET_NAME, WORKBOOK_CREATOR, type ParsedSheet, type ParsedWorkbook } from './types.js';
+import { NotDirect } from './xmlText.js';
 import { inspectXlsxZip } from './zipGuard.js';
+
+export { CELLS_PER_BATCH, type CellBatchSink };
 
 // Parts Orbitab does not import. Skipping them also keeps exceljs from expanding a data-validation
 // rule cell by cell (a whole-sheet rule is 17 billion cells).
 const IGNORED_NODES = ['dataValidations', 'conditionalFormatting', 'extLst', 'drawing', 'legacyDrawing', 'picture', 'tableParts', 'rowBreaks', 'colBreaks', 'headerFooter'];
 
-const MAX_LISTED_NOTES = 50;
-const maxRows = engineConfig.maxRows!;
 const maxColumns = engineConfig.maxColumns!;
 
-interface PendingText {
-  sheet: ParsedSheet;
-  index: number;
-  text: string;
+export type XlsxReader = 'direct' | 'exceljs';
+
+export interface XlsxReadOptions {
+  /** Tests: read with exceljs even when the direct reader could. */
+  reader?: XlsxReader;
 }
 
-/** Cells handed to `onCells` at a time while reading (readSpreadsheet's streaming mode). */
-export const CELLS_PER_BATCH = 8_192;
-
-/**
- * Receives each sheet's cells in order, a batch at a time, as they are read: the caller can store one
- * batch while the next is read. `sheet` counts the sheets of the result (the provenance page skipped).
- */
-export type CellBatchSink = (sheet: number, cells: CellTriple[]) => void;
-
-export async function readXlsx(buffer: Buffer, limits: ImportLimits, onCells?: CellBatchSink): Promise<ParsedWorkbook> {
+export async function readXlsx(buffer: Buffer, limits: ImportLimits, onCells?: CellBatchSink, options: XlsxReadOptions = {}): Promise<ParsedWorkbook> {
   const started = performance.now();
-  await inspectXlsxZip(buffer, limits);
+  const inspection = await inspectXlsxZip(buffer, limits);
   const guardedAt = performance.now();
+  let fallback: string | undefined;
+  let read: DirectRead | null = null;
+  if (options.reader !== 'exceljs' && inspection.parts) {
+    try {
+      read = readXlsxDirect(inspection.parts);
+    } catch (e) {
+      // NotDirect: a file it does not read. Anything else it threw is a shape it did not foresee;
+      // exceljs reads the file as it always has (or refuses it in its own words).
+      if (e instanceof SpreadsheetError) throw e;
+      fallback = e instanceof NotDirect ? e.message : `unexpected: ${e instanceof Error ? e.message : String(e)}`;
+    }
+  }
+  inspection.parts = null;
+  if (read) {
+    checkCellCount(read.tally, limits);
+    // Handed on only now that the whole file has been read.
+    if (onCells) {
+      read.tally.resolveTexts();
+      read.sheets.forEach((sheet, i) => {
+        for (let at = 0; at < sheet.cells.length || at === 0; at += CELLS_PER_BATCH) onCells(i, sheet.cells.slice(at, at + CELLS_PER_BATCH));
+      });
+    }
+    return finish(read.sheets, read.tally, limits, { guardMs: guardedAt - started, loadMs: read.partsMs, cellsMs: read.sheetsMs, reader: 'direct' });
+  }
+  return readWithExceljs(buffer, limits, onCells, guardedAt - started, fallback);
+}
+
+function checkCellCount(tally: ReadTally, limits: ImportLimits) {
+  if (tally.cellCount > limits.maxCells) {
+    throw new SpreadsheetError('too_many_cells', `the workbook has ${tally.cellCount.toLocaleString('en')} cells with content; the limit is ${limits.maxCells.toLocaleString('en')}`);
+  }
+}
+
+function finish(sheets: ParsedSheet[], tally: ReadTally, limits: ImportLimits, timing: NonNullable<ParsedWorkbook['timing']>): ParsedWorkbook {
+  checkCellCount(tally, limits);
+  tally.resolveTexts();
+  return { sheets, summary: { sheets: sheets.length, cells: tally.cellCount, formulas: tally.formulas, skipped: tally.skipped, notes: tally.notes }, timing };
+}
+
+async function readWithExceljs(buffer: Buffer, limits: ImportLimits, onCells: CellBatchSink | undefined, guardMs: number, fallback?: string): Promise<ParsedWorkbook> {
+  const loadStart = performance.now();
   const workbook = new ExcelJS.Workbook();
   try {
     await workbook.xlsx.load(buffer as unknown as ArrayBuffer, { ignoreNodes: IGNORED_NODES } as never);
@@ -44,80 +82,22 @@ export async function readXlsx(buffer: Buffer, limits: ImportLimits, onCells?: C
 
   const loadedAt = performance.now();
   const sheets: ParsedSheet[] = [];
-  const skipped: SkippedCell[] = [];
-  const notes: string[] = [];
-  const pending: PendingText[] = [];
-  let cellCount = 0;
-  let formulas = 0;
-
+  const tally = new ReadTally();
   for (const ws of workbook.worksheets) {
     if (isOrbitabAboutSheet(workbook, ws)) {
-      notes.push(`sheet "${ws.name}" is the provenance page of an Orbitab export and was not imported as data`);
+      tally.notes.push(`sheet "${ws.name}" is the provenance page of an Orbitab export and was not imported as data`);
       continue;
     }
-    if (ws.state && ws.state !== 'visible') notes.push(`sheet "${ws.name}" was hidden in the file; it is imported visible`);
+    if (ws.state && ws.state !== 'visible') tally.notes.push(`sheet "${ws.name}" was hidden in the file; it is imported visible`);
     const sheet: ParsedSheet = { name: ws.name, cells: [], columnWidths: columnWidthsOf(ws), ...frozenPaneOf(ws), merged: mergedRangesOf(ws) };
-    const arrays: CellRange[] = [];
-    const sheetIndex = sheets.length;
-    let sent = 0;
-    // A batch goes out once its texts know whether they need an apostrophe.
-    const flush = () => {
-      resolveTexts(pending);
-      pending.length = 0;
-      onCells!(sheetIndex, sheet.cells.slice(sent));
-      sent = sheet.cells.length;
-    };
-
+    const collector = new SheetCells(tally, sheet, sheets.length, onCells);
     ws.eachRow({ includeEmpty: false }, (row, rowNumber) => {
-      row.eachCell({ includeEmpty: false }, (cell, colNumber) => {
-        const r = rowNumber - 1;
-        const c = colNumber - 1;
-        const reading = readCell(cell);
-        if (reading.kind === 'empty' || reading.kind === 'merged') return;
-        // Cells inside an array formula's area are its spilled results, recomputed by the engine.
-        if (arrays.length && arrays.some((a) => r >= a.top && r <= a.bottom && c >= a.left && c <= a.right && !(r === a.top && c === a.left))) return;
-        if (r >= maxRows || c >= maxColumns) {
-          skipped.push({ sheet: ws.name, address: cellName(r, c), reason: `outside Orbitab's grid of ${maxRows.toLocaleString('en')} rows × ${maxColumns.toLocaleString('en')} columns` });
-          return;
-        }
-        if (reading.kind === 'skip') {
-          skipped.push({ sheet: ws.name, address: cellName(r, c), reason: reading.reason });
-          return;
-        }
-        cellCount++;
-        if (reading.kind === 'text') {
-          pending.push({ sheet, index: sheet.cells.length, text: reading.text });
-          sheet.cells.push([r, c, '']);
-          if (reading.note && notes.length < MAX_LISTED_NOTES) notes.push(`${ws.name}!${cellName(r, c)}: ${reading.note}`);
-          return;
-        }
-        if (reading.kind === 'formula') {
-          formulas++;
-          if (reading.arrayRef) {
-            const area = parseRangeName(reading.arrayRef);
-            if (area) arrays.push(area);
-          }
-        }
-        sheet.cells.push([r, c, reading.input]);
-        if (onCells && sheet.cells.length - sent >= CELLS_PER_BATCH) flush();
-      });
+      row.eachCell({ includeEmpty: false }, (cell, colNumber) => collector.take(rowNumber - 1, colNumber - 1, readCell(cell)));
     });
-    if (onCells) flush();
+    collector.flush();
     sheets.push(sheet);
   }
-
-  if (cellCount > limits.maxCells) {
-    throw new SpreadsheetError('too_many_cells', `the workbook has ${cellCount.toLocaleString('en')} cells with content; the limit is ${limits.maxCells.toLocaleString('en')}`);
-  }
-  resolveTexts(pending);
-
-  const timing = { guardMs: guardedAt - started, loadMs: loadedAt - guardedAt, cellsMs: performance.now() - loadedAt };
-  return { sheets, summary: { sheets: sheets.length, cells: cellCount, formulas, skipped, notes }, timing };
-}
-
-function resolveTexts(pending: PendingText[]) {
-  const quote = textsNeedingApostrophe(pending.map((p) => p.text));
-  pending.forEach((p, i) => (p.sheet.cells[p.index][2] = asTextInput(p.text, quote[i])));
+  return finish(sheets, tally, limits, { guardMs, loadMs: loadedAt - loadStart, cellsMs: performance.now() - loadedAt, reader: 'exceljs', fallback });
 }
 
 function isOrbitabAboutSheet(workbook: ExcelJS.Workbook, ws: ExcelJS.Worksheet): boolean {

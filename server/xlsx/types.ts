@@ -22,8 +22,12 @@ export interface ParsedSheet {
 export interface ParsedWorkbook {
   sheets: ParsedSheet[];
   summary: ImportSummary;
-  /** Where the reading time went (benchmarks): zip guard, exceljs, our pass over the cells. */
-  timing?: { guardMs: number; loadMs: number; cellsMs: number };
+  /**
+   * Where the reading time went (benchmarks): the zip guard (which inflates every part), then for the
+   * direct reader the workbook-wide parts and the sheets, for exceljs its load and our pass over its
+   * cells. `fallback`: why the direct reader handed the file to exceljs.
+   */
+  timing?: { guardMs: number; loadMs: number; cellsMs: number; reader: 'direct' | 'exceljs'; fallback?: string };
 }
 
 /** A sheet's stored settings (sheets.settings JSON): see sheetSettings.ts for the fields we read. */

@@ -1,7 +1,7 @@
 // Stand-ins for the save queue's tests: browser storage in memory (that can refuse writes) and a
 // scripted server that records patches. Use with vitest fake timers.
 import { vi } from 'vitest';
-import type { PatchResult } from '../../shared/workbooks.js';
+import type { PatchPart, PatchPartResult, PatchResult } from '../../shared/workbooks.js';
 import type { PatchTransport } from '../../src/core/workbook/save/patchQueue.js';
 import type { CellInput, KeyValueStorage } from '../../src/core/workbook/save/pendingStore.js';
 
@@ -20,7 +20,7 @@ export class MemoryStorage implements KeyValueStorage {
   }
 }
 
-export type Sent = { baseRevision: number; changes: CellInput[] };
+export type Sent = { baseRevision: number; changes: CellInput[]; part?: PatchPart };
 
 /**
  * A server stand-in: records patches and answers with whatever the test scripts next, or else stores
@@ -28,13 +28,22 @@ export type Sent = { baseRevision: number; changes: CellInput[] };
  */
 export function scriptedServer() {
   const sent: Sent[] = [];
-  const answers: ((p: Sent) => Promise<PatchResult>)[] = [];
+  const answers: ((p: Sent) => Promise<PatchResult | PatchPartResult>)[] = [];
   let revision = 7;
+  // Parts of one action are held, as the server does, and the last one stores them as one revision.
+  let held = 0;
   const transport: PatchTransport = {
     send: (p) => {
       sent.push(structuredClone(p));
       const next = answers.shift();
-      return next ? next(p) : Promise.resolve({ revision: ++revision, applied: p.changes.length });
+      if (next) return next(p);
+      if (p.part && p.part.index + 1 < p.part.count) {
+        held = (p.part.index === 0 ? 0 : held) + p.changes.length;
+        return Promise.resolve({ staged: { actionId: p.part.actionId, received: p.part.index + 1, count: p.part.count, cells: held } });
+      }
+      const applied = (p.part ? held : 0) + p.changes.length;
+      held = 0;
+      return Promise.resolve({ revision: ++revision, applied });
     },
   };
   return { sent, answers, transport, commitByColleague: () => ++revision };

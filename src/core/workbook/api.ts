@@ -2,7 +2,7 @@
 // operations. Tab operations go straight to the server (they are rare and must not be lost or
 // reordered with cell patches), then to the engine once the server has accepted them.
 import { queryOptions, type QueryClient } from '@tanstack/react-query';
-import { workbookPath, type PatchInput, type PatchResult, type SheetMutationResult, type ValuesPayload, type WorkbookPayload } from '@shared/workbooks.js';
+import { workbookPath, type PatchInput, type PatchPart, type PatchPartResult, type PatchResult, type SheetMutationResult, type ValuesPayload, type WorkbookPayload } from '@shared/workbooks.js';
 import { removeSheetFromFormula, renameSheetInFormula } from '@shared/formulaText.js';
 import type { StructuresRequest, StructuresResponse } from '@shared/structures.js';
 import type { EhtResult } from '@functions/chem/ehtSummary.js';
@@ -56,7 +56,8 @@ export function startWorkbookLoad(client: QueryClient, id: string) {
 }
 
 /** POST /api/workbooks/:id/patches: the save queue's one way to the server. */
-export const sendPatch = (workbookId: string, patch: PatchInput) => api<PatchResult>(workbookPath(workbookId, 'patches'), { method: 'POST', body: patch });
+export const sendPatch = (workbookId: string, patch: PatchInput & { part?: PatchPart }) =>
+  api<PatchResult | PatchPartResult>(workbookPath(workbookId, 'patches'), { method: 'POST', body: patch });
 
 const sheetsPath = (s: WorkbookSession, ...rest: string[]) => workbookPath(s.model.id, 'sheets', ...rest);
 

@@ -4,6 +4,7 @@
 // up different: the moved cells and the rewritten formulas, on any sheet. The server refuses that
 // whole patch if one of those cells is in a locked sheet or a protected range not open to me, so the
 // client refuses the operation first and puts every sheet back, rather than showing what cannot be saved.
+import { actionTooLargeReason, maxCellsPerAction } from '@shared/workbooks.js';
 import type { CellInput } from '../save/pendingStore.js';
 import { diffInputs, type InputDifference, type SheetInputs } from './sheetInputs.js';
 import type { WorkbookModel } from './workbookModel.js';
@@ -90,8 +91,8 @@ export function applyStructural(model: WorkbookModel, sheetId: string, op: Struc
     differences.set(s.id, d);
     for (const x of d) changes.push({ sheetId: s.id, row: x.row, col: x.col, input: x.after });
   }
-  let refusal: string | null = null;
-  for (const c of changes) if ((refusal = model.protectionReason(c.sheetId, c.row, c.col))) break;
+  let refusal: string | null = changes.length > maxCellsPerAction ? actionTooLargeReason(changes.length) : null;
+  if (!refusal) for (const c of changes) if ((refusal = model.protectionReason(c.sheetId, c.row, c.col))) break;
   if (refusal) {
     putBack(model, before);
     throw new StructureError(refusal);

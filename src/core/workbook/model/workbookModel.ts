@@ -7,7 +7,7 @@
 import { ExportedCellChange, type ExportedChange, type HyperFormula } from 'hyperformula';
 import { buildWorkbookEngine, inTabOrder } from '@functions/workbookEngine.js';
 import { engineInput } from '@functions/formulaTokens.js';
-import type { SheetPayload, ValuesPayload, WorkbookPayload } from '@shared/workbooks.js';
+import { actionTooLargeReason, maxCellsPerAction, type SheetPayload, type ValuesPayload, type WorkbookPayload } from '@shared/workbooks.js';
 import { Hydration } from './hydration.js';
 import { OpenPreparation, type PreparedOpen } from './openPreparation.js';
 import { allows, type AccessRole, type WorkbookAction } from '@shared/permissions.js';
@@ -283,6 +283,11 @@ export class WorkbookModel {
       else if (this.input(c.sheetId, c.row, c.col) !== c.input) allowed.push(c);
     }
     if (options.whole && refused.length > 0) return { applied: [], refused };
+    // Saved as one revision or not at all (save/patchQueue.ts): past the limit nothing is applied.
+    if (allowed.length > maxCellsPerAction) {
+      const reason = actionTooLargeReason(allowed.length);
+      return { applied: [], refused: [...refused, ...allowed.map((cell) => ({ cell, reason }))] };
+    }
     const before = allowed.map((c) => this.input(c.sheetId, c.row, c.col));
     const applied = this.write(allowed);
     if (options.record !== false && applied.length > 0) {

@@ -2,8 +2,10 @@
 // time, retried with growing pauses while the network or server is down, and kept in local storage
 // until acknowledged. The save state it reports is derived from what is actually unacknowledged, so
 // "saved" is shown only when the server holds every change. Which base revision a patch claims is
-// RevisionLedger's rule: only revisions whose changes this browser has taken in.
-import { maxCellsPerPatch, type CellConflict, type PatchResult } from '@shared/workbooks.js';
+// RevisionLedger's rule: only revisions whose changes this browser has taken in. What is sent at once
+// is one revision: above maxCellsPerPatch cells it goes as parts of one action, which the server
+// holds until the last part and then applies together (server/services/stagedActions.ts).
+import { actionPartSizes, maxCellsPerAction, maxCellsPerPatch, maxPartsPerAction, type CellConflict, type PatchPart, type PatchPartResult, type PatchResult } from '@shared/workbooks.js';
 import { ApiError } from '../../../lib/api.js';
 import type { CellInput, PendingStore } from './pendingStore.js';
 import { cellKey, RevisionLedger } from './revisionLedger.js';
@@ -16,7 +18,8 @@ export type SaveStatus =
   | { kind: 'refused'; waiting: number; message: string };
 
 export interface PatchTransport {
-  send(patch: { baseRevision: number; changes: CellInput[] }): Promise<PatchResult>;
+  /** A plain patch answers PatchResult; a part of an action answers PatchPartResult, its last part PatchResult. */
+  send(patch: { baseRevision: number; changes: CellInput[]; part?: PatchPart }): Promise<PatchResult | PatchPartResult>;
 }
 
 export interface PatchQueueOptions {
@@ -31,6 +34,12 @@ export interface PatchQueueOptions {
   /** Shows colleagues' inputs that were held back behind mine (the model's applyRemote). */
   showRemote?: (inputs: CellInput[]) => void;
 }
+
+/** The server no longer holds an action's earlier parts, or refused one part's place in it: send it all again. */
+const lostAction = (error: unknown) => error instanceof ApiError && (error.code === 'action_expired' || error.code === 'part_refused');
+
+/** An id for one action's parts: unique enough among one person's unfinished actions on one workbook. */
+const newActionId = () => `${Date.now().toString(36)}-${Math.random().toString(36).slice(2, 10)}`;
 
 /** Network failures, 5xx and 429 are worth retrying; other refusals would only repeat themselves. */
 function isTransient(error: unknown): boolean {
@@ -238,19 +247,49 @@ export class PatchQueue {
       if (this.blocked) this.schedule(this.firstRetryMs);
       return;
     }
-    const batch = ready.slice(0, this.batchLimit);
+    // The grid refuses a single action over maxCellsPerAction; more waiting than that is several
+    // actions (made offline, say), saved as several revisions.
+    const batch = ready.slice(0, maxCellsPerAction);
     const baseRevision = this.ledger.base;
     this.inFlight = new Map(batch.map((c) => [cellKey(c), c]));
-    this.lastBatchSize = batch.length;
     if (this.current.kind !== 'offline') this.setStatus({ kind: 'saving', waiting: this.pending.size });
     try {
-      this.acknowledge(await this.opts.transport.send({ baseRevision, changes: batch }));
+      this.acknowledge(await this.sendAction(baseRevision, batch));
     } catch (error) {
       this.inFlight = null;
       this.handleFailure(error);
       return;
     }
     if (this.pending.size > 0) this.schedule(0);
+  }
+
+  /**
+   * One patch, or parts of one action (each at most batchLimit cells, the last a short one) whose
+   * last part answers as the patch would. If the server lost the earlier parts (expired, restarted) the action is sent again
+   * from its first part, once; a second loss is reported.
+   */
+  private async sendAction(baseRevision: number, batch: CellInput[], again = true): Promise<PatchResult> {
+    const size = Math.max(this.batchLimit, Math.ceil(batch.length / maxPartsPerAction));
+    if (batch.length <= size) {
+      this.lastBatchSize = batch.length;
+      return this.opts.transport.send({ baseRevision, changes: batch }) as Promise<PatchResult>;
+    }
+    const actionId = newActionId();
+    const sizes = actionPartSizes(batch.length, size);
+    const count = sizes.length;
+    for (let index = 0, from = 0; index < count; from += sizes[index], index++) {
+      const changes = batch.slice(from, from + sizes[index]);
+      this.lastBatchSize = changes.length;
+      let answer: PatchResult | PatchPartResult;
+      try {
+        answer = await this.opts.transport.send({ baseRevision, changes, part: { actionId, index, count } });
+      } catch (error) {
+        if (again && !this.disposed && lostAction(error)) return this.sendAction(baseRevision, batch, false);
+        throw error;
+      }
+      if (!('staged' in answer)) return answer;
+    }
+    throw new ApiError(0, 'bad_response', 'the server held every part of the action without applying it');
   }
 
   private acknowledge({ revision, applied }: PatchResult) {
@@ -290,7 +329,7 @@ export class PatchQueue {
       this.setStatus({ kind: 'conflict', waiting: this.pending.size, conflicts: real });
       return;
     }
-    if (error instanceof ApiError && error.status === 413 && this.lastBatchSize > 1) {
+    if (error instanceof ApiError && error.status === 413 && error.code !== 'action_too_large' && this.lastBatchSize > 1) {
       // Too large for the server (bytes or cells): send halves of what was refused.
       this.batchLimit = Math.max(1, Math.floor(this.lastBatchSize / 2));
       this.schedule(0);
