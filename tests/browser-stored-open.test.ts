@@ -1,8 +1,6 @@
 // Opening a large workbook whose values the server stored with its revision: the page shows those
 // values at once, says it is still computing while its own engine takes the formulas back in
-// slices, and an edit typed before that has finished is saved and computed like any other. The
-// workbook and its values are read in a worker and handed over in parts (src/lib/jsonFetch.worker.ts):
-// 40,000 cells here come in several parts.
+// slices, and an edit typed before that has finished is saved and computed like any other.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { maxCellsPerPatch } from '../shared/workbooks.js';
@@ -97,7 +95,7 @@ describe('opening a workbook on its stored values', () => {
     expect(values.sheets[0].values).toContainEqual([0, 1, 3]);
   }, 300_000);
 
-  it('says a workbook that is not there is not available (the answer read in a worker keeps its status)', async () => {
+  it('says a workbook that is not there is not available', async () => {
     await page.goto(`${server.url}/workbooks/no-such-workbook`);
     await page.getByText('This workbook is not available').waitFor();
     expect(await page.locator('[data-testid="sheet-grid"]').count()).toBe(0);

@@ -21,6 +21,10 @@ export async function api<T>(path: string, init: { method?: string; body?: unkno
     body: init.body !== undefined ? JSON.stringify(init.body) : undefined,
     signal: init.signal,
   });
+  return answerOf<T>(res);
+}
+
+async function answerOf<T>(res: Response): Promise<T> {
   const text = await res.text();
   const data = text ? safeJson(text) : null;
   if (!res.ok) {
@@ -88,14 +92,23 @@ function workerForJson(): Worker | null {
   return jsonWorker;
 }
 
+/** Answers larger than this (uncompressed, as far as the headers tell) are read in the worker; smaller ones parse in the page in well under a frame's budget of stall. */
+const largeAnswerBytes = 4_000_000;
+/** A compressed answer's length times this is taken as its size (JSON of cells packs about tenfold). */
+const packedRatio = 10;
+
 /**
- * GET of an answer that grows with the workbook (its cells, its stored values): fetched and parsed
- * in a worker and handed over in parts (jsonFetch.worker.ts), so the page never stops for the whole
- * answer at once. The same result and errors as `api`; `api` itself where workers are unavailable.
+ * GET of an answer that grows with the workbook (its cells, its stored values). Fetched by the page;
+ * when the headers say it is large, its body is handed to a worker that reads and parses it and
+ * hands the result back in parts (jsonFetch.worker.ts), so the page never stops for the whole answer
+ * at once. The same result and errors as `api`.
  */
-export function apiLarge<T>(path: string, init: { signal?: AbortSignal } = {}): Promise<T> {
-  const worker = workerForJson();
-  if (!worker) return api<T>(path, init);
+export async function apiLarge<T>(path: string, init: { signal?: AbortSignal } = {}): Promise<T> {
+  const res = await fetch(`/api${path}`, { credentials: 'same-origin', signal: init.signal });
+  const length = Number(res.headers.get('content-length') ?? Number.NaN);
+  const size = res.headers.has('content-encoding') ? length * packedRatio : length;
+  const worker = res.ok && res.body && !(size <= largeAnswerBytes) ? workerForJson() : null;
+  if (!worker) return answerOf<T>(res);
   const id = nextRequest++;
   return new Promise<T>((resolve, reject) => {
     if (init.signal?.aborted) return reject(init.signal.reason);
@@ -103,6 +116,7 @@ export function apiLarge<T>(path: string, init: { signal?: AbortSignal } = {}): 
     init.signal?.addEventListener('abort', () => {
       if (waiting.delete(id)) reject(init.signal!.reason);
     });
-    worker.postMessage({ id, url: new URL(`/api${path}`, location.href).href } satisfies JsonFetchRequest);
+    const body = res.body!;
+    worker.postMessage({ id, body } satisfies JsonFetchRequest, [body as unknown as Transferable]);
   });
 }

@@ -1,34 +1,28 @@
-// Fetches and parses a large JSON answer off the page's thread (reading 13 MB of text and parsing it
-// held the page for over a second each), then hands it over in parts: the answer with every long
-// per-sheet list emptied first, then those lists a slice at a time, each slice its own message, so
-// the page takes them in short tasks between frames. Only lists under `sheets[i]` are sliced: the
-// workbook's cells and the stored values, the two answers that grow with the sheet.
+// Reads and parses a large JSON answer off the page's thread (the page fetched it and hands over
+// its body: reading 13 MB of text and parsing it held the page for over a second each), then hands
+// it back in parts: the answer with every long per-sheet list emptied first, then those lists a
+// slice at a time, each slice its own message, so the page takes them in short tasks between
+// frames. Only lists under `sheets[i]` are sliced: the workbook's cells and the stored values, the
+// two answers that grow with the sheet.
 import { splitIntoParts, type JsonFetchReply, type JsonFetchRequest } from './jsonParts.js';
 
 const scope = self as unknown as { onmessage: ((e: MessageEvent<JsonFetchRequest>) => void) | null; postMessage(m: JsonFetchReply): void };
 
 scope.onmessage = async (e) => {
-  const { id, url } = e.data;
-  let res: Response;
+  const { id, body } = e.data;
   let text: string;
-  let receivedAt: number;
   try {
-    res = await fetch(url, { credentials: 'same-origin' });
-    text = await res.text();
-    receivedAt = performance.timeOrigin + performance.now();
+    text = await new Response(body).text();
   } catch (err) {
     scope.postMessage({ id, kind: 'failed', status: 0, statusText: (err as Error).message, body: null });
     return;
   }
+  const receivedAt = performance.timeOrigin + performance.now();
   let data: unknown = null;
   try {
     data = text ? JSON.parse(text) : null;
   } catch {
     data = { error: { code: 'bad_response', message: text.slice(0, 200) } };
-  }
-  if (!res.ok) {
-    scope.postMessage({ id, kind: 'failed', status: res.status, statusText: res.statusText, body: data });
-    return;
   }
   const parts = splitIntoParts(data);
   scope.postMessage({ id, kind: 'head', data, receivedAt });

@@ -6,7 +6,8 @@ export const partItems = 5_000;
 
 export interface JsonFetchRequest {
   id: number;
-  url: string;
+  /** The body of a successful answer, transferred from the page (which has read its status and headers). */
+  body: ReadableStream<Uint8Array>;
 }
 
 export type JsonFetchReply =
