@@ -94,4 +94,10 @@ describe('opening a workbook on its stored values', () => {
     const values = (await call('GET', `/workbooks/${workbookId}/values`)).body;
     expect(values.sheets[0].values).toContainEqual([0, 1, 3]);
   }, 300_000);
+
+  it('says a workbook that is not there is not available', async () => {
+    await page.goto(`${server.url}/workbooks/no-such-workbook`);
+    await page.getByText('This workbook is not available').waitFor();
+    expect(await page.locator('[data-testid="sheet-grid"]').count()).toBe(0);
+  });
 });

@@ -6,14 +6,14 @@ import { workbookPath, type PatchInput, type PatchPart, type PatchPartResult, ty
 import { removeSheetFromFormula, renameSheetInFormula } from '@shared/formulaText.js';
 import type { StructuresRequest, StructuresResponse } from '@shared/structures.js';
 import type { EhtResult } from '@functions/chem/ehtSummary.js';
-import { api, queryKeys } from '../../lib/api.js';
+import { api, apiLarge, queryKeys } from '../../lib/api.js';
 import { writeDisplaySettings, type DisplaySettings } from './model/displaySettings.js';
 import type { WorkbookSession } from './session/useWorkbookSession.js';
 
 export const workbookQueryOptions = (id: string) =>
   queryOptions({
     queryKey: queryKeys.workbook(id),
-    queryFn: ({ signal }) => api<WorkbookPayload>(workbookPath(id), { signal }),
+    queryFn: ({ signal }) => apiLarge<WorkbookPayload>(workbookPath(id), { signal }),
     // Each visit loads afresh; while open, the engine is the source of truth.
     staleTime: Infinity,
     gcTime: 0,
@@ -31,7 +31,7 @@ export const fetchStructures = (workbookId: string, inputs: StructuresRequest['i
 export const storedValuesQueryOptions = (id: string) =>
   queryOptions({
     queryKey: queryKeys.storedValues(id),
-    queryFn: ({ signal }) => api<ValuesPayload | null>(`${workbookPath(id, 'values')}?stored=only`, { signal }).catch(() => null),
+    queryFn: ({ signal }) => apiLarge<ValuesPayload | null>(`${workbookPath(id, 'values')}?stored=only`, { signal }).catch(() => null),
     staleTime: Infinity,
     gcTime: 0,
     retry: false,

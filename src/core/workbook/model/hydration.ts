@@ -7,9 +7,7 @@
 // computed against rows not yet loaded.
 // A cell edited meanwhile keeps the edit (its stored placeholder is forgotten); whatever depends on
 // a not-yet-live formula catches up when that formula's slice comes.
-import type { ValuesPayload } from '@shared/workbooks.js';
 import { engineInput } from '@functions/formulaTokens.js';
-import type { SheetInputs } from './sheetInputs.js';
 
 type Constant = string | number | boolean | null;
 
@@ -20,49 +18,6 @@ export interface PendingCell {
 }
 
 const cellKey = (sheetId: string, row: number, col: number) => `${sheetId}:${row}:${col}`;
-
-/** A stored value as engine input that reads back as that same value (text is quoted, never parsed). */
-function constantOf(value: ValuesPayload['sheets'][number]['values'][number][2] | undefined): Constant {
-  if (value === undefined) return null;
-  if (typeof value === 'object') return value.error; // the engine reads an error literal as that error
-  if (typeof value === 'string') return `'${value}`;
-  return value;
-}
-
-/**
- * The engine's table for one sheet with formulas replaced by their stored values, the formula
- * cells to put back, and the cells only an array formula fills (cleared before formulas return).
- */
-export function placeholderTable(sheetId: string, inputs: SheetInputs, stored: ValuesPayload['sheets'][number] | undefined) {
-  // Built here rather than by inputs.toTable(): formulas are never translated for the engine (their
-  // stored values stand in), which on a large sheet is most of the cost of the first build.
-  const { rows, cols } = inputs.extent();
-  const table: Constant[][] = Array.from({ length: rows }, () => new Array<Constant>(cols).fill(null));
-  const formulas: PendingCell[] = [];
-  const spilled: PendingCell[] = [];
-  let ordered = true;
-  for (const { row, col, input } of inputs.entries()) {
-    if (!input.startsWith('=')) {
-      table[row][col] = engineInput(input);
-      continue;
-    }
-    // Left empty: an empty result is left out of the stored values.
-    const last = formulas[formulas.length - 1];
-    if (last && (last.row > row || (last.row === row && last.col > col))) ordered = false;
-    formulas.push({ sheetId, row, col });
-  }
-  for (const [row, col, value] of stored?.values ?? []) {
-    const input = inputs.get(row, col);
-    if (input === '') {
-      while (table.length <= row) table.push([]);
-      while (table[row].length < col) table[row].push(null);
-      spilled.push({ sheetId, row, col });
-    } else if (!input.startsWith('=')) continue;
-    table[row][col] = constantOf(value);
-  }
-  if (!ordered) formulas.sort((a, b) => a.row - b.row || a.col - b.col);
-  return { table, formulas, spilled };
-}
 
 /** The engine calls a slice needs; the model provides them (workbookModel.ts). */
 export interface HydrationTarget {
@@ -81,6 +36,8 @@ export interface PendingRows {
   table: Constant[][];
   next: number;
 }
+
+const released: Constant[] = [];
 
 export class Hydration {
   private at = 0;
@@ -181,6 +138,8 @@ export class Hydration {
       line[col] = input === '' ? null : engineInput(input);
     }
     target.writeRows(pending.sheetId, from, block);
+    // The engine holds these rows now: let their placeholders go (a large sheet's table is a good part of the page's memory).
+    pending.table.fill(released, from, to);
     pending.next = to;
     if (to >= pending.table.length) this.rest.shift();
     const perRow = (performance.now() - started) / Math.max(1, to - from);

@@ -20,6 +20,8 @@ export interface InputDifference {
 
 export class SheetInputs {
   private cells = new Map<number, string>();
+  /** One past the last used row and column, kept as cells are set (a scan of 800,000 cells per ask held the page); null after a delete until asked again. */
+  private bounds: { rows: number; cols: number } | null = { rows: 0, cols: 0 };
 
   static from(entries: Iterable<readonly [number, number, string]>): SheetInputs {
     const s = new SheetInputs();
@@ -36,8 +38,15 @@ export class SheetInputs {
   }
 
   set(row: number, col: number, input: string) {
-    if (input === '') this.cells.delete(row * COLUMN_SPAN + col);
-    else this.cells.set(row * COLUMN_SPAN + col, input);
+    if (input === '') {
+      if (this.cells.delete(row * COLUMN_SPAN + col) && this.bounds && (row + 1 >= this.bounds.rows || col + 1 >= this.bounds.cols)) this.bounds = null;
+      return;
+    }
+    this.cells.set(row * COLUMN_SPAN + col, input);
+    if (this.bounds) {
+      if (row >= this.bounds.rows) this.bounds.rows = row + 1;
+      if (col >= this.bounds.cols) this.bounds.cols = col + 1;
+    }
   }
 
   *entries(): IterableIterator<InputEntry> {
@@ -47,6 +56,7 @@ export class SheetInputs {
   clone(): SheetInputs {
     const s = new SheetInputs();
     s.cells = new Map(this.cells);
+    s.bounds = this.bounds && { ...this.bounds };
     return s;
   }
 
@@ -65,13 +75,16 @@ export class SheetInputs {
 
   /** One past the last used row and column (0 × 0 for an empty sheet). */
   extent(): { rows: number; cols: number } {
-    let rows = 0;
-    let cols = 0;
-    for (const key of this.cells.keys()) {
-      rows = Math.max(rows, Math.floor(key / COLUMN_SPAN) + 1);
-      cols = Math.max(cols, (key % COLUMN_SPAN) + 1);
+    if (!this.bounds) {
+      let rows = 0;
+      let cols = 0;
+      for (const key of this.cells.keys()) {
+        rows = Math.max(rows, Math.floor(key / COLUMN_SPAN) + 1);
+        cols = Math.max(cols, (key % COLUMN_SPAN) + 1);
+      }
+      this.bounds = { rows, cols };
     }
-    return { rows, cols };
+    return { ...this.bounds };
   }
 
   /** A dense table for the engine (null for empty cells), in the text the engine reads (engineInput). */

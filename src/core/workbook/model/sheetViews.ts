@@ -35,7 +35,9 @@ export function valueExtent(engine: HyperFormula, s: Pick<SheetLike, 'engineId' 
   let { rows, cols } = s.inputs.extent();
   rows = Math.min(rows, rowLimit);
   const inArray = (row: number, col: number) => engine.isCellPartOfArray({ sheet: s.engineId, row, col });
-  for (const { row, col, input } of s.inputs.entries()) {
+  // Only the rows the engine holds so far: read cell by cell when they are a small part of the sheet.
+  const cells = rows * cols < s.inputs.size ? blockEntries(s.inputs, rows, cols) : s.inputs.entries();
+  for (const { row, col, input } of cells) {
     if (row >= rowLimit || !input.startsWith('=') || !inArray(row, col)) continue;
     // A spill is at most functions/limits.ts maxSpillCells, so these walks stay short.
     let r = row;
@@ -46,6 +48,15 @@ export function valueExtent(engine: HyperFormula, s: Pick<SheetLike, 'engineId' 
     cols = Math.max(cols, c + 1);
   }
   return { rows, cols };
+}
+
+function* blockEntries(inputs: SheetInputs, rows: number, cols: number) {
+  for (let row = 0; row < rows; row++) {
+    for (let col = 0; col < cols; col++) {
+      const input = inputs.get(row, col);
+      if (input !== '') yield { row, col, input };
+    }
+  }
 }
 
 /** Values of the top-left block of a sheet, as getSheetValues gives them for the whole sheet. */

@@ -8,7 +8,8 @@ import { ExportedCellChange, type ExportedChange, type HyperFormula } from 'hype
 import { buildWorkbookEngine, inTabOrder } from '@functions/workbookEngine.js';
 import { engineInput } from '@functions/formulaTokens.js';
 import { actionTooLargeReason, maxCellsPerAction, type SheetPayload, type ValuesPayload, type WorkbookPayload } from '@shared/workbooks.js';
-import { Hydration, placeholderTable } from './hydration.js';
+import { Hydration } from './hydration.js';
+import { OpenPreparation, type PreparedOpen } from './openPreparation.js';
 import { allows, type AccessRole, type WorkbookAction } from '@shared/permissions.js';
 import type { CellView } from './cellView.js';
 import { buildSheetRows, EMPTY_ROW, groupCells, viewOfCell, withRowsReplaced, type RowData } from './sheetViews.js';
@@ -26,6 +27,8 @@ export const minRowsShown = 1000;
 export const minColsShown = 26;
 /** Rows of each sheet in the engine's first build when opening on stored values: well over a screenful. */
 export const firstRowsBuilt = 300;
+/** How often the grid is redrawn while formulas are put back (their values rarely change what is shown). */
+export const hydrationRedrawMs = 250;
 
 export interface SheetState {
   id: string;
@@ -71,6 +74,10 @@ export class WorkbookModel {
 
   /** Formulas still standing in as their stored values (hydration.ts); null once the workbook is live. */
   private hydration: Hydration | null = null;
+  /** Within a hydration slice: changes are counted but listeners are told once, after it. */
+  private quiet = false;
+  /** When listeners were last told of a change. */
+  private shownAt = 0;
   /** Display settings of mine on their way to the server (live settings revisions wait for them). */
   readonly displaySaves = new DisplaySaves();
 
@@ -78,16 +85,27 @@ export class WorkbookModel {
    * `stored`: the values stored with this revision, shown at once while the rest of the rows and then
    * the formulas are put back in slices; `firstRows`: how many rows of each sheet the engine is built with.
    */
-  constructor(payload: WorkbookPayload, options: { onLocalChanges?: (changes: CellInput[]) => void; stored?: ValuesPayload | null; firstRows?: number } = {}) {
+  constructor(
+    payload: WorkbookPayload,
+    options: {
+      onLocalChanges?: (changes: CellInput[]) => void;
+      stored?: ValuesPayload | null;
+      firstRows?: number;
+      /** The inputs and placeholder tables made beforehand in slices (openPreparation.ts) for this payload and `stored`. */
+      prepared?: PreparedOpen;
+    } = {},
+  ) {
     this.onLocalChanges = options.onLocalChanges ?? (() => {});
     this.id = payload.id;
     this.title = payload.title;
     this.role = payload.role;
     this.actions = payload.actions;
     const ordered = inTabOrder(payload.sheets);
-    const inputs = new Map(ordered.map((s) => [s.id, SheetInputs.from(s.cells)]));
     const stored = options.stored?.revision === payload.revision ? options.stored : null;
-    const held = stored ? ordered.map((s) => placeholderTable(s.id, inputs.get(s.id)!, stored.sheets.find((x) => x.id === s.id))) : null;
+    let prepared = options.prepared?.revision === payload.revision ? options.prepared : null;
+    if (!prepared || (stored !== null) !== (prepared.held !== null)) prepared = new OpenPreparation(payload, stored).result();
+    const inputs = prepared.inputs;
+    const held = prepared.held;
     // Built once from whole tables: no per-cell setCellContents on load. Undo lives in History
     // (our own, mirrored in patches), so the engine keeps no undo stack of its own.
     const firstRows = Math.max(1, options.firstRows ?? firstRowsBuilt);
@@ -95,7 +113,9 @@ export class WorkbookModel {
     for (const s of ordered) this.addSheetState(s, inputs.get(s.id)!);
     if (held && stored) {
       const rest = ordered.map((s, i) => ({ sheetId: s.id, table: held[i].table, next: firstRows }));
-      this.hydration = new Hydration(held.flatMap((h) => h.formulas), held.flatMap((h) => h.spilled), stored.revision, rest, stored.sheets.length > 0);
+      // One sheet's lists are taken as they are: copying 700,000 formula cells is a stall of its own.
+      const joined = <T,>(lists: T[][]) => (lists.length === 1 ? lists[0] : lists.flat());
+      this.hydration = new Hydration(joined(held.map((h) => h.formulas)), joined(held.map((h) => h.spilled)), stored.revision, rest, stored.sheets.length > 0);
     }
   }
 
@@ -113,7 +133,21 @@ export class WorkbookModel {
   /** Puts back formulas for about `budgetMs` (the session calls it between frames); true once live. */
   computeSlice(budgetMs: number): boolean {
     if (!this.hydration) return true;
-    const live = this.hydration.slice(
+    // Listeners hear of a slice's changes at most every `hydrationRedrawMs`: each redraw of a
+    // 100,000-row grid walks every row, and after every slice that came to most of the open's time.
+    this.quiet = true;
+    let live = false;
+    try {
+      live = this.sliceHydration(budgetMs);
+    } finally {
+      this.quiet = false;
+    }
+    if (live || performance.now() - this.shownAt >= hydrationRedrawMs) this.notify();
+    return live;
+  }
+
+  private sliceHydration(budgetMs: number): boolean {
+    const live = this.hydration!.slice(
       {
         hasSheet: (id) => this.hasSheet(id),
         engineIdOf: (id) => this.sheet(id).engineId,
@@ -124,7 +158,6 @@ export class WorkbookModel {
       budgetMs,
     );
     if (live) this.hydration = null;
-    this.notify();
     return live;
   }
 
@@ -210,6 +243,8 @@ export class WorkbookModel {
 
   notify() {
     this.version += 1;
+    if (this.quiet) return;
+    this.shownAt = performance.now();
     for (const l of this.listeners) l();
   }
 

@@ -11,7 +11,9 @@ import { PendingStore, type KeyValueStorage } from '../save/pendingStore.js';
 import { buildPreview, type SheetPreview } from '../model/windowPreview.js';
 import { PendingReevaluation } from '../model/pendingCells.js';
 import { installStructureStore, StructureStore } from '../structures/structureStore.js';
-import { structureInputsOf } from '../structures/structureInputs.js';
+import { StructureInputScan } from '../structures/structureInputs.js';
+import { inSlices, OpenPreparation, type PreparedOpen } from '../model/openPreparation.js';
+import { inTabOrder } from '@functions/workbookEngine.js';
 import { loadOpenchemlib, openchemlibLoaded } from '@functions/chem/openchemlib.js';
 import { enginePrepared, prepareEngine } from './engineSetup.js';
 
@@ -58,12 +60,14 @@ export function openSession(
   storage: KeyValueStorage | null,
   structures = new StructureStore((inputs) => fetchStructures(payload.id, inputs)),
   stored: ValuesPayload | null = null,
+  /** The model's inputs and placeholder tables, made beforehand in slices (openPreparation.ts). */
+  prepared?: PreparedOpen,
 ): WorkbookSession {
   // Timed for the open benchmark (bench/browser-open.ts reads this measure).
   const started = performance.now();
   // The model hands every local change to the save queue; the queue shows colleagues' inputs it held
   // back. Each is given the other's method at construction, called only once both exist.
-  const model: WorkbookModel = new WorkbookModel(payload, { onLocalChanges: (changes) => queue.enqueue(changes), stored });
+  const model: WorkbookModel = new WorkbookModel(payload, { onLocalChanges: (changes) => queue.enqueue(changes), stored, prepared });
   const reevaluation = new PendingReevaluation(model);
   structures.onArrival((cells) => reevaluation.add(cells));
   performance.measure('orbitab:build-engine', { start: started, end: performance.now() });
@@ -205,11 +209,14 @@ function setupProblem(e: unknown): Error {
 
 /**
  * Opens on the values stored with the loaded revision (none: formula cells empty), then puts the
- * formulas back a slice at a time after each paint until the workbook is live. Edits in the meantime
- * (and unsent ones from an earlier visit) go to the engine and the save queue as usual; what depends
- * on a formula not yet back is brought up to date when its slice comes. The first slice also waits
- * (briefly) for the stored extended-Hückel results of the structures the formulas name, so those
- * cells go from stored value to computed value without showing "computing…". Returns the clean-up.
+ * formulas back a slice at a time after each paint until the workbook is live. The model's inputs
+ * and placeholder tables are made first, in slices too (openPreparation.ts), so no step of the open
+ * holds the page long however large the workbook. Edits in the meantime (and unsent ones from an
+ * earlier visit) go to the engine and the save queue as usual; what depends on a formula not yet
+ * back is brought up to date when its slice comes. After the first paint the formulas are read for
+ * the structures they name, and the first slice waits (briefly) for those stored extended-Hückel
+ * results, so those cells go from stored value to computed value without showing "computing…".
+ * Returns the clean-up.
  */
 function openOnStoredValues(
   payload: WorkbookPayload,
@@ -220,64 +227,79 @@ function openOnStoredValues(
   setSession: (s: WorkbookSession | null) => void,
   setOpenError: (e: Error) => void,
 ): () => void {
-  // Asked first: the request is under way while the engine is built and the stored values painted.
-  const prefetched = structures.prefetch(structureInputsOf(payload));
-  let s: WorkbookSession;
-  try {
-    s = openSession(payload, storage, structures, stored);
-  } catch (e) {
-    setOpenError(e as Error);
-    return () => undefined;
-  }
-  const opened = performance.now();
-  setSession(s);
-  const online = () => s.queue.flushNow();
-  window.addEventListener('online', online);
+  let s: WorkbookSession | null = null;
   let timer: ReturnType<typeof setTimeout> | undefined;
   let waitTimer: ReturnType<typeof setTimeout> | undefined;
   let frame = 0;
   let cancelled = false;
-  const step = () => {
-    if (cancelled) return;
-    if (s.model.computeSlice(computeSliceMs)) performance.measure('orbitab:live', { start: opened, end: performance.now() });
-    else timer = setTimeout(step, 0);
-  };
-  // The first slice waits for the first paint of the stored values, for the stored structure results
-  // and for the structure toolkit.
-  let painted = false;
-  let fetched = false;
-  let toolkitIn = openchemlibLoaded();
-  const begin = () => {
-    if (cancelled || !painted || !fetched || !toolkitIn || timer !== undefined) return;
-    clearTimeout(waitTimer);
-    timer = setTimeout(step, 0);
-  };
-  frame = requestAnimationFrame(() => {
-    painted = true;
-    begin();
-  });
-  const fetchedNow = () => {
-    fetched = true;
-    begin();
-  };
-  waitTimer = setTimeout(fetchedNow, prefetchWaitMs);
-  void prefetched.then(fetchedNow);
-  toolkit.then(
-    () => {
-      toolkitIn = true;
+  const isCancelled = () => cancelled;
+  const online = () => s?.queue.flushNow();
+  const preparation = new OpenPreparation(payload, stored);
+  const opening = inSlices((ms) => preparation.step(ms), computeSliceMs, isCancelled);
+  void opening.then((ready) => {
+    if (!ready) return;
+    const prepared = preparation.result();
+    let session: WorkbookSession;
+    try {
+      session = s = openSession(payload, storage, structures, stored, prepared);
+    } catch (e) {
+      setOpenError(e as Error);
+      return;
+    }
+    const opened = performance.now();
+    setSession(session);
+    window.addEventListener('online', online);
+    const step = () => {
+      if (cancelled) return;
+      if (session.model.computeSlice(computeSliceMs)) performance.measure('orbitab:live', { start: opened, end: performance.now() });
+      else timer = setTimeout(step, 0);
+    };
+    // The first slice waits for the first paint of the stored values, for the stored structure results
+    // and for the structure toolkit.
+    let painted = false;
+    let fetched = false;
+    let toolkitIn = openchemlibLoaded();
+    const begin = () => {
+      if (cancelled || !painted || !fetched || !toolkitIn || timer !== undefined) return;
+      clearTimeout(waitTimer);
+      timer = setTimeout(step, 0);
+    };
+    const fetchedNow = () => {
+      fetched = true;
       begin();
-    },
-    (e: unknown) => !cancelled && setOpenError(setupProblem(e)),
-  );
+    };
+    waitTimer = setTimeout(fetchedNow, prefetchWaitMs);
+    toolkit.then(
+      () => {
+        toolkitIn = true;
+        begin();
+      },
+      (e: unknown) => !cancelled && setOpenError(setupProblem(e)),
+    );
+    frame = requestAnimationFrame(() => {
+      painted = true;
+      // The structures the formulas name, read after the first paint (a pass over every formula).
+      const scan = new StructureInputScan((sheetId, row, col) => prepared.inputs.get(sheetId)?.get(row, col));
+      const sheets = inTabOrder(payload.sheets);
+      timer = setTimeout(() => {
+        timer = undefined;
+        void inSlices((ms) => scan.step(sheets, ms), computeSliceMs, isCancelled)
+          .then((read) => (read ? structures.prefetch(scan.result()) : undefined))
+          .then(fetchedNow);
+      }, 0);
+    });
+  });
   return () => {
     cancelled = true;
     cancelAnimationFrame(frame);
     clearTimeout(timer);
     clearTimeout(waitTimer);
     window.removeEventListener('online', online);
-    s.reevaluation.stop();
-    s.queue.dispose();
-    s.model.dispose();
+    if (s) {
+      s.reevaluation.stop();
+      s.queue.dispose();
+      s.model.dispose();
+    }
     setSession(null);
   };
 }

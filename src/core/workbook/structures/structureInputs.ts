@@ -33,12 +33,24 @@ function plainText(input: string | undefined): input is string {
   return true;
 }
 
-/** Distinct structure inputs of the workbook's extended-Hückel formulas, in sheet and row order. */
-export function structureInputsOf(payload: Pick<WorkbookPayload, 'sheets'>): StructureInput[] {
-  const out = new Map<string, StructureInput>();
-  for (const sheet of [...payload.sheets].sort((a, b) => a.position - b.position)) {
-    let inputs: Map<string, string> | null = null;
-    for (const [, , input] of sheet.cells) {
+type SheetCells = WorkbookPayload['sheets'][number];
+
+/**
+ * The scan behind structureInputsOf, a range of cells at a time (a large workbook is read in short
+ * tasks while it opens). Sheets in tab order, each from its first cell on; `inputOf` reads another
+ * cell's input (the scan otherwise keeps a map of the sheet's cells for the references it meets).
+ */
+export class StructureInputScan {
+  private readonly out = new Map<string, StructureInput>();
+  private lookups = new Map<string, (row: number, col: number) => string | undefined>();
+  private sheetAt = 0;
+  private cellAt = 0;
+
+  constructor(private readonly inputOf?: (sheetId: string, row: number, col: number) => string | undefined) {}
+
+  scan(sheet: SheetCells, from = 0, to = sheet.cells.length) {
+    for (let i = from; i < to; i++) {
+      const input = sheet.cells[i][2];
       if (input.charCodeAt(0) !== 61 /* = */ || !/^=\s*EHT/i.test(input)) continue;
       const m = CALL.exec(input);
       const at = m ? chargeArgument.get(m[1].toUpperCase()) : undefined;
@@ -52,14 +64,54 @@ export function structureInputsOf(payload: Pick<WorkbookPayload, 'sheets'>): Str
       let structure: string | undefined;
       if (m[4] !== undefined) structure = m[4].replace(/""/g, '"');
       else {
-        inputs ??= new Map(sheet.cells.map(([r, c, v]) => [`${r}:${c}`, v]));
-        const cell = inputs.get(`${Number(m[3]) - 1}:${columnIndex(m[2])}`);
+        const cell = this.lookup(sheet)(Number(m[3]) - 1, columnIndex(m[2]));
         if (plainText(cell)) structure = cell;
       }
       if (!structure?.trim()) continue;
       const key = `${charge ?? ''}\u0000${structure}`;
-      if (!out.has(key)) out.set(key, charge === undefined ? { structure } : { structure, charge });
+      if (!this.out.has(key)) this.out.set(key, charge === undefined ? { structure } : { structure, charge });
     }
   }
-  return [...out.values()];
+
+  private lookup(sheet: SheetCells): (row: number, col: number) => string | undefined {
+    let found = this.lookups.get(sheet.id);
+    if (!found) {
+      const inputOf = this.inputOf;
+      if (inputOf) found = (row, col) => inputOf(sheet.id, row, col);
+      else {
+        const inputs = new Map(sheet.cells.map(([r, c, v]) => [`${r}:${c}`, v]));
+        found = (row, col) => inputs.get(`${row}:${col}`);
+      }
+      this.lookups.set(sheet.id, found);
+    }
+    return found;
+  }
+
+  /** Scans the sheets in tab order for about `budgetMs`; true once every cell has been read. */
+  step(sheets: readonly SheetCells[], budgetMs: number): boolean {
+    const started = performance.now();
+    while (this.sheetAt < sheets.length) {
+      const sheet = sheets[this.sheetAt];
+      const to = Math.min(sheet.cells.length, this.cellAt + 5_000);
+      this.scan(sheet, this.cellAt, to);
+      this.cellAt = to;
+      if (to >= sheet.cells.length) {
+        this.sheetAt++;
+        this.cellAt = 0;
+      }
+      if (performance.now() - started >= budgetMs) break;
+    }
+    return this.sheetAt >= sheets.length;
+  }
+
+  result(): StructureInput[] {
+    return [...this.out.values()];
+  }
+}
+
+/** Distinct structure inputs of the workbook's extended-Hückel formulas, in sheet and row order. */
+export function structureInputsOf(payload: Pick<WorkbookPayload, 'sheets'>): StructureInput[] {
+  const scan = new StructureInputScan();
+  for (const sheet of [...payload.sheets].sort((a, b) => a.position - b.position)) scan.scan(sheet);
+  return scan.result();
 }

@@ -1,0 +1,92 @@
+// Profiles one open of the workbook held by bench/openProfileServer.ts: Chrome's CPU profiler via
+// CDP over the whole open (navigation → every formula computed), then each stretch of the main
+// thread busy for more than STALL_MS without a break is listed with the functions that took its time.
+// Run: `npx tsx bench/openProfileServer.ts` (keep it running), then `npx tsx bench/openProfile.ts`.
+import fs from 'node:fs';
+import path from 'node:path';
+import { launchBrowser } from '../tests/helpers/browser.js';
+
+const dir = process.env.OPEN_PROFILE_DIR ?? '/tmp/orbitab-open-profile';
+const { url, cookie, id } = JSON.parse(fs.readFileSync(path.join(dir, 'live.json'), 'utf8')) as { url: string; cookie: string; id: string };
+const STALL_MS = Number(process.env.STALL_MS ?? 100);
+const profile = process.env.PROFILE !== '0';
+
+interface Node { id: number; callFrame: { functionName: string; url: string; lineNumber: number; columnNumber: number }; parent?: number; children?: number[] }
+interface Profile { nodes: Node[]; startTime: number; endTime: number; samples: number[]; timeDeltas: number[] }
+
+const browser = await launchBrowser({ viewport: { width: 1280, height: 800 } });
+try {
+  const [name, value] = cookie.split('=');
+  await browser.context.addCookies([{ name, value, url }]);
+  const page = browser.page;
+  page.setDefaultTimeout(600_000);
+  // __orbCalibrate: a 20 ms busy loop whose samples place the page's clock on the profile's clock.
+  await page.addInitScript(`(function __orbCalibrate() { const t = performance.now(); while (performance.now() - t < 20); window.__orbCal = t + 10; })()`);
+  await page.addInitScript(`(() => { window.__orbTasks = []; try { new PerformanceObserver((l) => { for (const e of l.getEntries()) window.__orbTasks.push([Math.round(e.startTime), Math.round(e.duration)]); }).observe({ type: 'longtask', buffered: true }); } catch {} })()`);
+  // Warm the cache with the page's code (as the open bench does), not with the workbook.
+  await page.goto(`${url}/`);
+  await page.waitForLoadState('networkidle');
+  await page.goto('about:blank');
+  const cdp = await page.context().newCDPSession(page);
+  if (profile) {
+    await cdp.send('Profiler.enable');
+    await cdp.send('Profiler.setSamplingInterval', { interval: 200 });
+    await cdp.send('Profiler.start');
+  }
+  const t0 = Date.now();
+  await page.goto(`${url}/workbooks/${id}`);
+  const first = await page.waitForFunction(() => { const g = document.querySelector('[data-testid="sheet-grid"]'); return g && g.querySelectorAll('.orb-cell-number').length >= 20 ? performance.now() : false; }, undefined, { polling: 'raf' });
+  const firstMs = (await first.jsonValue()) as number;
+  const editable = await page.waitForFunction(() => { const g = document.querySelector('[data-testid="sheet-grid"]:not([data-preview])'); return g && g.querySelectorAll('.orb-cell-number').length >= 20 ? performance.now() : false; }, undefined, { polling: 'raf' });
+  const editableMs = (await editable.jsonValue()) as number;
+  const live = await page.waitForFunction(() => (document.querySelector('[data-testid="computing-state"]') ? false : performance.now()), undefined, { polling: 'raf', timeout: 600_000 });
+  const liveMs = (await live.jsonValue()) as number;
+  const tasks = (await page.evaluate('window.__orbTasks')) as [number, number][];
+  const heapMb = Math.round(((await page.evaluate('performance.memory ? performance.memory.usedJSHeapSize : 0')) as number) / 1e6);
+  const longest = Math.max(0, ...tasks.map((t) => t[1]));
+  console.log(`first rows ${Math.round(firstMs)} ms, editable ${Math.round(editableMs)} ms, live ${Math.round(liveMs)} ms, wall ${Date.now() - t0} ms; longest task ${longest} ms; JS heap at live ${heapMb} MB; loadavg ${fs.readFileSync('/proc/loadavg', 'utf8').trim()}`);
+  console.log('long tasks (start, duration):', JSON.stringify(tasks.filter((t) => t[1] > STALL_MS)));
+  if (profile) {
+    const { profile: p } = (await cdp.send('Profiler.stop')) as { profile: Profile };
+    fs.writeFileSync(path.join(dir, 'open.cpuprofile'), JSON.stringify(p));
+    const byId = new Map(p.nodes.map((n) => [n.id, n]));
+    for (const n of p.nodes) for (const c of n.children ?? []) byId.get(c)!.parent = n.id;
+    const label = (n: Node) => `${n.callFrame.functionName || '(anon)'} ${n.callFrame.url.split('/').pop()}:${n.callFrame.lineNumber + 1}:${n.callFrame.columnNumber + 1}`;
+    const times: number[] = [];
+    let t = p.startTime;
+    for (const d of p.timeDeltas) times.push((t += d));
+    const cal = times.filter((_, i) => byId.get(p.samples[i])!.callFrame.functionName === '__orbCalibrate');
+    const calMs = (await page.evaluate('window.__orbCal')) as number;
+    const offsetUs = (cal[0] + cal[cal.length - 1]) / 2 - calMs * 1000;
+    const long = tasks.filter((x) => x[1] > STALL_MS).map(([start, dur]) => {
+      const samples: [number, number][] = [];
+      for (let i = 0; i < times.length; i++) {
+        const at = times[i] - offsetUs;
+        if (at >= start * 1000 && at <= (start + dur) * 1000) samples.push([p.samples[i], p.timeDeltas[i + 1] ?? 0]);
+      }
+      return { start: start * 1000 + offsetUs, end: (start + dur) * 1000 + offsetUs, samples };
+    });
+    console.log(`calibration samples ${cal.length}; ${long.length} long tasks > ${STALL_MS} ms`);
+    const DETAIL_MS = Number(process.env.DETAIL_MS ?? 300);
+    const all = { start: 0, end: 0, samples: long.flatMap((x) => x.samples) };
+    for (const s of [...long.filter((x) => x.end - x.start > DETAIL_MS * 1000), all]) {
+      const self = new Map<string, number>();
+      const total = new Map<string, number>();
+      for (const [nid, dt] of s.samples) {
+        const n = byId.get(nid)!;
+        self.set(label(n), (self.get(label(n)) ?? 0) + dt);
+        const seen = new Set<string>();
+        for (let a: Node | undefined = n; a; a = a.parent ? byId.get(a.parent) : undefined) {
+          const l = label(a);
+          if (seen.has(l)) continue;
+          seen.add(l);
+          total.set(l, (total.get(l) ?? 0) + dt);
+        }
+      }
+      const fmt = (m: Map<string, number>, k: number) => [...m].sort((a, b) => b[1] - a[1]).slice(0, k).map(([l, us]) => `      ${(us / 1000).toFixed(0).padStart(5)} ms  ${l}`).join('\n');
+      console.log(`\n  ${s === all ? `all long tasks together (${long.length})` : `task at ${((s.start - offsetUs) / 1000).toFixed(0)} ms, ${((s.end - s.start) / 1000).toFixed(0)} ms`}\n    self:\n${fmt(self, 10)}\n    total (inclusive):\n${fmt(total, Number(process.env.TOTAL_LINES ?? 30))}`);
+    }
+  }
+} finally {
+  await browser.close();
+}

@@ -1,0 +1,158 @@
+// Opening a large workbook without holding the page: the answers are handed from the worker in parts
+// (src/lib/jsonParts.ts), the model's inputs and placeholder tables are made a slice at a time
+// (src/core/workbook/model/openPreparation.ts), and while formulas are put back the grid hears of
+// changes at most every so often, but always of the last. What each of these gives must be exactly
+// what the one-piece way gives.
+import { describe, expect, it } from 'vitest';
+import { allowedActions } from '../shared/permissions.js';
+import type { ValuesPayload, WorkbookPayload } from '../shared/workbooks.js';
+import { computeValues } from '../server/services/values.js';
+import { JsonAssembly, partItems, splitIntoParts } from '../src/lib/jsonParts.js';
+import { OpenPreparation } from '../src/core/workbook/model/openPreparation.js';
+import { SheetInputs } from '../src/core/workbook/model/sheetInputs.js';
+import { WorkbookModel } from '../src/core/workbook/model/workbookModel.js';
+import { StructureInputScan, structureInputsOf } from '../src/core/workbook/structures/structureInputs.js';
+
+const SPECIES = ['O2', 'N2', 'NO', 'CO', 'CN-', 'F2'];
+
+/** Rows of a species and formulas reading it, a second sheet reading the first, one array formula. */
+function workbook(rows: number): WorkbookPayload {
+  const first: [number, number, string][] = [];
+  for (let r = 0; r < rows; r++) {
+    first.push([r, 0, SPECIES[r % SPECIES.length]], [r, 1, `=BONDORDER(A${r + 1})`], [r, 2, `=UNPAIRED(A${r + 1})*2`]);
+    if (r % 7 === 0) first.push([r, 3, `'${r}`]);
+  }
+  first.push([rows, 0, '=TRANSPOSE(B1:B3)'], [rows + 1, 1, '=EHTGAP("CCO")']);
+  const second: [number, number, string][] = [[0, 0, '=SUM(Sheet1!B1:B50)'], [1, 0, '12.50']];
+  return {
+    id: 'wb',
+    title: 'Sliced open',
+    revision: 3,
+    role: 'editor',
+    actions: allowedActions(['editor']),
+    sheets: [
+      { id: 's2', name: 'Sheet2', position: 1, settings: {}, cells: second },
+      { id: 's1', name: 'Sheet1', position: 0, settings: {}, cells: first },
+    ],
+  };
+}
+
+function shown(model: WorkbookModel, sheetId: string) {
+  const out: Record<string, string> = {};
+  model.rows(sheetId).forEach((row, r) => {
+    for (const [c, v] of Object.entries(row)) if (v && (v.display !== '' || v.errorCode)) out[`${r},${c}`] = `${v.input}|${v.display}|${v.errorCode ?? ''}`;
+  });
+  return out;
+}
+
+describe('an answer handed over in parts', () => {
+  it('comes back together equal to the answer sent, with every long list cut into parts no longer than a part', () => {
+    const payload = workbook(8_000); // Sheet1 holds over 24,000 cells: several parts
+    const original = JSON.parse(JSON.stringify(payload)) as WorkbookPayload;
+    const stored = computeValues({ revision: 3, sheets: original.sheets.map((s) => ({ ...s, cells: s.cells.slice(0, 200) })) });
+    for (const [sent, expected] of [[payload, original], [JSON.parse(JSON.stringify(stored)), stored]] as const) {
+      const parts = splitIntoParts(sent);
+      const assembly = new JsonAssembly();
+      expect(assembly.take({ id: 1, kind: 'head', data: sent, receivedAt: 0 })).toEqual({ done: false });
+      for (const p of parts) {
+        expect(p.items.length).toBeLessThanOrEqual(partItems);
+        assembly.take({ id: 1, kind: 'part', ...p });
+      }
+      const done = assembly.take({ id: 1, kind: 'end' });
+      expect(done).toEqual({ done: true, data: expected });
+    }
+    expect(splitIntoParts(JSON.parse(JSON.stringify(original))).length).toBe(Math.ceil(original.sheets[1].cells.length / partItems));
+  });
+
+  it('leaves answers without sheets, and null, as they are', () => {
+    expect(splitIntoParts(null)).toEqual([]);
+    const small = { error: { code: 'not_found', message: 'no such workbook' } };
+    expect(splitIntoParts(small)).toEqual([]);
+    expect(small).toEqual({ error: { code: 'not_found', message: 'no such workbook' } });
+  });
+});
+
+describe('a model prepared a slice at a time', () => {
+  const payload = workbook(3_000);
+  const stored: ValuesPayload = computeValues({ revision: 3, sheets: payload.sheets });
+
+  const cases: [string, ValuesPayload | null][] = [
+    ['on stored values', stored],
+    ['on none (formulas empty until their slice)', { revision: 3, sheets: [] }],
+    ['without stored values', null],
+  ];
+  for (const [label, values] of cases) {
+    it(`shows and ends with what a model built in one piece shows, ${label}`, () => {
+      const preparation = new OpenPreparation(payload, values);
+      let slices = 0;
+      while (!preparation.step(0)) slices++; // the smallest slices there are
+      expect(slices).toBeGreaterThan(5);
+      const sliced = new WorkbookModel(payload, { stored: values, prepared: preparation.result() });
+      const whole = new WorkbookModel(payload, { stored: values });
+      const fresh = new WorkbookModel(payload);
+      try {
+        for (const s of ['s1', 's2']) expect(shown(sliced, s)).toEqual(shown(whole, s));
+        expect(sliced.computing).toEqual(whole.computing);
+        sliced.ensureLive();
+        whole.ensureLive();
+        for (const s of ['s1', 's2']) {
+          expect(shown(sliced, s)).toEqual(shown(whole, s));
+          expect(shown(sliced, s)).toEqual(shown(fresh, s));
+        }
+      } finally {
+        sliced.dispose();
+        whole.dispose();
+        fresh.dispose();
+      }
+    });
+  }
+
+  it('tells its listeners of the last slice, so the grid never stays on a half-computed picture', () => {
+    const model = new WorkbookModel(payload, { stored, firstRows: 10 });
+    try {
+      let told = 0;
+      let computingWhenTold: unknown = undefined;
+      model.subscribe(() => {
+        told++;
+        computingWhenTold = model.computing;
+      });
+      let slices = 0;
+      while (!model.computeSlice(1)) slices++;
+      expect(slices).toBeGreaterThan(3);
+      expect(told).toBeGreaterThan(0);
+      expect(told).toBeLessThanOrEqual(slices + 1);
+      expect(computingWhenTold).toBeNull(); // the last word listeners had: live
+    } finally {
+      model.dispose();
+    }
+  });
+
+  it('reads the structures the formulas name the same in slices as in one pass', () => {
+    const scan = new StructureInputScan();
+    const sheets = [...payload.sheets].sort((a, b) => a.position - b.position);
+    let slices = 0;
+    while (!scan.step(sheets, 0)) slices++;
+    expect(slices).toBeGreaterThan(0);
+    expect(scan.result()).toEqual(structureInputsOf(payload));
+    expect(scan.result()).toEqual([{ structure: 'CCO' }]);
+  });
+});
+
+describe('the extent of a sheet kept as cells are set', () => {
+  it('grows with each cell and shrinks again when the last row or column is cleared', () => {
+    const s = SheetInputs.from([[0, 0, 'a'], [4, 2, 'b'], [2, 6, 'c']]);
+    expect(s.extent()).toEqual({ rows: 5, cols: 7 });
+    s.set(9, 1, 'd');
+    expect(s.extent()).toEqual({ rows: 10, cols: 7 });
+    s.set(9, 1, '');
+    expect(s.extent()).toEqual({ rows: 5, cols: 7 });
+    s.set(2, 6, '');
+    expect(s.extent()).toEqual({ rows: 5, cols: 3 });
+    s.set(1, 1, ''); // not there: nothing changes
+    expect(s.extent()).toEqual({ rows: 5, cols: 3 });
+    expect(s.clone().extent()).toEqual({ rows: 5, cols: 3 });
+    const copy = s.clone();
+    copy.set(20, 20, 'e');
+    expect(s.extent()).toEqual({ rows: 5, cols: 3 });
+  });
+});
