@@ -14,6 +14,9 @@ export default defineConfig({
     },
   },
   build: { outDir: 'dist', emptyOutDir: true, chunkSizeWarningLimit: 4000 },
+  // Module workers (the PPP worker is created with type: 'module'): the chemistry modules it runs load
+  // openchemlib with a top-level await, which a classic worker script cannot hold.
+  worker: { format: 'es' },
   server: { port: 5173 },
   test: {
     include: ['tests/**/*.test.ts', 'tests/**/*.test.tsx'],

@@ -19,6 +19,13 @@ export const engineConfig: Partial<ConfigParams> = {
   chooseAddressMappingPolicy: new DenseSparseChooseBasedOnThreshold(0.1),
 };
 
+/**
+ * The one-time set-up every engine needs, step by step. createEngine runs whatever has not run; a page
+ * runs them ahead, each in a task of its own (src/core/workbook/session/engineSetup.ts), since together
+ * with a first build they held the page for a long task.
+ */
+export const engineSetupSteps: readonly (() => void)[] = [installEngineGuards, registerOrbitabPlugin];
+
 export function createEngine(sheets: Record<string, SheetInput>, options: Partial<ConfigParams> = {}): HyperFormula {
   installEngineGuards();
   registerOrbitabPlugin();

@@ -148,6 +148,24 @@ describe('a library opened in slices with its stored structure results fetched f
     }
   });
 
+  it('puts back a small first slice, whatever the budget, and grows slices at most fourfold', () => {
+    // The first slice runs the functions' code for the first time; a large one held the page.
+    const model = new WorkbookModel(libraryPayload(), { stored: { revision: 3, sheets: [] } });
+    try {
+      const done: number[] = [];
+      for (let live = false; !live; ) {
+        live = model.computeSlice(Number.POSITIVE_INFINITY);
+        done.push(model.computing?.done ?? ROWS * 4);
+      }
+      const sizes = done.map((d, i) => d - (done[i - 1] ?? 0));
+      expect(sizes[0]).toBe(20);
+      for (let i = 1; i < sizes.length - 1; i++) expect(sizes[i]).toBeLessThanOrEqual(4 * sizes[i - 1]);
+      expect(done.at(-1)).toBe(ROWS * 4);
+    } finally {
+      model.dispose();
+    }
+  });
+
   it('announces a prefetched result to the cells already waiting for it', async () => {
     let release: (() => void) | null = null;
     const store = new StructureStore(async (inputs) => {

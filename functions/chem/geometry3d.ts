@@ -8,7 +8,8 @@
 //   force field (T. A. Halgren, J. Comput. Chem. 17, 490 (1996); J. Comput. Chem. 20, 720 (1999)).
 //   The conformer generator needs openchemlib's static resources, which are loaded by the environment
 //   (Node or browser) before use — never from here, so this file stays free of Node-only calls.
-import { ConformerGenerator, ForceFieldMMFF94, Molecule } from 'openchemlib';
+import type { Molecule } from 'openchemlib';
+import { openchemlib } from './openchemlib.js';
 import { ChemError } from './errors.js';
 
 export type GeometrySource = 'xyz' | 'molfile' | 'smiles-conformer';
@@ -92,12 +93,12 @@ export function readMolfile(text: string): Geometry3d {
   if (/^.{20}2D/.test(header)) throw new ChemError('the molfile holds 2D coordinates; all-valence methods need a 3D structure (or give SMILES to build one)');
   let molecule: Molecule;
   try {
-    molecule = Molecule.fromMolfile(record);
+    molecule = openchemlib().Molecule.fromMolfile(record);
   } catch (e) {
     throw new ChemError(`cannot read the molfile: ${e instanceof Error ? e.message : String(e)}`);
   }
   if (molecule.getAllAtoms() === 0) throw new ChemError('the molfile holds no atoms');
-  molecule.ensureHelperArrays(Molecule.cHelperNeighbours);
+  molecule.ensureHelperArrays(openchemlib().Molecule.cHelperNeighbours);
   for (let a = 0; a < molecule.getAtoms(); a++)
     if (molecule.getImplicitHydrogens(a) > 0)
       throw new ChemError(`atom ${a + 1} (${molecule.getAtomLabel(a)}) of the molfile has hydrogens without coordinates; write every hydrogen as an atom`);
@@ -107,7 +108,7 @@ export function readMolfile(text: string): Geometry3d {
 export function conformerFromSmiles(smiles: string): Geometry3d {
   let molecule: Molecule;
   try {
-    molecule = Molecule.fromSmiles(smiles);
+    molecule = openchemlib().Molecule.fromSmiles(smiles);
   } catch (e) {
     const raw = e instanceof Error ? e.message : String(e);
     throw new ChemError(`cannot read SMILES '${smiles}': ${raw.replace(/^.*?SmilesParser:\s*/, '').replace(/^Class\$\S+:\s*/, '')}`);
@@ -115,7 +116,7 @@ export function conformerFromSmiles(smiles: string): Geometry3d {
   if (molecule.getAllAtoms() === 0) throw new ChemError(`cannot read SMILES '${smiles}': no atoms`);
   let conformer: Molecule | null;
   try {
-    conformer = new ConformerGenerator(CONFORMER_SEED).getOneConformerAsMolecule(molecule);
+    conformer = new (openchemlib().ConformerGenerator)(CONFORMER_SEED).getOneConformerAsMolecule(molecule);
   } catch (e) {
     if (/resources must be registered/.test(String(e)))
       throw new ChemError('3D structures from SMILES are not available here (the conformer data is not loaded); give XYZ text or a molfile with 3D coordinates');
@@ -126,7 +127,7 @@ export function conformerFromSmiles(smiles: string): Geometry3d {
   let forceFieldTidied = false;
   if (conformer.getAllAtoms() > 1) {
     try {
-      new ForceFieldMMFF94(conformer, 'MMFF94s+', {}).minimise({ maxIts: 4000 });
+      new (openchemlib().ForceFieldMMFF94)(conformer, 'MMFF94s+', {}).minimise({ maxIts: 4000 });
       forceFieldTidied = true;
     } catch {
       // MMFF94 has no types for some atoms (e.g. unusual ions); the generator's geometry is kept and
@@ -146,11 +147,11 @@ export function structureElements(text: string): string[] {
   if (geometrySourceOf(t) !== 'smiles-conformer') return readGeometry(t).elements;
   let molecule: Molecule;
   try {
-    molecule = Molecule.fromSmiles(t);
+    molecule = openchemlib().Molecule.fromSmiles(t);
   } catch {
     throw new ChemError(`cannot read SMILES '${t}'`);
   }
-  molecule.ensureHelperArrays(Molecule.cHelperNeighbours);
+  molecule.ensureHelperArrays(openchemlib().Molecule.cHelperNeighbours);
   const out: string[] = [];
   for (let a = 0; a < molecule.getAllAtoms(); a++) {
     out.push(molecule.getAtomLabel(a));

@@ -15,7 +15,8 @@
 // which gives 1 for C in C=C, 0 for a carbocation, 2 for a carbanion, 1 for pyridine N, 2 for
 // pyrrole N, 1 for carbonyl O, 2 for ether O and 2 for a halogen (common practice, e.g. Streitwieser
 // 1961, ch. 5).
-import { Molecule } from 'openchemlib';
+import type { Molecule } from 'openchemlib';
+import { openchemlib } from './openchemlib.js';
 import { ChemError } from './errors.js';
 import type { CentreType } from './huckelParams.js';
 
@@ -70,14 +71,14 @@ export function parseSmiles(smiles: string): Molecule {
   checkBranches(text);
   let molecule: Molecule;
   try {
-    molecule = Molecule.fromSmiles(text, { noCoordinates: true, noStereo: true });
+    molecule = openchemlib().Molecule.fromSmiles(text, { noCoordinates: true, noStereo: true });
   } catch (e) {
     const raw = e instanceof Error ? e.message : String(e);
     const reason = raw.replace(/^.*?SmilesParser:\s*/, '').replace(/^Class\$\S+:\s*/, '');
     throw new ChemError(`cannot read SMILES '${text}': ${reason}`);
   }
   if (molecule.getAllAtoms() === 0) throw new ChemError(`cannot read SMILES '${text}': no atoms`);
-  molecule.ensureHelperArrays(Molecule.cHelperRings);
+  molecule.ensureHelperArrays(openchemlib().Molecule.cHelperRings);
   checkCharges(molecule, text);
   checkAromaticRadicals(molecule, text);
   return molecule;

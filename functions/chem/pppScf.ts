@@ -6,7 +6,7 @@
 // Mataga–Nishimoto over an idealised planar geometry: openchemlib's 2D drawing of the structure,
 // scaled so its mean bond length is 1.40 Å. β follows the SCF bond order (variable β, pppParams.ts),
 // iterated together with the density.
-import { Molecule } from 'openchemlib';
+import { openchemlib } from './openchemlib.js';
 import { symmetricEigen } from './eigenFast.js';
 import { ChemError } from './errors.js';
 import type { PiSystem } from './piSystem.js';
@@ -119,7 +119,7 @@ class Diis {
 
 /** Idealised planar geometry of the π centres from the structure's 2D coordinates. */
 function planarGeometry(pi: PiSystem): [number, number][] {
-  const molecule = Molecule.fromSmiles(pi.smiles, { noStereo: true });
+  const molecule = openchemlib().Molecule.fromSmiles(pi.smiles, { noStereo: true });
   if (!pi.numberingFollowsSmiles)
     throw new ChemError(`'${pi.smiles}' writes hydrogens as atoms ([H]); write them inside the brackets ([CH2]) or leave them implicit for a PPP geometry`);
   const scale = STANDARD_BOND_LENGTH / (molecule.getAverageBondLength(true) || 1);

@@ -16,6 +16,7 @@ import { AppLayout } from './layout/AppLayout.js';
 import { onSessionLost, queryClient } from './queryClient.js';
 import { meQueryOptions } from '../core/session/me.js';
 import { startWorkbookLoad } from '../core/workbook/api.js';
+import { loadOpenchemlib } from '@functions/chem/openchemlib.js';
 import { NotFoundPage, RouteError } from './RouteError.js';
 
 export const router = createBrowserRouter([
@@ -40,8 +41,11 @@ export const router = createBrowserRouter([
           { index: true, Component: () => <WorkbookListPage importControl={<ImportButton label="Import file…" />} /> },
           {
             path: 'workbooks/:id',
-            // The workbook starts loading while the page's code downloads (for a signed-in visitor only).
+            // The workbook starts loading while the page's code downloads (for a signed-in visitor only),
+            // and so does the structure toolkit, which runs as a task of its own rather than inside the
+            // page's start-up script (the engine waits for it: useWorkbookSession).
             loader: ({ params }) => {
+              void loadOpenchemlib().catch(() => undefined);
               void queryClient.ensureQueryData(meQueryOptions).then((user) => user && params.id && startWorkbookLoad(queryClient, params.id), () => undefined);
               return null;
             },

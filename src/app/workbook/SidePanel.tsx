@@ -1,8 +1,12 @@
 // The panel beside the grid: the structure of the selected cell, or a chart of the sheet's columns.
-import { ChartPanel } from '../../features/chart/ChartPanel.js';
+import { lazy, Suspense } from 'react';
 import { StructurePanel } from '../../features/diagram/StructurePanel.js';
 import type { SheetView } from '../../features/grid/useSheetView.js';
 import type { ChartSpec } from '@shared/chartSpec.js';
+
+// The chart library is a fifth of the workbook page's code: loaded when a chart is first shown, not
+// compiled in the page's start-up task.
+const ChartPanel = lazy(async () => ({ default: (await import('../../features/chart/ChartPanel.js')).ChartPanel }));
 
 type StructureSource = Parameters<typeof StructurePanel>[0]['source'];
 
@@ -32,17 +36,19 @@ export function SidePanel(p: {
         {p.panel === 'structure' ? (
           <StructurePanel source={p.structureSource} address={p.address} />
         ) : (
-          <ChartPanel
-            rows={p.view.data}
-            sheetRowOf={p.view.sheetRow}
-            colCount={p.colCount}
-            headerRow={p.view.frozenRow}
-            filtered={p.filtered}
-            sheetName={p.sheetName}
-            spec={p.chart}
-            onSpec={p.onChart}
-            initialX={p.initialX}
-          />
+          <Suspense fallback={<p className="p-4 text-ui text-ink-2">Loading the chart…</p>}>
+            <ChartPanel
+              rows={p.view.data}
+              sheetRowOf={p.view.sheetRow}
+              colCount={p.colCount}
+              headerRow={p.view.frozenRow}
+              filtered={p.filtered}
+              sheetName={p.sheetName}
+              spec={p.chart}
+              onSpec={p.onChart}
+              initialX={p.initialX}
+            />
+          </Suspense>
         )}
       </div>
     </aside>

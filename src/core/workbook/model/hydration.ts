@@ -47,8 +47,12 @@ export class Hydration {
   private rowChunk = 100;
   private spillsCleared = false;
   private readonly edited = new Set<string>();
-  /** Formula cells per slice, tuned to the time a slice may take. */
-  private chunk = 200;
+  /**
+   * Formula cells per slice, tuned to the time a slice may take. The first slice is small: it runs the
+   * functions' code for the first time (compiled then), and 200 extended-Hückel formulas held the
+   * page for well over the budget.
+   */
+  private chunk = 20;
   readonly total: number;
 
   constructor(
@@ -107,7 +111,8 @@ export class Hydration {
     }
     if (cells.length > 0) target.writeEngine(cells);
     const perCell = (performance.now() - started) / Math.max(1, cells.length);
-    this.chunk = Math.max(20, Math.min(20_000, Math.floor(budgetMs / Math.max(perCell, 0.001))));
+    // Grows at most fourfold a slice: one quick slice (formulas waiting on results) must not size the next.
+    this.chunk = Math.max(20, Math.min(20_000, 4 * this.chunk, Math.floor(budgetMs / Math.max(perCell, 0.001))));
     return this.finished;
   }
 

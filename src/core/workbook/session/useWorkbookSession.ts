@@ -14,6 +14,8 @@ import { installStructureStore, StructureStore } from '../structures/structureSt
 import { StructureInputScan } from '../structures/structureInputs.js';
 import { inSlices, OpenPreparation, type PreparedOpen } from '../model/openPreparation.js';
 import { inTabOrder } from '@functions/workbookEngine.js';
+import { loadOpenchemlib, openchemlibLoaded } from '@functions/chem/openchemlib.js';
+import { enginePrepared, prepareEngine } from './engineSetup.js';
 
 export interface WorkbookSession {
   model: WorkbookModel;
@@ -99,17 +101,41 @@ export function useWorkbookSession(id: string) {
   /** The full open, held back until the preview has been painted. */
   const deferredOpen = useRef<(() => void) | null>(null);
   const payload = query.data;
+  // Set-up that runs while the workbook is still on its way (engineSetup.ts); the open waits for it.
+  const markedLoad = useRef<WorkbookPayload | null>(null);
+  const [setUp, setSetUp] = useState(() => {
+    void prepareEngine();
+    return 0;
+  });
 
   useEffect(() => {
     if (!payload || stored === undefined) return;
-    performance.mark('orbitab:workbook-loaded');
+    // Once per load (the effect runs again when the set-up it waits for is in).
+    if (markedLoad.current !== payload) performance.mark('orbitab:workbook-loaded');
+    markedLoad.current = payload;
     const storage = browserStorage();
+    const unsent = new PendingStore(storage, payload.id).load() !== null;
+    const onStored = stored !== null && stored.revision === payload.revision && !unsent;
+    // SMILES functions read structures with openchemlib, loaded apart from the page's code
+    // (functions/chem/openchemlib.ts): no formula is computed before it is in. Stored values are
+    // shown meanwhile; any other open waits for it. Every open waits for the engine's set-up. This
+    // effect runs again once what it waits for is in.
+    const toolkit = loadOpenchemlib();
+    if (!enginePrepared() || (!onStored && !openchemlibLoaded())) {
+      let cancelled = false;
+      Promise.all([prepareEngine(), onStored ? null : toolkit]).then(
+        () => !cancelled && setSetUp((n) => n + 1),
+        (e: unknown) => !cancelled && setOpenError(setupProblem(e)),
+      );
+      return () => {
+        cancelled = true;
+      };
+    }
     // Installed before the preview is built: the first screenful's EHT cells ask this store too.
     const structures = new StructureStore((inputs) => fetchStructures(payload.id, inputs));
     const uninstall = installStructureStore(structures);
-    const unsent = new PendingStore(storage, payload.id).load() !== null;
     const openInSlices = (values: ValuesPayload) => {
-      const close = openOnStoredValues(payload, storage, structures, values, setSession, setOpenError);
+      const close = openOnStoredValues(payload, storage, structures, values, toolkit, setSession, setOpenError);
       return () => {
         close();
         uninstall();
@@ -160,7 +186,7 @@ export function useWorkbookSession(id: string) {
       }
       setSession(null);
     };
-  }, [payload, stored]);
+  }, [payload, stored, setUp]);
 
   // Runs after the preview is committed: the frame callback comes just before that frame is
   // painted, and the timeout after it, so the long full build never hides the preview.
@@ -175,6 +201,10 @@ export function useWorkbookSession(id: string) {
   }, [preview]);
 
   return { session, preview, payload, error: query.error ?? openError, isLoading: query.isLoading };
+}
+
+function setupProblem(e: unknown): Error {
+  return new Error(`The page could not get ready to compute (${e instanceof Error ? e.message : String(e)}); reload the page to try again.`);
 }
 
 /**
@@ -193,6 +223,7 @@ function openOnStoredValues(
   storage: KeyValueStorage | null,
   structures: StructureStore,
   stored: ValuesPayload | null,
+  toolkit: Promise<unknown>,
   setSession: (s: WorkbookSession | null) => void,
   setOpenError: (e: Error) => void,
 ): () => void {
@@ -223,11 +254,13 @@ function openOnStoredValues(
       if (session.model.computeSlice(computeSliceMs)) performance.measure('orbitab:live', { start: opened, end: performance.now() });
       else timer = setTimeout(step, 0);
     };
-    // The first slice waits for the first paint of the stored values, and for the stored structure results.
+    // The first slice waits for the first paint of the stored values, for the stored structure results
+    // and for the structure toolkit.
     let painted = false;
     let fetched = false;
+    let toolkitIn = openchemlibLoaded();
     const begin = () => {
-      if (cancelled || !painted || !fetched || timer !== undefined) return;
+      if (cancelled || !painted || !fetched || !toolkitIn || timer !== undefined) return;
       clearTimeout(waitTimer);
       timer = setTimeout(step, 0);
     };
@@ -236,6 +269,13 @@ function openOnStoredValues(
       begin();
     };
     waitTimer = setTimeout(fetchedNow, prefetchWaitMs);
+    toolkit.then(
+      () => {
+        toolkitIn = true;
+        begin();
+      },
+      (e: unknown) => !cancelled && setOpenError(setupProblem(e)),
+    );
     frame = requestAnimationFrame(() => {
       painted = true;
       // The structures the formulas name, read after the first paint (a pass over every formula).

@@ -7,10 +7,12 @@ import { argumentAt } from '@functions/formulaShape.js';
 import { argumentHint } from '../formula/functionHelp.js';
 
 export function ArgumentHint({ text, caret, anchor, hidden }: { text: string; caret: number; anchor: RefObject<HTMLElement | null>; hidden: boolean }) {
-  const rect = anchor.current?.getBoundingClientRect();
-  const position = hidden || !rect ? null : argumentAt(text, caret);
+  const position = hidden || !anchor.current ? null : argumentAt(text, caret);
   const hint = position ? argumentHint(position.name, position.index) : null;
-  if (!hint || !rect) return null;
+  if (!hint) return null;
+  // Measured only when a hint shows: measuring forces a layout, too dear on every render of the bar.
+  const rect = anchor.current?.getBoundingClientRect();
+  if (!rect) return null;
   return createPortal(
     <div
       role="tooltip"

@@ -76,11 +76,14 @@ export function useFunctionSuggestions(text: string, input: RefObject<HTMLInputE
 
 export function FunctionSuggestions({ state, anchor, apply }: { state: SuggestionState; anchor: RefObject<HTMLElement | null>; apply?: (text: string) => void }) {
   const list = useRef<HTMLDivElement>(null);
-  const rect = anchor.current?.getBoundingClientRect();
   useEffect(() => {
     list.current?.querySelector('[aria-selected="true"]')?.scrollIntoView({ block: 'nearest' });
   }, [state.index]);
-  if (state.items.length === 0 || !rect) return null;
+  if (state.items.length === 0) return null;
+  // Read only while the list is open: measuring forces a layout, which on every render of the formula
+  // bar (each slice of computed values) held the page for a long task.
+  const rect = anchor.current?.getBoundingClientRect();
+  if (!rect) return null;
   const chosen = state.items[state.index];
   return createPortal(
     <div
