@@ -41,7 +41,7 @@ function raw(db: Db) {
 }
 
 /** Each place as one number, row × 2048 + col (columns stop at 1,999). */
-const packed = (p: { row: number; col: number }) => p.row * 2048 + p.col;
+export const placeNumber = (p: { row: number; col: number }) => p.row * 2048 + p.col;
 
 /**
  * The stored input and revision of each of `places` on one sheet, in the same order (undefined where
@@ -50,7 +50,7 @@ const packed = (p: { row: number; col: number }) => p.row * 2048 + p.col;
 export function readCells(db: Db, sheetId: string, places: readonly { row: number; col: number }[]): ({ input: string; revision: number } | undefined)[] {
   // A flat JSON array of numbers is quicker to build and for SQLite to read than one of pairs.
   let list = '[';
-  for (let i = 0; i < places.length; i++) list += `${i ? ',' : ''}${packed(places[i])}`;
+  for (let i = 0; i < places.length; i++) list += `${i ? ',' : ''}${placeNumber(places[i])}`;
   const [keysJson, inputsJson, revisionsJson] = raw(db).readMany.get(`${list}]`, sheetId)!;
   const keys = JSON.parse(keysJson) as number[];
   const inputs = JSON.parse(inputsJson) as string[];
@@ -68,8 +68,8 @@ export function writeCells(db: Db, revision: number, changes: readonly { sheetId
   const bySheet = new Map<string, [number, string][]>();
   for (const c of changes) {
     const list = bySheet.get(c.sheetId);
-    if (list) list.push([packed(c), c.after]);
-    else bySheet.set(c.sheetId, [[packed(c), c.after]]);
+    if (list) list.push([placeNumber(c), c.after]);
+    else bySheet.set(c.sheetId, [[placeNumber(c), c.after]]);
   }
   const { writeMany } = raw(db);
   for (const [sheetId, list] of bySheet) writeMany.run(sheetId, revision, JSON.stringify(list));

@@ -8,6 +8,7 @@
 import { maxCellsPerAction, stagedActionTtlMs, type PatchInput, type PatchPart, type PatchPartResult, type PatchResult } from '../../shared/workbooks.js';
 import type { AppContext } from '../context.js';
 import { badRequest, HttpError } from '../errors.js';
+import { placeNumber } from './cellStore.js';
 import { applyPatch, planPatch, writesText, type PatchPlan } from './patches.js';
 
 /** Actions held at once, all people and workbooks together (~8 MB each at the cell limit). */
@@ -23,7 +24,7 @@ interface HeldAction {
   plans: PatchPlan[];
   writesJson: string[];
   cells: number;
-  /** Row × 2048 + col of every cell so far, per sheet: a cell may appear in one part only. */
+  /** The place number (cellStore.ts) of every cell so far, per sheet: a cell may appear in one part only. */
   places: Map<string, Set<number>>;
   /** Date.now() after which the parts are dropped. */
   expiresAt: number;
@@ -80,7 +81,7 @@ export function takePatchPart(ctx: AppContext, workbookId: string, authorId: str
     patch.changes.forEach((c, i) => {
       let places = action.places.get(c.sheetId);
       if (!places) action.places.set(c.sheetId, (places = new Set()));
-      const place = c.row * 2048 + c.col;
+      const place = placeNumber(c);
       if (places.has(place)) throw badRequest(`${where}: changes.${i} is a cell an earlier part already changed; send one input per cell. Nothing of the action was saved`);
       places.add(place);
     });
