@@ -1,6 +1,6 @@
 // The one API client. Components never call fetch: features wrap these calls in TanStack Query
 // `queryOptions`/mutations, with keys from `queryKeys` below.
-import { JsonAssembly, type JsonFetchReply, type JsonFetchRequest } from './jsonParts.js';
+import { JsonAssembly, safeJson, type JsonFetchReply, type JsonFetchRequest } from './jsonParts.js';
 
 export class ApiError extends Error {
   constructor(
@@ -34,13 +34,6 @@ async function answerOf<T>(res: Response): Promise<T> {
   return data as T;
 }
 
-function safeJson(text: string): unknown {
-  try {
-    return JSON.parse(text);
-  } catch {
-    return { error: { code: 'bad_response', message: text.slice(0, 200) } };
-  }
-}
 
 /** Every query key in one place. */
 export const queryKeys = {

@@ -4,7 +4,7 @@
 // slice at a time, each slice its own message, so the page takes them in short tasks between
 // frames. Only lists under `sheets[i]` are sliced: the workbook's cells and the stored values, the
 // two answers that grow with the sheet.
-import { splitIntoParts, type JsonFetchReply, type JsonFetchRequest } from './jsonParts.js';
+import { safeJson, splitIntoParts, type JsonFetchReply, type JsonFetchRequest } from './jsonParts.js';
 
 const scope = self as unknown as { onmessage: ((e: MessageEvent<JsonFetchRequest>) => void) | null; postMessage(m: JsonFetchReply): void };
 
@@ -18,12 +18,7 @@ scope.onmessage = async (e) => {
     return;
   }
   const receivedAt = performance.timeOrigin + performance.now();
-  let data: unknown = null;
-  try {
-    data = text ? JSON.parse(text) : null;
-  } catch {
-    data = { error: { code: 'bad_response', message: text.slice(0, 200) } };
-  }
+  const data = text ? safeJson(text) : null;
   const parts = splitIntoParts(data);
   scope.postMessage({ id, kind: 'head', data, receivedAt });
   for (const part of parts) scope.postMessage({ id, kind: 'part', ...part });

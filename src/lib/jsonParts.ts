@@ -1,6 +1,15 @@
 // The messages between the page and jsonFetch.worker.ts, and the page's side: put the parts back
 // together into the answer the server sent, one short task per message.
 
+/** An answer's text as JSON; text that is not JSON becomes a `bad_response` error body naming its start. */
+export function safeJson(text: string): unknown {
+  try {
+    return JSON.parse(text);
+  } catch {
+    return { error: { code: 'bad_response', message: text.slice(0, 200) } };
+  }
+}
+
 /** Entries per part: the page takes one in a few milliseconds (20,000 took over 250 ms on a busy machine). */
 export const partItems = 5_000;
 
