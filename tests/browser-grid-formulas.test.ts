@@ -150,8 +150,8 @@ async function withFramesHeld(keys: () => Promise<void>) {
 }
 
 describe('completing a function name', () => {
-  it('keeps what is typed after Tab in place even when the next frame comes late', async () => {
-    await clickCell('G1');
+  /** Types =UNP, takes the completion with Tab and types A while frames are held, then 1) and Enter. */
+  async function completeLate(cell: string, typedText: () => Promise<string>) {
     await page.keyboard.type('=UNP');
     await page.getByRole('listbox', { name: 'Functions' }).getByRole('option', { name: /UNPAIRED/ }).waitFor();
     await withFramesHeld(async () => {
@@ -159,24 +159,20 @@ describe('completing a function name', () => {
       await page.keyboard.type('A');
     });
     await page.keyboard.type('1)');
-    await expect.poll(editorText).toBe('=UNPAIRED(A1)');
+    await expect.poll(typedText).toBe('=UNPAIRED(A1)');
     await page.keyboard.press('Enter');
-    await expectCell('G1', '2');
+    await expectCell(cell, '2');
+  }
+
+  it('keeps what is typed after Tab in place even when the next frame comes late', async () => {
+    await clickCell('G1');
+    await completeLate('G1', editorText);
   });
 
   it('in the formula bar too', async () => {
     await clickCell('G2');
     await page.getByLabel('Formula bar').click();
-    await page.keyboard.type('=UNP');
-    await page.getByRole('listbox', { name: 'Functions' }).getByRole('option', { name: /UNPAIRED/ }).waitFor();
-    await withFramesHeld(async () => {
-      await page.keyboard.press('Tab');
-      await page.keyboard.type('A');
-    });
-    await page.keyboard.type('1)');
-    await expect.poll(() => page.getByLabel('Formula bar').inputValue()).toBe('=UNPAIRED(A1)');
-    await page.keyboard.press('Enter');
-    await expectCell('G2', '2');
+    await completeLate('G2', () => page.getByLabel('Formula bar').inputValue());
   });
 
   it('and after a cell pointed at in the formula bar', async () => {
