@@ -12,6 +12,7 @@ import type { EditOutcome } from '../../core/workbook/model/workbookModel.js';
 import type { WorkbookSession } from '../../core/workbook/session/useWorkbookSession.js';
 import type { SheetView } from './useSheetView.js';
 import type { FillPair, ViewCell } from './components/SheetGrid.js';
+import { plural } from '../../lib/plural.js';
 
 export interface ViewSelection {
   min: ViewCell;
@@ -36,7 +37,6 @@ export interface CommandContext {
 /** One line of feedback, optionally with one thing to do about it (a button beside the words). */
 export type Notice = string | { text: string; action: { label: string; run: () => void } } | null;
 
-const plural = (n: number, word: string) => `${n} ${word}${n === 1 ? '' : 's'}`;
 const sentence = (text: string) => (/[.!?]$/.test(text) ? text : `${text}.`);
 
 export function useSheetCommands(ctx: CommandContext) {

@@ -1,8 +1,8 @@
 // What an import took and what it could not: counts, then each skipped cell with its reason.
 import type { ImportSummary } from '@shared/io.js';
+import { plural } from '../../lib/plural.js';
 
 const LISTED = 20;
-const plural = (n: number, one: string, many = `${one}s`) => `${n.toLocaleString()} ${n === 1 ? one : many}`;
 
 export function ImportSummaryView({ summary }: { summary: ImportSummary }) {
   const { skipped, notes } = summary;

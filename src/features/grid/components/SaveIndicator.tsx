@@ -1,8 +1,8 @@
 // Where the save queue stands, in words that are true at every moment: "Saved" only when the
 // server has acknowledged every change.
 import type { SaveStatus } from '../../../core/workbook/save/patchQueue.js';
+import { plural } from '../../../lib/plural.js';
 
-const plural = (n: number, word: string) => `${n} ${word}${n === 1 ? '' : 's'}`;
 
 function saveLabel(s: SaveStatus): string {
   switch (s.kind) {
