@@ -6,7 +6,7 @@
 import { inTabOrder } from '@functions/workbookEngine.js';
 import { engineInput } from '@functions/formulaTokens.js';
 import type { SheetPayload, ValuesPayload, WorkbookPayload } from '@shared/workbooks.js';
-import type { PendingCell } from './hydration.js';
+import type { PendingCell, PendingFormulas } from './hydration.js';
 import { SheetInputs } from './sheetInputs.js';
 
 type Constant = string | number | boolean | null;
@@ -14,7 +14,7 @@ type StoredSheet = ValuesPayload['sheets'][number];
 
 export interface HeldSheet {
   table: Constant[][];
-  formulas: PendingCell[];
+  formulas: PendingFormulas;
   spilled: PendingCell[];
 }
 
@@ -59,7 +59,7 @@ export class OpenPreparation {
     this.sheets = inTabOrder(payload.sheets);
     const usable = stored?.revision === payload.revision ? stored : null;
     this.storedSheets = usable ? this.sheets.map((s) => usable.sheets.find((x) => x.id === s.id)) : null;
-    this.held = usable ? this.sheets.map(() => ({ table: [], formulas: [], spilled: [] })) : null;
+    this.held = usable ? this.sheets.map((s) => ({ table: [], formulas: { sheetId: s.id, rows: [], cols: [] }, spilled: [] })) : null;
   }
 
   /** About `budgetMs` of work; true once everything is prepared. */
@@ -116,9 +116,11 @@ export class OpenPreparation {
             continue;
           }
           // Left empty: an empty result is left out of the stored values.
-          const last = held!.formulas[held!.formulas.length - 1];
-          if (last && (last.row > row || (last.row === row && last.col > col))) this.ordered = false;
-          held!.formulas.push({ sheetId: sheet.id, row, col });
+          const { rows, cols } = held!.formulas;
+          const n = rows.length;
+          if (n > 0 && (rows[n - 1] > row || (rows[n - 1] === row && cols[n - 1] > col))) this.ordered = false;
+          rows.push(row);
+          cols.push(col);
         }
         this.at = to;
         return to < cells.length ? undefined : this.enter('stored');
@@ -141,7 +143,7 @@ export class OpenPreparation {
         return to < values.length ? undefined : this.enter('order');
       }
       case 'order':
-        if (!this.ordered) held!.formulas.sort((a, b) => a.row - b.row || a.col - b.col);
+        if (!this.ordered) sortByPlace(held!.formulas);
         return this.nextSheet();
     }
   }
@@ -156,6 +158,15 @@ export class OpenPreparation {
     this.ordered = true;
     this.enter('inputs');
   }
+}
+
+/** Puts the cells in row order, then column order (the payload lists them so already, as a rule). */
+function sortByPlace(f: PendingFormulas) {
+  const order = f.rows.map((_, i) => i).sort((a, b) => f.rows[a] - f.rows[b] || f.cols[a] - f.cols[b]);
+  const rows = order.map((i) => f.rows[i]);
+  const cols = order.map((i) => f.cols[i]);
+  f.rows = rows;
+  f.cols = cols;
 }
 
 /**

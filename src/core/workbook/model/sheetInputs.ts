@@ -4,6 +4,12 @@
 import { engineInput } from '@functions/formulaTokens.js';
 
 const COLUMN_SPAN = 4096; // > the engine's 2,000 columns, so row * span + col never collides
+/**
+ * Rows per map: the cells are kept in one map per block of rows rather than one map for the sheet.
+ * A map grows by copying itself whole into one twice the size, and one map of 800,000 cells held
+ * the page for a third of a second at one step of that while a large workbook opened.
+ */
+const BLOCK_ROWS = 256;
 
 export interface InputEntry {
   row: number;
@@ -19,7 +25,9 @@ export interface InputDifference {
 }
 
 export class SheetInputs {
-  private cells = new Map<number, string>();
+  /** Per block of BLOCK_ROWS rows: row * COLUMN_SPAN + col → input. */
+  private blocks: (Map<number, string> | undefined)[] = [];
+  private count = 0;
   /** One past the last used row and column, kept as cells are set (a scan of 800,000 cells per ask held the page); null after a delete until asked again. */
   private bounds: { rows: number; cols: number } | null = { rows: 0, cols: 0 };
 
@@ -30,32 +38,48 @@ export class SheetInputs {
   }
 
   get size() {
-    return this.cells.size;
+    return this.count;
   }
 
   get(row: number, col: number): string {
-    return this.cells.get(row * COLUMN_SPAN + col) ?? '';
+    return this.blocks[Math.floor(row / BLOCK_ROWS)]?.get(row * COLUMN_SPAN + col) ?? '';
   }
 
   set(row: number, col: number, input: string) {
+    const b = Math.floor(row / BLOCK_ROWS);
+    let block = this.blocks[b];
     if (input === '') {
-      if (this.cells.delete(row * COLUMN_SPAN + col) && this.bounds && (row + 1 >= this.bounds.rows || col + 1 >= this.bounds.cols)) this.bounds = null;
+      if (block?.delete(row * COLUMN_SPAN + col)) {
+        this.count--;
+        if (this.bounds && (row + 1 >= this.bounds.rows || col + 1 >= this.bounds.cols)) this.bounds = null;
+      }
       return;
     }
-    this.cells.set(row * COLUMN_SPAN + col, input);
+    if (!block) {
+      // Filled up to here first, so the list stays a dense array however the rows arrive.
+      while (this.blocks.length < b) this.blocks.push(undefined);
+      this.blocks[b] = block = new Map();
+    }
+    const size = block.size;
+    block.set(row * COLUMN_SPAN + col, input);
+    this.count += block.size - size;
     if (this.bounds) {
       if (row >= this.bounds.rows) this.bounds.rows = row + 1;
       if (col >= this.bounds.cols) this.bounds.cols = col + 1;
     }
   }
 
+  /** Every cell, a block of rows after another (within a block, in the order the cells were set). */
   *entries(): IterableIterator<InputEntry> {
-    for (const [key, input] of this.cells) yield { row: Math.floor(key / COLUMN_SPAN), col: key % COLUMN_SPAN, input };
+    for (const block of this.blocks) {
+      if (block) for (const [key, input] of block) yield { row: Math.floor(key / COLUMN_SPAN), col: key % COLUMN_SPAN, input };
+    }
   }
 
   clone(): SheetInputs {
     const s = new SheetInputs();
-    s.cells = new Map(this.cells);
+    s.blocks = this.blocks.map((b) => b && new Map(b));
+    s.count = this.count;
     s.bounds = this.bounds && { ...this.bounds };
     return s;
   }
@@ -78,9 +102,12 @@ export class SheetInputs {
     if (!this.bounds) {
       let rows = 0;
       let cols = 0;
-      for (const key of this.cells.keys()) {
-        rows = Math.max(rows, Math.floor(key / COLUMN_SPAN) + 1);
-        cols = Math.max(cols, (key % COLUMN_SPAN) + 1);
+      for (const block of this.blocks) {
+        if (!block) continue;
+        for (const key of block.keys()) {
+          rows = Math.max(rows, Math.floor(key / COLUMN_SPAN) + 1);
+          cols = Math.max(cols, (key % COLUMN_SPAN) + 1);
+        }
       }
       this.bounds = { rows, cols };
     }

@@ -113,9 +113,13 @@ export class WorkbookModel {
     for (const s of ordered) this.addSheetState(s, inputs.get(s.id)!);
     if (held && stored) {
       const rest = ordered.map((s, i) => ({ sheetId: s.id, table: held[i].table, next: firstRows }));
-      // One sheet's lists are taken as they are: copying 700,000 formula cells is a stall of its own.
-      const joined = <T,>(lists: T[][]) => (lists.length === 1 ? lists[0] : lists.flat());
-      this.hydration = new Hydration(joined(held.map((h) => h.formulas)), joined(held.map((h) => h.spilled)), stored.revision, rest, stored.sheets.length > 0);
+      this.hydration = new Hydration(
+        held.map((h) => h.formulas),
+        held.flatMap((h) => h.spilled),
+        stored.revision,
+        rest,
+        stored.sheets.length > 0,
+      );
     }
   }
 

@@ -16,6 +16,7 @@ import { inSlices, OpenPreparation, type PreparedOpen } from '../model/openPrepa
 import { inTabOrder } from '@functions/workbookEngine.js';
 import { loadOpenchemlib, openchemlibLoaded } from '@functions/chem/openchemlib.js';
 import { enginePrepared, prepareEngine } from './engineSetup.js';
+import { releaseCells, releaseValues, wasReleased } from './releasedAnswers.js';
 
 export interface WorkbookSession {
   model: WorkbookModel;
@@ -101,6 +102,8 @@ export function useWorkbookSession(id: string) {
   /** The full open, held back until the preview has been painted. */
   const deferredOpen = useRef<(() => void) | null>(null);
   const payload = query.data;
+  const { refetch: refetchPayload } = query;
+  const { refetch: refetchStored } = storedQuery;
   // Set-up that runs while the workbook is still on its way (engineSetup.ts); the open waits for it.
   const markedLoad = useRef<WorkbookPayload | null>(null);
   const [setUp, setSetUp] = useState(() => {
@@ -110,6 +113,13 @@ export function useWorkbookSession(id: string) {
 
   useEffect(() => {
     if (!payload || stored === undefined) return;
+    // The lists of these answers were let go once an earlier open had its model (releasedAnswers.ts):
+    // asked for afresh rather than opened empty.
+    if (wasReleased(payload) || wasReleased(stored)) {
+      if (wasReleased(payload)) void refetchPayload();
+      if (wasReleased(stored)) void refetchStored();
+      return;
+    }
     // Once per load (the effect runs again when the set-up it waits for is in).
     if (markedLoad.current !== payload) performance.mark('orbitab:workbook-loaded');
     markedLoad.current = payload;
@@ -169,6 +179,9 @@ export function useWorkbookSession(id: string) {
       setSession(s);
       setPreview(null);
       window.addEventListener('online', online);
+      // Only a large sheet (one shown by a preview first) is worth letting go of; this runs a frame
+      // after the effect, so a development double run of the effect never gets here first.
+      if (first) releaseCells(payload);
     };
     if (first) {
       deferredOpen.current = open;
@@ -186,7 +199,7 @@ export function useWorkbookSession(id: string) {
       }
       setSession(null);
     };
-  }, [payload, stored, setUp]);
+  }, [payload, stored, setUp, refetchPayload, refetchStored]);
 
   // Runs after the preview is committed: the frame callback comes just before that frame is
   // painted, and the timeout after it, so the long full build never hides the preview.
@@ -247,6 +260,8 @@ function openOnStoredValues(
       return;
     }
     const opened = performance.now();
+    // The model holds the stored values now (as placeholders put back in slices): the answer's copy can go.
+    if (stored) releaseValues(stored);
     setSession(session);
     window.addEventListener('online', online);
     const step = () => {
@@ -284,7 +299,12 @@ function openOnStoredValues(
       timer = setTimeout(() => {
         timer = undefined;
         void inSlices((ms) => scan.step(sheets, ms), computeSliceMs, isCancelled)
-          .then((read) => (read ? structures.prefetch(scan.result()) : undefined))
+          .then((read) => {
+            if (!read) return undefined;
+            // The last reader of the answer's list of cells: the model holds every input.
+            releaseCells(payload);
+            return structures.prefetch(scan.result());
+          })
           .then(fetchedNow);
       }, 0);
     });
