@@ -46,6 +46,9 @@ try {
   const longest = Math.max(0, ...tasks.map((t) => t[1]));
   console.log(`first rows ${Math.round(firstMs)} ms, editable ${Math.round(editableMs)} ms, live ${Math.round(liveMs)} ms, wall ${Date.now() - t0} ms; longest task ${longest} ms; JS heap at live ${heapMb} MB; loadavg ${fs.readFileSync('/proc/loadavg', 'utf8').trim()}`);
   console.log('long tasks (start, duration):', JSON.stringify(tasks.filter((t) => t[1] > STALL_MS)));
+  // The page's own marks and measures, to place the long tasks in the open's steps.
+  const marks = (await page.evaluate(`performance.getEntries().filter((e) => e.name.startsWith('orbitab:')).map((e) => [e.name, Math.round(e.startTime), Math.round(e.duration)])`)) as [string, number, number][];
+  console.log('marks (name, start, duration):', JSON.stringify(marks));
   if (profile) {
     const { profile: p } = (await cdp.send('Profiler.stop')) as { profile: Profile };
     fs.writeFileSync(path.join(dir, 'open.cpuprofile'), JSON.stringify(p));

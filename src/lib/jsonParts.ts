@@ -13,13 +13,14 @@ export function safeJson(text: string): unknown {
 /** Entries per part: the page takes one in a few milliseconds (20,000 took over 250 ms on a busy machine). */
 export const partItems = 5_000;
 
-export interface JsonFetchRequest {
-  id: number;
-  /** The body of a successful answer, transferred from the page (which has read its status and headers). */
-  body: ReadableStream<Uint8Array>;
-}
+export type JsonFetchRequest =
+  /** A GET of `url`; an answer longer than `largeChars` characters is parsed in the worker and sent in parts. */
+  | { id: number; kind: 'fetch'; url: string; largeChars: number }
+  | { id: number; kind: 'abort' };
 
 export type JsonFetchReply =
+  /** A small answer's text, for the page to parse. */
+  | { id: number; kind: 'text'; text: string; receivedAt: number }
   | { id: number; kind: 'head'; data: unknown; /** When the whole answer had arrived, on the clock of performance.timeOrigin (ms since the epoch). */ receivedAt: number }
   | { id: number; kind: 'part'; sheet: number; key: string; items: unknown[] }
   | { id: number; kind: 'end' }
@@ -55,6 +56,7 @@ export class JsonAssembly {
   private data: unknown = null;
 
   take(reply: Exclude<JsonFetchReply, { kind: 'failed' }>): { done: true; data: unknown } | { done: false } {
+    if (reply.kind === 'text') return { done: true, data: reply.text ? safeJson(reply.text) : null };
     if (reply.kind === 'head') this.data = reply.data;
     else if (reply.kind === 'part') {
       const list = (this.data as { sheets: Record<string, unknown[]>[] }).sheets[reply.sheet][reply.key];

@@ -103,20 +103,44 @@ export function groupCells(cells: readonly { engineId: number; row: number; col:
   return bySheet;
 }
 
+/** Whether two views show and carry the same (a view is a plain record of these fields). */
+function sameView(a: CellView, b: CellView): boolean {
+  return (
+    a.input === b.input &&
+    a.display === b.display &&
+    a.kind === b.kind &&
+    Object.is(a.value, b.value) &&
+    a.errorCode === b.errorCode &&
+    a.errorMessage === b.errorMessage &&
+    !a.spilled === !b.spilled &&
+    a.readOnlyReason === b.readOnlyReason
+  );
+}
+
 /**
  * A new rows array in which only the rows holding the given cells are new objects, so memoised
- * grid rows and cells elsewhere keep their identity and do not re-render.
+ * grid rows and cells elsewhere keep their identity and do not re-render. A cell whose view comes
+ * out as it was keeps its old view, and when no cell changes the old array itself is returned:
+ * putting back the formulas of a workbook opened on its stored values mostly gives the values
+ * already shown, and rebuilding 100,000 rows' views for them was most of what the page allocated
+ * (and then collected) while it opened, besides redrawing a grid that had not changed.
  */
 export function withRowsReplaced(old: RowData[], rowCount: number, fixes: Map<number, Set<number>>, view: (row: number, col: number) => CellView | undefined): RowData[] {
-  const rows = old.length < rowCount ? old.concat(new Array<RowData>(rowCount - old.length).fill(EMPTY_ROW)) : old.slice();
+  let rows: RowData[] | null = old.length < rowCount ? old.concat(new Array<RowData>(rowCount - old.length).fill(EMPTY_ROW)) : null;
   for (const [row, cols] of fixes) {
-    const next: Record<string, CellView | undefined> = { ...rows[row] };
+    const before: RowData | undefined = (rows ?? old)[row];
+    let next: Record<string, CellView | undefined> | null = null;
     for (const col of cols) {
       const v = view(row, col);
+      const was = before?.[col];
+      if (v ? was !== undefined && sameView(was, v) : was === undefined) continue;
+      next ??= { ...before };
       if (v) next[col] = v;
       else delete next[col];
     }
+    if (!next) continue;
+    rows ??= old.slice();
     rows[row] = Object.keys(next).length === 0 ? EMPTY_ROW : next;
   }
-  return rows;
+  return rows ?? old;
 }
