@@ -1,6 +1,9 @@
 // Opening a large workbook whose values the server stored with its revision: the page shows those
 // values at once, says it is still computing while its own engine takes the formulas back in
-// slices, and an edit typed before that has finished is saved and computed like any other.
+// slices, and an edit typed before that has finished is saved and computed like any other. Both
+// ways the page reads the answers are taken: parsed by the page (this workbook's answers are under
+// the size that sends them to the worker), and parsed in the JSON worker and handed over in parts
+// (the page told to treat every answer as large, as a workbook of over 4 MB is).
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { maxCellsPerPatch } from '../shared/workbooks.js';
@@ -43,10 +46,30 @@ afterAll(async () => {
   await server?.stop();
 });
 
+/** How the page read each answer it loaded: 'page' or 'worker' (src/lib/api.ts marks each). */
+async function answersParsedIn(p: Page): Promise<Record<string, string>> {
+  return p.evaluate(() =>
+    Object.fromEntries(
+      performance
+        .getEntriesByType('mark')
+        .filter((e) => e.name.startsWith('orbitab:json-received '))
+        .map((e) => [e.name.replace(/^orbitab:json-received \/workbooks\/[^/?]+/, 'workbook'), (e as PerformanceMark).detail?.parsedIn]),
+    ),
+  );
+}
+
+/** Waits until the server has stored the values of the workbook's revision `revision`. */
+async function storedValuesOf(workbookId: string, revision: number) {
+  await expect.poll(async () => (await call('GET', `/workbooks/${workbookId}/values?stored=only`)).body?.revision, { timeout: 120_000, interval: 250 }).toBe(revision);
+}
+
+let workbookId = '';
+let revision = 0;
+
 describe('opening a workbook on its stored values', () => {
   it('shows the stored values at once, and an edit typed while it computes is saved and computed', async () => {
     // 8,000 rows × 5 columns: a species and four chemistry formulas reading it.
-    const workbookId = (await call('POST', '/workbooks', { title: 'Large screen, stored values' })).body.workbook.id as string;
+    workbookId = (await call('POST', '/workbooks', { title: 'Large screen, stored values' })).body.workbook.id as string;
     const sheetId = (await call('GET', `/workbooks/${workbookId}`)).body.sheets[0].id as string;
     const cells: { sheetId: string; row: number; col: number; input: string }[] = [];
     for (let row = 0; row < ROWS; row++) {
@@ -54,7 +77,6 @@ describe('opening a workbook on its stored values', () => {
       cells.push({ sheetId, row, col: 0, input: SPECIES[row % SPECIES.length] });
       ['BONDORDER', 'UNPAIRED', 'MAGNETISM', 'GROUNDTERM'].forEach((f, i) => cells.push({ sheetId, row, col: i + 1, input: `=${f}(A${n})` }));
     }
-    let revision = 0;
     for (let i = 0; i < cells.length; i += maxCellsPerPatch) {
       const res = await call('POST', `/workbooks/${workbookId}/patches`, { baseRevision: revision, changes: cells.slice(i, i + maxCellsPerPatch) });
       expect(res.status).toBe(200);
@@ -86,13 +108,56 @@ describe('opening a workbook on its stored values', () => {
     await expect.poll(async () => (await gridCell(page, 'C1'))?.text).toBe('0');
     await screenshot(page, 'stored-open-live');
 
+    // Answers of about a megabyte: under the size sent to the worker, so the page parsed them.
+    expect(await answersParsedIn(page)).toEqual({ workbook: 'page', 'workbook/values?stored=only': 'page' });
+
     const saved = await call('GET', `/workbooks/${workbookId}`);
     expect(saved.body.revision).toBe(revision + 1);
     expect(saved.body.sheets[0].cells).toContainEqual([0, 0, 'N2']);
+    revision += 1;
     // And the server's values for the new revision say the same.
-    await expect.poll(async () => (await call('GET', `/workbooks/${workbookId}/values?stored=only`)).body?.revision, { timeout: 120_000, interval: 250 }).toBe(revision + 1);
+    await storedValuesOf(workbookId, revision);
     const values = (await call('GET', `/workbooks/${workbookId}/values`)).body;
     expect(values.sheets[0].values).toContainEqual([0, 1, 3]);
+  }, 300_000);
+
+  it('opens the same way when the answers are parsed in the worker and handed over in parts', async () => {
+    expect(workbookId).not.toBe(''); // made by the test above
+    await storedValuesOf(workbookId, revision);
+    // The size past which answers go to the worker, lowered for this page only: every answer is "large".
+    const workerPage = await browser.context.newPage();
+    try {
+      await workerPage.addInitScript('window.orbitabLargeAnswerChars = 0');
+      workerPage.setDefaultTimeout(60_000);
+      await workerPage.goto(`${server.url}/workbooks/${workbookId}`);
+      // Stored values at once: F2 in A2, bond order 1 (MO diagram of any general chemistry text).
+      await expect.poll(async () => (await gridCell(workerPage, 'B2'))?.text, { timeout: 60_000 }).toBe('1');
+      const computing = workerPage.getByTestId('computing-state');
+      await computing.waitFor();
+      expect(await answersParsedIn(workerPage)).toEqual({ workbook: 'worker', 'workbook/values?stored=only': 'worker' });
+      // Every formula came through the parts (40,000 cells, at most 5,000 a part).
+      expect(await computing.evaluate((el) => Number(el.getAttribute('data-total')))).toBe(ROWS * 4);
+
+      // Typed before the engine is live: F2 → O2 in A2.
+      const a2 = (await gridCell(workerPage, 'A2'))!;
+      await workerPage.mouse.click(a2.x, a2.y);
+      await workerPage.keyboard.type('O2');
+      await workerPage.keyboard.press('Enter');
+      const progress = await computing.evaluate((el) => ({ done: Number(el.getAttribute('data-done')), total: Number(el.getAttribute('data-total')) }));
+      expect(progress.done).toBeLessThan(progress.total);
+
+      // Saved and computed here: O2 has bond order 2 and two unpaired electrons.
+      await workerPage.locator('[data-testid="save-state"][data-state="saved"]').waitFor({ timeout: 60_000 });
+      await computing.waitFor({ state: 'detached', timeout: 120_000 });
+      await expect.poll(async () => (await gridCell(workerPage, 'B2'))?.text).toBe('2');
+      await expect.poll(async () => (await gridCell(workerPage, 'C2'))?.text).toBe('2');
+      const saved = await call('GET', `/workbooks/${workbookId}`);
+      expect(saved.body.revision).toBe(revision + 1);
+      expect(saved.body.sheets[0].cells).toContainEqual([1, 0, 'O2']);
+      expect(saved.body.sheets[0].cells).toHaveLength(ROWS * 5);
+    } finally {
+      await workerPage.close();
+    }
   }, 300_000);
 
   it('says a workbook that is not there is not available', async () => {

@@ -247,11 +247,13 @@ function openOnStoredValues(
   let cancelled = false;
   const isCancelled = () => cancelled;
   const online = () => s?.queue.flushNow();
-  const preparation = new OpenPreparation(payload, stored);
-  const opening = inSlices((ms) => preparation.step(ms), computeSliceMs, isCancelled);
+  // Let go once its result is taken: this scope lives as long as the session (its clean-up below).
+  let preparation: OpenPreparation | null = new OpenPreparation(payload, stored);
+  const opening = inSlices((ms) => preparation!.step(ms), computeSliceMs, isCancelled);
   void opening.then((ready) => {
     if (!ready) return;
-    const prepared = preparation.result();
+    const prepared = preparation!.result();
+    preparation = null;
     let session: WorkbookSession;
     try {
       session = s = openSession(payload, storage, structures, stored, prepared);
