@@ -51,7 +51,7 @@ const VALENCE_STATES: Record<string, readonly (readonly [number, number, number?
 /** Most total charge cost tried before giving up (a zwitterion or a nitro group costs 2, CO 5). */
 const maxChargeCost = 12;
 /** Search steps allowed per structure, so a large structure with no answer cannot hold the import. */
-const stepLimit = 500_000;
+const stepLimit = 200_000;
 
 export type BondOrderResult = { orders: (1 | 2 | 3)[]; charges: number[] } | { problem: string };
 
@@ -76,6 +76,14 @@ export function assignBondOrders(elements: readonly string[], bonds: readonly (r
       return { problem: `atom ${i + 1} (${elements[i]}) with ${degree[i]} bonded neighbour${degree[i] === 1 ? '' : 's'} fits none of its valences (a radical, an ion without its charge, or a wrong geometry?)` };
     states.push(fitting);
   }
+  // Every state in the table has valence + charge of one parity per element (the parity of its
+  // valence electrons), so an odd total over the structure is an odd electron count: a radical or
+  // a wrong net charge, which no bond orders can close.
+  const electronParity = states.reduce((sum, list, i) => sum + list[0][0] - degree[i] + list[0][1], totalCharge);
+  if (electronParity % 2 !== 0) {
+    const net = totalCharge === 0 ? 'neutral' : `net charge ${totalCharge > 0 ? '+' : ''}${totalCharge}`;
+    return { problem: `an odd number of electrons (${net}): a radical, or the net charge is missing or wrong, so no closed-shell bond orders exist` };
+  }
   const mostExtra = states.map((list, i) => Math.max(...list.map(([v]) => v - degree[i])));
   const leastExtra = states.map((list, i) => Math.min(...list.map(([v]) => v - degree[i])));
 
@@ -95,6 +103,26 @@ export function assignBondOrders(elements: readonly string[], bonds: readonly (r
   }
   const later = order.map((i) => neighbours[i].filter(({ atom }) => position[atom] > position[i]));
 
+  // Parity: a bond's extra order counts at both its ends, so over one connected piece the atoms'
+  // extras (valence − neighbours) sum to an even number. An element's neutral valences share one
+  // parity and a charge flips it, so once the budget left cannot pay for a flip, an odd sum over the
+  // atoms still to visit ends the branch at once (a radical is refused without trying every Kekulé
+  // structure). By position in `order`: the parity of the rest of the piece in each atom's cheapest
+  // state, and the cheapest state of the other parity there.
+  const costOf = ([, charge, cost]: readonly [number, number, number?]) => cost ?? (charge === 0 ? 0 : 1);
+  const startsPiece = order.map((_, k) => k === 0 || !neighbours[order[k]].some(({ atom }) => position[atom] < k));
+  const restParity = new Array<number>(n + 1).fill(0);
+  const restFlipCost = new Array<number>(n + 1).fill(Infinity);
+  for (let k = n - 1; k >= 0; k--) {
+    const i = order[k];
+    const cheapest = states[i].reduce((best, st) => (costOf(st) < costOf(best) ? st : best));
+    const parity = (cheapest[0] - degree[i]) & 1;
+    const flip = Math.min(...states[i].filter(([v]) => ((v - degree[i]) & 1) !== parity).map(costOf));
+    const continues = k + 1 < n && !startsPiece[k + 1];
+    restParity[k] = parity ^ (continues ? restParity[k + 1] : 0);
+    restFlipCost[k] = Math.min(flip, continues ? restFlipCost[k + 1] : Infinity);
+  }
+
   const extra = new Array<number>(bonds.length).fill(0);
   const received = new Array<number>(n).fill(0);
   const unvisited = degree.slice();
@@ -106,17 +134,24 @@ export function assignBondOrders(elements: readonly string[], bonds: readonly (r
   // able to carry what its least demanding state still needs.
   const stillPossible = (j: number) => received[j] <= mostExtra[j] && Math.max(0, leastExtra[j] - received[j]) <= 2 * unvisited[j];
 
-  const visit = (k: number, cost: number, chargeSum: number): boolean => {
+  // `parity`: of the extras chosen so far in the current connected piece.
+  const visit = (k: number, cost: number, chargeSum: number, parity: number): boolean => {
     if (++steps > stepLimit) throw new SearchTooLong();
     if (k === n) return chargeSum === totalCharge;
+    // Every unit of charge still missing needs a charged atom, and each costs at least 1.
+    if (Math.abs(totalCharge - chargeSum) > budget - cost) return false;
+    if (startsPiece[k]) parity = 0;
+    if (budget - cost < restFlipCost[k] && (parity ^ restParity[k]) === 1) return false;
     const i = order[k];
     for (const { atom } of neighbours[i]) unvisited[atom]--;
-    for (const [valence, charge, stateCost = charge === 0 ? 0 : 1] of states[i]) {
-      const nowCost = cost + stateCost;
+    for (const state of states[i]) {
+      const [valence, charge] = state;
+      const nowCost = cost + costOf(state);
       const need = valence - degree[i] - received[i];
       if (nowCost > budget || need < 0 || need > 2 * later[k].length) continue;
       charges[i] = charge;
-      if (spread(k, 0, need, () => visit(k + 1, nowCost, chargeSum + charge))) return true;
+      const nowParity = parity ^ ((valence - degree[i]) & 1);
+      if (spread(k, 0, need, () => visit(k + 1, nowCost, chargeSum + charge, nowParity))) return true;
     }
     charges[i] = 0;
     for (const { atom } of neighbours[i]) unvisited[atom]++;
@@ -142,7 +177,7 @@ export function assignBondOrders(elements: readonly string[], bonds: readonly (r
   const chargeable = states.filter((list) => list.some(([, q]) => q !== 0)).length;
   try {
     for (budget = 0; budget <= Math.min(maxChargeCost, 3 * chargeable); budget++) {
-      if (visit(0, 0, 0)) return { orders: extra.map((x) => (x + 1) as 1 | 2 | 3), charges: charges.slice() };
+      if (visit(0, 0, 0, 0)) return { orders: extra.map((x) => (x + 1) as 1 | 2 | 3), charges: charges.slice() };
     }
   } catch (e) {
     if (!(e instanceof SearchTooLong)) throw e;
