@@ -33,6 +33,8 @@ interface StructureRow {
   record: string;
   /** Whether the record carries 3D coordinates and every hydrogen (else the formulas use the SMILES). */
   usable3d: boolean;
+  /** A net charge the record's text does not carry (an XYZ comment's "charge=-1"), passed to the formulas. */
+  charge?: number;
 }
 
 class RecordProblem extends Error {}
@@ -118,9 +120,10 @@ function xyzRows(text: string, report: (index: number, problem: string) => void,
     // The comment is the name; ";" separates atoms in a cell's XYZ text, so it may not stand in the comment.
     const name = comment.replace(/;/g, ',').slice(0, 200) || `frame ${index}`;
     const record = [String(count), name, ...atomLines.map((l) => l.trim())].join('\n');
-    const perceived = smilesFromFrame(elements, coordinates, chargeFromComment(comment) ?? 0);
+    const charge = chargeFromComment(comment) ?? 0;
+    const perceived = smilesFromFrame(elements, coordinates, charge);
     if ('problem' in perceived) unbonded.push(`record ${index} ("${name.slice(0, 60)}"): SMILES left empty, ${perceived.problem}`);
-    rows.push({ name, smiles: 'smiles' in perceived ? perceived.smiles : '', formula: hillFormula(elements), record, usable3d: true });
+    rows.push({ name, smiles: 'smiles' in perceived ? perceived.smiles : '', formula: hillFormula(elements), record, usable3d: true, charge });
   }
 }
 
@@ -191,7 +194,8 @@ export function readStructures(buffer: Uint8Array, filename: string, ext: string
     const argument = r.usable3d ? `D${row + 1}` : r.smiles ? `B${row + 1}` : null;
     if (!r.usable3d && r.smiles) fromSmiles++;
     if (argument) {
-      structureFormulaColumns.forEach((col, i) => cells.push([row, 4 + i, `=${col.fn}(${argument})`]));
+      const charge = r.usable3d && r.charge ? `,${r.charge}` : '';
+      structureFormulaColumns.forEach((col, i) => cells.push([row, 4 + i, `=${col.fn}(${argument}${charge})`]));
       formulas += structureFormulaColumns.length;
     }
     row++;
