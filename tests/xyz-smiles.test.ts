@@ -76,6 +76,14 @@ describe('SMILES from an XYZ frame name the compound the coordinates came from',
     expect(smilesFromFrame(elements, coordinates)).toEqual({ problem: expect.stringMatching(/^bonds uncertain: /) });
   });
 
+  it('fits a dication given without its charge to the neutral molecule with the same atoms (a documented limit)', () => {
+    // Paraquat (1,1′-dimethyl-4,4′-bipyridinium) and its two-electron-reduced quinoid form share C12H14N2.
+    const { elements, coordinates, charge } = frameOf('C[n+]1ccc(cc1)-c1cc[n+](C)cc1');
+    expect(charge).toBe(2);
+    expect(idCode((smilesFromFrame(elements, coordinates, 2) as { smiles: string }).smiles)).toBe(idCode('C[n+]1ccc(cc1)-c1cc[n+](C)cc1'));
+    expect(idCode((smilesFromFrame(elements, coordinates) as { smiles: string }).smiles)).toBe(idCode('CN1C=CC(C=C1)=C1C=CN(C)C=C1'));
+  });
+
   it('reports a radical (pentacene less one H) by its odd electron count, without searching', () => {
     const { elements, coordinates } = frameOf('c1ccc2cc3cc4cc5ccccc5cc4cc3cc2c1');
     const h = elements.indexOf('H');

@@ -203,7 +203,7 @@ export function readStructures(buffer: Uint8Array, filename: string, ext: string
   if (rows.length === 0 && skipped.length === 0) throw new SpreadsheetError('not_a_spreadsheet', `"${filename}" holds no structure records`);
   if (fromSmiles > 0)
     notes.push(`${fromSmiles.toLocaleString('en')} record${fromSmiles === 1 ? ' has' : 's have'} 2D coordinates or hydrogens without coordinates; their extended-Hückel columns use the SMILES (a generated conformer) instead`);
-  if (kind === 'xyz') notes.push(...xyzNotes(rows.length, unbonded));
+  if (kind === 'xyz' && rows.length > 0) notes.push(...xyzNotes(rows.length, unbonded));
   return {
     sheets: [{ name: sheet, cells, columnWidths: { 0: 18, 1: 28, 2: 12, 3: 30 }, frozenRows: 1, frozenCols: 1, merged: [] }],
     summary: { sheets: 1, cells: cells.length, formulas, skipped, notes },
