@@ -184,5 +184,5 @@ export function assignBondOrders(elements: readonly string[], bonds: readonly (r
     return { problem: `no bond orders found within ${stepLimit.toLocaleString('en')} search steps` };
   }
   const net = totalCharge === 0 ? 'neutral' : `net charge ${totalCharge > 0 ? '+' : ''}${totalCharge}`;
-  return { problem: `no bond orders satisfy every atom's valence (${net}, formal charges tried up to ${maxChargeCost / 2} charged heteroatom pairs): a radical, a metal, an unusual valence or a missing charge` };
+  return { problem: `no bond orders satisfy every atom's valence (${net}, up to ${maxChargeCost} charged heteroatoms tried): a radical, a metal, an unusual valence or a missing charge` };
 }
