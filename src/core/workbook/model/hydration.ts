@@ -168,6 +168,7 @@ export class Hydration {
     pending.next = to;
     if (to >= pending.table.length) this.rest.shift();
     const perRow = (performance.now() - started) / Math.max(1, to - from);
-    this.rowChunk = Math.max(10, Math.min(50_000, Math.floor(budgetMs / Math.max(perRow, 0.001))));
+    // Grows at most fourfold a slice, like `chunk`: one quick slice must not size a long one.
+    this.rowChunk = Math.max(10, Math.min(50_000, 4 * this.rowChunk, Math.floor(budgetMs / Math.max(perRow, 0.001))));
   }
 }
