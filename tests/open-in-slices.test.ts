@@ -127,6 +127,51 @@ describe('a model prepared a slice at a time', () => {
     }
   });
 
+  it('keeps the rows it shows when the formulas put back give the values already shown', () => {
+    // Only formulas whose stored values are what the engine computes (no array formula, no pending result).
+    const plain: WorkbookPayload = { ...payload, sheets: payload.sheets.map((s) => ({ ...s, cells: s.cells.filter(([, , input]) => !/TRANSPOSE|EHTGAP/.test(input)) })) };
+    const values = computeValues({ revision: 3, sheets: plain.sheets });
+    const model = new WorkbookModel(plain, { stored: values, firstRows: 10 });
+    try {
+      while (model.computing && model.computing.done === 0) model.computeSlice(5); // the rows of constants first
+      const rows = model.rows('s1');
+      const before = shown(model, 's1');
+      model.ensureLive();
+      // The same array, rows and views: the grid has nothing to redraw.
+      expect(model.rows('s1')).toBe(rows);
+      expect(shown(model, 's1')).toEqual(before);
+      // An edit still replaces the row it is in (NO → F2: bond order 1, Atkins & de Paula, Physical Chemistry, MO theory; recalled from memory).
+      model.edit([{ sheetId: 's1', row: 2, col: 0, input: 'F2' }]);
+      const after = model.rows('s1');
+      expect(after).not.toBe(rows);
+      expect(after[2]).not.toBe(rows[2]);
+      expect(after[3]).toBe(rows[3]);
+      expect(after[2][1]?.display).toBe('1');
+    } finally {
+      model.dispose();
+    }
+  });
+
+  it('puts back formulas listed out of order row by row, on every sheet', () => {
+    const shuffled: WorkbookPayload = { ...payload, sheets: payload.sheets.map((s) => ({ ...s, cells: [...s.cells].reverse() })) };
+    const preparation = new OpenPreparation(shuffled, stored);
+    const held = preparation.result().held!;
+    for (const { formulas } of held) {
+      const places = formulas.rows.map((r, i) => r * 10 + formulas.cols[i]);
+      expect(places).toEqual([...places].sort((a, b) => a - b));
+    }
+    expect(held.reduce((n, h) => n + h.formulas.rows.length, 0)).toBe(payload.sheets.flatMap((s) => s.cells).filter(([, , i]) => i.startsWith('=')).length);
+    const sliced = new WorkbookModel(shuffled, { stored, prepared: preparation.result() });
+    const fresh = new WorkbookModel(payload);
+    try {
+      sliced.ensureLive();
+      for (const s of ['s1', 's2']) expect(shown(sliced, s)).toEqual(shown(fresh, s));
+    } finally {
+      sliced.dispose();
+      fresh.dispose();
+    }
+  });
+
   it('reads the structures the formulas name the same in slices as in one pass', () => {
     const scan = new StructureInputScan();
     const sheets = [...payload.sheets].sort((a, b) => a.position - b.position);
@@ -139,6 +184,21 @@ describe('a model prepared a slice at a time', () => {
 });
 
 describe('the extent of a sheet kept as cells are set', () => {
+  it('keeps cells far apart in rows, reads each back, and lists them a block of rows after another', () => {
+    const s = new SheetInputs();
+    const cells: [number, number, string][] = [[70_000, 3, 'far'], [0, 0, 'first'], [255, 1, 'end of a block'], [256, 1, 'next block'], [70_000, 3, 'far again']];
+    for (const [r, c, v] of cells) s.set(r, c, v);
+    expect(s.size).toBe(4);
+    expect(s.get(70_000, 3)).toBe('far again');
+    expect(s.get(256, 1)).toBe('next block');
+    expect(s.get(69_999, 3)).toBe('');
+    expect([...s.entries()].map((e) => e.row)).toEqual([0, 255, 256, 70_000]);
+    s.set(255, 1, '');
+    expect(s.size).toBe(3);
+    expect(s.clone().size).toBe(3);
+    expect(s.extent()).toEqual({ rows: 70_001, cols: 4 });
+  });
+
   it('grows with each cell and shrinks again when the last row or column is cleared', () => {
     const s = SheetInputs.from([[0, 0, 'a'], [4, 2, 'b'], [2, 6, 'c']]);
     expect(s.extent()).toEqual({ rows: 5, cols: 7 });
