@@ -55,7 +55,8 @@ describe('an answer handed over in parts', () => {
       const assembly = new JsonAssembly();
       expect(assembly.take({ id: 1, kind: 'head', data: sent, receivedAt: 0 })).toEqual({ done: false });
       for (const p of parts) {
-        expect(p.items.length).toBeLessThanOrEqual(partItems);
+        expect('items' in p ? p.items.length : p.rows.length).toBeLessThanOrEqual(partItems);
+        expect('rows' in p).toBe(true); // lists of [row, col, x] cells travel packed
         assembly.take({ id: 1, kind: 'part', ...p });
       }
       const done = assembly.take({ id: 1, kind: 'end' });

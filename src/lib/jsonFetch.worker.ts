@@ -6,9 +6,9 @@
 // emptied first, then those lists a slice at a time, each slice its own message, so the page takes
 // them in short tasks between frames. Only lists under `sheets[i]` are sliced: the workbook's cells
 // and the stored values, the two answers that grow with the sheet.
-import { safeJson, splitIntoParts, type JsonFetchReply, type JsonFetchRequest } from './jsonParts.js';
+import { partTransfers, safeJson, splitIntoParts, type JsonFetchReply, type JsonFetchRequest } from './jsonParts.js';
 
-const scope = self as unknown as { onmessage: ((e: MessageEvent<JsonFetchRequest>) => void) | null; postMessage(m: JsonFetchReply): void };
+const scope = self as unknown as { onmessage: ((e: MessageEvent<JsonFetchRequest>) => void) | null; postMessage(m: JsonFetchReply, transfer?: Transferable[]): void };
 
 const running = new Map<number, AbortController>();
 
@@ -48,6 +48,6 @@ scope.onmessage = async (e) => {
   const data = text ? safeJson(text) : null;
   const parts = splitIntoParts(data);
   scope.postMessage({ id, kind: 'head', data, receivedAt });
-  for (const part of parts) scope.postMessage({ id, kind: 'part', ...part });
+  for (const part of parts) scope.postMessage({ id, kind: 'part', ...part }, partTransfers(part));
   scope.postMessage({ id, kind: 'end' });
 };
