@@ -103,10 +103,17 @@ export class ApiClient {
   cookie = '';
   constructor(readonly base: string) {}
   async call<T>(method: string, route: string, body?: unknown): Promise<T> {
-    const res = await fetch(`${this.base}/api${route}`, {
-      method,
-      headers: { origin: this.base, cookie: this.cookie, ...(body === undefined ? {} : { 'content-type': 'application/json' }) },
-      body: body === undefined ? undefined : JSON.stringify(body),
+    const send = () =>
+      fetch(`${this.base}/api${route}`, {
+        method,
+        headers: { origin: this.base, cookie: this.cookie, ...(body === undefined ? {} : { 'content-type': 'application/json' }) },
+        body: body === undefined ? undefined : JSON.stringify(body),
+      });
+    // A kept-alive connection the server closed while idle (its keep-alive timeout passed during a
+    // slow browser warm-up) fails the next request before it is read: sent again once, on a new one.
+    const res = await send().catch((e: Error & { cause?: { code?: string } }) => {
+      if (e.cause?.code !== 'UND_ERR_SOCKET') throw e;
+      return send();
     });
     const setCookie = res.headers.getSetCookie?.() ?? [];
     const session = setCookie.find((c) => c.startsWith('orbitab_session='));

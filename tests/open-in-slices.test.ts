@@ -65,6 +65,18 @@ describe('an answer handed over in parts', () => {
     expect(splitIntoParts(JSON.parse(JSON.stringify(original))).length).toBe(Math.ceil(original.sheets[1].cells.length / partItems));
   });
 
+  it('sends a long list of anything but cells as it is, and puts it back the same', () => {
+    const names = Array.from({ length: partItems + 10 }, (_, i) => `name ${i}`);
+    const cellsWithText = Array.from({ length: partItems + 10 }, (_, i) => (i === 7 ? [1.5, 0, 'x'] : [i, 0, 'x']));
+    const sent = { sheets: [{ id: 's', names: [...names], cells: cellsWithText.map((c) => [...c]) }] };
+    const parts = splitIntoParts(sent);
+    expect(parts.map((p) => 'items' in p)).toEqual([true, true, true, true]); // a row of 1.5 is no cell: not packed
+    const assembly = new JsonAssembly();
+    assembly.take({ id: 1, kind: 'head', data: sent, receivedAt: 0 });
+    for (const p of parts) assembly.take({ id: 1, kind: 'part', ...p });
+    expect(assembly.take({ id: 1, kind: 'end' })).toEqual({ done: true, data: { sheets: [{ id: 's', names, cells: cellsWithText }] } });
+  });
+
   it('leaves answers without sheets, and null, as they are', () => {
     expect(splitIntoParts(null)).toEqual([]);
     const small = { error: { code: 'not_found', message: 'no such workbook' } };
