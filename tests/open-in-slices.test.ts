@@ -70,7 +70,8 @@ describe('an answer handed over in parts', () => {
     const cellsWithText = Array.from({ length: partItems + 10 }, (_, i) => (i === 7 ? [1.5, 0, 'x'] : [i, 0, 'x']));
     const sent = { sheets: [{ id: 's', names: [...names], cells: cellsWithText.map((c) => [...c]) }] };
     const parts = splitIntoParts(sent);
-    expect(parts.map((p) => 'items' in p)).toEqual([true, true, true, true]); // a row of 1.5 is no cell: not packed
+    // Names as they are; of the cells, the slice holding a row of 1.5 (no cell) as it is, the other packed.
+    expect(parts.map((p) => [p.key, 'items' in p])).toEqual([['names', true], ['names', true], ['cells', true], ['cells', false]]);
     const assembly = new JsonAssembly();
     assembly.take({ id: 1, kind: 'head', data: sent, receivedAt: 0 });
     for (const p of parts) assembly.take({ id: 1, kind: 'part', ...p });
