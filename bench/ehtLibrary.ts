@@ -33,7 +33,7 @@ export interface EhtLibraryResult {
   measuredAt: string;
 }
 
-function libraryCells(smiles: string[]): [number, number, string][] {
+export function libraryCells(smiles: string[]): [number, number, string][] {
   const cells: [number, number, string][] = [[0, 0, 'SMILES'], ...COLUMNS.map((c, i) => [0, i + 1, c] as [number, number, string])];
   smiles.forEach((s, r) => {
     cells.push([r + 1, 0, s]);
@@ -43,7 +43,7 @@ function libraryCells(smiles: string[]): [number, number, string][] {
 }
 
 /** Installed before the page's own scripts: long tasks and the longest delay of a 50 ms timer. */
-function stallProbe() {
+export function stallProbe() {
   const w = window as unknown as { __stall: { longest: number; over250: number; gap: number } };
   w.__stall = { longest: 0, over250: 0, gap: 0 };
   new PerformanceObserver((list) => {

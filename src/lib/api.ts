@@ -1,5 +1,6 @@
 // The one API client. Components never call fetch: features wrap these calls in TanStack Query
 // `queryOptions`/mutations, with keys from `queryKeys` below.
+import { takeEarlyGet } from './earlyGets.js';
 import { JsonAssembly, safeJson, type JsonFetchReply, type JsonFetchRequest } from './jsonParts.js';
 
 export class ApiError extends Error {
@@ -14,6 +15,8 @@ export class ApiError extends Error {
 }
 
 export async function api<T>(path: string, init: { method?: string; body?: unknown; signal?: AbortSignal } = {}): Promise<T> {
+  const early = (init.method ?? 'GET') === 'GET' && init.body === undefined ? await takeEarlyGet(path) : null;
+  if (early) return answerOf<T>(early);
   const res = await fetch(`/api${path}`, {
     method: init.method ?? 'GET',
     credentials: 'same-origin',
@@ -97,7 +100,7 @@ const packedRatio = 10;
  * at once. The same result and errors as `api`.
  */
 export async function apiLarge<T>(path: string, init: { signal?: AbortSignal } = {}): Promise<T> {
-  const res = await fetch(`/api${path}`, { credentials: 'same-origin', signal: init.signal });
+  const res = (await takeEarlyGet(path)) ?? (await fetch(`/api${path}`, { credentials: 'same-origin', signal: init.signal }));
   const length = Number(res.headers.get('content-length') ?? Number.NaN);
   const size = res.headers.has('content-encoding') ? length * packedRatio : length;
   const worker = res.ok && res.body && !(size <= largeAnswerBytes) ? workerForJson() : null;

@@ -2,7 +2,7 @@
 // engine is built from this one load), builds the model and the save queue, and takes over any
 // changes an earlier visit left unsent in local storage.
 import { useQuery } from '@tanstack/react-query';
-import { useEffect, useRef, useState, useSyncExternalStore } from 'react';
+import { startTransition, useEffect, useRef, useState, useSyncExternalStore } from 'react';
 import type { ValuesPayload, WorkbookPayload } from '@shared/workbooks.js';
 import { fetchStructures, sendPatch, storedValuesQueryOptions, workbookQueryOptions } from '../api.js';
 import { WorkbookModel } from '../model/workbookModel.js';
@@ -100,6 +100,8 @@ export function useWorkbookSession(id: string) {
   const [preview, setPreview] = useState<SheetPreview | null>(null);
   /** The full open, held back until the preview has been painted. */
   const deferredOpen = useRef<(() => void) | null>(null);
+  /** What waits for the opened session to be on screen (openOnStoredValues). */
+  const afterShown = useRef<(() => void) | null>(null);
   const payload = query.data;
   // Set-up that runs while the workbook is still on its way (engineSetup.ts); the open waits for it.
   const markedLoad = useRef<WorkbookPayload | null>(null);
@@ -135,7 +137,7 @@ export function useWorkbookSession(id: string) {
     const structures = new StructureStore((inputs) => fetchStructures(payload.id, inputs));
     const uninstall = installStructureStore(structures);
     const openInSlices = (values: ValuesPayload) => {
-      const close = openOnStoredValues(payload, storage, structures, values, toolkit, setSession, setOpenError);
+      const close = openOnStoredValues(payload, storage, structures, values, toolkit, setSession, setOpenError, (shown) => (afterShown.current = shown));
       return () => {
         close();
         uninstall();
@@ -166,8 +168,12 @@ export function useWorkbookSession(id: string) {
         setOpenError(e as Error);
         return;
       }
-      setSession(s);
-      setPreview(null);
+      const opened = s;
+      // Rendered as a transition: React draws the workspace in short tasks, not in one long one.
+      startTransition(() => {
+        setSession(opened);
+        setPreview(null);
+      });
       window.addEventListener('online', online);
     };
     if (first) {
@@ -187,6 +193,15 @@ export function useWorkbookSession(id: string) {
       setSession(null);
     };
   }, [payload, stored, setUp]);
+
+  // The workspace of an open session is on screen (committed; the frame callback that follows comes
+  // just before its paint).
+  useEffect(() => {
+    const shown = afterShown.current;
+    if (!session || !shown) return;
+    afterShown.current = null;
+    shown();
+  }, [session]);
 
   // Runs after the preview is committed: the frame callback comes just before that frame is
   // painted, and the timeout after it, so the long full build never hides the preview.
@@ -226,6 +241,8 @@ function openOnStoredValues(
   toolkit: Promise<unknown>,
   setSession: (s: WorkbookSession | null) => void,
   setOpenError: (e: Error) => void,
+  /** Registers what runs once the session's workspace is committed. */
+  whenShown: (shown: () => void) => void,
 ): () => void {
   let s: WorkbookSession | null = null;
   let timer: ReturnType<typeof setTimeout> | undefined;
@@ -247,7 +264,9 @@ function openOnStoredValues(
       return;
     }
     const opened = performance.now();
-    setSession(session);
+    // Rendered as a transition: React draws the workspace in short tasks (its first mount held the
+    // page for a few hundred milliseconds in one), and nothing below starts before it is committed.
+    startTransition(() => setSession(session));
     window.addEventListener('online', online);
     const step = () => {
       if (cancelled) return;
@@ -276,17 +295,19 @@ function openOnStoredValues(
       },
       (e: unknown) => !cancelled && setOpenError(setupProblem(e)),
     );
-    frame = requestAnimationFrame(() => {
-      painted = true;
-      // The structures the formulas name, read after the first paint (a pass over every formula).
-      const scan = new StructureInputScan((sheetId, row, col) => prepared.inputs.get(sheetId)?.get(row, col));
-      const sheets = inTabOrder(payload.sheets);
-      timer = setTimeout(() => {
-        timer = undefined;
-        void inSlices((ms) => scan.step(sheets, ms), computeSliceMs, isCancelled)
-          .then((read) => (read ? structures.prefetch(scan.result()) : undefined))
-          .then(fetchedNow);
-      }, 0);
+    whenShown(() => {
+      frame = requestAnimationFrame(() => {
+        painted = true;
+        // The structures the formulas name, read after the first paint (a pass over every formula).
+        const scan = new StructureInputScan((sheetId, row, col) => prepared.inputs.get(sheetId)?.get(row, col));
+        const sheets = inTabOrder(payload.sheets);
+        timer = setTimeout(() => {
+          timer = undefined;
+          void inSlices((ms) => scan.step(sheets, ms), computeSliceMs, isCancelled)
+            .then((read) => (read ? structures.prefetch(scan.result()) : undefined))
+            .then(fetchedNow);
+        }, 0);
+      });
     });
   });
   return () => {
