@@ -9,6 +9,7 @@ import { WorkbookModel } from '../model/workbookModel.js';
 import { PatchQueue, type SaveStatus } from '../save/patchQueue.js';
 import { PendingStore, type KeyValueStorage } from '../save/pendingStore.js';
 import { buildPreview, type SheetPreview } from '../model/windowPreview.js';
+import { storedPreview } from '../model/storedPreview.js';
 import { PendingReevaluation } from '../model/pendingCells.js';
 import { installStructureStore, StructureStore } from '../structures/structureStore.js';
 import { StructureInputScan } from '../structures/structureInputs.js';
@@ -113,11 +114,14 @@ export function useWorkbookSession(id: string) {
   useEffect(() => {
     if (!payload || stored === undefined) return;
     // Once per load (the effect runs again when the set-up it waits for is in).
-    if (markedLoad.current !== payload) performance.mark('orbitab:workbook-loaded');
+    const firstRun = markedLoad.current !== payload;
+    if (firstRun) performance.mark('orbitab:workbook-loaded');
     markedLoad.current = payload;
     const storage = browserStorage();
     const unsent = new PendingStore(storage, payload.id).load() !== null;
     const onStored = stored !== null && stored.revision === payload.revision && !unsent;
+    // The stored values' first screenful is shown at once, while the engine is set up and built.
+    if (firstRun && onStored) setPreview(storedPreview(payload, stored));
     // SMILES functions read structures with openchemlib, loaded apart from the page's code
     // (functions/chem/openchemlib.ts): no formula is computed before it is in. Stored values are
     // shown meanwhile; any other open waits for it. Every open waits for the engine's set-up. This
@@ -137,7 +141,11 @@ export function useWorkbookSession(id: string) {
     const structures = new StructureStore((inputs) => fetchStructures(payload.id, inputs));
     const uninstall = installStructureStore(structures);
     const openInSlices = (values: ValuesPayload) => {
-      const close = openOnStoredValues(payload, storage, structures, values, toolkit, setSession, setOpenError, (shown) => (afterShown.current = shown));
+      const show = (s: WorkbookSession | null) => {
+        setSession(s);
+        if (s) setPreview(null);
+      };
+      const close = openOnStoredValues(payload, storage, structures, values, toolkit, show, setOpenError, (shown) => (afterShown.current = shown));
       return () => {
         close();
         uninstall();
@@ -247,6 +255,7 @@ function openOnStoredValues(
   let s: WorkbookSession | null = null;
   let timer: ReturnType<typeof setTimeout> | undefined;
   let waitTimer: ReturnType<typeof setTimeout> | undefined;
+  let rowsTimer: ReturnType<typeof setTimeout> | undefined;
   let frame = 0;
   let cancelled = false;
   const isCancelled = () => cancelled;
@@ -264,9 +273,15 @@ function openOnStoredValues(
       return;
     }
     const opened = performance.now();
-    // Rendered as a transition: React draws the workspace in short tasks (its first mount held the
-    // page for a few hundred milliseconds in one), and nothing below starts before it is committed.
-    startTransition(() => setSession(session));
+    // The first sheet's cell views are made in a task of their own (for a library of a thousand rows
+    // they were most of the workspace's first render), then the workspace is rendered as a
+    // transition: React draws it in short tasks, and nothing below starts before it is committed.
+    rowsTimer = setTimeout(() => {
+      if (cancelled) return;
+      const first = session.model.sheets[0];
+      if (first) session.model.rows(first.id);
+      startTransition(() => setSession(session));
+    }, 0);
     window.addEventListener('online', online);
     const step = () => {
       if (cancelled) return;
@@ -315,6 +330,7 @@ function openOnStoredValues(
     cancelAnimationFrame(frame);
     clearTimeout(timer);
     clearTimeout(waitTimer);
+    clearTimeout(rowsTimer);
     window.removeEventListener('online', online);
     if (s) {
       s.reevaluation.stop();
