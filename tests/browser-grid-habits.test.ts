@@ -1,7 +1,8 @@
 // Desktop-spreadsheet habits of the hands, in Debian Chromium against the real server: F2 and a
 // double-click edit with the caret at the end, a click on the active cell only selects it,
-// Ctrl+Arrow stops at the edge of the data, and a double-click on the fill handle fills down beside
-// the data. Bond orders from MO theory: O2 2, N2 3, F2 1, CO 3 (Atkins & de Paula, Physical
+// Ctrl+Arrow stops at the edge of the data, a double-click on the fill handle fills down beside
+// the data, and a block typed in the address box is selected. Bond orders from MO theory: O2 2,
+// N2 3, F2 1, CO 3 (Atkins & de Paula, Physical
 // Chemistry, MO theory of diatomics; recalled from memory).
 import { describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
@@ -106,6 +107,35 @@ describe('data edges', () => {
     await page.keyboard.press('Enter');
     await expect.poll(() => frozen('C')).toBe('1'); // Cl2: bond order 1 (same source)
     await page.getByRole('button', { name: 'Freeze row 1' }).click();
+  });
+
+  it('a block typed in the address box becomes the selection, and the keys act on it', async () => {
+    await clickCell('E5');
+    for (const s of ['N2', 'O2']) {
+      await page.keyboard.type(s);
+      await page.keyboard.press('Enter');
+    }
+    await expectCell('E6', 'O2');
+    const box = page.getByLabel('Cell address');
+    await box.click();
+    await box.fill('f6:e5');
+    await box.press('Enter');
+    await expect.poll(address).toBe('E5:F6');
+    // The keyboard is back in the grid: Delete clears the block instead of editing the box's text.
+    await page.keyboard.press('Delete');
+    await expectCell('E5', '');
+    await expectCell('E6', '');
+    await expect.poll(address).toBe('E5:F6');
+  });
+
+  it('an address the box cannot read is refused with a reason, and Escape hands the keys back', async () => {
+    const box = page.getByLabel('Cell address');
+    await box.click();
+    await box.fill('E0');
+    await box.press('Enter');
+    await expect.poll(() => page.getByTestId('sheet-message').textContent()).toContain('"E0" is not a cell or a block of cells');
+    await box.press('Escape');
+    await expect.poll(address).toBe('E5:F6');
   });
 
   it('raised no uncaught errors in the page', () => {

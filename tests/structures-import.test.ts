@@ -3,6 +3,7 @@
 // reported by number while the rest are taken; nothing is stored when the file is refused; xlsx and
 // CSV exports keep the record text exactly.
 import ExcelJS from 'exceljs';
+import { Molecule } from 'openchemlib';
 import { afterAll, describe, expect, it } from 'vitest';
 import { readStructures } from '../server/structures/readStructures.js';
 import { closeParsePool } from '../server/xlsx/parseInWorker.js';
@@ -37,6 +38,21 @@ const xyz = ['3', 'water', 'O 0 0 0', 'H 0.7574 0 0.5864', 'H -0.7574 0 0.5864',
 
 const bytes = (s: string) => new TextEncoder().encode(s);
 
+// Frames for bond perception. Formaldehyde: r(CO) 1.205 Å, r(CH) 1.111 Å, ∠HCH 116.1°; hydroxide:
+// r(OH) 0.964 Å; the methyl radical: planar, r(CH) 1.079 Å (NIST CCCBDB; all recalled from memory).
+const hc = (r: number, angleDeg: number, sign: number) => (sign * r * Math.sin((angleDeg / 2) * (Math.PI / 180))).toFixed(4);
+const hz = (r: number, angleDeg: number) => (-r * Math.cos((angleDeg / 2) * (Math.PI / 180))).toFixed(4);
+const bondFrames = [
+  ['3', 'water', 'O 0 0 0', 'H 0.7574 0 0.5864', 'H -0.7574 0 0.5864'],
+  ['4', 'formaldehyde', 'C 0 0 0', 'O 0 0 1.205', `H ${hc(1.111, 116.1, 1)} 0 ${hz(1.111, 116.1)}`, `H ${hc(1.111, 116.1, -1)} 0 ${hz(1.111, 116.1)}`],
+  ['2', 'hydroxide charge=-1', 'O 0 0 0', 'H 0 0 0.964'],
+  ['4', 'methyl radical', 'C 0 0 0', 'H 1.079 0 0', 'H -0.5395 0.9344 0', 'H -0.5395 -0.9344 0'],
+  ['2', 'typo', 'O 0 0 0', 'H 0 0 0.096'],
+]
+  .map((f) => f.join('\n'))
+  .join('\n');
+const idCode = (smiles: string) => Molecule.fromSmiles(smiles).getIDCode();
+
 describe('reading structure files', () => {
   it('makes one row per SDF record with name, SMILES, Hill formula, the molfile and EHT formulas on it', () => {
     const parsed = readStructures(bytes(sdf), 'ligands.sdf', 'sdf');
@@ -64,9 +80,36 @@ describe('reading structure files', () => {
     expect(at(1, 0)).toBe('water');
     expect(at(1, 2)).toBe('H2O');
     expect(at(1, 3)).toBe('3\nwater\nO 0 0 0\nH 0.7574 0 0.5864\nH -0.7574 0 0.5864');
+    expect(idCode(String(at(1, 1)))).toBe(idCode('O'));
     expect(at(2, 0)).toBe('hydrogen');
     expect(at(2, 2)).toBe('H2');
+    expect(idCode(String(at(2, 1)))).toBe(idCode('[H][H]'));
     expect(parsed.summary.skipped).toEqual([expect.objectContaining({ reason: expect.stringMatching(/^record 2: atom line 2 "Q x y z" is not "element x y z"/) })]);
+  });
+
+  it('gives XYZ frames SMILES from bonds perceived in their coordinates, and says which frames got none', () => {
+    const parsed = readStructures(bytes(bondFrames), 'bonds.xyz', 'xyz');
+    const cells = parsed.sheets[0].cells;
+    const at = (r: number, c: number) => cells.find(([row, col]) => row === r && col === c)?.[2];
+    expect([1, 2, 3, 4, 5].map((r) => at(r, 0))).toEqual(['water', 'formaldehyde', 'hydroxide charge=-1', 'methyl radical', 'typo']);
+    expect(idCode(String(at(1, 1)))).toBe(idCode('O'));
+    expect(idCode(String(at(2, 1)))).toBe(idCode('C=O'));
+    expect(idCode(String(at(3, 1)))).toBe(idCode('[OH-]'));
+    // Bonds that cannot be perceived leave the SMILES empty; the row, its formula and its EHT columns stay.
+    expect(at(4, 1)).toBeUndefined();
+    expect(at(5, 1)).toBeUndefined();
+    expect([2, 3, 4, 5].map((r) => at(r, 2))).toEqual(['CH2O', 'HO', 'CH3', 'HO']);
+    for (let r = 1; r <= 5; r++) {
+      expect(at(r, 3)).toMatch(/^\d+\n/);
+      // The charge from the comment line reaches the EHT formulas too.
+      expect(at(r, 4)).toBe(r === 3 ? '=EHTHOMO(D4,-1)' : `=EHTHOMO(D${r + 1})`);
+    }
+    expect(parsed.summary.skipped).toEqual([]);
+    expect(parsed.summary.notes).toEqual([
+      expect.stringMatching(/^XYZ frames carry no bonds: 3 of 5 frames got bonds and SMILES perceived from their coordinates \(a heuristic/),
+      expect.stringMatching(/^record 4 \("methyl radical"\): SMILES left empty, bonds uncertain: an odd number of electrons/),
+      expect.stringMatching(/^record 5 \("typo"\): SMILES left empty, atoms 1 \(O\) and 2 \(H\) are 0\.096 Å apart/),
+    ]);
   });
 
   it('refuses a file of too many records as a whole, and reports a record longer than a cell holds', () => {
@@ -106,6 +149,19 @@ describe('structure upload, values and export round trip', { timeout: 300_000 },
     // (R. Hoffmann, J. Chem. Phys. 39, 1397 (1963), parameter table).
     expect(value(1, 4)).toBeCloseTo(-14.8, 6);
     expect(value(2, 6)).toBeGreaterThan(0); // methane's gap
+  });
+
+  it('computes the EHT columns of XYZ frames from their own coordinates, with their perceived SMILES beside', async () => {
+    const res = await owner.agent.post('/api/imports').attach('file', Buffer.from(bondFrames), 'bonds.xyz');
+    expect(res.status, JSON.stringify(res.body)).toBe(201);
+    const values = await owner.agent.get(`/api/workbooks/${res.body.workbookId}/values`);
+    const sheet = values.body.sheets.find((s: { name: string }) => s.name === 'bonds');
+    const value = (r: number, c: number) => sheet.values.find(([row, col]: [number, number]) => row === r && col === c)?.[2];
+    expect(value(1, 1)).toBe('O');
+    // As for the molfile above: water's HOMO is the O 2p lone pair at H_pp = −14.8 eV (Hoffmann 1963).
+    expect(value(1, 4)).toBeCloseTo(-14.8, 6);
+    expect(value(3, 6)).toBeGreaterThan(0); // hydroxide, solved as the anion its comment names
+    expect(value(4, 6)).toBeGreaterThan(0); // the methyl radical, SMILES empty, still has its gap from the record
   });
 
   it('refuses a damaged-only upload with nothing stored', async () => {

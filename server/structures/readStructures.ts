@@ -2,14 +2,15 @@
 // file, or XYZ text (one or many frames, each "count / comment / atoms"). One row per record with its
 // name, SMILES, formula and the record itself, so the extended-Hückel columns the import adds read the
 // file's own 3D coordinates. Records that cannot be read are reported one by one, naming the record
-// number; the others are taken. Molfiles are read by openchemlib; XYZ frames by our reader (XYZ has
-// no bonds for openchemlib to read).
+// number; the others are taken. Molfiles are read by openchemlib; XYZ frames by our reader, and as
+// XYZ has no bonds, theirs are perceived from the coordinates (xyzSmiles.ts) to give the SMILES.
 import { Molecule } from 'openchemlib';
 import { evaluationLimits } from '../../functions/limits.js';
 import { cellInputProblem } from '../../shared/cellInput.js';
 import { SpreadsheetError } from '../xlsx/limits.js';
 import { sheetNameFromFilename } from '../xlsx/readCsv.js';
 import type { CellTriple, ParsedWorkbook, SkippedCell } from '../xlsx/types.js';
+import { chargeFromComment, smilesFromFrame } from './xyzSmiles.js';
 
 export type StructureFileKind = 'sdf' | 'xyz';
 
@@ -32,6 +33,8 @@ interface StructureRow {
   record: string;
   /** Whether the record carries 3D coordinates and every hydrogen (else the formulas use the SMILES). */
   usable3d: boolean;
+  /** A net charge the record's text does not carry (an XYZ comment's "charge=-1"), passed to the formulas. */
+  charge?: number;
 }
 
 class RecordProblem extends Error {}
@@ -73,8 +76,8 @@ function molfileRow(record: string, index: number): StructureRow {
   };
 }
 
-/** Splits XYZ text into frames; a frame that cannot be read is reported and, where its count allows, skipped. */
-function xyzRows(text: string, report: (index: number, problem: string) => void, rows: StructureRow[]) {
+/** Splits XYZ text into frames; a frame that cannot be read is reported and, where its count allows, skipped. A frame whose bonds cannot be perceived is taken without SMILES, and `unbonded` says why. */
+function xyzRows(text: string, report: (index: number, problem: string) => void, rows: StructureRow[], unbonded: string[]) {
   const lines = text.split('\n');
   let at = 0;
   let index = 0;
@@ -99,10 +102,15 @@ function xyzRows(text: string, report: (index: number, problem: string) => void,
       continue;
     }
     const elements: string[] = [];
+    const coordinates: [number, number, number][] = [];
     const bad = atomLines.findIndex((line) => {
       const parts = line.trim().split(/\s+/);
-      const ok = parts.length >= 4 && /^[A-Za-z]{1,2}$/.test(parts[0]) && parts.slice(1, 4).every((v) => Number.isFinite(Number(v)));
-      if (ok) elements.push(parts[0].charAt(0).toUpperCase() + parts[0].slice(1).toLowerCase());
+      const xyz = parts.slice(1, 4).map(Number);
+      const ok = parts.length >= 4 && /^[A-Za-z]{1,2}$/.test(parts[0]) && xyz.every((v) => Number.isFinite(v));
+      if (ok) {
+        elements.push(parts[0].charAt(0).toUpperCase() + parts[0].slice(1).toLowerCase());
+        coordinates.push([xyz[0], xyz[1], xyz[2]]);
+      }
       return !ok;
     });
     if (bad >= 0) {
@@ -112,8 +120,25 @@ function xyzRows(text: string, report: (index: number, problem: string) => void,
     // The comment is the name; ";" separates atoms in a cell's XYZ text, so it may not stand in the comment.
     const name = comment.replace(/;/g, ',').slice(0, 200) || `frame ${index}`;
     const record = [String(count), name, ...atomLines.map((l) => l.trim())].join('\n');
-    rows.push({ name, smiles: '', formula: hillFormula(elements), record, usable3d: true });
+    const charge = chargeFromComment(comment) ?? 0;
+    const perceived = smilesFromFrame(elements, coordinates, charge);
+    if ('problem' in perceived) unbonded.push(`record ${index} ("${name.slice(0, 60)}"): SMILES left empty, ${perceived.problem}`);
+    rows.push({ name, smiles: 'smiles' in perceived ? perceived.smiles : '', formula: hillFormula(elements), record, usable3d: true, charge });
   }
+}
+
+/** Frames whose bonds were shown in the notes one by one; beyond this, a count. */
+const unbondedListed = 20;
+
+function xyzNotes(frames: number, unbonded: string[]): string[] {
+  const perceived = frames - unbonded.length;
+  const frameCount = (k: number) => `${k.toLocaleString('en')} frame${k === 1 ? '' : 's'}`;
+  const notes = [
+    `XYZ frames carry no bonds: ${perceived.toLocaleString('en')} of ${frameCount(frames)} got bonds and SMILES perceived from their coordinates (a heuristic from covalent radii and usual valences; check unusual species)`,
+    ...unbonded.slice(0, unbondedListed),
+  ];
+  if (unbonded.length > unbondedListed) notes.push(`and ${frameCount(unbonded.length - unbondedListed)} more without SMILES`);
+  return notes;
 }
 
 export function structureKindOf(text: string, ext: string): StructureFileKind {
@@ -135,6 +160,7 @@ export function readStructures(buffer: Uint8Array, filename: string, ext: string
   const skipped: SkippedCell[] = [];
   const report = (index: number, problem: string) => skipped.push({ sheet, address: `record ${index}`, reason: `record ${index}: ${problem}` });
   const rows: StructureRow[] = [];
+  const unbonded: string[] = [];
   if (kind === 'sdf') {
     const records = text.split(/^\$\$\$\$[^\n]*\n?/m).filter((r) => r.trim() !== '');
     if (records.length > maxStructureRecords)
@@ -147,7 +173,7 @@ export function readStructures(buffer: Uint8Array, filename: string, ext: string
         report(i + 1, e.message);
       }
     });
-  } else xyzRows(text, report, rows);
+  } else xyzRows(text, report, rows, unbonded);
 
   const notes: string[] = [];
   const cells: CellTriple[] = structureHeaders.map((h, c) => [0, c, h] as CellTriple);
@@ -168,7 +194,8 @@ export function readStructures(buffer: Uint8Array, filename: string, ext: string
     const argument = r.usable3d ? `D${row + 1}` : r.smiles ? `B${row + 1}` : null;
     if (!r.usable3d && r.smiles) fromSmiles++;
     if (argument) {
-      structureFormulaColumns.forEach((col, i) => cells.push([row, 4 + i, `=${col.fn}(${argument})`]));
+      const charge = r.usable3d && r.charge ? `,${r.charge}` : '';
+      structureFormulaColumns.forEach((col, i) => cells.push([row, 4 + i, `=${col.fn}(${argument}${charge})`]));
       formulas += structureFormulaColumns.length;
     }
     row++;
@@ -176,7 +203,7 @@ export function readStructures(buffer: Uint8Array, filename: string, ext: string
   if (rows.length === 0 && skipped.length === 0) throw new SpreadsheetError('not_a_spreadsheet', `"${filename}" holds no structure records`);
   if (fromSmiles > 0)
     notes.push(`${fromSmiles.toLocaleString('en')} record${fromSmiles === 1 ? ' has' : 's have'} 2D coordinates or hydrogens without coordinates; their extended-Hückel columns use the SMILES (a generated conformer) instead`);
-  if (kind === 'xyz') notes.push('XYZ frames carry no bonds, so their SMILES cells are left empty');
+  if (kind === 'xyz' && rows.length > 0) notes.push(...xyzNotes(rows.length, unbonded));
   return {
     sheets: [{ name: sheet, cells, columnWidths: { 0: 18, 1: 28, 2: 12, 3: 30 }, frozenRows: 1, frozenCols: 1, merged: [] }],
     summary: { sheets: 1, cells: cells.length, formulas, skipped, notes },

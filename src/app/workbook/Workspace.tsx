@@ -4,7 +4,8 @@
 import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import type { DataSheetGridRef } from 'react-datasheet-grid';
 import { SafetyNote } from '../../features/diagram/SafetyNote.js';
-import { cellName, parseCellName } from '@shared/a1.js';
+import { cellName } from '@shared/a1.js';
+import { goToTarget } from '../../features/grid/goToAddress.js';
 import { readChartSpec } from '@shared/chartSpec.js';
 import { fillPairs } from '../../core/workbook/model/rangeEdits.js';
 import { revealBesideRowNumbers } from '../../features/grid/revealCell.js';
@@ -155,7 +156,12 @@ export function Workspace({ session }: { session: WorkbookSession }) {
         gridRef.current?.setActiveCell({ row: 0, col: frozenPick });
         setFrozenPick(null);
       }
-    } else if (active) gridRef.current?.setActiveCell(active);
+    } else if (active) {
+      // A block selected from its top-left corner (as the address box selects one) stays selected.
+      const block = selection && (selection.min.row !== selection.max.row || selection.min.col !== selection.max.col) ? selection : null;
+      if (!committed && block && block.min.row === active.row && block.min.col === active.col) gridRef.current?.setSelection(block);
+      else gridRef.current?.setActiveCell(active);
+    }
   };
 
   return (
@@ -215,17 +221,20 @@ export function Workspace({ session }: { session: WorkbookSession }) {
         }}
         onCancel={() => returnToGrid()}
         onGoTo={(text) => {
-          const ref = parseCellName(text);
-          if (!ref) return false;
-          if (display.freezeHeaderRow && ref.row === 0) {
+          const target = goToTarget(text, { viewRowOf: view.viewRowOf, frozenHeader: display.freezeHeaderRow });
+          if (target.kind === 'none') {
+            setMessage(target.reason);
+            return false;
+          }
+          setMessage(null);
+          if (target.kind === 'frozen') {
             gridRef.current?.setActiveCell(null);
-            setFrozenPick(ref.col);
+            setFrozenPick(target.col);
             return true;
           }
-          const v = view.viewRowOf(ref.row);
-          if (v === null) return false;
-          gridRef.current?.setActiveCell({ row: v, col: ref.col });
-          revealBesideRowNumbers(ref.col, widths);
+          if (target.kind === 'cell') gridRef.current?.setActiveCell({ row: target.row, col: target.col });
+          else gridRef.current?.setSelection({ min: target.min, max: target.max });
+          revealBesideRowNumbers(target.kind === 'cell' ? target.col : target.min.col, widths);
           return true;
         }}
       />

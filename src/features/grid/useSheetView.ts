@@ -35,7 +35,10 @@ export function useSheetView(model: WorkbookModel, sheetId: string, frozen: bool
     const viewRowOf = (r: number) => {
       if (!rowMap) return r;
       const i = rowMap.indexOf(r);
-      return i === -1 ? null : i;
+      if (i !== -1) return i;
+      // Rows past the filtered data are shown after it, as sheetRow counts them.
+      const last = rowMap[rowMap.length - 1] ?? first - 1;
+      return r > last ? rowMap.length - 1 + (r - last) : null;
     };
     const rowsFrom = (start: number, count: number) => Array.from({ length: count }, (_, i) => (rowMap && rowMap.length === 0 ? first + i : sheetRow(start + i)));
     return { rows, data, rowMap, sheetRow, viewRowOf, rowsFrom, frozenRow: frozen ? (rows[0] ?? NO_ROW) : null };

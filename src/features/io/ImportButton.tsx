@@ -129,6 +129,10 @@ export function ImportButton({
                 }}
               />
               <p className="text-caption text-ink-3">Every sheet, value and formula is kept; up to {megabytes(maxUploadBytes)}.</p>
+              <p className="text-caption text-ink-3">
+                Structures become one row each. XYZ frames have no bonds, so theirs are guessed from distances and usual valences: check the
+                SMILES of ions (write “charge=-1” in the comment line), radicals and metal compounds.
+              </p>
             </div>
             {uploading && (
               <div className="flex flex-col gap-1">
