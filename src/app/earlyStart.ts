@@ -1,7 +1,9 @@
 // What the page asks for before the app's code has arrived. main.tsx is kept small and runs this first,
-// so who is signed in, and on a workbook's address the workbook, its stored values and the workbook
-// screen's code, are on their way while the app's code downloads and starts (its router, its schemas);
-// the app's first requests for them take these answers (src/lib/earlyGets.ts).
+// so who is signed in, and on a workbook's address the workbook and its stored values, are on their
+// way while the app's code downloads and starts (its router, its schemas); the app's first requests
+// for them take these answers (src/lib/earlyGets.ts). The workbook screen's code is not asked for
+// here: fetched alongside the app's own code it slowed that down more than it gained (measured with
+// bench/ehtOpenProfile.ts on the 2-core box).
 import { workbookPath } from '@shared/workbookPath.js';
 import { startEarlyGet } from '../lib/earlyGets.js';
 
@@ -20,6 +22,4 @@ export function startEarly(pathname: string): void {
   }
   startEarlyGet(workbookPath(id));
   startEarlyGet(`${workbookPath(id, 'values')}?stored=only`);
-  // The router asks for the same module (the route's lazy), and finds it loaded or on its way.
-  void import('./workbook/WorkbookPage.js').catch(() => undefined);
 }
