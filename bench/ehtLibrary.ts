@@ -93,9 +93,10 @@ export async function runEhtLibraryBench(options: { molecules?: number; write?: 
       const firstValuesMs = (await first.jsonValue()) as number;
       // Every structure in: every formula is computed in the page (no computing state: a large open
       // puts its formulas back in slices), the progress line is gone and no cell on screen is pending.
+      // The workspace's grid, not the read-only preview of stored values shown before it.
       const all = await page.waitForFunction(
         () =>
-          document.querySelector('[data-testid="sheet-grid"]') && !document.querySelector('[data-testid="computing-state"]') && !document.querySelector('[data-testid="structure-progress"]') && !document.querySelector('[data-cell-kind="pending"]')
+          document.querySelector('[data-testid="sheet-grid"]:not([data-preview])') && !document.querySelector('[data-testid="computing-state"]') && !document.querySelector('[data-testid="structure-progress"]') && !document.querySelector('[data-cell-kind="pending"]')
             ? performance.now()
             : false,
         undefined,
