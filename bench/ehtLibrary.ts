@@ -26,14 +26,14 @@ export interface EhtLibraryResult {
   molecules: number;
   formulas: number;
   firstOpen: { allValuesMs: number; moleculesPerSecondPerCore: number; longestLongTaskMs: number; longestTimerDelayMs: number; longTasksOver250: number };
-  colleague: { firstValuesMs: number; allValuesMs: number; recomputed: number; openedOnStoredValues: boolean; storedValuesWaitMs: number; timeline: Record<string, number> };
+  colleague: { firstValuesMs: number; firstEditableValuesMs: number; allValuesMs: number; recomputed: number; openedOnStoredValues: boolean; storedValuesWaitMs: number; timeline: Record<string, number> };
   inProcess: { sample: number; moleculesPerSecond: number };
   targets: { firstValuesMs: number; stallMs: number };
   loadAverage: number[];
   measuredAt: string;
 }
 
-function libraryCells(smiles: string[]): [number, number, string][] {
+export function libraryCells(smiles: string[]): [number, number, string][] {
   const cells: [number, number, string][] = [[0, 0, 'SMILES'], ...COLUMNS.map((c, i) => [0, i + 1, c] as [number, number, string])];
   smiles.forEach((s, r) => {
     cells.push([r + 1, 0, s]);
@@ -43,7 +43,7 @@ function libraryCells(smiles: string[]): [number, number, string][] {
 }
 
 /** Installed before the page's own scripts: long tasks and the longest delay of a 50 ms timer. */
-function stallProbe() {
+export function stallProbe() {
   const w = window as unknown as { __stall: { longest: number; over250: number; gap: number } };
   w.__stall = { longest: 0, over250: 0, gap: 0 };
   new PerformanceObserver((list) => {
@@ -91,11 +91,15 @@ export async function runEhtLibraryBench(options: { molecules?: number; write?: 
       await page.goto(`${server.url}/workbooks/${id}`);
       const first = await page.waitForFunction(() => (document.querySelectorAll('[data-testid="sheet-grid"] .orb-cell-number').length >= 4 ? performance.now() : false), undefined, { polling: 100 });
       const firstValuesMs = (await first.jsonValue()) as number;
+      // The first values may be the read-only preview of stored values; when the editable grid shows them too.
+      const editable = await page.waitForFunction(() => (document.querySelectorAll('[data-testid="sheet-grid"]:not([data-preview]) .orb-cell-number').length >= 4 ? performance.now() : false), undefined, { polling: 50 });
+      const firstEditableValuesMs = (await editable.jsonValue()) as number;
       // Every structure in: every formula is computed in the page (no computing state: a large open
       // puts its formulas back in slices), the progress line is gone and no cell on screen is pending.
+      // The workspace's grid, not the read-only preview of stored values shown before it.
       const all = await page.waitForFunction(
         () =>
-          document.querySelector('[data-testid="sheet-grid"]') && !document.querySelector('[data-testid="computing-state"]') && !document.querySelector('[data-testid="structure-progress"]') && !document.querySelector('[data-cell-kind="pending"]')
+          document.querySelector('[data-testid="sheet-grid"]:not([data-preview])') && !document.querySelector('[data-testid="computing-state"]') && !document.querySelector('[data-testid="structure-progress"]') && !document.querySelector('[data-cell-kind="pending"]')
             ? performance.now()
             : false,
         undefined,
@@ -115,7 +119,7 @@ export async function runEhtLibraryBench(options: { molecules?: number; write?: 
         ),
       );
       await browser.close();
-      return { firstValuesMs, allValuesMs, stall, onStoredValues, timeline };
+      return { firstValuesMs, firstEditableValuesMs, allValuesMs, stall, onStoredValues, timeline };
     };
 
     // The page asks only for the structures its engine evaluates (all rows), so "all values" is the library.
@@ -138,7 +142,7 @@ export async function runEhtLibraryBench(options: { molecules?: number; write?: 
         longestTimerDelayMs: Math.round(firstRun.stall.gap),
         longTasksOver250: firstRun.stall.over250,
       },
-      colleague: { firstValuesMs: Math.round(colleagueRun.firstValuesMs), allValuesMs: Math.round(colleagueRun.allValuesMs), recomputed: storedAfterColleague - storedAfterFirst, openedOnStoredValues: colleagueRun.onStoredValues, storedValuesWaitMs, timeline: colleagueRun.timeline },
+      colleague: { firstValuesMs: Math.round(colleagueRun.firstValuesMs), firstEditableValuesMs: Math.round(colleagueRun.firstEditableValuesMs), allValuesMs: Math.round(colleagueRun.allValuesMs), recomputed: storedAfterColleague - storedAfterFirst, openedOnStoredValues: colleagueRun.onStoredValues, storedValuesWaitMs, timeline: colleagueRun.timeline },
       inProcess: { sample: inProcess.sample, moleculesPerSecond: Math.round(inProcess.moleculesPerSecond * 100) / 100 },
       targets: { firstValuesMs: 2_000, stallMs: 250 },
       loadAverage: (await import('node:os')).loadavg().map((x) => Math.round(x * 100) / 100),

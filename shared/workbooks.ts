@@ -42,14 +42,7 @@ export { maxSheetSettingsBytes, sheetSettingsSchema, type SheetSettings } from '
 const required = (kind: string) => (issue: { input: unknown }) => (issue.input === undefined ? 'required' : `must be ${kind}`);
 const wholeNumber = () => z.int({ error: required('a whole number') });
 
-/**
- * The address of a workbook, or of something under it, as the API and the client's routes both write
- * it: workbookPath(id, 'sheets', sheetId) → /workbooks/<id>/sheets/<sheetId>, every segment
- * URI-encoded. API calls put /api in front; a query string goes after.
- */
-export function workbookPath(id: string, ...rest: (string | number)[]): string {
-  return ['/workbooks', ...[id, ...rest].map((segment) => encodeURIComponent(segment))].join('/');
-}
+export { workbookPath } from './workbookPath.js';
 
 export const idSchema = z.string({ error: required('an id') }).regex(/^[A-Za-z0-9_-]{1,64}$/, 'not a valid id');
 

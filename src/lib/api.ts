@@ -1,5 +1,6 @@
 // The one API client. Components never call fetch: features wrap these calls in TanStack Query
 // `queryOptions`/mutations, with keys from `queryKeys` below.
+import { takeEarlyGet } from './earlyGets.js';
 import { JsonAssembly, safeJson, type JsonFetchReply, type JsonFetchRequest } from './jsonParts.js';
 
 export class ApiError extends Error {
@@ -14,6 +15,8 @@ export class ApiError extends Error {
 }
 
 export async function api<T>(path: string, init: { method?: string; body?: unknown; signal?: AbortSignal } = {}): Promise<T> {
+  const early = (init.method ?? 'GET') === 'GET' && init.body === undefined ? await takeEarlyGet(path) : null;
+  if (early) return answerOf<T>(early);
   const res = await fetch(`/api${path}`, {
     method: init.method ?? 'GET',
     credentials: 'same-origin',
@@ -99,6 +102,8 @@ function workerForJson(): Worker | null {
 
 /** Answers longer than this (in characters) are parsed in the worker; smaller ones parse in the page in well under a frame's budget of stall. */
 const largeAnswerChars = 4_000_000;
+/** An early answer's compressed length times this is taken as its size (JSON of cells packs about tenfold). */
+const packedRatio = 10;
 
 /**
  * The size past which answers are parsed in the worker. A page may lower it by setting
@@ -111,12 +116,36 @@ function largeAnswerLimit(): number {
 }
 
 /**
+ * An answer the page's first script asked for before the app's code arrived (earlyGets.ts): its body
+ * is on its way to the page already, so a large one is handed to the worker as it is (read and parsed
+ * there, back in parts) and a small one is parsed here.
+ */
+async function earlyAnswer<T>(path: string, res: Response): Promise<T> {
+  const length = Number(res.headers.get('content-length') ?? Number.NaN);
+  const size = res.headers.has('content-encoding') ? length * packedRatio : length;
+  const worker = res.ok && res.body && !(size <= largeAnswerLimit()) ? workerForJson() : null;
+  if (!worker) {
+    const data = await answerOf<T>(res);
+    performance.mark(`orbitab:json-received ${path}`, { detail: { parsedIn: 'page' } });
+    return data;
+  }
+  const id = nextRequest++;
+  return new Promise<T>((resolve, reject) => {
+    waiting.set(id, { path, assembly: new JsonAssembly(), resolve: resolve as (v: unknown) => void, reject });
+    const body = res.body!;
+    worker.postMessage({ id, kind: 'body', body, largeChars: 0 } satisfies JsonFetchRequest, [body as unknown as Transferable]);
+  });
+}
+
+/**
  * GET of an answer that grows with the workbook (its cells, its stored values), fetched and read by
  * a worker (jsonFetch.worker.ts): the page never holds the bytes, and a large answer is parsed
  * there and handed back in parts, so the page never stops for the whole answer at once. The same
  * result and errors as `api` (a failed connection is an ApiError of status 0).
  */
 export async function apiLarge<T>(path: string, init: { signal?: AbortSignal } = {}): Promise<T> {
+  const early = await takeEarlyGet(path);
+  if (early) return earlyAnswer<T>(path, early);
   const worker = workerForJson();
   if (!worker) return api<T>(path, init);
   const id = nextRequest++;

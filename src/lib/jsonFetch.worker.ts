@@ -19,14 +19,14 @@ scope.onmessage = async (e) => {
     running.delete(request.id);
     return;
   }
-  const { id, url, largeChars } = request;
+  const { id, largeChars } = request;
   const controller = new AbortController();
   running.set(id, controller);
   let status = 0;
   let statusText = '';
   let text: string;
   try {
-    const res = await fetch(url, { credentials: 'same-origin', signal: controller.signal });
+    const res = request.kind === 'body' ? new Response(request.body) : await fetch(request.url, { credentials: 'same-origin', signal: controller.signal });
     status = res.status;
     statusText = res.statusText;
     text = await res.text();

@@ -11,6 +11,8 @@ export interface SheetPreview {
   sheetId: string;
   rows: RowData[];
   colCount: number;
+  /** Made from the values stored with the revision (storedPreview.ts), not computed here. */
+  stored?: boolean;
 }
 
 /** Sheets smaller than this load fast enough whole; a preview would only add work. */

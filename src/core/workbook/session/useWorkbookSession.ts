@@ -2,13 +2,14 @@
 // engine is built from this one load), builds the model and the save queue, and takes over any
 // changes an earlier visit left unsent in local storage.
 import { useQuery } from '@tanstack/react-query';
-import { useEffect, useRef, useState, useSyncExternalStore } from 'react';
+import { startTransition, useEffect, useRef, useState, useSyncExternalStore } from 'react';
 import type { ValuesPayload, WorkbookPayload } from '@shared/workbooks.js';
 import { fetchStructures, sendPatch, storedValuesQueryOptions, workbookQueryOptions } from '../api.js';
 import { WorkbookModel } from '../model/workbookModel.js';
 import { PatchQueue, type SaveStatus } from '../save/patchQueue.js';
 import { PendingStore, type KeyValueStorage } from '../save/pendingStore.js';
 import { buildPreview, type SheetPreview } from '../model/windowPreview.js';
+import { storedPreview } from '../model/storedPreview.js';
 import { PendingReevaluation } from '../model/pendingCells.js';
 import { installStructureStore, StructureStore } from '../structures/structureStore.js';
 import { StructureInputScan } from '../structures/structureInputs.js';
@@ -101,6 +102,8 @@ export function useWorkbookSession(id: string) {
   const [preview, setPreview] = useState<SheetPreview | null>(null);
   /** The full open, held back until the preview has been painted. */
   const deferredOpen = useRef<(() => void) | null>(null);
+  /** What waits for the opened session to be on screen (openOnStoredValues). */
+  const afterShown = useRef<(() => void) | null>(null);
   const payload = query.data;
   const { refetch: refetchPayload } = query;
   const { refetch: refetchStored } = storedQuery;
@@ -121,11 +124,14 @@ export function useWorkbookSession(id: string) {
       return;
     }
     // Once per load (the effect runs again when the set-up it waits for is in).
-    if (markedLoad.current !== payload) performance.mark('orbitab:workbook-loaded');
+    const firstRun = markedLoad.current !== payload;
+    if (firstRun) performance.mark('orbitab:workbook-loaded');
     markedLoad.current = payload;
     const storage = browserStorage();
     const unsent = new PendingStore(storage, payload.id).load() !== null;
     const onStored = stored !== null && stored.revision === payload.revision && !unsent;
+    // The stored values' first screenful is shown at once, while the engine is set up and built.
+    if (firstRun && onStored) setPreview(storedPreview(payload, stored));
     // SMILES functions read structures with openchemlib, loaded apart from the page's code
     // (functions/chem/openchemlib.ts): no formula is computed before it is in. Stored values are
     // shown meanwhile; any other open waits for it. Every open waits for the engine's set-up. This
@@ -145,7 +151,11 @@ export function useWorkbookSession(id: string) {
     const structures = new StructureStore((inputs) => fetchStructures(payload.id, inputs));
     const uninstall = installStructureStore(structures);
     const openInSlices = (values: ValuesPayload) => {
-      const close = openOnStoredValues(payload, storage, structures, values, toolkit, setSession, setOpenError);
+      const show = (s: WorkbookSession | null) => {
+        setSession(s);
+        if (s) setPreview(null);
+      };
+      const close = openOnStoredValues(payload, storage, structures, values, toolkit, show, setOpenError, (shown) => (afterShown.current = shown));
       return () => {
         close();
         uninstall();
@@ -176,8 +186,12 @@ export function useWorkbookSession(id: string) {
         setOpenError(e as Error);
         return;
       }
-      setSession(s);
-      setPreview(null);
+      const opened = s;
+      // Rendered as a transition: React draws the workspace in short tasks, not in one long one.
+      startTransition(() => {
+        setSession(opened);
+        setPreview(null);
+      });
       window.addEventListener('online', online);
       // Only a large sheet (one shown by a preview first) is worth letting go of; this runs a frame
       // after the effect, so a development double run of the effect never gets here first.
@@ -200,6 +214,15 @@ export function useWorkbookSession(id: string) {
       setSession(null);
     };
   }, [payload, stored, setUp, refetchPayload, refetchStored]);
+
+  // The workspace of an open session is on screen (committed; the frame callback that follows comes
+  // just before its paint).
+  useEffect(() => {
+    const shown = afterShown.current;
+    if (!session || !shown) return;
+    afterShown.current = null;
+    shown();
+  }, [session]);
 
   // Runs after the preview is committed: the frame callback comes just before that frame is
   // painted, and the timeout after it, so the long full build never hides the preview.
@@ -239,10 +262,13 @@ function openOnStoredValues(
   toolkit: Promise<unknown>,
   setSession: (s: WorkbookSession | null) => void,
   setOpenError: (e: Error) => void,
+  /** Registers what runs once the session's workspace is committed. */
+  whenShown: (shown: () => void) => void,
 ): () => void {
   let s: WorkbookSession | null = null;
   let timer: ReturnType<typeof setTimeout> | undefined;
   let waitTimer: ReturnType<typeof setTimeout> | undefined;
+  let rowsTimer: ReturnType<typeof setTimeout> | undefined;
   let frame = 0;
   let cancelled = false;
   const isCancelled = () => cancelled;
@@ -264,7 +290,15 @@ function openOnStoredValues(
     const opened = performance.now();
     // The model holds the stored values now (as placeholders put back in slices): the answer's copy can go.
     if (stored) releaseValues(stored);
-    setSession(session);
+    // The first sheet's cell views are made in a task of their own (for a library of a thousand rows
+    // they were most of the workspace's first render), then the workspace is rendered as a
+    // transition: React draws it in short tasks, and nothing below starts before it is committed.
+    rowsTimer = setTimeout(() => {
+      if (cancelled) return;
+      const first = session.model.sheets[0];
+      if (first) session.model.rows(first.id);
+      startTransition(() => setSession(session));
+    }, 0);
     window.addEventListener('online', online);
     const step = () => {
       if (cancelled) return;
@@ -293,22 +327,24 @@ function openOnStoredValues(
       },
       (e: unknown) => !cancelled && setOpenError(setupProblem(e)),
     );
-    frame = requestAnimationFrame(() => {
-      painted = true;
-      // The structures the formulas name, read after the first paint (a pass over every formula).
-      const scan = new StructureInputScan((sheetId, row, col) => prepared.inputs.get(sheetId)?.get(row, col));
-      const sheets = inTabOrder(payload.sheets);
-      timer = setTimeout(() => {
-        timer = undefined;
-        void inSlices((ms) => scan.step(sheets, ms), computeSliceMs, isCancelled)
-          .then((read) => {
-            if (!read) return undefined;
-            // The last reader of the answer's list of cells: the model holds every input.
-            releaseCells(payload);
-            return structures.prefetch(scan.result());
-          })
-          .then(fetchedNow);
-      }, 0);
+    whenShown(() => {
+      frame = requestAnimationFrame(() => {
+        painted = true;
+        // The structures the formulas name, read after the first paint (a pass over every formula).
+        const scan = new StructureInputScan((sheetId, row, col) => prepared.inputs.get(sheetId)?.get(row, col));
+        const sheets = inTabOrder(payload.sheets);
+        timer = setTimeout(() => {
+          timer = undefined;
+          void inSlices((ms) => scan.step(sheets, ms), computeSliceMs, isCancelled)
+            .then((read) => {
+              if (!read) return undefined;
+              // The last reader of the answer's list of cells: the model holds every input.
+              releaseCells(payload);
+              return structures.prefetch(scan.result());
+            })
+            .then(fetchedNow);
+        }, 0);
+      });
     });
   });
   return () => {
@@ -316,6 +352,7 @@ function openOnStoredValues(
     cancelAnimationFrame(frame);
     clearTimeout(timer);
     clearTimeout(waitTimer);
+    clearTimeout(rowsTimer);
     window.removeEventListener('online', online);
     if (s) {
       s.reevaluation.stop();

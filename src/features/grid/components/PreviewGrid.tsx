@@ -16,7 +16,7 @@ export function PreviewGrid({ title, preview, settings }: { title: string; previ
       <div className="flex h-9 shrink-0 items-center gap-3 border-b border-line bg-surface px-3">
         <h1 className="truncate text-ui font-semibold">{title}</h1>
         <span className="ml-auto text-caption text-ink-2" role="status">
-          Computing the whole workbook…
+          {preview.stored ? 'Opening the workbook…' : 'Computing the whole workbook…'}
         </span>
       </div>
       <div className="h-8 shrink-0 border-b border-line bg-raised" />

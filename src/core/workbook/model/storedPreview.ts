@@ -1,0 +1,44 @@
+// The first screenful of a workbook opened on the values the server stored with its revision, shown
+// as soon as the workbook and those values are in: before the engine's set-up, the model's build and
+// the workspace's first render, which on a library of a thousand extended-Hückel rows took most of
+// a second of a colleague's open. Read-only (PreviewGrid); the workspace replaces it once drawn.
+import { maxColIndex } from '@shared/a1.js';
+import type { ValuesPayload, WorkbookPayload } from '@shared/workbooks.js';
+import { formatNumber, type CellView } from './cellView.js';
+import { readDisplaySettings } from './displaySettings.js';
+import type { SheetPreview } from './windowPreview.js';
+import { EMPTY_ROW, type RowData } from './sheetViews.js';
+
+/** Columns shown at least, as the grid does (workbookModel.ts minColsShown). */
+const minCols = 26;
+
+/** What a stored value shows: the grid's own formatting of the same value (cellView.ts). */
+function storedView(input: string, value: ValuesPayload['sheets'][number]['values'][number][2], precision: number | null): CellView {
+  const spilled = input === '';
+  if (typeof value === 'number') return { input, display: formatNumber(value, precision), kind: 'number', value, spilled };
+  if (typeof value === 'boolean') return { input, display: value ? 'TRUE' : 'FALSE', kind: 'boolean', value, spilled };
+  if (typeof value === 'string') return { input, display: value, kind: 'text', value, spilled };
+  return { input, display: value.error, kind: 'error', value: value.error, errorCode: value.error, errorMessage: value.message, spilled };
+}
+
+/** The first sheet's first `windowRows` rows from the stored values, or null when they are not the loaded revision's. */
+export function storedPreview(payload: WorkbookPayload, stored: ValuesPayload, windowRows = 60): SheetPreview | null {
+  if (stored.revision !== payload.revision) return null;
+  const sheet = [...payload.sheets].sort((a, b) => a.position - b.position)[0];
+  if (!sheet) return null;
+  const precision = readDisplaySettings(sheet.settings).precision;
+  const inputs = new Map<number, string>();
+  let cols = 0;
+  for (const [row, col, input] of sheet.cells) {
+    cols = Math.max(cols, col + 1);
+    if (row < windowRows) inputs.set(row * (maxColIndex + 1) + col, input);
+  }
+  const rows: Record<number, CellView>[] = [];
+  for (const [row, col, value] of stored.sheets.find((s) => s.id === sheet.id)?.values ?? []) {
+    if (row >= windowRows) continue;
+    (rows[row] ??= {})[col] = storedView(inputs.get(row * (maxColIndex + 1) + col) ?? '', value, precision);
+    cols = Math.max(cols, col + 1);
+  }
+  const shown: RowData[] = Array.from({ length: windowRows }, (_, r) => rows[r] ?? EMPTY_ROW);
+  return { sheetId: sheet.id, rows: shown, colCount: Math.max(minCols, cols + 2), stored: true };
+}

@@ -1,0 +1,85 @@
+// The requests the page's first script starts before the app has arrived (src/lib/earlyGets.ts):
+// the app's first call for the same path takes the answer instead of asking again, but only a
+// success, only once, and only soon after it was asked for.
+import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
+
+let served: { path: string; status: number; body: string }[];
+let answers: Record<string, { status: number; body: unknown }>;
+
+beforeEach(() => {
+  vi.resetModules();
+  served = [];
+  answers = {};
+  vi.stubGlobal('fetch', async (url: string) => {
+    const path = url.replace(/^\/api/, '');
+    const a = answers[path] ?? { status: 404, body: { error: { code: 'not_found', message: 'no such thing' } } };
+    const body = JSON.stringify(a.body);
+    served.push({ path, status: a.status, body });
+    return new Response(body, { status: a.status, headers: { 'content-type': 'application/json', 'content-length': String(body.length) } });
+  });
+});
+
+afterEach(() => {
+  vi.unstubAllGlobals();
+  vi.useRealTimers();
+});
+
+async function modules() {
+  const early = await import('../src/lib/earlyGets.js');
+  const api = await import('../src/lib/api.js');
+  return { ...early, ...api };
+}
+
+describe('early GET requests', () => {
+  it('hands a successful early answer to the first call for its path, and asks again after that', async () => {
+    const { startEarlyGet, api, apiLarge } = await modules();
+    answers['/auth/me'] = { status: 200, body: { user: { id: 'u1' } } };
+    answers['/workbooks/w1'] = { status: 200, body: { id: 'w1', revision: 3 } };
+    startEarlyGet('/auth/me');
+    startEarlyGet('/workbooks/w1');
+    expect(served.map((s) => s.path)).toEqual(['/auth/me', '/workbooks/w1']);
+
+    expect(await api('/auth/me')).toEqual({ user: { id: 'u1' } });
+    expect(await apiLarge('/workbooks/w1')).toEqual({ id: 'w1', revision: 3 });
+    expect(served).toHaveLength(2); // both taken from the early requests
+
+    answers['/workbooks/w1'] = { status: 200, body: { id: 'w1', revision: 4 } };
+    expect(await apiLarge('/workbooks/w1')).toEqual({ id: 'w1', revision: 4 });
+    expect(served).toHaveLength(3); // taken once only: a later call asks the server
+  });
+
+  it('asks again when the early answer was a refusal (signed out when the page started)', async () => {
+    const { startEarlyGet, apiLarge, ApiError } = await modules();
+    answers['/workbooks/w1'] = { status: 401, body: { error: { code: 'unauthenticated', message: 'sign in first' } } };
+    startEarlyGet('/workbooks/w1');
+    answers['/workbooks/w1'] = { status: 200, body: { id: 'w1', revision: 1 } };
+    expect(await apiLarge('/workbooks/w1')).toEqual({ id: 'w1', revision: 1 });
+    expect(served.map((s) => s.status)).toEqual([401, 200]);
+
+    // A refusal asked afresh is still reported as before.
+    answers['/workbooks/w2'] = { status: 404, body: { error: { code: 'not_found', message: 'This workbook does not exist' } } };
+    startEarlyGet('/workbooks/w2');
+    await expect(apiLarge('/workbooks/w2')).rejects.toBeInstanceOf(ApiError);
+    expect(served.filter((s) => s.path === '/workbooks/w2')).toHaveLength(2);
+  });
+
+  it('does not use an early answer that has waited too long', async () => {
+    vi.useFakeTimers({ toFake: ['performance'] });
+    const { startEarlyGet, api } = await modules();
+    answers['/auth/me'] = { status: 200, body: { user: { id: 'u1' } } };
+    startEarlyGet('/auth/me');
+    answers['/auth/me'] = { status: 200, body: { user: null } };
+    vi.advanceTimersByTime(60_000);
+    expect(await api('/auth/me')).toEqual({ user: null });
+    expect(served).toHaveLength(2);
+  });
+
+  it('never hands an early answer to a request that sends something', async () => {
+    const { startEarlyGet, api } = await modules();
+    answers['/workbooks/w1'] = { status: 200, body: { id: 'w1' } };
+    startEarlyGet('/workbooks/w1');
+    answers['/workbooks/w1'] = { status: 200, body: { renamed: true } };
+    expect(await api('/workbooks/w1', { method: 'PATCH', body: { title: 'x' } })).toEqual({ renamed: true });
+    expect(served).toHaveLength(2);
+  });
+});
