@@ -48,6 +48,17 @@ describe('early GET requests', () => {
     expect(served).toHaveLength(3); // taken once only: a later call asks the server
   });
 
+  it('forgets early answers once the page changes something, so a confirmed address is not shown as unconfirmed', async () => {
+    const { startEarlyGet, api } = await modules();
+    answers['/auth/me'] = { status: 200, body: { user: { id: 'u1', emailVerified: false } } };
+    answers['/auth/verify'] = { status: 200, body: { user: { id: 'u1', emailVerified: true } } };
+    startEarlyGet('/auth/me');
+    await api('/auth/verify', { method: 'POST', body: { token: 't' } });
+    answers['/auth/me'] = { status: 200, body: { user: { id: 'u1', emailVerified: true } } };
+    expect(await api('/auth/me')).toEqual({ user: { id: 'u1', emailVerified: true } });
+    expect(served.map((s) => s.path)).toEqual(['/auth/me', '/auth/verify', '/auth/me']);
+  });
+
   it('asks again when the early answer was a refusal (signed out when the page started)', async () => {
     const { startEarlyGet, apiLarge, ApiError } = await modules();
     answers['/workbooks/w1'] = { status: 401, body: { error: { code: 'unauthenticated', message: 'sign in first' } } };

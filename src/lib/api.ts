@@ -1,6 +1,6 @@
 // The one API client. Components never call fetch: features wrap these calls in TanStack Query
 // `queryOptions`/mutations, with keys from `queryKeys` below.
-import { takeEarlyGet } from './earlyGets.js';
+import { dropEarlyGets, takeEarlyGet } from './earlyGets.js';
 import { JsonAssembly, safeJson, type JsonFetchReply, type JsonFetchRequest } from './jsonParts.js';
 
 export class ApiError extends Error {
@@ -15,7 +15,9 @@ export class ApiError extends Error {
 }
 
 export async function api<T>(path: string, init: { method?: string; body?: unknown; signal?: AbortSignal } = {}): Promise<T> {
-  const early = (init.method ?? 'GET') === 'GET' && init.body === undefined ? await takeEarlyGet(path) : null;
+  const reads = (init.method ?? 'GET') === 'GET' && init.body === undefined;
+  if (!reads) dropEarlyGets();
+  const early = reads ? await takeEarlyGet(path) : null;
   if (early) return answerOf<T>(early);
   const res = await fetch(`/api${path}`, {
     method: init.method ?? 'GET',

@@ -1,7 +1,8 @@
 // GET requests the page's first script starts before the app's code has arrived (src/app/earlyStart.ts),
 // handed over to the first call of `api`/`apiLarge` for the same path. Only a success is handed over,
-// and only soon after it was asked for: anything else is asked again, so an early answer never
-// stands in for a later visit or for a request made after signing in.
+// only soon after it was asked for, and only while the page has changed nothing: anything else is
+// asked again, so an early answer never stands in for a later visit, for a request made after
+// signing in, or for a state the page's own POST (confirming an address, an import) has changed.
 
 /** How long after it was asked an early answer may still be used. */
 const keptMs = 15_000;
@@ -22,4 +23,9 @@ export async function takeEarlyGet(path: string): Promise<Response | null> {
   if (performance.now() - entry.at > keptMs) return null;
   const response = await entry.response;
   return response?.ok ? response : null;
+}
+
+/** Forgets every early answer not yet taken: the page is about to change something they may show. */
+export function dropEarlyGets(): void {
+  early.clear();
 }

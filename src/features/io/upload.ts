@@ -2,6 +2,7 @@
 // upload progress (fetch does not). Errors arrive as the app's ApiError, like every other call.
 import type { ImportResponse } from '@shared/io.js';
 import { ApiError } from '../../lib/api.js';
+import { dropEarlyGets } from '../../lib/earlyGets.js';
 
 export interface UploadProgress {
   /** Bytes sent so far and in all; the server starts reading once loaded === total. */
@@ -13,6 +14,7 @@ export function uploadSpreadsheet(
   file: File,
   opts: { workbookId?: string; onProgress?: (p: UploadProgress) => void; signal?: AbortSignal } = {},
 ): Promise<ImportResponse> {
+  dropEarlyGets(); // the import changes what the page's early answers showed
   return new Promise((resolve, reject) => {
     const xhr = new XMLHttpRequest();
     xhr.open('POST', '/api/imports');

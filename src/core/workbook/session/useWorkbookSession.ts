@@ -125,13 +125,16 @@ export function useWorkbookSession(id: string) {
     }
     // Once per load (the effect runs again when the set-up it waits for is in).
     const firstRun = markedLoad.current !== payload;
+    // The page's first load, not a reload after an import or a colleague's change: those keep the
+    // workspace on screen (and what it holds, such as the sheet an import should open).
+    const pageOpen = markedLoad.current === null;
     if (firstRun) performance.mark('orbitab:workbook-loaded');
     markedLoad.current = payload;
     const storage = browserStorage();
     const unsent = new PendingStore(storage, payload.id).load() !== null;
     const onStored = stored !== null && stored.revision === payload.revision && !unsent;
     // The stored values' first screenful is shown at once, while the engine is set up and built.
-    if (firstRun && onStored) setPreview(storedPreview(payload, stored));
+    if (firstRun && pageOpen && onStored) setPreview(storedPreview(payload, stored));
     // SMILES functions read structures with openchemlib, loaded apart from the page's code
     // (functions/chem/openchemlib.ts): no formula is computed before it is in. Stored values are
     // shown meanwhile; any other open waits for it. Every open waits for the engine's set-up. This
@@ -187,11 +190,15 @@ export function useWorkbookSession(id: string) {
         return;
       }
       const opened = s;
-      // Rendered as a transition: React draws the workspace in short tasks, not in one long one.
-      startTransition(() => {
+      const show = () => {
         setSession(opened);
         setPreview(null);
-      });
+      };
+      // The page's first open is rendered as a transition: React draws the workspace in short tasks,
+      // not in one long one. A reload (after an import, say) replaces the session at once instead, so
+      // the workspace on screen, and what it holds, stays (the old session is disposed by now).
+      if (pageOpen) startTransition(show);
+      else show();
       window.addEventListener('online', online);
       // Only a large sheet (one shown by a preview first) is worth letting go of; this runs a frame
       // after the effect, so a development double run of the effect never gets here first.
