@@ -10,6 +10,7 @@
 import fs from 'node:fs';
 import path from 'node:path';
 import { launchBrowser } from '../tests/helpers/browser.js';
+import { profileNodes, sampleClock, timeByFunction, topLines, type Node } from './profileTree.js';
 import { ApiClient, createWorkbook } from './browser-open.js';
 import { libraryCells, stallProbe } from './ehtLibrary.js';
 import { benchMolecules } from './ehtMolecules.js';
@@ -22,7 +23,6 @@ const windowMs = Number(process.env.WINDOW_MS ?? 20_000);
 const DETAIL_MS = Number(process.env.DETAIL_MS ?? 100);
 const profile = process.env.PROFILE === '1';
 
-interface Node { id: number; callFrame: { functionName: string; url: string; lineNumber: number; columnNumber: number }; parent?: number; children?: number[] }
 interface Profile { nodes: Node[]; startTime: number; endTime: number; samples: number[]; timeDeltas: number[] }
 
 async function workbookToOpen(run: number): Promise<string> {
@@ -76,34 +76,18 @@ for (let run = 0; run < runs; run++) {
     if (profile) {
       const { profile: p } = (await cdp.send('Profiler.stop')) as { profile: Profile };
       fs.writeFileSync(path.join(dir, `${mode}-${run}.cpuprofile`), JSON.stringify(p));
-      const byId = new Map(p.nodes.map((n) => [n.id, n]));
-      for (const n of p.nodes) for (const c of n.children ?? []) byId.get(c)!.parent = n.id;
-      const label = (n: Node) => `${n.callFrame.functionName || '(anon)'} ${n.callFrame.url.split('/').pop()}:${n.callFrame.lineNumber + 1}:${n.callFrame.columnNumber + 1}`;
-      const times: number[] = [];
-      let t = p.startTime;
-      for (const d of p.timeDeltas) times.push((t += d));
-      const cal = times.filter((_, i) => byId.get(p.samples[i])!.callFrame.functionName === '__orbCalibrate');
+      const byId = profileNodes(p.nodes);
       const calMs = (await page.evaluate('window.__orbCal')) as number;
-      const offsetUs = (cal[0] + cal[cal.length - 1]) / 2 - calMs * 1000;
+      const { times, offsetUs } = sampleClock(p, byId, calMs);
       fs.writeFileSync(path.join(dir, `${mode}-${run}.calibration.json`), JSON.stringify({ calMs }));
       for (const [start, dur] of tasks.filter((x) => x[1] > DETAIL_MS)) {
-        const self = new Map<string, number>();
-        const total = new Map<string, number>();
+        const inTask: [number, number][] = [];
         for (let i = 0; i < times.length; i++) {
           const at = times[i] - offsetUs;
-          if (at < start * 1000 || at > (start + dur) * 1000) continue;
-          const dt = p.timeDeltas[i + 1] ?? 0;
-          const n = byId.get(p.samples[i])!;
-          self.set(label(n), (self.get(label(n)) ?? 0) + dt);
-          const seen = new Set<string>();
-          for (let a: Node | undefined = n; a; a = a.parent ? byId.get(a.parent) : undefined) {
-            const l = label(a);
-            if (seen.has(l)) continue;
-            seen.add(l);
-            total.set(l, (total.get(l) ?? 0) + dt);
-          }
+          if (at >= start * 1000 && at <= (start + dur) * 1000) inTask.push([p.samples[i], p.timeDeltas[i + 1] ?? 0]);
         }
-        const fmt = (m: Map<string, number>, k: number) => [...m].sort((a, b) => b[1] - a[1]).slice(0, k).map(([l, us]) => `      ${(us / 1000).toFixed(0).padStart(5)} ms  ${l}`).join('\n');
+        const { self, total } = timeByFunction(inTask, byId);
+        const fmt = topLines;
         console.log(`\n  task at ${start} ms, ${dur} ms\n    self:\n${fmt(self, 12)}\n    total (inclusive):\n${fmt(total, Number(process.env.TOTAL_LINES ?? 30))}`);
       }
     }

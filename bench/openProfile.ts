@@ -5,13 +5,13 @@
 import fs from 'node:fs';
 import path from 'node:path';
 import { launchBrowser } from '../tests/helpers/browser.js';
+import { profileNodes, sampleClock, timeByFunction, topLines, type Node } from './profileTree.js';
 
 const dir = process.env.OPEN_PROFILE_DIR ?? '/tmp/orbitab-open-profile';
 const { url, cookie, id } = JSON.parse(fs.readFileSync(path.join(dir, 'live.json'), 'utf8')) as { url: string; cookie: string; id: string };
 const STALL_MS = Number(process.env.STALL_MS ?? 100);
 const profile = process.env.PROFILE !== '0';
 
-interface Node { id: number; callFrame: { functionName: string; url: string; lineNumber: number; columnNumber: number }; parent?: number; children?: number[] }
 interface Profile { nodes: Node[]; startTime: number; endTime: number; samples: number[]; timeDeltas: number[] }
 
 const browser = await launchBrowser({ viewport: { width: 1280, height: 800 } });
@@ -52,15 +52,9 @@ try {
   if (profile) {
     const { profile: p } = (await cdp.send('Profiler.stop')) as { profile: Profile };
     fs.writeFileSync(path.join(dir, 'open.cpuprofile'), JSON.stringify(p));
-    const byId = new Map(p.nodes.map((n) => [n.id, n]));
-    for (const n of p.nodes) for (const c of n.children ?? []) byId.get(c)!.parent = n.id;
-    const label = (n: Node) => `${n.callFrame.functionName || '(anon)'} ${n.callFrame.url.split('/').pop()}:${n.callFrame.lineNumber + 1}:${n.callFrame.columnNumber + 1}`;
-    const times: number[] = [];
-    let t = p.startTime;
-    for (const d of p.timeDeltas) times.push((t += d));
-    const cal = times.filter((_, i) => byId.get(p.samples[i])!.callFrame.functionName === '__orbCalibrate');
+    const byId = profileNodes(p.nodes);
     const calMs = (await page.evaluate('window.__orbCal')) as number;
-    const offsetUs = (cal[0] + cal[cal.length - 1]) / 2 - calMs * 1000;
+    const { times, offsetUs, calibrationSamples } = sampleClock(p, byId, calMs);
     const long = tasks.filter((x) => x[1] > STALL_MS).map(([start, dur]) => {
       const samples: [number, number][] = [];
       for (let i = 0; i < times.length; i++) {
@@ -69,24 +63,12 @@ try {
       }
       return { start: start * 1000 + offsetUs, end: (start + dur) * 1000 + offsetUs, samples };
     });
-    console.log(`calibration samples ${cal.length}; ${long.length} long tasks > ${STALL_MS} ms`);
+    console.log(`calibration samples ${calibrationSamples}; ${long.length} long tasks > ${STALL_MS} ms`);
     const DETAIL_MS = Number(process.env.DETAIL_MS ?? 300);
     const all = { start: 0, end: 0, samples: long.flatMap((x) => x.samples) };
     for (const s of [...long.filter((x) => x.end - x.start > DETAIL_MS * 1000), all]) {
-      const self = new Map<string, number>();
-      const total = new Map<string, number>();
-      for (const [nid, dt] of s.samples) {
-        const n = byId.get(nid)!;
-        self.set(label(n), (self.get(label(n)) ?? 0) + dt);
-        const seen = new Set<string>();
-        for (let a: Node | undefined = n; a; a = a.parent ? byId.get(a.parent) : undefined) {
-          const l = label(a);
-          if (seen.has(l)) continue;
-          seen.add(l);
-          total.set(l, (total.get(l) ?? 0) + dt);
-        }
-      }
-      const fmt = (m: Map<string, number>, k: number) => [...m].sort((a, b) => b[1] - a[1]).slice(0, k).map(([l, us]) => `      ${(us / 1000).toFixed(0).padStart(5)} ms  ${l}`).join('\n');
+      const { self, total } = timeByFunction(s.samples, byId);
+      const fmt = topLines;
       console.log(`\n  ${s === all ? `all long tasks together (${long.length})` : `task at ${((s.start - offsetUs) / 1000).toFixed(0)} ms, ${((s.end - s.start) / 1000).toFixed(0)} ms`}\n    self:\n${fmt(self, 10)}\n    total (inclusive):\n${fmt(total, Number(process.env.TOTAL_LINES ?? 30))}`);
     }
   }
