@@ -3,8 +3,9 @@
 // the workspace's first render, which on a library of a thousand extended-Hückel rows took most of
 // a second of a colleague's open. Read-only (PreviewGrid); the workspace replaces it once drawn.
 import { maxColIndex } from '@shared/a1.js';
-import type { ValuesPayload, WorkbookPayload } from '@shared/workbooks.js';
-import { formatNumber, type CellView } from './cellView.js';
+import { inTabOrder } from '@functions/workbookEngine.js';
+import type { ComputedValue, ValuesPayload, WorkbookPayload } from '@shared/workbooks.js';
+import { cellView, type CellView } from './cellView.js';
 import { readDisplaySettings } from './displaySettings.js';
 import type { SheetPreview } from './windowPreview.js';
 import { EMPTY_ROW, type RowData } from './sheetViews.js';
@@ -12,19 +13,17 @@ import { EMPTY_ROW, type RowData } from './sheetViews.js';
 /** Columns shown at least, as the grid does (workbookModel.ts minColsShown). */
 const minCols = 26;
 
-/** What a stored value shows: the grid's own formatting of the same value (cellView.ts). */
-function storedView(input: string, value: ValuesPayload['sheets'][number]['values'][number][2], precision: number | null): CellView {
+/** What a stored value shows: the grid's own view of the same value (cellView.ts); a stored error carries its message. */
+function storedView(input: string, value: ComputedValue, precision: number | null): CellView {
   const spilled = input === '';
-  if (typeof value === 'number') return { input, display: formatNumber(value, precision), kind: 'number', value, spilled };
-  if (typeof value === 'boolean') return { input, display: value ? 'TRUE' : 'FALSE', kind: 'boolean', value, spilled };
-  if (typeof value === 'string') return { input, display: value, kind: 'text', value, spilled };
-  return { input, display: value.error, kind: 'error', value: value.error, errorCode: value.error, errorMessage: value.message, spilled };
+  if (typeof value === 'object') return { input, display: value.error, kind: 'error', value: value.error, errorCode: value.error, errorMessage: value.message, spilled };
+  return cellView(input, value, precision, spilled)!;
 }
 
 /** The first sheet's first `windowRows` rows from the stored values, or null when they are not the loaded revision's. */
 export function storedPreview(payload: WorkbookPayload, stored: ValuesPayload, windowRows = 60): SheetPreview | null {
   if (stored.revision !== payload.revision) return null;
-  const sheet = [...payload.sheets].sort((a, b) => a.position - b.position)[0];
+  const sheet = inTabOrder(payload.sheets)[0];
   if (!sheet) return null;
   const precision = readDisplaySettings(sheet.settings).precision;
   const inputs = new Map<number, string>();
