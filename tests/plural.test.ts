@@ -1,6 +1,6 @@
 // Counts in messages are written with thousands separators, as every other number the app shows.
 import { describe, expect, it } from 'vitest';
-import { plural } from '../src/lib/plural.js';
+import { plural } from '../shared/plural.js';
 
 describe('plural', () => {
   it('writes one without an s, others with it, and large counts grouped by thousands', () => {

@@ -7,6 +7,7 @@
 import { Molecule } from 'openchemlib';
 import { evaluationLimits } from '../../functions/limits.js';
 import { cellInputProblem } from '../../shared/cellInput.js';
+import { plural } from '../../shared/plural.js';
 import { SpreadsheetError } from '../xlsx/limits.js';
 import { sheetNameFromFilename } from '../xlsx/readCsv.js';
 import type { CellTriple, ParsedWorkbook, SkippedCell } from '../xlsx/types.js';
@@ -132,7 +133,7 @@ const unbondedListed = 20;
 
 function xyzNotes(frames: number, unbonded: string[]): string[] {
   const perceived = frames - unbonded.length;
-  const frameCount = (k: number) => `${k.toLocaleString('en')} frame${k === 1 ? '' : 's'}`;
+  const frameCount = (k: number) => plural(k, 'frame');
   const notes = [
     `XYZ frames carry no bonds: ${perceived.toLocaleString('en')} of ${frameCount(frames)} got bonds and SMILES perceived from their coordinates (a heuristic from covalent radii and usual valences; check unusual species)`,
     ...unbonded.slice(0, unbondedListed),

@@ -12,7 +12,7 @@ import type { EditOutcome } from '../../core/workbook/model/workbookModel.js';
 import type { WorkbookSession } from '../../core/workbook/session/useWorkbookSession.js';
 import type { SheetView } from './useSheetView.js';
 import type { FillPair, ViewCell } from './components/SheetGrid.js';
-import { plural } from '../../lib/plural.js';
+import { plural } from '@shared/plural.js';
 
 export interface ViewSelection {
   min: ViewCell;

@@ -1,6 +1,6 @@
 // What an import took and what it could not: counts, then each skipped cell with its reason.
 import type { ImportSummary } from '@shared/io.js';
-import { plural } from '../../lib/plural.js';
+import { plural } from '@shared/plural.js';
 
 const LISTED = 20;
 

@@ -1,7 +1,7 @@
 // Where the save queue stands, in words that are true at every moment: "Saved" only when the
 // server has acknowledged every change.
 import type { SaveStatus } from '../../../core/workbook/save/patchQueue.js';
-import { plural } from '../../../lib/plural.js';
+import { plural } from '@shared/plural.js';
 
 
 function saveLabel(s: SaveStatus): string {
