@@ -131,11 +131,22 @@ async function earlyAnswer<T>(path: string, res: Response): Promise<T> {
     performance.mark(`orbitab:json-received ${path}`, { detail: { parsedIn: 'page' } });
     return data;
   }
+  const body = res.body!;
+  return throughWorker<T>(worker, path, (id) => worker.postMessage({ id, kind: 'body', body, largeChars: 0 } satisfies JsonFetchRequest, [body as unknown as Transferable]));
+}
+
+/** Sends the worker one request (`ask` posts it under the given id) and resolves with the answer it hands back in parts; `signal` aborts it there too. */
+function throughWorker<T>(worker: Worker, path: string, ask: (id: number) => void, signal?: AbortSignal): Promise<T> {
   const id = nextRequest++;
   return new Promise<T>((resolve, reject) => {
+    if (signal?.aborted) return reject(signal.reason);
     waiting.set(id, { path, assembly: new JsonAssembly(), resolve: resolve as (v: unknown) => void, reject });
-    const body = res.body!;
-    worker.postMessage({ id, kind: 'body', body, largeChars: 0 } satisfies JsonFetchRequest, [body as unknown as Transferable]);
+    signal?.addEventListener('abort', () => {
+      if (!waiting.delete(id)) return;
+      worker.postMessage({ id, kind: 'abort' } satisfies JsonFetchRequest);
+      reject(signal.reason);
+    });
+    ask(id);
   });
 }
 
@@ -150,16 +161,6 @@ export async function apiLarge<T>(path: string, init: { signal?: AbortSignal } =
   if (early) return earlyAnswer<T>(path, early);
   const worker = workerForJson();
   if (!worker) return api<T>(path, init);
-  const id = nextRequest++;
-  return new Promise<T>((resolve, reject) => {
-    if (init.signal?.aborted) return reject(init.signal.reason);
-    waiting.set(id, { path, assembly: new JsonAssembly(), resolve: resolve as (v: unknown) => void, reject });
-    init.signal?.addEventListener('abort', () => {
-      if (!waiting.delete(id)) return;
-      worker.postMessage({ id, kind: 'abort' } satisfies JsonFetchRequest);
-      reject(init.signal!.reason);
-    });
-    const url = new URL(`/api${path}`, location.href).href;
-    worker.postMessage({ id, kind: 'fetch', url, largeChars: largeAnswerLimit() } satisfies JsonFetchRequest);
-  });
+  const url = new URL(`/api${path}`, location.href).href;
+  return throughWorker<T>(worker, path, (id) => worker.postMessage({ id, kind: 'fetch', url, largeChars: largeAnswerLimit() } satisfies JsonFetchRequest), init.signal);
 }
