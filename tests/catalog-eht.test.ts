@@ -90,6 +90,47 @@ describe('charge', () => {
     expect(Math.abs((fromSmiles as number) - (chargedXyz as number))).toBeLessThan(1.5);
     expect(one(`=EHTHOMO("${xyz}")`) as number).toBeGreaterThan(chargedXyz as number);
   });
+
+  // XYZ frames as a user pastes them into a cell: count, comment line, atoms. Hydroxide r(OH) 0.964 Å
+  // (NIST CCCBDB; recalled from memory); ammonium N–H 1.03 Å, tetrahedral, as above.
+  const s = (1.03 / Math.sqrt(3)).toFixed(4);
+  const hydroxide = (comment: string) => ['2', comment, 'O 0 0 0', 'H 0 0 0.964'];
+  const ammonium = (comment: string) => ['5', comment, 'N 0 0 0', `H ${s} ${s} ${s}`, `H -${s} -${s} ${s}`, `H -${s} ${s} -${s}`, `H ${s} -${s} -${s}`];
+  const readings = (ref: string, q = '') => [`=EHTHOMO(${ref}${q})`, `=EHTLUMO(${ref}${q})`, `=EHTENERGY(${ref}${q})`, `=EHTCHARGE(${ref},1${q})`];
+
+  it('takes the net charge from an XYZ comment line when no charge argument is given', () => {
+    for (const [frame, q] of [[hydroxide, -1], [ammonium, 1]] as const) {
+      const stated = frame(`charge=${q}`).join('\n');
+      const plain = frame('no charge here').join('\n');
+      const [[, ...fromComment], [, ...fromArgument], [, ...neutral]] = evaluate([
+        [stated, ...readings('A1')],
+        [plain, ...readings('A2', `,${q}`)],
+        [plain, ...readings('A3')],
+      ]);
+      fromComment.forEach((v) => expect(typeof v).toBe('number'));
+      fromComment.forEach((v, i) => expect(v as number).toBeCloseTo(fromArgument[i] as number, 9));
+      // The same frame on one line inside the formula, as ";"-separated text.
+      expect(one(`=EHTENERGY("${frame(`charge=${q}`).join('; ')}")`) as number).toBeCloseTo(fromArgument[2] as number, 9);
+      // No self-consistency, so the levels do not move with the charge: the species with one electron
+      // more has the sum of the other plus that electron's level (an independent check that the comment's
+      // charge was used). Hydroxide's extra electron joins the O 2p π pair, which has no partner on H and
+      // so sits at H_pp(O) = −14.8 eV (Hoffmann 1963); neutral NH4's ninth goes into the cation's LUMO.
+      const [moreElectrons, fewer] = q === -1 ? [fromComment[2], neutral[2]] : [neutral[2], fromComment[2]];
+      const extraLevel = q === -1 ? -14.8 : (fromComment[1] as number);
+      expect((moreElectrons as number) - (fewer as number)).toBeCloseTo(extraLevel, 6);
+    }
+  });
+
+  it('refuses a charge argument that the XYZ comment line contradicts, naming both, and accepts one that agrees', () => {
+    const stated = hydroxide('hydroxide charge=-1').join('\n');
+    const [[, positive, zero, agreeing, omitted]] = evaluate([[stated, '=EHTHOMO(A1,1)', '=EHTENERGY(A1,0)', '=EHTENERGY(A1,-1)', '=EHTENERGY(A1)']]);
+    for (const [value, given] of [[positive, '1'], [zero, '0']] as const) {
+      expect(value).toBeInstanceOf(DetailedCellError);
+      expect((value as DetailedCellError).message).toMatch(new RegExp(`charge argument is ${given} but the XYZ comment line says charge=-1`));
+    }
+    expect(typeof agreeing).toBe('number');
+    expect(agreeing).toBe(omitted);
+  });
 });
 
 describe('bad input comes back as a cell error naming the problem', () => {

@@ -259,6 +259,19 @@ describe('geometry input', () => {
     expect(frontier(m).lumoEv).toBeGreaterThan(frontier(m).homoEv);
   });
 
+  it('takes the net charge an XYZ comment line states, and refuses a charge argument that contradicts it', () => {
+    const atoms = ['N 0 0 0', 'H 0.59 0.59 0.59', 'H -0.59 -0.59 0.59', 'H -0.59 0.59 -0.59', 'H 0.59 -0.59 -0.59'];
+    const stated = ['5', 'ammonium, Charge: +1', ...atoms].join('\n');
+    expect(readGeometry(stated)).toMatchObject({ charge: 1, commentCharge: 1 });
+    // NH4: N 5 + 4 × H 1 valence electrons, less one for the cation.
+    expect(model(stated).electrons).toBe(8);
+    expect(model(stated, 1).electrons).toBe(8);
+    expect(() => model(stated, 0)).toThrow('the charge argument is 0 but the XYZ comment line says charge=1');
+    // Without the count there is no comment line, and a comment without a charge states none.
+    expect(readGeometry(atoms.join('; ')).commentCharge).toBeUndefined();
+    expect(model(['5', 'ammonium', ...atoms].join('\n'), -1).electrons).toBe(10);
+  });
+
   it('rejects input it cannot use, naming what is wrong', () => {
     expect(() => model('Fe 0 0 0; O 0 0 1.6')).toThrow(/no extended-Hückel parameters for Fe/);
     expect(() => model('3\nwater\nO 0 0 0\nH 0 0 1')).toThrow(/announces 3 atoms but lists 2/);

@@ -6,7 +6,8 @@
 import '../functions/openchemlibNode.js';
 import { ConformerGenerator, Molecule } from 'openchemlib';
 import { describe, expect, it } from 'vitest';
-import { chargeFromComment, smilesFromFrame } from '../server/structures/xyzSmiles.js';
+import { chargeFromComment } from '../functions/chem/xyzComment.js';
+import { smilesFromFrame } from '../server/structures/xyzSmiles.js';
 
 /** The molecule as an XYZ frame would hold it: elements, coordinates to 0.1 mÅ, and its net charge. */
 function frameOf(smiles: string) {

@@ -23,13 +23,14 @@ const LIMITS =
 const structure: ParamSpec = {
   name: 'structure',
   type: 'string',
-  description: `SMILES (hydrogens added, one conformer from openchemlib with seed ${CONFORMER_SEED}, tidied with MMFF94s+), XYZ text in ångström ("El x y z" lines separated by newlines or ";", optionally headed by the atom count and a comment line), or a molfile/SDF record with 3D coordinates and every hydrogen. At most ${EHT_MAX_ATOMS} atoms and ${EHT_MAX_BASIS} basis functions.`,
+  description: `SMILES (hydrogens added, one conformer from openchemlib with seed ${CONFORMER_SEED}, tidied with MMFF94s+), XYZ text in ångström ("El x y z" lines separated by newlines or ";", optionally headed by the atom count and a comment line, which may state the net charge as "charge=-1", "charge: +2" or "charge 1"), or a molfile/SDF record with 3D coordinates and every hydrogen. At most ${EHT_MAX_ATOMS} atoms and ${EHT_MAX_BASIS} basis functions.`,
 };
 const charge: ParamSpec = {
   name: 'charge',
   type: 'integer',
   optional: true,
-  description: 'Net charge; default: from the structure (formal charges of SMILES or molfile; 0 for XYZ text).',
+  description:
+    'Net charge; default: from the structure (formal charges of SMILES or molfile; for XYZ text the charge its comment line states, else 0). A charge that differs from the one an XYZ comment line states is an error, not a choice between them.',
 };
 const atomIndex = (name: string): ParamSpec => ({
   name,

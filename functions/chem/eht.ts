@@ -9,7 +9,7 @@
 import { ChemError, oneBasedIndex } from './errors.js';
 import { solveSecular } from './eigen.js';
 import { elementParameters, PARAMETRISED_ELEMENTS, WOLFSBERG_HELMHOLZ_K } from './ehtParams.js';
-import type { Geometry3d } from './geometry3d.js';
+import { netCharge, type Geometry3d } from './geometry3d.js';
 import { shellOverlapBlock, type StoShell } from './sto.js';
 
 /** Bohr radius in ångström (CODATA 2018). */
@@ -56,9 +56,10 @@ function shellLabel(n: number, l: 0 | 1) {
   return `${n}${l === 0 ? 's' : 'p'}`;
 }
 
-/** Builds and solves the extended-Hückel model of a geometry with the given net charge. */
-export function solveEht(geometry: Geometry3d, charge = geometry.charge, limits = { atoms: EHT_MAX_ATOMS, basis: EHT_MAX_BASIS }): EhtModel {
+/** Builds and solves the extended-Hückel model of a geometry with the given net charge (default: the structure's own; see netCharge). */
+export function solveEht(geometry: Geometry3d, chargeArgument?: number, limits = { atoms: EHT_MAX_ATOMS, basis: EHT_MAX_BASIS }): EhtModel {
   const { elements, coordinates } = geometry;
+  const charge = netCharge(geometry, chargeArgument);
   if (elements.length === 0) throw new ChemError('the structure has no atoms');
   if (elements.length > limits.atoms)
     throw new ChemError(`the structure has ${elements.length} atoms; extended-Hückel cells are limited to ${limits.atoms} atoms (hydrogens included)`, 'NUM');

@@ -1,7 +1,7 @@
 // Three-dimensional structures for all-valence-electron methods, from the text in one cell:
 // - XYZ text: lines "El x y z" in ångström, optionally headed by the atom count and a comment line
 //   (the plain XYZ exchange format); lines may be separated by newlines or by ";" so that a short
-//   molecule fits on one line of a formula;
+//   molecule fits on one line of a formula. The comment line may state the net charge ("charge=-1");
 // - a molfile or one SDF record (V2000/V3000) carrying 3D coordinates and every hydrogen;
 // - otherwise SMILES: openchemlib adds the hydrogens, builds one conformer with its ConformerGenerator
 //   (fixed seed, so the same text always gives the same geometry) and tidies it with its MMFF94s+
@@ -11,6 +11,7 @@
 import type { Molecule } from 'openchemlib';
 import { openchemlib } from './openchemlib.js';
 import { ChemError } from './errors.js';
+import { chargeFromComment } from './xyzComment.js';
 
 export type GeometrySource = 'xyz' | 'molfile' | 'smiles-conformer';
 
@@ -19,8 +20,10 @@ export interface Geometry3d {
   elements: string[];
   /** Cartesian coordinates in ångström. */
   coordinates: [number, number, number][];
-  /** Net charge from the structure (formal charges of SMILES/molfile; 0 for XYZ unless given). */
+  /** Net charge from the structure (formal charges of SMILES/molfile; for XYZ the comment line's, else 0). */
   charge: number;
+  /** The net charge an XYZ comment line states ("charge=-1"), when it states one. */
+  commentCharge?: number;
   source: GeometrySource;
   /** For SMILES: whether the MMFF94s+ minimisation ran (false when the force field has no types for an atom). */
   forceFieldTidied?: boolean;
@@ -55,8 +58,10 @@ function normaliseSymbol(raw: string): string {
 
 export function readXyz(text: string): Geometry3d {
   let lines = text.split(/\r?\n|;/).map((l) => l.trim());
+  let commentCharge: number | undefined;
   if (/^\d+$/.test(lines[0])) {
     const count = Number(lines[0]);
+    commentCharge = chargeFromComment(lines[1] ?? '');
     // The comment line may be empty; atoms start on the third line.
     const atomLines = lines.slice(2).filter((l) => l !== '');
     if (atomLines.length !== count) throw new ChemError(`XYZ text announces ${count} atoms but lists ${atomLines.length}`);
@@ -72,7 +77,20 @@ export function readXyz(text: string): Geometry3d {
     elements.push(normaliseSymbol(parts[0]));
     coordinates.push([xyz[0], xyz[1], xyz[2]]);
   });
-  return { elements, coordinates, charge: 0, source: 'xyz' };
+  return { elements, coordinates, charge: commentCharge ?? 0, source: 'xyz', ...(commentCharge === undefined ? {} : { commentCharge }) };
+}
+
+/**
+ * The net charge to solve a geometry with: the charge argument when given, else the structure's own.
+ * A charge stated on an XYZ comment line is part of the structure as the user wrote it, so an argument
+ * that contradicts it is refused rather than one of the two silently winning.
+ */
+export function netCharge(geometry: Geometry3d, charge?: number): number {
+  if (charge === undefined) return geometry.charge;
+  const stated = geometry.commentCharge;
+  if (stated !== undefined && charge !== stated)
+    throw new ChemError(`the charge argument is ${charge} but the XYZ comment line says charge=${stated}; give the charge in one place, or make the two agree`);
+  return charge;
 }
 
 function fromOclMolecule(molecule: Molecule, source: GeometrySource): Geometry3d {

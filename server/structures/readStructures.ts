@@ -5,13 +5,14 @@
 // number; the others are taken. Molfiles are read by openchemlib; XYZ frames by our reader, and as
 // XYZ has no bonds, theirs are perceived from the coordinates (xyzSmiles.ts) to give the SMILES.
 import { Molecule } from 'openchemlib';
+import { chargeFromComment } from '../../functions/chem/xyzComment.js';
 import { evaluationLimits } from '../../functions/limits.js';
 import { cellInputProblem } from '../../shared/cellInput.js';
 import { plural } from '../../shared/plural.js';
 import { SpreadsheetError } from '../xlsx/limits.js';
 import { sheetNameFromFilename } from '../xlsx/readCsv.js';
 import type { CellTriple, ParsedWorkbook, SkippedCell } from '../xlsx/types.js';
-import { chargeFromComment, smilesFromFrame } from './xyzSmiles.js';
+import { smilesFromFrame } from './xyzSmiles.js';
 
 export type StructureFileKind = 'sdf' | 'xyz';
 
@@ -121,7 +122,9 @@ function xyzRows(text: string, report: (index: number, problem: string) => void,
     // The comment is the name; ";" separates atoms in a cell's XYZ text, so it may not stand in the comment.
     const name = comment.replace(/;/g, ',').slice(0, 200) || `frame ${index}`;
     const record = [String(count), name, ...atomLines.map((l) => l.trim())].join('\n');
-    const charge = chargeFromComment(comment) ?? 0;
+    // Read from the comment as the cell will hold it, so the charge argument written below always
+    // agrees with what the EHT functions read from the record's own comment line.
+    const charge = chargeFromComment(name) ?? 0;
     const perceived = smilesFromFrame(elements, coordinates, charge);
     if ('problem' in perceived) unbonded.push(`record ${index} ("${name.slice(0, 60)}"): SMILES left empty, ${perceived.problem}`);
     rows.push({ name, smiles: 'smiles' in perceived ? perceived.smiles : '', formula: hillFormula(elements), record, usable3d: true, charge });

@@ -8,12 +8,6 @@ import { ChemError } from '../../functions/chem/errors.js';
 
 export type FrameSmiles = { smiles: string } | { problem: string };
 
-/** A net charge written in a frame's comment line: "charge=-1", "charge: +2", "charge 1". */
-export function chargeFromComment(comment: string): number | undefined {
-  const m = /\bcharge\s*[=:]?\s*([+-]?\d+)(?![\d.])/i.exec(comment);
-  return m ? Number(m[1]) : undefined;
-}
-
 /** The frame's SMILES, or why its bonds could not be perceived (never throws for a bad frame). */
 export function smilesFromFrame(elements: readonly string[], coordinates: readonly (readonly [number, number, number])[], totalCharge = 0): FrameSmiles {
   let perception;
