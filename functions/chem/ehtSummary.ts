@@ -22,7 +22,7 @@ import { readGeometry, type Geometry3d, type GeometrySource } from './geometry3d
  * Changes whenever a change to the method, parameters or geometry handling would change a stored
  * number; stored results are keyed by it, so an upgrade recomputes rather than serving stale values.
  */
-export const EHT_METHOD_VERSION = 'eht-1';
+export const EHT_METHOD_VERSION = 'eht-2';
 
 /** A result that failed for a reason of the structure itself (it fails the same way every time). */
 export interface EhtFailure {
