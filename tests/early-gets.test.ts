@@ -11,7 +11,7 @@ beforeEach(() => {
   served = [];
   answers = {};
   vi.stubGlobal('fetch', async (url: string) => {
-    const path = url.replace(/^\/api/, '');
+    const path = url.replace(/^(https?:\/\/[^/]+)?\/api/, '');
     const a = answers[path] ?? { status: 404, body: { error: { code: 'not_found', message: 'no such thing' } } };
     const body = JSON.stringify(a.body);
     served.push({ path, status: a.status, body });
@@ -92,5 +92,67 @@ describe('early GET requests', () => {
     answers['/workbooks/w1'] = { status: 200, body: { renamed: true } };
     expect(await api('/workbooks/w1', { method: 'PATCH', body: { title: 'x' } })).toEqual({ renamed: true });
     expect(served).toHaveLength(2);
+  });
+
+  describe('answers that grow with the workbook, read by the JSON worker from the start', () => {
+    /** Stands in for jsonFetch.worker.ts: fetches what it is asked for and answers with the text (a small answer's reply). */
+    let asked: { id: number; kind: string; url?: string }[];
+    beforeEach(() => {
+      asked = [];
+      vi.stubGlobal('location', { href: 'http://page.test/workbooks/w1' });
+      vi.stubGlobal(
+        'Worker',
+        class {
+          onmessage: ((e: { data: unknown }) => void) | null = null;
+          onerror: (() => void) | null = null;
+          postMessage(m: { id: number; kind: string; url?: string }) {
+            asked.push(m);
+            if (m.kind !== 'fetch') return;
+            void fetch(m.url!).then(async (res) => {
+              const text = await res.text();
+              const reply = res.ok ? { id: m.id, kind: 'text', text, receivedAt: 0 } : { id: m.id, kind: 'failed', status: res.status, statusText: '', body: JSON.parse(text) };
+              this.onmessage?.({ data: reply });
+            });
+          }
+        },
+      );
+    });
+
+    it('asks the worker, not the page, and hands its answer to the first apiLarge for the path', async () => {
+      const { startEarlyLargeGet, apiLarge } = await modules();
+      answers['/workbooks/w1'] = { status: 200, body: { id: 'w1', revision: 3 } };
+      startEarlyLargeGet('/workbooks/w1');
+      expect(asked).toEqual([{ id: 1, kind: 'fetch', url: 'http://page.test/api/workbooks/w1', largeChars: 4_000_000 }]);
+      expect(await apiLarge('/workbooks/w1')).toEqual({ id: 'w1', revision: 3 });
+      expect(served).toHaveLength(1);
+      // Once only: the next call asks again.
+      answers['/workbooks/w1'] = { status: 200, body: { id: 'w1', revision: 4 } };
+      expect(await apiLarge('/workbooks/w1')).toEqual({ id: 'w1', revision: 4 });
+      expect(served).toHaveLength(2);
+    });
+
+    it('asks again after a refusal, and reports a refusal asked afresh as before', async () => {
+      const { startEarlyLargeGet, apiLarge, ApiError } = await modules();
+      answers['/workbooks/w1'] = { status: 401, body: { error: { code: 'unauthenticated', message: 'sign in first' } } };
+      startEarlyLargeGet('/workbooks/w1');
+      await vi.waitFor(() => expect(served).toHaveLength(1));
+      answers['/workbooks/w1'] = { status: 200, body: { id: 'w1', revision: 1 } };
+      expect(await apiLarge('/workbooks/w1')).toEqual({ id: 'w1', revision: 1 });
+      expect(served.map((s) => s.status)).toEqual([401, 200]);
+      answers['/workbooks/w2'] = { status: 404, body: { error: { code: 'not_found', message: 'This workbook does not exist' } } };
+      startEarlyLargeGet('/workbooks/w2');
+      await expect(apiLarge('/workbooks/w2')).rejects.toBeInstanceOf(ApiError);
+    });
+
+    it('stops the early read and forgets it once the page changes something', async () => {
+      const { startEarlyLargeGet, api, apiLarge } = await modules();
+      answers['/workbooks/w1'] = { status: 200, body: { id: 'w1', title: 'before' } };
+      answers['/workbooks/w1/title'] = { status: 200, body: {} };
+      startEarlyLargeGet('/workbooks/w1');
+      await api('/workbooks/w1/title', { method: 'POST', body: { title: 'after' } });
+      expect(asked.filter((m) => m.kind === 'abort')).toEqual([{ id: 1, kind: 'abort' }]);
+      answers['/workbooks/w1'] = { status: 200, body: { id: 'w1', title: 'after' } };
+      expect(await apiLarge('/workbooks/w1')).toEqual({ id: 'w1', title: 'after' });
+    });
   });
 });

@@ -1,6 +1,6 @@
 // The one API client. Components never call fetch: features wrap these calls in TanStack Query
 // `queryOptions`/mutations, with keys from `queryKeys` below.
-import { dropEarlyGets, takeEarlyGet } from './earlyGets.js';
+import { dropEarlyGets, startEarlyGet, startEarlyRead, takeEarlyGet, takeEarlyRead } from './earlyGets.js';
 import { JsonAssembly, safeJson, type JsonFetchReply, type JsonFetchRequest } from './jsonParts.js';
 
 export class ApiError extends Error {
@@ -104,8 +104,6 @@ function workerForJson(): Worker | null {
 
 /** Answers longer than this (in characters) are parsed in the worker; smaller ones parse in the page in well under a frame's budget of stall. */
 const largeAnswerChars = 4_000_000;
-/** An early answer's compressed length times this is taken as its size (JSON of cells packs about tenfold). */
-const packedRatio = 10;
 
 /**
  * The size past which answers are parsed in the worker. A page may lower it by setting
@@ -115,24 +113,6 @@ const packedRatio = 10;
 function largeAnswerLimit(): number {
   const set = (globalThis as { orbitabLargeAnswerChars?: unknown }).orbitabLargeAnswerChars;
   return typeof set === 'number' && set >= 0 ? set : largeAnswerChars;
-}
-
-/**
- * An answer the page's first script asked for before the app's code arrived (earlyGets.ts): its body
- * is on its way to the page already, so a large one is handed to the worker as it is (read and parsed
- * there, back in parts) and a small one is parsed here.
- */
-async function earlyAnswer<T>(path: string, res: Response): Promise<T> {
-  const length = Number(res.headers.get('content-length') ?? Number.NaN);
-  const size = res.headers.has('content-encoding') ? length * packedRatio : length;
-  const worker = res.ok && res.body && !(size <= largeAnswerLimit()) ? workerForJson() : null;
-  if (!worker) {
-    const data = await answerOf<T>(res);
-    performance.mark(`orbitab:json-received ${path}`, { detail: { parsedIn: 'page' } });
-    return data;
-  }
-  const body = res.body!;
-  return throughWorker<T>(worker, path, (id) => worker.postMessage({ id, kind: 'body', body, largeChars: 0 } satisfies JsonFetchRequest, [body as unknown as Transferable]));
 }
 
 /** Sends the worker one request (`ask` posts it under the given id) and resolves with the answer it hands back in parts; `signal` aborts it there too. */
@@ -157,10 +137,32 @@ function throughWorker<T>(worker: Worker, path: string, ask: (id: number) => voi
  * result and errors as `api` (a failed connection is an ApiError of status 0).
  */
 export async function apiLarge<T>(path: string, init: { signal?: AbortSignal } = {}): Promise<T> {
+  const read = await takeEarlyRead(path);
+  if (read) return read.data as T;
+  // Fetched early by the page itself: only where there was no worker to read it.
   const early = await takeEarlyGet(path);
-  if (early) return earlyAnswer<T>(path, early);
+  if (early) {
+    const data = await answerOf<T>(early);
+    performance.mark(`orbitab:json-received ${path}`, { detail: { parsedIn: 'page' } });
+    return data;
+  }
   const worker = workerForJson();
   if (!worker) return api<T>(path, init);
+  return readInWorker<T>(worker, path, init.signal);
+}
+
+function readInWorker<T>(worker: Worker, path: string, signal?: AbortSignal): Promise<T> {
   const url = new URL(`/api${path}`, location.href).href;
-  return throughWorker<T>(worker, path, (id) => worker.postMessage({ id, kind: 'fetch', url, largeChars: largeAnswerLimit() } satisfies JsonFetchRequest), init.signal);
+  return throughWorker<T>(worker, path, (id) => worker.postMessage({ id, kind: 'fetch', url, largeChars: largeAnswerLimit() } satisfies JsonFetchRequest), signal);
+}
+
+/**
+ * Starts, before the app's code has arrived, a GET whose answer grows with the workbook: read by the
+ * worker from the start (the page's first script asks; apiLarge takes it), or fetched by the page
+ * where workers cannot run.
+ */
+export function startEarlyLargeGet(path: string): void {
+  const worker = workerForJson();
+  if (!worker) return startEarlyGet(path);
+  startEarlyRead(path, (signal) => readInWorker(worker, path, signal));
 }

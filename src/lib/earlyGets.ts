@@ -3,16 +3,27 @@
 // only soon after it was asked for, and only while the page has changed nothing: anything else is
 // asked again, so an early answer never stands in for a later visit, for a request made after
 // signing in, or for a state the page's own POST (confirming an address, an import) has changed.
+// Two kinds: a small answer fetched by the page (its Response is handed over), and an answer that
+// grows with the workbook, fetched and read by the JSON worker from the start (its data is handed
+// over), so its many megabytes never pass through the page's thread.
 
 /** How long after it was asked an early answer may still be used. */
 const keptMs = 15_000;
 
 const early = new Map<string, { at: number; response: Promise<Response | null> }>();
+const earlyData = new Map<string, { at: number; data: Promise<{ data: unknown } | null>; abort: AbortController }>();
 
 /** Starts `GET /api<path>` unless it is already under way. */
 export function startEarlyGet(path: string): void {
   if (early.has(path)) return;
   early.set(path, { at: performance.now(), response: fetch(`/api${path}`, { credentials: 'same-origin' }).catch(() => null) });
+}
+
+/** Starts reading `path` with `read` (the worker's fetch, parse included) unless it is already under way; a failure is never handed over. */
+export function startEarlyRead(path: string, read: (signal: AbortSignal) => Promise<unknown>): void {
+  if (earlyData.has(path)) return;
+  const abort = new AbortController();
+  earlyData.set(path, { at: performance.now(), abort, data: read(abort.signal).then((data) => ({ data }), () => null) });
 }
 
 /** The early answer for this path (once), or null when there is none to use. */
@@ -25,7 +36,21 @@ export async function takeEarlyGet(path: string): Promise<Response | null> {
   return response?.ok ? response : null;
 }
 
-/** Forgets every early answer not yet taken: the page is about to change something they may show. */
+/** The early read data for this path (once, wrapped), or null when there is none to use. */
+export async function takeEarlyRead(path: string): Promise<{ data: unknown } | null> {
+  const entry = earlyData.get(path);
+  if (!entry) return null;
+  earlyData.delete(path);
+  if (performance.now() - entry.at > keptMs) {
+    entry.abort.abort();
+    return null;
+  }
+  return entry.data;
+}
+
+/** Forgets every early answer not yet taken (and stops the reads under way): the page is about to change something they may show. */
 export function dropEarlyGets(): void {
   early.clear();
+  for (const entry of earlyData.values()) entry.abort.abort();
+  earlyData.clear();
 }

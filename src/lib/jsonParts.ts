@@ -16,8 +16,6 @@ export const partItems = 5_000;
 export type JsonFetchRequest =
   /** A GET of `url`; an answer longer than `largeChars` characters is parsed in the worker and sent in parts. */
   | { id: number; kind: 'fetch'; url: string; largeChars: number }
-  /** The body of a successful answer the page fetched (an early request), transferred to the worker. */
-  | { id: number; kind: 'body'; body: ReadableStream<Uint8Array>; largeChars: number }
   | { id: number; kind: 'abort' };
 
 export type JsonFetchReply =
