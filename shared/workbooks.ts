@@ -185,6 +185,7 @@ export interface SheetPayload {
   name: string;
   position: number;
   settings: SheetSettings;
+  /** The sheet's non-empty cells in reading order (row, then column); the page's preview relies on it. */
   cells: CellEntry[];
   /** Who added the sheet (in the workbook load): editors manage roles only on sheets they created. */
   createdBy?: string | null;
@@ -331,6 +332,7 @@ export type ValueEntry = [row: number, col: number, value: ComputedValue];
 /** GET /api/workbooks/:id/values — every non-empty computed value, per sheet. */
 export interface ValuesPayload {
   revision: number;
+  /** Each sheet's values in reading order (row, then column), as its cells are. */
   sheets: { id: string; name: string; values: ValueEntry[] }[];
 }
 
