@@ -103,12 +103,27 @@ export class Hydration {
     this.edited.add(cellKey(sheetId, row, col));
   }
 
-  /** Puts back formulas for about `budgetMs`; returns whether the workbook is now live. */
+  /**
+   * Puts back formulas for about `budgetMs`; returns whether the workbook is now live. The slice is
+   * written in steps sized to a quarter of the budget, with a look at the clock after each: a step
+   * that runs long (the garbage collector's marking lands in whatever allocates while it runs, and
+   * doubled one slice's time) ends the slice instead of sizing a longer one.
+   */
   slice(target: HydrationTarget, budgetMs: number): boolean {
     if (this.rest.length > 0) {
-      this.loadRows(target, budgetMs);
+      const started = performance.now();
+      do this.loadRows(target, budgetMs / 4);
+      while (this.rest.length > 0 && performance.now() - started < budgetMs);
       return false;
     }
+    const started = performance.now();
+    do this.putBack(target, budgetMs / 4);
+    while (this.at < this.total && performance.now() - started < budgetMs);
+    return this.finished;
+  }
+
+  /** Puts back the next step of formulas, sized to take about `stepMs`. */
+  private putBack(target: HydrationTarget, stepMs: number) {
     const started = performance.now();
     const cells: { sheetId: string; row: number; col: number; content: Constant }[] = [];
     if (!this.spillsCleared) {
@@ -136,13 +151,12 @@ export class Hydration {
     }
     if (cells.length > 0) target.writeEngine(cells);
     const perCell = (performance.now() - started) / Math.max(1, cells.length);
-    // Grows at most fourfold a slice: one quick slice (formulas waiting on results) must not size the next.
-    this.chunk = Math.max(20, Math.min(20_000, 4 * this.chunk, Math.floor(budgetMs / Math.max(perCell, 0.001))));
-    return this.finished;
+    // Grows at most fourfold a step: one quick step (formulas waiting on results) must not size the next.
+    this.chunk = Math.max(20, Math.min(20_000, 4 * this.chunk, Math.floor(stepMs / Math.max(perCell, 0.001))));
   }
 
-  /** Writes the next rows of placeholder constants; a cell written since the open keeps what was written. */
-  private loadRows(target: HydrationTarget, budgetMs: number) {
+  /** Writes the next rows of placeholder constants (about `stepMs` of work); a cell written since the open keeps what was written. */
+  private loadRows(target: HydrationTarget, stepMs: number) {
     const started = performance.now();
     const pending = this.rest[0];
     if (!target.hasSheet(pending.sheetId)) {
@@ -169,6 +183,6 @@ export class Hydration {
     if (to >= pending.table.length) this.rest.shift();
     const perRow = (performance.now() - started) / Math.max(1, to - from);
     // Grows at most fourfold a slice, like `chunk`: one quick slice must not size a long one.
-    this.rowChunk = Math.max(10, Math.min(50_000, 4 * this.rowChunk, Math.floor(budgetMs / Math.max(perRow, 0.001))));
+    this.rowChunk = Math.max(10, Math.min(50_000, 4 * this.rowChunk, Math.floor(stepMs / Math.max(perRow, 0.001))));
   }
 }
