@@ -19,7 +19,9 @@ import { startWorkbookLoad } from '../core/workbook/api.js';
 import { loadOpenchemlib } from '@functions/chem/openchemlib.js';
 import { NotFoundPage, RouteError } from './RouteError.js';
 
-export const router = createBrowserRouter([
+/** The app's router; made when the app starts (start.tsx), which also starts the first route's loaders. */
+export function createAppRouter() {
+  const router = createBrowserRouter([
   {
     // Shown while the first guard asks the server who is signed in.
     HydrateFallback: () => <div className="h-screen bg-canvas" aria-busy="true" />,
@@ -64,10 +66,11 @@ export const router = createBrowserRouter([
     ],
   },
 ]);
-
-// When the server says the session is gone (401 on any call), go to sign-in and come back after.
-onSessionLost(() => {
-  const { pathname, search } = router.state.location;
-  if (pathname === '/sign-in' || pathname === '/sign-up' || pathname === '/forgot-password' || /^\/(reset-password|verify-email)\//.test(pathname)) return;
-  void router.navigate(signInPath(pathname, search), { replace: true });
-});
+  // When the server says the session is gone (401 on any call), go to sign-in and come back after.
+  onSessionLost(() => {
+    const { pathname, search } = router.state.location;
+    if (pathname === '/sign-in' || pathname === '/sign-up' || pathname === '/forgot-password' || /^\/(reset-password|verify-email)\//.test(pathname)) return;
+    void router.navigate(signInPath(pathname, search), { replace: true });
+  });
+  return router;
+}
