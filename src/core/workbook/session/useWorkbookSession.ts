@@ -39,7 +39,7 @@ function browserStorage(): KeyValueStorage | null {
 }
 
 /** How long one slice of putting formulas back may hold the page (well inside a 250 ms stall). */
-export const computeSliceMs = 40;
+export const computeSliceMs = 25;
 
 /**
  * With no stored values, a workbook with more formulas than this is still opened in slices (its
