@@ -46,6 +46,8 @@ export interface LargeOpenTiming {
   editableMs: number;
   liveMs: number;
   longestStallMs: number;
+  /** Every task over 150 ms as [start, duration] (ms from navigation), to place the longest in the open. */
+  longTasks: [number, number][];
   openedOnStoredValues: boolean;
   /** When the server had stored its values after the last patch (ms after that patch). */
   storedAfterMs: number;
@@ -152,8 +154,9 @@ export async function storedValuesReady(api: ApiClient, id: string, timeoutMs = 
 /** Collects the page's long tasks from the start of each navigation (installed before any script runs). */
 const longTaskProbe = `(() => {
   window.__orbLongest = 0;
+  window.__orbLong = [];
   try {
-    new PerformanceObserver((list) => { for (const e of list.getEntries()) window.__orbLongest = Math.max(window.__orbLongest, e.duration); }).observe({ type: 'longtask', buffered: true });
+    new PerformanceObserver((list) => { for (const e of list.getEntries()) { window.__orbLongest = Math.max(window.__orbLongest, e.duration); if (e.duration > 150) window.__orbLong.push([Math.round(e.startTime), Math.round(e.duration)]); } }).observe({ type: 'longtask', buffered: true });
   } catch {}
 })()`;
 
@@ -190,6 +193,7 @@ function opener(page: Page, url: string) {
     const live = await page.waitForFunction(() => (document.querySelector('[data-testid="computing-state"]') ? false : performance.now()), undefined, { polling: 'raf', timeout: 600_000 });
     const liveMs = (await live.jsonValue()) as number;
     const longestStallMs = (await page.evaluate('window.__orbLongest')) as number;
+    const longTasks = (await page.evaluate('window.__orbLong')) as [number, number][];
     const { buildMs, previewMs, loadedMs, responseMs } = await page.evaluate(() => ({
       buildMs: performance.getEntriesByName('orbitab:build-engine').at(-1)?.duration ?? NaN,
       previewMs: performance.getEntriesByName('orbitab:build-preview').at(-1)?.duration ?? NaN,
@@ -200,7 +204,7 @@ function opener(page: Page, url: string) {
         (performance.getEntriesByType('resource') as PerformanceResourceTiming[]).filter((e) => /\/api\/workbooks\/[^/]+$/.test(e.name)).at(-1)?.responseEnd ??
         NaN,
     }));
-    return { shownMs, readyMs, buildMs, previewMs, loadedMs, responseMs, liveMs, longestStallMs, openedOnStoredValues };
+    return { shownMs, readyMs, buildMs, previewMs, loadedMs, responseMs, liveMs, longestStallMs, longTasks, openedOnStoredValues };
   };
 }
 
@@ -224,6 +228,7 @@ async function measureLargeOpen(api: ApiClient, openOnce: ReturnType<typeof open
     editableMs: Math.round(run.readyMs),
     liveMs: Math.round(run.liveMs),
     longestStallMs: Math.round(run.longestStallMs),
+    longTasks: run.longTasks,
     openedOnStoredValues: run.openedOnStoredValues,
     storedAfterMs,
     stallTargetMs: 250,
