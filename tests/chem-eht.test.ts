@@ -272,6 +272,16 @@ describe('geometry input', () => {
     expect(model(['5', 'ammonium', ...atoms].join('\n'), -1).electrons).toBe(10);
   });
 
+  it('splits XYZ text with line breaks at those alone, so a ";" in the comment stays in the comment', () => {
+    const atoms = ['O 0 0 0', 'H 0 0 0.964'];
+    const pasted = ['2', 'hydroxide; from the anion set; charge=-1', ...atoms].join('\n');
+    expect(readGeometry(pasted)).toMatchObject({ elements: ['O', 'H'], charge: -1, commentCharge: -1 });
+    // On one line, ";" separates the lines as before.
+    expect(readGeometry(['2', 'hydroxide charge=-1', ...atoms].join('; '))).toMatchObject({ elements: ['O', 'H'], charge: -1 });
+    // OH-: O 6 + H 1 valence electrons, one more for the anion.
+    expect(model(pasted).electrons).toBe(8);
+  });
+
   it('rejects input it cannot use, naming what is wrong', () => {
     expect(() => model('Fe 0 0 0; O 0 0 1.6')).toThrow(/no extended-Hückel parameters for Fe/);
     expect(() => model('3\nwater\nO 0 0 0\nH 0 0 1')).toThrow(/announces 3 atoms but lists 2/);

@@ -35,7 +35,7 @@ export const CONFORMER_SEED = 20260;
 export function geometrySourceOf(text: string): GeometrySource {
   const t = text.trim();
   if (/M {2}END|V[23]000/.test(t)) return 'molfile';
-  const firstLine = t.split(/\r?\n|;/)[0].trim();
+  const firstLine = xyzLines(t)[0].trim();
   // An element symbol followed by a number cannot start SMILES (a SMILES name follows a space but is
   // not numeric), so such a line is read as XYZ and a malformed one gets the XYZ message.
   if (/^\d+$/.test(firstLine) || /^[A-Za-z]{1,2}\s+[-+.\d]/.test(firstLine)) return 'xyz';
@@ -56,8 +56,17 @@ function normaliseSymbol(raw: string): string {
   return raw.charAt(0).toUpperCase() + raw.slice(1).toLowerCase();
 }
 
+/**
+ * The lines of XYZ text: a cell holds a frame on one line with ";" between its lines, while text
+ * with line breaks (pasted from a file) is split at those alone, so a ";" in its comment line stays
+ * part of the comment.
+ */
+function xyzLines(text: string): string[] {
+  return text.split(/\r?\n/).length > 1 ? text.split(/\r?\n/) : text.split(';');
+}
+
 export function readXyz(text: string): Geometry3d {
-  let lines = text.split(/\r?\n|;/).map((l) => l.trim());
+  let lines = xyzLines(text).map((l) => l.trim());
   let commentCharge: number | undefined;
   if (/^\d+$/.test(lines[0])) {
     const count = Number(lines[0]);
