@@ -25,7 +25,8 @@ import { restoreRevision } from '../services/restore.js';
 import { getRevision, listRevisions } from '../services/revisionLog.js';
 import { addSheet, deleteSheet, updateSheet } from '../services/sheetStore.js';
 import { workbookValues } from '../services/valuesInWorker.js';
-import { createWorkbookFor, deleteWorkbook, loadWorkbook, renameWorkbook, summarizeWorkbook } from '../services/workbookStore.js';
+import { createWorkbookFor, deleteWorkbook, renameWorkbook, summarizeWorkbook } from '../services/workbookStore.js';
+import { workbookJsonInSlices } from '../services/workbookSlices.js';
 import { sendStoredValues, valuesSourceHeader } from '../values/serve.js';
 import { servableValues } from '../values/store.js';
 import { accessMiddleware, accessOf, idParam, revisionNumberSchema } from './access.js';
@@ -51,8 +52,8 @@ export function workbooksRouter(ctx: AppContext): Router {
     res.status(201).json({ workbook: createWorkbookFor(ctx, currentUser(res), title) });
   });
 
-  router.get('/:id', access('view'), (_req, res) => {
-    res.json(loadWorkbook(ctx, accessOf(res)));
+  router.get('/:id', access('view'), async (_req, res) => {
+    res.type('application/json').send(await workbookJsonInSlices(ctx, accessOf(res)));
   });
 
   router.patch('/:id', access('rename'), (req, res) => {
