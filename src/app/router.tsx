@@ -15,57 +15,64 @@ import { redirectIfSignedIn, requireSignedIn, signInPath } from './guards.js';
 import { AppLayout } from './layout/AppLayout.js';
 import { onSessionLost, queryClient } from './queryClient.js';
 import { meQueryOptions } from '../core/session/me.js';
-import { startWorkbookLoad } from '../core/workbook/api.js';
+import { startWorkbookLoad, storedValuesQueryOptions } from '../core/workbook/api.js';
 import { loadOpenchemlib } from '@functions/chem/openchemlib.js';
 import { NotFoundPage, RouteError } from './RouteError.js';
 
 /** The app's router; made when the app starts (start.tsx), which also starts the first route's loaders. */
 export function createAppRouter() {
   const router = createBrowserRouter([
-  {
-    // Shown while the first guard asks the server who is signed in.
-    HydrateFallback: () => <div className="h-screen bg-canvas" aria-busy="true" />,
-    ErrorBoundary: RouteError,
-    children: [
-      { path: '/sign-in', loader: redirectIfSignedIn, Component: SignInPage },
-      { path: '/sign-up', loader: redirectIfSignedIn, Component: SignUpPage },
-      // Open signed out too: an invitee reads who invited them before signing up or in.
-      { path: '/invitations/:token', Component: InvitationPage },
-      // Links from e-mail: they work signed in or out (the token is what counts).
-      { path: '/verify-email/:token', Component: VerifyEmailPage },
-      { path: '/forgot-password', Component: ForgotPasswordPage },
-      { path: '/reset-password/:token', Component: ResetPasswordPage },
-      {
-        loader: requireSignedIn,
-        Component: AppLayout,
-        ErrorBoundary: RouteError,
-        children: [
-          { index: true, Component: () => <WorkbookListPage importControl={<ImportButton label="Import file…" />} /> },
-          {
-            path: 'workbooks/:id',
-            // The workbook starts loading while the page's code downloads (for a signed-in visitor only),
-            // and so does the structure toolkit, which runs as a task of its own rather than inside the
-            // page's start-up script (the engine waits for it: useWorkbookSession).
-            loader: ({ params }) => {
-              void loadOpenchemlib().catch(() => undefined);
-              void queryClient.ensureQueryData(meQueryOptions).then((user) => user && params.id && startWorkbookLoad(queryClient, params.id), () => undefined);
-              return null;
+    {
+      // Shown while the first guard asks the server who is signed in.
+      HydrateFallback: () => <div className="h-screen bg-canvas" aria-busy="true" />,
+      ErrorBoundary: RouteError,
+      children: [
+        { path: '/sign-in', loader: redirectIfSignedIn, Component: SignInPage },
+        { path: '/sign-up', loader: redirectIfSignedIn, Component: SignUpPage },
+        // Open signed out too: an invitee reads who invited them before signing up or in.
+        { path: '/invitations/:token', Component: InvitationPage },
+        // Links from e-mail: they work signed in or out (the token is what counts).
+        { path: '/verify-email/:token', Component: VerifyEmailPage },
+        { path: '/forgot-password', Component: ForgotPasswordPage },
+        { path: '/reset-password/:token', Component: ResetPasswordPage },
+        {
+          loader: requireSignedIn,
+          Component: AppLayout,
+          ErrorBoundary: RouteError,
+          children: [
+            { index: true, Component: () => <WorkbookListPage importControl={<ImportButton label="Import file…" />} /> },
+            {
+              path: 'workbooks/:id',
+              // The workbook starts loading while the page's code downloads (for a signed-in visitor only),
+              // and so does the structure toolkit, which runs as a task of its own rather than inside the
+              // page's start-up script (the engine waits for it: useWorkbookSession) — unless the
+              // workbook's values are stored: then its first screen is drawn from them first, and the
+              // session asks for the toolkit once they are painted.
+              loader: ({ params }) => {
+                const id = params.id;
+                const toolkit = () => void loadOpenchemlib().catch(() => undefined);
+                void queryClient.ensureQueryData(meQueryOptions).then((user) => {
+                  if (!user || !id) return toolkit();
+                  startWorkbookLoad(queryClient, id);
+                  void queryClient.ensureQueryData(storedValuesQueryOptions(id)).then((stored) => !stored && toolkit(), toolkit);
+                }, toolkit);
+                return null;
+              },
+              lazy: async () => ({ Component: (await import('./workbook/WorkbookPage.js')).WorkbookPage }),
             },
-            lazy: async () => ({ Component: (await import('./workbook/WorkbookPage.js')).WorkbookPage }),
-          },
-          {
-            path: 'functions',
-            lazy: async () => ({ Component: (await import('../features/reference/FunctionReferencePage.js')).FunctionReferencePage }),
-          },
-          { path: 'account', Component: AccountPage },
-          { path: 'admin', Component: AdminUsersPage },
-          { path: 'admin/mail', Component: MailOutbox },
-          { path: '*', Component: NotFoundPage },
-        ],
-      },
-    ],
-  },
-]);
+            {
+              path: 'functions',
+              lazy: async () => ({ Component: (await import('../features/reference/FunctionReferencePage.js')).FunctionReferencePage }),
+            },
+            { path: 'account', Component: AccountPage },
+            { path: 'admin', Component: AdminUsersPage },
+            { path: 'admin/mail', Component: MailOutbox },
+            { path: '*', Component: NotFoundPage },
+          ],
+        },
+      ],
+    },
+  ]);
   // When the server says the session is gone (401 on any call), go to sign-in and come back after.
   onSessionLost(() => {
     const { pathname, search } = router.state.location;

@@ -137,9 +137,11 @@ export function useWorkbookSession(id: string) {
     if (firstRun && pageOpen && onStored) setPreview(storedPreview(payload, stored));
     // SMILES functions read structures with openchemlib, loaded apart from the page's code
     // (functions/chem/openchemlib.ts): no formula is computed before it is in. Stored values are
-    // shown meanwhile; any other open waits for it. Every open waits for the engine's set-up. This
-    // effect runs again once what it waits for is in.
-    const toolkit = loadOpenchemlib();
+    // shown meanwhile, and it is asked for only once they are painted: its megabyte of code, compiled
+    // and run while the preview waited, held a cold open's first values back by a few hundred ms. Any
+    // other open waits for it. Every open waits for the engine's set-up. This effect runs again once
+    // what it waits for is in.
+    const toolkit = onStored && !openchemlibLoaded() ? afterNextPaint().then(loadOpenchemlib) : loadOpenchemlib();
     if (!enginePrepared() || (!onStored && !openchemlibLoaded())) {
       let cancelled = false;
       Promise.all([prepareEngine(), onStored ? null : toolkit]).then(
@@ -245,6 +247,9 @@ export function useWorkbookSession(id: string) {
 
   return { session, preview, payload, error: query.error ?? openError, isLoading: query.isLoading };
 }
+
+/** Resolves after the next frame has been painted (its frame callback, then a task after it). */
+const afterNextPaint = () => new Promise<void>((resolve) => requestAnimationFrame(() => setTimeout(resolve, 0)));
 
 function setupProblem(e: unknown): Error {
   return new Error(`The page could not get ready to compute (${e instanceof Error ? e.message : String(e)}); reload the page to try again.`);
