@@ -101,19 +101,34 @@ export function watchEvaluation(next: EvaluationWatcher | null): void {
   watcher = next;
 }
 
+let internals: { parserProto: any; evaluatorProto: any; Predictor: any; parseErrorProto: any } | null = null;
+
+/**
+ * HyperFormula's parser, evaluator, array-size predictor and parse-error cell, which it does not
+ * export: taken from one probe engine, built once (a HyperFormula build is a good part of a page's
+ * engine set-up) for every patch of its internals (this file, engineSharedTrees.ts).
+ */
+export function hyperFormulaInternals() {
+  if (internals) return internals;
+  const probe = HyperFormula.buildEmpty({ licenseKey: 'gpl-v3' }) as any;
+  probe.addSheet('probe');
+  probe.setCellContents({ sheet: probe.getSheetId('probe'), col: 0, row: 0 }, '=(');
+  internals = {
+    parserProto: Object.getPrototypeOf(probe._parser),
+    evaluatorProto: Object.getPrototypeOf(probe._evaluator),
+    Predictor: probe._crudOperations.operations.arraySizePredictor.constructor,
+    parseErrorProto: Object.getPrototypeOf(probe._dependencyGraph.getCell({ sheet: probe.getSheetId('probe'), col: 0, row: 0 })),
+  };
+  probe.destroy();
+  return internals;
+}
+
 /** Patches HyperFormula once so every engine built afterwards enforces the evaluation limits. */
 export function installEngineGuards() {
   if (installed) return;
   if (HyperFormula.version !== GUARDED_VERSION)
     throw new Error(`evaluation limits are written against HyperFormula ${GUARDED_VERSION}, found ${HyperFormula.version}: re-check functions/engineGuards.ts`);
-  const probe = HyperFormula.buildEmpty({ licenseKey: 'gpl-v3' }) as any;
-  const parserProto = Object.getPrototypeOf(probe._parser);
-  const evaluatorProto = Object.getPrototypeOf(probe._evaluator);
-  const Predictor = probe._crudOperations.operations.arraySizePredictor.constructor;
-  probe.addSheet('probe');
-  probe.setCellContents({ sheet: probe.getSheetId('probe'), col: 0, row: 0 }, '=(');
-  const parseErrorProto = Object.getPrototypeOf(probe._dependencyGraph.getCell({ sheet: probe.getSheetId('probe'), col: 0, row: 0 }));
-  probe.destroy();
+  const { parserProto, evaluatorProto, Predictor, parseErrorProto } = hyperFormulaInternals();
   for (const [what, fn] of [
     ['parser.parse', parserProto.parse],
     ['ParsingErrorVertex.getCellValue', parseErrorProto?.getCellValue],

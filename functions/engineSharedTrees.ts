@@ -6,7 +6,7 @@
 // equal to the cached one, so it is handed back as it is and shared by every cell of that shape.
 // HyperFormula never changes a tree in place except HYPERLINK, which writes its address onto its own
 // call node; a tree calling it is still copied.
-import { HyperFormula } from 'hyperformula';
+import { hyperFormulaInternals } from './engineGuards.js';
 
 interface TreeNode {
   type: string;
@@ -38,9 +38,7 @@ let installed = false;
 /** Patches HyperFormula once so engines built afterwards share range-free formula trees between cells. */
 export function installSharedTrees(): void {
   if (installed) return;
-  const probe = HyperFormula.buildEmpty({ licenseKey: 'gpl-v3' }) as unknown as { _parser: object; destroy(): void };
-  const parserProto = Object.getPrototypeOf(probe._parser) as { convertReversedRangesToRegularRanges?: (ast: object) => object };
-  probe.destroy();
+  const parserProto = hyperFormulaInternals().parserProto as { convertReversedRangesToRegularRanges?: (ast: object) => object };
   const convert = parserProto.convertReversedRangesToRegularRanges;
   if (typeof convert !== 'function') throw new Error('HyperFormula internals changed: parser.convertReversedRangesToRegularRanges is missing (functions/engineSharedTrees.ts)');
   parserProto.convertReversedRangesToRegularRanges = function (this: unknown, ast: object) {
