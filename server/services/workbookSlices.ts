@@ -128,40 +128,36 @@ export async function workbookJsonInSlices(ctx: AppContext, access: WorkbookAcce
       const [json, count, last] = page.get(sheetId, ...after)!;
       return { page: json.slice(1, -1), count, last: last === null ? null : [Math.floor(last / 2048), last % 2048] };
     },
-    (tx, tabs, protection) => ({ actions: actionsFor(tx, id, access.userId, access.roles), mySheetRoles: mySheetRoles(tx, id, access.userId, protection, tabs) }),
+    viewerPart(access),
   );
   if (!content) return JSON.stringify(loadWorkbook(ctx, access)); // the one-transaction read (or its 404)
-  const head: Omit<WorkbookPayload, 'sheets'> = {
-    id,
-    title: access.workbook.title,
-    revision: content.revision,
-    role: access.role,
-    actions: content.more.actions,
-    ...content.protection,
-    mySheetRoles: content.more.mySheetRoles,
-  };
   const sheets = content.tabs.map((s) => {
-    const meta = JSON.stringify({ id: s.id, name: s.name, position: s.position, settings: s.settings, createdBy: s.createdBy });
+    const meta = JSON.stringify(sheetPart(s));
     return `${meta.slice(0, -1)},"cells":[${(content.pages.get(s.id) ?? []).join(',')}]}`;
   });
-  return `${JSON.stringify(head).slice(0, -1)},"sheets":[${sheets.join(',')}]}`;
+  return `${JSON.stringify(payloadHead(access, content)).slice(0, -1)},"sheets":[${sheets.join(',')}]}`;
 }
 
 export async function loadWorkbookInSlices(ctx: AppContext, access: WorkbookAccess): Promise<WorkbookPayload> {
-  const id = access.workbook.id;
-  const content = await loadContentInSlices(ctx, id, (tx, tabs, protection) => ({
-    actions: actionsFor(tx, id, access.userId, access.roles),
-    mySheetRoles: mySheetRoles(tx, id, access.userId, protection, tabs),
-  }));
+  const content = await loadContentInSlices(ctx, access.workbook.id, viewerPart(access));
   if (!content) return loadWorkbook(ctx, access); // the one-transaction read (or its 404)
-  return {
-    id,
-    title: access.workbook.title,
-    revision: content.revision,
-    role: access.role,
-    actions: content.more.actions,
-    sheets: content.tabs.map((s) => ({ id: s.id, name: s.name, position: s.position, settings: s.settings, cells: content.cells.get(s.id) ?? [], createdBy: s.createdBy })),
-    ...content.protection,
-    mySheetRoles: content.more.mySheetRoles,
-  };
+  return { ...payloadHead(access, content), sheets: content.tabs.map((s) => ({ ...sheetPart(s), cells: content.cells.get(s.id) ?? [] })) };
 }
+
+type ViewerPart = Pick<WorkbookPayload, 'actions' | 'mySheetRoles'>;
+
+/** What of the workbook answer depends on who asks, read beside the tabs. */
+const viewerPart =
+  (access: WorkbookAccess) =>
+  (tx: Tx, tabs: Tabs, protection: Protection): ViewerPart => ({
+    actions: actionsFor(tx, access.workbook.id, access.userId, access.roles),
+    mySheetRoles: mySheetRoles(tx, access.workbook.id, access.userId, protection, tabs),
+  });
+
+/** The workbook answer without its sheets, as loadWorkbook gives it. */
+function payloadHead(access: WorkbookAccess, content: { revision: number; protection: Protection; more: ViewerPart }): Omit<WorkbookPayload, 'sheets'> {
+  return { id: access.workbook.id, title: access.workbook.title, revision: content.revision, role: access.role, actions: content.more.actions, ...content.protection, mySheetRoles: content.more.mySheetRoles };
+}
+
+/** A tab of the workbook answer without its cells. */
+const sheetPart = (s: Tabs[number]) => ({ id: s.id, name: s.name, position: s.position, settings: s.settings, createdBy: s.createdBy });
