@@ -10,47 +10,51 @@
 /** How long after it was asked an early answer may still be used. */
 const keptMs = 15_000;
 
-const early = new Map<string, { at: number; response: Promise<Response | null> }>();
-const earlyData = new Map<string, { at: number; data: Promise<{ data: unknown } | null>; abort: AbortController }>();
+interface Early<T> {
+  at: number;
+  /** The answer to hand over, or null (a failure is never handed over). */
+  answer: Promise<T | null>;
+  abort?: AbortController;
+}
+
+const early = new Map<string, Early<Response>>();
+const earlyData = new Map<string, Early<{ data: unknown }>>();
 
 /** Starts `GET /api<path>` unless it is already under way. */
 export function startEarlyGet(path: string): void {
   if (early.has(path)) return;
-  early.set(path, { at: performance.now(), response: fetch(`/api${path}`, { credentials: 'same-origin' }).catch(() => null) });
+  const response = fetch(`/api${path}`, { credentials: 'same-origin' });
+  early.set(path, { at: performance.now(), answer: response.then((r) => (r.ok ? r : null), () => null) });
 }
 
-/** Starts reading `path` with `read` (the worker's fetch, parse included) unless it is already under way; a failure is never handed over. */
+/** Starts reading `path` with `read` (the worker's fetch, parse included) unless it is already under way. */
 export function startEarlyRead(path: string, read: (signal: AbortSignal) => Promise<unknown>): void {
   if (earlyData.has(path)) return;
   const abort = new AbortController();
-  earlyData.set(path, { at: performance.now(), abort, data: read(abort.signal).then((data) => ({ data }), () => null) });
+  earlyData.set(path, { at: performance.now(), abort, answer: read(abort.signal).then((data) => ({ data }), () => null) });
+}
+
+/** The early answer for this path from `from` (once), or null when there is none to use. */
+async function take<T>(from: Map<string, Early<T>>, path: string): Promise<T | null> {
+  const entry = from.get(path);
+  if (!entry) return null;
+  from.delete(path);
+  if (performance.now() - entry.at > keptMs) {
+    entry.abort?.abort();
+    return null;
+  }
+  return entry.answer;
 }
 
 /** The early answer for this path (once), or null when there is none to use. */
-export async function takeEarlyGet(path: string): Promise<Response | null> {
-  const entry = early.get(path);
-  if (!entry) return null;
-  early.delete(path);
-  if (performance.now() - entry.at > keptMs) return null;
-  const response = await entry.response;
-  return response?.ok ? response : null;
-}
+export const takeEarlyGet = (path: string): Promise<Response | null> => take(early, path);
 
 /** The early read data for this path (once, wrapped), or null when there is none to use. */
-export async function takeEarlyRead(path: string): Promise<{ data: unknown } | null> {
-  const entry = earlyData.get(path);
-  if (!entry) return null;
-  earlyData.delete(path);
-  if (performance.now() - entry.at > keptMs) {
-    entry.abort.abort();
-    return null;
-  }
-  return entry.data;
-}
+export const takeEarlyRead = (path: string): Promise<{ data: unknown } | null> => take(earlyData, path);
 
 /** Forgets every early answer not yet taken (and stops the reads under way): the page is about to change something they may show. */
 export function dropEarlyGets(): void {
+  for (const entry of earlyData.values()) entry.abort?.abort();
   early.clear();
-  for (const entry of earlyData.values()) entry.abort.abort();
   earlyData.clear();
 }
