@@ -62,7 +62,8 @@ function normaliseSymbol(raw: string): string {
  * part of the comment.
  */
 function xyzLines(text: string): string[] {
-  return text.split(/\r?\n/).length > 1 ? text.split(/\r?\n/) : text.split(';');
+  const lines = text.split(/\r?\n/);
+  return lines.length > 1 ? lines : text.split(';');
 }
 
 export function readXyz(text: string): Geometry3d {
