@@ -1,11 +1,12 @@
 // Fetches, reads and parses an answer that grows with the workbook off the page's thread: reading
 // 13 MB of text and parsing it held the page for over a second each, and even a body read here but
 // fetched by the page was carried through the page a piece at a time (a third of a second of the
-// page's time at a stretch), so the page's first script asks this worker too (earlyGets.ts). A small answer goes back as its text, parsed by the page as any other;
-// a large one is parsed here and handed back in parts: the answer with every long per-sheet list
-// emptied first, then those lists a slice at a time, each slice its own message, so the page takes
-// them in short tasks between frames. Only lists under `sheets[i]` are sliced: the workbook's cells
-// and the stored values, the two answers that grow with the sheet.
+// page's time at a stretch), so the page's first script asks this worker too (earlyGets.ts). A
+// small answer goes back as its text, parsed by the page as any other; a large one is parsed here
+// and handed back in parts: the answer with every long per-sheet list emptied first, then those
+// lists a slice at a time, each slice its own message, so the page takes them in short tasks
+// between frames. Only lists under `sheets[i]` are sliced: the workbook's cells and the stored
+// values, the two answers that grow with the sheet.
 import { partTransfers, safeJson, splitIntoParts, type JsonFetchReply, type JsonFetchRequest } from './jsonParts.js';
 
 const scope = self as unknown as { onmessage: ((e: MessageEvent<JsonFetchRequest>) => void) | null; postMessage(m: JsonFetchReply, transfer?: Transferable[]): void };
