@@ -1,6 +1,7 @@
 import { DenseSparseChooseBasedOnThreshold, HyperFormula, type ConfigParams } from 'hyperformula';
 import { installEngineGuards } from './engineGuards.js';
 import { installSharedTrees } from './engineSharedTrees.js';
+import { installTopSort } from './engineTopSort.js';
 import { engineInput } from './formulaTokens.js';
 import { registerOrbitabPlugin } from './plugin.js';
 
@@ -25,11 +26,12 @@ export const engineConfig: Partial<ConfigParams> = {
  * runs them ahead, each in a task of its own (src/core/workbook/session/engineSetup.ts), since together
  * with a first build they held the page for a long task.
  */
-export const engineSetupSteps: readonly (() => void)[] = [installEngineGuards, installSharedTrees, registerOrbitabPlugin];
+export const engineSetupSteps: readonly (() => void)[] = [installEngineGuards, installSharedTrees, installTopSort, registerOrbitabPlugin];
 
 export function createEngine(sheets: Record<string, SheetInput>, options: Partial<ConfigParams> = {}): HyperFormula {
   installEngineGuards();
   installSharedTrees();
+  installTopSort();
   registerOrbitabPlugin();
   // Stored formulas keep the exponent the user (or another program) wrote, 6.022E23 included; the
   // engine reads only a lowercase e, so it is given that (functions/formulaTokens.ts).

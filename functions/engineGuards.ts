@@ -101,12 +101,12 @@ export function watchEvaluation(next: EvaluationWatcher | null): void {
   watcher = next;
 }
 
-let internals: { parserProto: any; evaluatorProto: any; Predictor: any; parseErrorProto: any } | null = null;
+let internals: { parserProto: any; evaluatorProto: any; Predictor: any; parseErrorProto: any; graphProto: any } | null = null;
 
 /**
  * HyperFormula's parser, evaluator, array-size predictor and parse-error cell, which it does not
  * export: taken from one probe engine, built once (a HyperFormula build is a good part of a page's
- * engine set-up) for every patch of its internals (this file, engineSharedTrees.ts).
+ * engine set-up) for every patch of its internals (this file, engineSharedTrees.ts, engineTopSort.ts).
  */
 export function hyperFormulaInternals() {
   if (internals) return internals;
@@ -118,6 +118,7 @@ export function hyperFormulaInternals() {
     evaluatorProto: Object.getPrototypeOf(probe._evaluator),
     Predictor: probe._crudOperations.operations.arraySizePredictor.constructor,
     parseErrorProto: Object.getPrototypeOf(probe._dependencyGraph.getCell({ sheet: probe.getSheetId('probe'), col: 0, row: 0 })),
+    graphProto: Object.getPrototypeOf(probe._dependencyGraph.graph),
   };
   probe.destroy();
   return internals;
