@@ -43,3 +43,31 @@ export function inTabOrder<T extends { position?: number }>(sheets: readonly T[]
 export function buildWorkbookEngine(sheets: readonly EngineSheet[], options: Partial<ConfigParams> = {}): HyperFormula {
   return createEngine(Object.fromEntries(inTabOrder(sheets).map((s) => [s.name, s.table ?? denseSheet(s.cells ?? [])])), options);
 }
+
+export interface EngineBlock<T> {
+  engineId: number;
+  row: number;
+  col: number;
+  rows: T[][];
+}
+
+/**
+ * Cells to write, in the order given, gathered into rectangles: a run along a row becomes one line,
+ * and lines of the same columns on consecutive rows become one block. The engine pays for each write
+ * call (a check of the area, an undo entry it then drops, a cleanup of its undo data: a good part of
+ * what putting 700,000 formulas back one by one allocated), so a block costs what one cell did.
+ */
+export function engineBlocks<T>(cells: readonly { engineId: number; row: number; col: number; content: T }[]): EngineBlock<T>[] {
+  const blocks: EngineBlock<T>[] = [];
+  let i = 0;
+  while (i < cells.length) {
+    const first = cells[i];
+    const line = [first.content];
+    i++;
+    while (i < cells.length && cells[i].engineId === first.engineId && cells[i].row === first.row && cells[i].col === first.col + line.length) line.push(cells[i++].content);
+    const last = blocks[blocks.length - 1];
+    if (last && last.engineId === first.engineId && last.col === first.col && last.row + last.rows.length === first.row && last.rows[0].length === line.length) last.rows.push(line);
+    else blocks.push({ engineId: first.engineId, row: first.row, col: first.col, rows: [line] });
+  }
+  return blocks;
+}

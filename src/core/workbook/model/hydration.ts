@@ -145,7 +145,7 @@ export class Hydration {
       const col = list.cols[this.cellAt];
       this.cellAt++;
       this.at++;
-      if (!target.hasSheet(sheetId) || this.edited.has(cellKey(sheetId, row, col))) continue;
+      if (!target.hasSheet(sheetId) || (this.edited.size > 0 && this.edited.has(cellKey(sheetId, row, col)))) continue;
       const input = target.inputOf(sheetId, row, col);
       if (input.startsWith('=')) cells.push({ sheetId, row, col, content: engineInput(input) });
     }

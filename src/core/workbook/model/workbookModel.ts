@@ -5,7 +5,7 @@
 // batch() grow quadratically in 3.3–3.5 (see the workbook issue), while a suspended evaluation
 // recomputes once at the end.
 import { ExportedCellChange, type ExportedChange, type HyperFormula } from 'hyperformula';
-import { buildWorkbookEngine, inTabOrder } from '@functions/workbookEngine.js';
+import { buildWorkbookEngine, engineBlocks, inTabOrder } from '@functions/workbookEngine.js';
 import { engineInput } from '@functions/formulaTokens.js';
 import { actionTooLargeReason, maxCellsPerAction, type SheetPayload, type ValuesPayload, type WorkbookPayload } from '@shared/workbooks.js';
 import { Hydration } from './hydration.js';
@@ -191,7 +191,15 @@ export class WorkbookModel {
     let changes: ExportedChange[] = [];
     this.engine.suspendEvaluation();
     try {
-      for (const c of cells) this.engine.setCellContents({ sheet: c.engineId, row: c.row, col: c.col }, [[c.content]]);
+      for (const b of engineBlocks(cells)) {
+        try {
+          this.engine.setCellContents({ sheet: b.engineId, row: b.row, col: b.col }, b.rows);
+        } catch (e) {
+          // A block refused as a whole (part of it lies in an array's area) goes in cell by cell, as before.
+          if (b.rows.length === 1 && b.rows[0].length === 1) throw e;
+          b.rows.forEach((line, i) => line.forEach((content, j) => this.engine.setCellContents({ sheet: b.engineId, row: b.row + i, col: b.col + j }, [[content]])));
+        }
+      }
     } finally {
       changes = this.engine.resumeEvaluation();
     }
