@@ -1,25 +1,18 @@
-// The app itself: the router with every page, the query client and the theme. Loaded by main.tsx
-// after it has started the first requests (earlyStart.ts).
-import { QueryClientProvider } from '@tanstack/react-query';
-import { StrictMode } from 'react';
-import { createRoot } from 'react-dom/client';
-import { RouterProvider } from 'react-router/dom';
-import { queryClient } from './queryClient.js';
-import { createAppRouter } from './router.js';
+// Starts the app. Loaded by main.tsx after it has started the first requests (earlyStart.ts).
+// The app's code is run in steps, each a task of its own: React's renderer (react-dom/client), then
+// the app's modules (appRoot.tsx: the router, every page's static part, the request schemas), then
+// the router and the first render. Run as one, the modules alone held the page for 180-340 ms on the
+// 2-core machine, the longest task of a large workbook's open (bench/browser-open.ts).
 import { watchTheme } from './theme/theme.js';
 
 watchTheme();
 
-// The router (which starts the first route's loaders) and the first render run in a task of their
-// own, after this code's modules have run: together they held the page for a single task of
-// 150-240 ms on the 2-core machine, the longest of a large workbook's open.
-setTimeout(() => {
-  const router = createAppRouter();
-  createRoot(document.getElementById('root')!).render(
-    <StrictMode>
-      <QueryClientProvider client={queryClient}>
-        <RouterProvider router={router} />
-      </QueryClientProvider>
-    </StrictMode>,
-  );
-}, 0);
+const nextTask = () => new Promise<void>((resolve) => setTimeout(resolve, 0));
+
+void (async () => {
+  const { createRoot } = await import('react-dom/client');
+  await nextTask();
+  const { renderApp } = await import('./appRoot.js');
+  await nextTask();
+  renderApp(createRoot(document.getElementById('root')!));
+})();
