@@ -33,9 +33,23 @@ function needsCopy(node: unknown): boolean {
   return copy;
 }
 
+interface Size {
+  width: number;
+  height: number;
+  isRef: boolean;
+}
+/**
+ * Predicted result sizes of range-free trees, per engine settings. HyperFormula predicts the size of
+ * every formula cell's result from its tree before placing it (and the evaluation limits ask again,
+ * engineGuards.ts); for a tree without ranges the prediction reads the tree alone, never the cell's
+ * address, so cells sharing a tree share it. Unshared, this was about 350 MB of short-lived objects
+ * while 700,000 formulas were put back in a page.
+ */
+const sizes = new WeakMap<object, WeakMap<object, Size>>();
+
 let installed = false;
 
-/** Patches HyperFormula once so engines built afterwards share range-free formula trees between cells. */
+/** Patches HyperFormula once so engines built afterwards share range-free formula trees, and their predicted result sizes, between cells. */
 export function installSharedTrees(): void {
   if (installed) return;
   const parserProto = hyperFormulaInternals().parserProto as { convertReversedRangesToRegularRanges?: (ast: object) => object };
@@ -43,6 +57,19 @@ export function installSharedTrees(): void {
   if (typeof convert !== 'function') throw new Error('HyperFormula internals changed: parser.convertReversedRangesToRegularRanges is missing (functions/engineSharedTrees.ts)');
   parserProto.convertReversedRangesToRegularRanges = function (this: unknown, ast: object) {
     return needsCopy(ast) ? convert.call(this, ast) : ast;
+  };
+  const predictorProto = hyperFormulaInternals().Predictor.prototype as { checkArraySize?: (this: { config: object }, ast: object, at: unknown) => Size };
+  const predict = predictorProto.checkArraySize;
+  if (typeof predict !== 'function') throw new Error('HyperFormula internals changed: ArraySizePredictor.checkArraySize is missing (functions/engineSharedTrees.ts)');
+  predictorProto.checkArraySize = function (ast, at) {
+    let known = sizes.get(this.config);
+    if (!known) sizes.set(this.config, (known = new WeakMap()));
+    const size = known.get(ast);
+    // A fresh copy each time, as HyperFormula makes one: nothing it is handed is shared with another cell.
+    if (size) return new (size.constructor as new (w: number, h: number, r: boolean) => Size)(size.width, size.height, size.isRef);
+    const predicted = predict.call(this, ast, at);
+    if (!needsCopy(ast)) known.set(ast, predicted);
+    return predicted;
   };
   installed = true;
 }

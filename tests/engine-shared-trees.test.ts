@@ -2,6 +2,7 @@
 // each; what they compute, how they move with rows and what HYPERLINK records stay per cell.
 import { describe, expect, it } from 'vitest';
 import { createEngine } from '../functions/engine.js';
+import { hyperFormulaInternals } from '../functions/engineGuards.js';
 
 type Internals = { _dependencyGraph: { getCell(a: { sheet: number; row: number; col: number }): { formula?: object } | undefined } };
 
@@ -62,6 +63,39 @@ describe('formula trees shared between cells of one shape', () => {
       expect(engine.getCellHyperlink({ sheet: 0, row: 1, col: 1 })).toBe('https://b.example');
     } finally {
       engine.destroy();
+    }
+  });
+
+  it('predicts a shared shape\'s result size once, and each cell still spills what it computes', () => {
+    const proto = hyperFormulaInternals().Predictor.prototype as { checkArraySizeForAst: (...a: unknown[]) => unknown };
+    const ask = proto.checkArraySizeForAst;
+    let asked = 0;
+    proto.checkArraySizeForAst = function (...a: unknown[]) {
+      asked++;
+      return ask.apply(this, a);
+    };
+    try {
+      const rows: (string | number | null)[][] = Array.from({ length: 400 }, (_, r) => [r + 1, `=A${r + 1}*2`, null, null, null]);
+      // Spilling shapes: range-free (SEQUENCE) in two rows, and one with a range.
+      rows[0].push('=SEQUENCE(1, 3)');
+      rows[5].push('=SEQUENCE(1, 3)');
+      rows[10].push(`=A1:A2*10`);
+      const engine = createEngine({ S: rows });
+      try {
+        // Without the shared prediction each of the 400 cells is asked about twice (the engine and the evaluation limits).
+        expect(asked).toBeLessThan(40);
+        expect(engine.getCellValue({ sheet: 0, row: 399, col: 1 })).toBe(800);
+        for (const r of [0, 5]) expect([5, 6, 7].map((col) => engine.getCellValue({ sheet: 0, row: r, col }))).toEqual([1, 2, 3]);
+        expect([10, 11].map((row) => engine.getCellValue({ sheet: 0, row, col: 5 }))).toEqual([10, 20]);
+        // A SEQUENCE with no room to spill is an error in that cell only.
+        engine.setCellContents({ sheet: 0, row: 5, col: 6 }, 'x');
+        expect((engine.getCellValue({ sheet: 0, row: 5, col: 5 }) as { type?: string }).type).toBe('SPILL');
+        expect(engine.getCellValue({ sheet: 0, row: 0, col: 6 })).toBe(2);
+      } finally {
+        engine.destroy();
+      }
+    } finally {
+      proto.checkArraySizeForAst = ask;
     }
   });
 });
