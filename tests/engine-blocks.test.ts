@@ -3,16 +3,9 @@
 // exactly as it does written cell by cell, in the order given.
 import { describe, expect, it } from 'vitest';
 import { buildWorkbookEngine, engineBlocks } from '../functions/workbookEngine.js';
+import { seededRandom as rng } from './helpers/seededRandom.js';
 
 type Cell = { engineId: number; row: number; col: number; content: string | number | null };
-
-function rng(seed: number) {
-  let s = seed >>> 0;
-  return () => {
-    s = (Math.imul(s, 1664525) + 1013904223) >>> 0;
-    return s / 4294967296;
-  };
-}
 
 function contents(engine: ReturnType<typeof buildWorkbookEngine>, sheets: number) {
   return Array.from({ length: sheets }, (_, sheet) => engine.getSheetSerialized(sheet));

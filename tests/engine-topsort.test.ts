@@ -6,6 +6,7 @@ import { describe, expect, it } from 'vitest';
 import { hyperFormulaInternals } from '../functions/engineGuards.js';
 import { installTopSort } from '../functions/engineTopSort.js';
 import { createEngine } from '../functions/engine.js';
+import { seededRandom as rng } from './helpers/seededRandom.js';
 
 type Node = { idInGraph: number };
 type Graph = { nodesSparseArray: (Node | undefined)[]; edgesSparseArray: (number | undefined)[][] };
@@ -15,17 +16,6 @@ const graphProto = hyperFormulaInternals().graphProto as { getTopSortedWithSccSu
 const original = graphProto.getTopSortedWithSccSubgraphFrom;
 installTopSort();
 const patched = graphProto.getTopSortedWithSccSubgraphFrom;
-
-function rng(seed: number) {
-  let s = seed >>> 0;
-  return () => {
-    s = (s + 0x6d2b79f5) >>> 0;
-    let t = s;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 /** A graph like HyperFormula's: removed nodes leave holes, edge lists keep deleted slots and may point at removed nodes. */
 function randomGraph(random: () => number, size: number, density: number): Graph {

@@ -5,17 +5,11 @@ import { catalog } from '../../functions/catalog/index.js';
 import type { ParamSpec } from '../../functions/catalog/types.js';
 import { maxFormulaNesting } from '../../shared/cellInput.js';
 import { maxInputLength } from '../../shared/workbooks.js';
+import { seededRandom as plainSeededRandom } from './seededRandom.js';
 
-/** mulberry32: a tiny 32-bit generator, good enough to spread test inputs (public domain, T. Ettinger). */
+/** The seeded generator (helpers/seededRandom.ts) with the picks fuzz inputs are made of. */
 export function seededRandom(seed: number) {
-  let a = seed >>> 0;
-  const next = () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
+  const next = plainSeededRandom(seed);
   const int = (lo: number, hi: number) => lo + Math.floor(next() * (hi - lo + 1));
   const pick = <T>(items: readonly T[]): T => items[Math.floor(next() * items.length)];
   const chance = (p: number) => next() < p;

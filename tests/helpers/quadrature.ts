@@ -18,14 +18,4 @@ export function ellipticIntegral(g: (xi: number, eta: number) => number, decay: 
   return simpson((xi) => simpson((eta) => g(xi, eta), -1, 1, etaIntervals), 1, xiMax, xiIntervals);
 }
 
-/** A small seeded generator (mulberry32) so random cross-checks are reproducible. */
-export function seededRandom(seed: number): () => number {
-  let state = seed >>> 0;
-  return () => {
-    state = (state + 0x6d2b79f5) >>> 0;
-    let t = state;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+export { seededRandom } from './seededRandom.js';

@@ -5,6 +5,7 @@ import ExcelJS from 'exceljs';
 import JSZip from 'jszip';
 import { writeWorkbookXlsx, type WriteOptions } from '../../server/xlsx/writeXlsx.js';
 import type { ExportWorkbook } from '../../server/xlsx/types.js';
+import { seededRandom } from './seededRandom.js';
 
 export async function exportToBuffer(workbook: ExportWorkbook, options: WriteOptions): Promise<Buffer> {
   const out = new PassThrough();
@@ -59,17 +60,7 @@ export function understateSizes(zip: Buffer, size: number): Buffer {
   return out;
 }
 
-/** mulberry32: a small seeded generator (Tommy Ettinger's public-domain algorithm). */
-export function seededRandom(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+export { seededRandom };
 
 export interface DamagedCopy {
   label: string;
