@@ -8,7 +8,10 @@
 //
 // This is the same algorithm, visiting nodes and edges in the same order (so cells are computed in
 // the same order), with the visit state in typed arrays kept between runs and a run number marking
-// what belongs to the current run, so a run allocates only its result lists.
+// what belongs to the current run, so a run allocates only its result lists. The arrays are shared
+// by every engine of the process and sized to the highest node id met: 21 bytes an id, beside the
+// two pointer arrays HyperFormula itself indexes by id (it never reuses ids, so both grow with the
+// cells an engine has replaced over its life, not only with the cells it holds).
 import { hyperFormulaInternals } from './engineGuards.js';
 
 interface GraphLike {
