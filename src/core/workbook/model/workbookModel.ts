@@ -195,7 +195,8 @@ export class WorkbookModel {
         try {
           this.engine.setCellContents({ sheet: b.engineId, row: b.row, col: b.col }, b.rows);
         } catch (e) {
-          // A block refused as a whole (part of it lies in an array's area) goes in cell by cell, as before.
+          // The engine checks a block's addresses before writing any; refused, the block goes in cell by
+          // cell as before, so the cells ahead of the bad address are written and the same error is thrown.
           if (b.rows.length === 1 && b.rows[0].length === 1) throw e;
           b.rows.forEach((line, i) => line.forEach((content, j) => this.engine.setCellContents({ sheet: b.engineId, row: b.row + i, col: b.col + j }, [[content]])));
         }
