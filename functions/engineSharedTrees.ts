@@ -52,13 +52,14 @@ let installed = false;
 /** Patches HyperFormula once so engines built afterwards share range-free formula trees, and their predicted result sizes, between cells. */
 export function installSharedTrees(): void {
   if (installed) return;
-  const parserProto = hyperFormulaInternals().parserProto as { convertReversedRangesToRegularRanges?: (ast: object) => object };
+  const internals = hyperFormulaInternals();
+  const parserProto = internals.parserProto as { convertReversedRangesToRegularRanges?: (ast: object) => object };
   const convert = parserProto.convertReversedRangesToRegularRanges;
   if (typeof convert !== 'function') throw new Error('HyperFormula internals changed: parser.convertReversedRangesToRegularRanges is missing (functions/engineSharedTrees.ts)');
   parserProto.convertReversedRangesToRegularRanges = function (this: unknown, ast: object) {
     return needsCopy(ast) ? convert.call(this, ast) : ast;
   };
-  const predictorProto = hyperFormulaInternals().Predictor.prototype as { checkArraySize?: (this: { config: object }, ast: object, at: unknown) => Size };
+  const predictorProto = internals.Predictor.prototype as { checkArraySize?: (this: { config: object }, ast: object, at: unknown) => Size };
   const predict = predictorProto.checkArraySize;
   if (typeof predict !== 'function') throw new Error('HyperFormula internals changed: ArraySizePredictor.checkArraySize is missing (functions/engineSharedTrees.ts)');
   predictorProto.checkArraySize = function (ast, at) {
