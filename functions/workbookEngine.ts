@@ -2,7 +2,7 @@
 // as sparse [row, col, input] cells (densified here), built by createEngine with the shared config
 // (sparse address maps for sparse sheets included). The grid's model, revision snapshots, the
 // server's /values and exports all build theirs here.
-import type { ConfigParams, HyperFormula } from 'hyperformula';
+import { CellType, type ConfigParams, type HyperFormula } from 'hyperformula';
 import { createEngine, type SheetInput } from './engine.js';
 
 /** One non-empty cell: zero-based row and column and the input as typed. */
@@ -70,4 +70,25 @@ export function engineBlocks<T>(cells: readonly { engineId: number; row: number;
     else blocks.push({ engineId: first.engineId, row: first.row, col: first.col, rows: [line] });
   }
   return blocks;
+}
+
+/**
+ * The area an array formula at `at` fills, in rows × columns (1 × 1 when its result is an error or
+ * its spill is blocked), or null when the cell holds no array formula. The walk right and down over
+ * cells the engine marks as part of an array is held to the formula's own result size: unbounded,
+ * it ran on into a neighbouring array formula's area.
+ */
+export function arrayAreaAt(engine: HyperFormula, at: { sheet: number; row: number; col: number }): { rows: number; cols: number } | null {
+  if (engine.getCellType(at) !== CellType.ARRAYFORMULA) return null;
+  // HyperFormula 3.5's ArrayFormulaVertex (its dependency graph is public but marked internal); its
+  // size is the predicted one even when the result is an error, so it only bounds the walk.
+  const vertex = (engine as unknown as { dependencyGraph?: { getCell?(a: typeof at): { width?: unknown; height?: unknown } | undefined } }).dependencyGraph?.getCell?.(at);
+  const width = typeof vertex?.width === 'number' ? vertex.width : Infinity;
+  const height = typeof vertex?.height === 'number' ? vertex.height : Infinity;
+  const spilled = (row: number, col: number) => engine.getCellType({ sheet: at.sheet, row, col }) === CellType.ARRAY;
+  let cols = 1;
+  while (cols < width && spilled(at.row, at.col + cols)) cols++;
+  let rows = 1;
+  while (rows < height && spilled(at.row + rows, at.col)) rows++;
+  return { rows, cols };
 }

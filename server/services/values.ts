@@ -1,9 +1,9 @@
 // Values computed on the server with the engine the browser builds too (functions/workbookEngine.ts), for
 // integrations and export. Only non-empty values are returned, as [row, col, value] per sheet.
-import { CellType, DetailedCellError, type CellValue, type HyperFormula } from 'hyperformula';
+import { DetailedCellError, type CellValue, type HyperFormula } from 'hyperformula';
 import { explainCellError } from '../../functions/cellErrors.js';
 import '../../functions/openchemlibNode.js';
-import { buildWorkbookEngine } from '../../functions/workbookEngine.js';
+import { arrayAreaAt, buildWorkbookEngine } from '../../functions/workbookEngine.js';
 import type { ComputedValue, SheetPayload, ValueEntry, ValuesPayload, WorkbookPayload } from '../../shared/workbooks.js';
 
 function toComputed(value: CellValue, formula?: () => string | undefined): ComputedValue | null {
@@ -14,7 +14,7 @@ function toComputed(value: CellValue, formula?: () => string | undefined): Compu
 
 /**
  * The cells that can hold a value: every input cell, plus the cells an array formula spills into
- * (found by walking right and down from its anchor while the engine marks cells as part of an array).
+ * (the area each array formula fills, functions/workbookEngine.ts arrayAreaAt).
  */
 function candidateCells(engine: HyperFormula, sheet: number, cells: WorkbookPayload['sheets'][number]['cells']): [number, number][] {
   const seen = new Set<string>();
@@ -26,15 +26,10 @@ function candidateCells(engine: HyperFormula, sheet: number, cells: WorkbookPayl
       out.push([row, col]);
     }
   };
-  const isSpill = (row: number, col: number) => engine.getCellType({ sheet, row, col }) === CellType.ARRAY;
   for (const [row, col] of cells) {
     add(row, col);
-    if (engine.getCellType({ sheet, row, col }) !== CellType.ARRAYFORMULA) continue;
-    let width = 1;
-    while (isSpill(row, col + width)) width++;
-    let height = 1;
-    while (isSpill(row + height, col)) height++;
-    for (let r = row; r < row + height; r++) for (let c = col; c < col + width; c++) add(r, c);
+    const area = arrayAreaAt(engine, { sheet, row, col });
+    if (area) for (let r = row; r < row + area.rows; r++) for (let c = col; c < col + area.cols; c++) add(r, c);
   }
   return out.sort((a, b) => a[0] - b[0] || a[1] - b[1]);
 }

@@ -1,10 +1,10 @@
 // Computes a workbook once with the shared engine (functions/engine.ts), for export and `cli recalc`:
 // each input cell's value, the cells array formulas spill into, and which chemistry functions are used.
-import { CellError, CellType, DetailedCellError, type CellValue, type HyperFormula } from 'hyperformula';
+import { CellError, DetailedCellError, type CellValue, type HyperFormula } from 'hyperformula';
 import { explainCellError } from '../../functions/cellErrors.js';
 import '../../functions/openchemlibNode.js';
 import { catalogByName } from '../../functions/index.js';
-import { buildWorkbookEngine } from '../../functions/workbookEngine.js';
+import { arrayAreaAt, buildWorkbookEngine } from '../../functions/workbookEngine.js';
 import type { CellTriple } from './types.js';
 import { literalNumber } from './xlsxValues.js';
 
@@ -75,11 +75,6 @@ export function computeSheet(engine: HyperFormula, sheet: number, name: string, 
   const valueAt = (row: number, col: number): CellValue => (all ? (all[row]?.[col] ?? null) : engine.getCellValue({ sheet, row, col }));
   // Numeric keys: a row never has more than the engine's 2,000 columns (functions/engine.ts).
   const key = (row: number, col: number) => row * 4096 + col;
-  let inputAt: Set<number> | null = null; // built only if an array formula spills
-  const isSpilled = (row: number, col: number) => {
-    inputAt ??= new Set(cells.map(([r, c]) => key(r, c)));
-    return !inputAt.has(key(row, col)) && engine.getCellType({ sheet, row, col }) === CellType.ARRAY;
-  };
   const read = (row: number, col: number, input?: string): ComputedCell => {
     let value = valueAt(row, col);
     // A parse error is written in plain words naming the position, as the grid and /values say it.
@@ -99,11 +94,9 @@ export function computeSheet(engine: HyperFormula, sheet: number, name: string, 
   for (const [row, col, input] of sorted) {
     const cell = read(row, col, input);
     out.push(cell);
-    if (!input.startsWith('=') || engine.getCellType({ sheet, row, col }) !== CellType.ARRAYFORMULA) continue;
-    let cols = 1;
-    while (isSpilled(row, col + cols)) cols++;
-    let rows = 1;
-    while (isSpilled(row + rows, col)) rows++;
+    const area = input.startsWith('=') ? arrayAreaAt(engine, { sheet, row, col }) : null;
+    if (!area) continue;
+    const { rows, cols } = area;
     cell.spill = { rows, cols };
     for (let r = row; r < row + rows; r++) for (let c = col; c < col + cols; c++) if (r !== row || c !== col) out.push(read(r, c));
     spilled ||= rows > 1 || cols > 1;

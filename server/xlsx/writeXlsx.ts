@@ -5,6 +5,7 @@ import type { Writable } from 'node:stream';
 import ExcelJS from 'exceljs';
 import { parseRangeName, rangeArea, rangeName, type CellRange } from '../../shared/a1.js';
 import { computeWorkbook, type ComputedCell, type ComputedWorkbook } from './engineValues.js';
+import { directWritable, DirectRows, effectiveTypeOf, type DirectValue } from './directRows.js';
 import { writeAboutSheet } from './frontSheet.js';
 import { applyProtection, describeProtection, type CellProtectionPlan } from './protection.js';
 import { fileLayoutOf } from './sheetSettings.js';
@@ -15,6 +16,8 @@ export interface WriteOptions {
   mode: ExportMode;
   /** `cli recalc --no-about-sheet` leaves the provenance page out (pipelines that count sheets). */
   aboutSheet?: boolean;
+  /** false: every row through exceljs's own cell objects (tests compare the two ways). */
+  directRows?: boolean;
 }
 
 /** Rows written between pauses that let the event loop (and the response stream) breathe. */
@@ -117,36 +120,58 @@ export async function writeComputedXlsx(output: Writable, data: ExportWorkbook, 
     }
     for (const m of writableMerges(sheet, merged, omissions, names[i])) ws.mergeCells(m.top + 1, m.left + 1, m.bottom + 1, m.right + 1);
 
+    // Rows go straight into the sheet's XML (directRows.ts) unless they carry a note, exceljs still
+    // holds rows of a merge, or the sheet has column styles (its cells take them per cell).
+    const direct = options.directRows !== false && plan.columnLocks.length === 0 ? DirectRows.for(ws) : null;
     let notes = 0;
-    let currentRow = -1;
-    let row: ExcelJS.Row | null = null;
     let rowsInSlice = 0;
     const cells = plan.extraLockedCells.length ? mergeLockedCells(computed.sheets[i].cells, plan.extraLockedCells) : computed.sheets[i].cells;
-    for (const cell of cells) {
-      if (cell.row !== currentRow) {
-        row?.commit();
-        currentRow = cell.row;
-        row = ws.getRow(cell.row + 1);
-        if (++rowsInSlice >= ROWS_PER_SLICE) {
-          rowsInSlice = 0;
-          await yieldToEventLoop();
+    const rowValues: ReturnType<typeof cellValueFor>[] = [];
+    for (let start = 0; start < cells.length; ) {
+      const rowIndex = cells[start].row;
+      let end = start;
+      while (end < cells.length && cells[end].row === rowIndex) end++;
+      if (++rowsInSlice >= ROWS_PER_SLICE) {
+        rowsInSlice = 0;
+        await yieldToEventLoop();
+      }
+      rowValues.length = 0;
+      let straight = direct?.ready ?? false;
+      for (let k = start; k < end; k++) {
+        const v = cellValueFor(cells[k], mode);
+        rowValues.push(v);
+        if (straight && ((v.note && notes < MAX_ERROR_NOTES_PER_SHEET) || !directWritable(v.value))) straight = false;
+      }
+      if (straight) {
+        for (let k = start; k < end; k++) {
+          const cell = cells[k];
+          const { value, numFmt } = rowValues[k - start];
+          const locked = plan.isLocked ? plan.isLocked(cell.row, cell.col) : undefined;
+          direct!.cell(cell.col + 1, value as DirectValue, styles.get(numFmt, locked, effectiveTypeOf(value as DirectValue)));
         }
+        direct!.endRow(rowIndex + 1);
+      } else {
+        const row = ws.getRow(rowIndex + 1);
+        for (let k = start; k < end; k++) {
+          const cell = cells[k];
+          const target = row.getCell(cell.col + 1);
+          const { value, numFmt, note } = rowValues[k - start];
+          target.value = value;
+          const locked = plan.isLocked ? plan.isLocked(cell.row, cell.col) : undefined;
+          if (isPlainStyle(target.style)) target.style = styles.get(numFmt, locked, target.effectiveType);
+          else {
+            if (numFmt) target.numFmt = numFmt;
+            if (locked !== undefined) target.protection = { locked };
+          }
+          if (note && notes < MAX_ERROR_NOTES_PER_SHEET) {
+            target.note = note;
+            notes++;
+          }
+        }
+        row.commit();
       }
-      const target = row!.getCell(cell.col + 1);
-      const { value, numFmt, note } = cellValueFor(cell, mode);
-      target.value = value;
-      const locked = plan.isLocked ? plan.isLocked(cell.row, cell.col) : undefined;
-      if (isPlainStyle(target.style)) target.style = styles.get(numFmt, locked, target.effectiveType);
-      else {
-        if (numFmt) target.numFmt = numFmt;
-        if (locked !== undefined) target.protection = { locked };
-      }
-      if (note && notes < MAX_ERROR_NOTES_PER_SHEET) {
-        target.note = note;
-        notes++;
-      }
+      start = end;
     }
-    row?.commit();
     await ws.commit();
   }
   await wb.commit();
@@ -161,7 +186,7 @@ export async function writeComputedXlsx(output: Writable, data: ExportWorkbook, 
  */
 class SharedStyles {
   private byKey = new Map<string, Partial<ExcelJS.Style>>();
-  get(numFmt: string | undefined, locked: boolean | undefined, type: ExcelJS.ValueType): Partial<ExcelJS.Style> {
+  get(numFmt: string | undefined, locked: boolean | undefined, type: ExcelJS.ValueType | number): Partial<ExcelJS.Style> {
     const key = `${numFmt ?? ''}\u0000${locked ?? ''}\u0000${type}`;
     let style = this.byKey.get(key);
     if (!style) {
