@@ -336,6 +336,27 @@ export interface ValuesPayload {
   sheets: { id: string; name: string; values: ValueEntry[] }[];
 }
 
+/** Rows and columns of a sheet the first screen shows, and so those GET …/first-rows answers with. */
+export const firstRowsShown = 60;
+export const firstColsShown = 64;
+
+/**
+ * GET /api/workbooks/:id/first-rows — what the page paints while the whole workbook and its values are
+ * still on their way: the first tab's first rows and columns (`firstRowsShown` × `firstColsShown`) and the values stored with the
+ * current revision for them (null while they are not stored, or when a formula calls a function of
+ * the clock or of chance). A few kilobytes however large the workbook.
+ */
+export interface FirstRowsPayload {
+  id: string;
+  title: string;
+  revision: number;
+  /** The first tab, with only its cells in those rows and columns; null for a workbook without tabs. */
+  sheet: SheetPayload | null;
+  values: ValueEntry[] | null;
+  /** The workbook's non-empty cells at this revision, when its values are stored (else null). */
+  cells: number | null;
+}
+
 /**
  * Kept beside a revision's stored /values answer: what an export needs to write the same file as a
  * fresh computation. Per sheet id; each list is of cells, in row-major order.

@@ -57,6 +57,7 @@ const table: Row[] = [
   row('view as of a revision', 'get', '/api/workbooks/{id}/revisions/{n}/snapshot', undefined,               200, 200, 200, 404, 200, 401),
   row('restore a revision', 'post', '/api/workbooks/{id}/revisions/{n}/restore', undefined,                  200, 200, 403, 404, 403, 401),
   row('computed values', 'get', '/api/workbooks/{id}/values', undefined,                                   200, 200, 200, 404, 200, 401),
+  row('first rows', 'get', '/api/workbooks/{id}/first-rows', undefined,                                      200, 200, 200, 404, 200, 401),
   row('structure results', 'post', '/api/workbooks/{id}/structures', { inputs: [{ structure: 'O 0 0 0; H 0.96 0 0; H -0.24 0.93 0' }] }, 200, 200, 200, 404, 200, 401),
   row('export', 'get', '/api/workbooks/{id}/export?format=xlsx', undefined,                                200, 200, 200, 404, 200, 401),
   row('import into it', 'post', '/api/imports', 'import',                                                  201, 201, 403, 404, 403, 401),

@@ -160,6 +160,45 @@ describe('opening a workbook on its stored values', () => {
     }
   }, 300_000);
 
+  it('paints the first rows from their own small answer while the workbook answer is held back', async () => {
+    expect(workbookId).not.toBe(''); // made by the tests above
+    await storedValuesOf(workbookId, (await call('GET', `/workbooks/${workbookId}`)).body.revision);
+    const heldPage = await browser.context.newPage();
+    // The workbook answer (asked by the JSON worker) waits until let go; the first rows come at once.
+    let letGo = () => {};
+    const gate = new Promise<void>((resolve) => (letGo = resolve));
+    const asked: string[] = [];
+    await browser.context.route(new RegExp(`/api/workbooks/${workbookId}(\\?.*)?$`), async (route) => {
+      asked.push(route.request().url());
+      await gate;
+      await route.continue();
+    });
+    try {
+      heldPage.setDefaultTimeout(60_000);
+      await heldPage.goto(`${server.url}/workbooks/${workbookId}`);
+      // The stored first rows, read-only: N2, O2 (set above), C2 and B2 — bond orders 3, 2, 2, 1 and
+      // unpaired electrons 0, 2, 0, 2 (MO diagrams of any general chemistry text).
+      const preview = heldPage.locator('[data-testid="sheet-grid"][data-preview]');
+      await preview.waitFor();
+      await expect.poll(() => preview.locator('.orb-cell-number').first().textContent()).toBe('3'); // B1: N2, bond order 3
+      await expect.poll(async () => (await preview.locator('.orb-cell-number').allTextContents()).slice(0, 8)).toEqual(['3', '0', '2', '2', '2', '0', '1', '2']);
+      // All the while the workbook answer has not been given: nothing but the first rows' answer drew them.
+      expect(await heldPage.locator('[data-testid="sheet-grid"]:not([data-preview])').count()).toBe(0);
+      await screenshot(heldPage, 'stored-open-first-rows');
+      letGo();
+      // Then the workbook opens as before, and takes an edit.
+      const computing = heldPage.getByTestId('computing-state');
+      await heldPage.locator('[data-testid="sheet-grid"]:not([data-preview])').waitFor();
+      expect(asked.length).toBeGreaterThan(0);
+      await computing.waitFor({ state: 'detached', timeout: 120_000 });
+      await expect.poll(async () => (await gridCell(heldPage, 'B2'))?.text).toBe('2');
+    } finally {
+      letGo();
+      await browser.context.unroute(new RegExp(`/api/workbooks/${workbookId}(\\?.*)?$`));
+      await heldPage.close();
+    }
+  }, 300_000);
+
   it('says a workbook that is not there is not available', async () => {
     await page.goto(`${server.url}/workbooks/no-such-workbook`);
     await page.getByText('This workbook is not available').waitFor();

@@ -154,5 +154,41 @@ describe('early GET requests', () => {
       answers['/workbooks/w1'] = { status: 200, body: { id: 'w1', title: 'after' } };
       expect(await apiLarge('/workbooks/w1')).toEqual({ id: 'w1', title: 'after' });
     });
+
+    it('holds a held read’s reply unread until released, then hands it over', async () => {
+      const { startEarlyLargeGet, apiLarge, releaseHeldAnswers } = await modules();
+      answers['/workbooks/w1'] = { status: 200, body: { id: 'w1', revision: 5 } };
+      startEarlyLargeGet('/workbooks/w1', { held: true });
+      let got: unknown = null;
+      void apiLarge('/workbooks/w1').then((d) => (got = d));
+      await vi.waitFor(() => expect(served).toHaveLength(1));
+      await new Promise((r) => setTimeout(r, 20));
+      expect(got).toBeNull(); // arrived, but not read
+      releaseHeldAnswers();
+      await vi.waitFor(() => expect(got).toEqual({ id: 'w1', revision: 5 }));
+    });
+
+    it('starts no read while reads are deferred, until released or until the longest hold has passed', async () => {
+      const { holdAnswers, apiLarge, releaseHeldAnswers } = await modules();
+      answers['/workbooks/w1'] = { status: 200, body: { id: 'w1', revision: 6 } };
+      holdAnswers({ deferReads: true });
+      const first = apiLarge('/workbooks/w1');
+      await new Promise((r) => setTimeout(r, 20));
+      expect(asked).toEqual([]);
+      releaseHeldAnswers();
+      expect(await first).toEqual({ id: 'w1', revision: 6 });
+      expect(asked.map((m) => m.kind)).toEqual(['fetch']);
+
+      // Nobody releases them: they start after the longest hold (3 s).
+      vi.useFakeTimers();
+      holdAnswers({ deferReads: true });
+      const second = apiLarge('/workbooks/w1');
+      await vi.advanceTimersByTimeAsync(2_900);
+      expect(asked).toHaveLength(1);
+      await vi.advanceTimersByTimeAsync(200);
+      vi.useRealTimers();
+      expect(await second).toEqual({ id: 'w1', revision: 6 });
+      expect(asked).toHaveLength(2);
+    });
   });
 });

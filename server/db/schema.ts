@@ -125,6 +125,12 @@ export const revisionValues = sqliteTable(
     valuesGzip: blob('values_gzip', { mode: 'buffer' }).notNull(),
     /** What an export needs beyond /values: date kinds, spill areas, empty texts, bare errors. */
     extras: text('extras', { mode: 'json' }).$type<StoredValueExtras>().notNull(),
+    /**
+     * JSON of the workbook's count of non-empty cells and each sheet's values in its first rows and
+     * columns (firstRowsShown × firstColsShown), for GET …/first-rows (storedFormat.ts
+     * StoredFirstRows); null in rows stored before it was kept.
+     */
+    firstRows: text('first_rows'),
     /** Formulas calling a function of the clock or of chance: such a revision is recomputed on every read. */
     volatileFormulas: integer('volatile_formulas').notNull().default(0),
     computedMs: integer('computed_ms').notNull().default(0),

@@ -18,6 +18,7 @@ import { currentUser, requireUser } from '../auth/middleware.js';
 import type { AppContext } from '../context.js';
 import { parse } from '../errors.js';
 import { listVisibleWorkbooks } from '../services/access.js';
+import { firstRowsOf } from '../services/firstRows.js';
 import { applyPatch } from '../services/patches.js';
 import { takePatchPart } from '../services/stagedActions.js';
 import { plainPatch } from '../../shared/plainPatch.js';
@@ -108,6 +109,11 @@ export function workbooksRouter(ctx: AppContext): Router {
     const { n } = parse(revisionParams, req.params, 'params');
     const { sheetId } = parse(restoreBodySchema, req.body ?? {}, 'body');
     res.json(restoreRevision(ctx, accessOf(res).workbook.id, currentUser(res).id, n, sheetId));
+  });
+
+  // What the page paints first: a few kilobytes however large the workbook (services/firstRows.ts).
+  router.get('/:id/first-rows', access('view'), (_req, res) => {
+    res.json(firstRowsOf(ctx, accessOf(res)));
   });
 
   router.get('/:id/values', access('view'), async (req, res) => {

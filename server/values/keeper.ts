@@ -228,7 +228,7 @@ export class ValuesKeeper {
     this.warm.set(workbookId, reply.revision);
     const valuesGzip = Buffer.from(reply.valuesGzip.buffer, reply.valuesGzip.byteOffset, reply.valuesGzip.byteLength);
     const totalMs = performance.now() - started;
-    storeValues(this.ctx.db, workbookId, { revision: reply.revision, valuesGzip, extras: JSON.parse(reply.extras), volatileFormulas: reply.volatileFormulas, computedMs: totalMs });
+    storeValues(this.ctx.db, workbookId, { revision: reply.revision, valuesGzip, extras: JSON.parse(reply.extras), firstRows: reply.firstRows, volatileFormulas: reply.volatileFormulas, computedMs: totalMs });
     this.onRun?.({ workbookId, revision: reply.revision, mode, changed: reply.changed, engineMs: reply.engineMs, readMs: reply.readMs, totalMs, storedBytes: valuesGzip.byteLength, heapUsedBytes: reply.heapUsedBytes });
     // Revisions that landed while this one computed.
     const now = revisionOf(this.ctx.db, workbookId);

@@ -6,7 +6,7 @@ import { setStructureResolver } from '../../functions/structureResults.js';
 import type { StoredStructures } from '../structures/workerResults.js';
 import { structureHash } from '../structures/structureKey.js';
 import { unpackCells, type PackedCells } from '../xlsx/packedCells.js';
-import { encodeValues } from './storedFormat.js';
+import { encodeValues, firstRowsJson } from './storedFormat.js';
 import { WarmWorkbook, type CellChange } from './warmWorkbook.js';
 
 export type KeeperJob =
@@ -16,7 +16,7 @@ export type KeeperJob =
   | { id: number; kind: 'forget'; workbookId: string };
 
 export type KeeperReply =
-  | { id: number; ok: true; stale?: false; revision: number; valuesGzip: Uint8Array; extras: string; volatileFormulas: number; cells: number; changed?: [string, number, number][] | null; engineMs: number; readMs: number; heapUsedBytes: number; pendingCells: number; missingStructures: MissingStructure[] }
+  | { id: number; ok: true; stale?: false; revision: number; valuesGzip: Uint8Array; extras: string; firstRows: string; volatileFormulas: number; cells: number; changed?: [string, number, number][] | null; engineMs: number; readMs: number; heapUsedBytes: number; pendingCells: number; missingStructures: MissingStructure[] }
   | { id: number; ok: true; stale: true }
   | { id: number; ok: false; message: string };
 
@@ -132,6 +132,7 @@ function run(job: KeeperJob): KeeperReply {
     revision: workbook.revision,
     valuesGzip,
     extras: JSON.stringify(snapshot.extras),
+    firstRows: firstRowsJson(snapshot.payload, workbook.cellCount),
     volatileFormulas: snapshot.volatileFormulas,
     cells: workbook.cellCount,
     changed,

@@ -13,13 +13,15 @@ export interface StoredValues {
 
 export interface StoredRow extends StoredValues {
   computedMs: number;
+  /** JSON of each sheet's values in the rows the first screen shows (storedFormat.ts firstRowsJson). */
+  firstRows?: string;
 }
 
 /** Keeps `row` as the workbook's stored values and drops older ones, in one transaction. */
 export function storeValues(db: Db, workbookId: string, row: StoredRow): void {
   db.transaction((tx) => {
     tx.insert(revisionValues)
-      .values({ workbookId, revision: row.revision, valuesGzip: row.valuesGzip, extras: row.extras, volatileFormulas: row.volatileFormulas, computedMs: Math.round(row.computedMs) })
+      .values({ workbookId, revision: row.revision, valuesGzip: row.valuesGzip, extras: row.extras, firstRows: row.firstRows ?? null, volatileFormulas: row.volatileFormulas, computedMs: Math.round(row.computedMs) })
       .onConflictDoNothing()
       .run();
     tx.delete(revisionValues).where(and(eq(revisionValues.workbookId, workbookId), lt(revisionValues.revision, row.revision))).run();

@@ -1,15 +1,19 @@
 // What the page asks for before the app's code has arrived. main.tsx is kept small and runs this first,
-// so who is signed in, and on a workbook's address the workbook and its stored values, are on their
-// way while the app's code downloads and starts (its router, its schemas); the app's first requests
-// for them take these answers (src/lib/earlyGets.ts). The workbook screen's code is not asked for
+// so who is signed in, and on a workbook's address its first rows (and, unless those come with stored
+// values, the workbook and its stored values) are on their way while the app's code downloads and
+// starts (its router, its schemas); the app's first requests for them take these answers (src/lib/earlyGets.ts). The workbook screen's code is not asked for
 // here: fetched alongside the app's own code it slowed that down more than it gained (measured with
 // bench/ehtOpenProfile.ts on the 2-core box).
 import { workbookPath } from '@shared/workbookPath.js';
-import { startEarlyGet } from '../lib/earlyGets.js';
-import { startEarlyLargeGet } from '../lib/api.js';
+import type { FirstRowsPayload } from '@shared/workbooks.js';
+import { peekEarlyGet, startEarlyGet } from '../lib/earlyGets.js';
+import { holdAnswers, startEarlyLargeGet } from '../lib/api.js';
 
 /** The workbook screen's address (router.tsx: workbooks/:id). */
 const workbookRoute = /^\/workbooks\/([^/]+)\/?$/;
+
+/** Workbooks up to this many non-empty cells have their whole answers asked for after the first rows are painted. */
+export const deferredReadsMaxCells = 250_000;
 
 export function startEarly(pathname: string): void {
   startEarlyGet('/auth/me');
@@ -21,8 +25,25 @@ export function startEarly(pathname: string): void {
   } catch {
     return; // not an address the router would match either
   }
-  // Read by the JSON worker from the start: fetched by the page, these many megabytes were carried
-  // through its thread on their way to the worker (a third of a second at a stretch).
-  startEarlyLargeGet(workbookPath(id));
-  startEarlyLargeGet(`${workbookPath(id, 'values')}?stored=only`);
+  // A few kilobytes the page paints first (the first rows and their stored values), asked first.
+  const firstRows = workbookPath(id, 'first-rows');
+  startEarlyGet(firstRows);
+  // The answers that grow with the workbook are read by the JSON worker (fetched by the page, their
+  // many megabytes were carried through its thread on their way to the worker). With stored values
+  // for the first rows, and up to `deferredReadsMaxCells`, they are asked for only once those rows are
+  // painted (api.ts holdAnswers): the server building them and the worker reading them slowed the
+  // page's code on its way, by a quarter of a second on a 10,000 × 10 workbook (bench/browser-open.ts),
+  // and the whole workbook was not editable any sooner for them. A larger workbook's answers take the
+  // server a second and more, so they are asked for at once, as is any without stored values; their
+  // replies are held unread until the first rows are painted, or it is clear none will be.
+  const startLarge = () => {
+    startEarlyLargeGet(workbookPath(id), { held: true });
+    startEarlyLargeGet(`${workbookPath(id, 'values')}?stored=only`, { held: true });
+  };
+  void peekEarlyGet(firstRows)
+    .then((r) => (r ? (r.json() as Promise<FirstRowsPayload>) : null))
+    .then(
+      (first) => (first?.values && first.cells !== null && first.cells <= deferredReadsMaxCells ? holdAnswers({ deferReads: true }) : startLarge()),
+      () => startLarge(),
+    );
 }

@@ -46,6 +46,7 @@ export const queryKeys = {
   workbooks: ['workbooks'] as const,
   workbook: (id: string) => ['workbooks', id] as const,
   storedValues: (id: string) => ['workbooks', id, 'stored-values'] as const,
+  firstRows: (id: string) => ['workbooks', id, 'first-rows'] as const,
   revisions: (id: string) => ['workbooks', id, 'revisions'] as const,
   members: (id: string) => ['workbooks', id, 'members'] as const,
   audit: (id: string) => ['workbooks', id, 'audit'] as const,
@@ -60,7 +61,73 @@ export const queryKeys = {
 let jsonWorker: Worker | null = null;
 let workerBroken = false;
 let nextRequest = 1;
-const waiting = new Map<number, { path: string; assembly: JsonAssembly; resolve: (v: unknown) => void; reject: (e: Error) => void }>();
+const waiting = new Map<number, { path: string; assembly: JsonAssembly; held: boolean; resolve: (v: unknown) => void; reject: (e: Error) => void }>();
+
+/**
+ * Replies to held reads (startEarlyLargeGet's, on a workbook's address) wait here, unread, until the
+ * page's first screen is painted (releaseHeldAnswers): parsed or put together as they came, the
+ * workbook and its values took the page's thread just as the workbook screen's code ran and drew
+ * its first rows. At most `maxHoldMs`, in case nothing releases them.
+ */
+let holding = false;
+/** Reads asked for while holding start only once released (holdAnswers({ deferReads: true })). */
+let deferReads = false;
+let released: Promise<void> = Promise.resolve();
+let release: () => void = () => {};
+let holdTimer: ReturnType<typeof setTimeout> | undefined;
+const heldReplies: JsonFetchReply[] = [];
+const maxHoldMs = 3_000;
+let draining = false;
+
+/** Lets the held replies through, one per task, in the order they came. */
+export function releaseHeldAnswers(): void {
+  holding = false;
+  deferReads = false;
+  release();
+  clearTimeout(holdTimer);
+  if (draining) return;
+  draining = true;
+  const next = () => {
+    const reply = heldReplies.shift();
+    if (!reply) {
+      draining = false;
+      return;
+    }
+    takeReply(reply);
+    setTimeout(next, 0);
+  };
+  next();
+}
+
+export function holdAnswers(options: { deferReads?: boolean } = {}): void {
+  if (options.deferReads) deferReads = true;
+  if (holding) return;
+  holding = true;
+  released = new Promise((resolve) => (release = resolve));
+  holdTimer = setTimeout(releaseHeldAnswers, maxHoldMs);
+}
+
+/** One reply of the JSON worker, to the request waiting for it. */
+function takeReply(reply: JsonFetchReply): void {
+  const w = waiting.get(reply.id);
+  if (!w) return; // aborted meanwhile
+  if (reply.kind === 'failed') {
+    waiting.delete(reply.id);
+    const err = (reply.body as { error?: { code?: string; message?: string; details?: unknown } } | null)?.error;
+    w.reject(new ApiError(reply.status, err?.code ?? 'http_error', err?.message ?? `${reply.status} ${reply.statusText}`, err?.details));
+    return;
+  }
+  // Marked for the open benchmark (the page's resource timing does not see the worker's fetch),
+  // and for tests: 'head' says the answer was parsed in the worker.
+  if (reply.kind === 'head' || reply.kind === 'text') {
+    performance.mark(`orbitab:json-received ${w.path}`, { startTime: Math.max(0, reply.receivedAt - performance.timeOrigin), detail: { parsedIn: reply.kind === 'head' ? 'worker' : 'page' } });
+  }
+  const taken = w.assembly.take(reply);
+  if (taken.done) {
+    waiting.delete(reply.id);
+    w.resolve(taken.data);
+  }
+}
 
 function workerForJson(): Worker | null {
   if (jsonWorker) return jsonWorker;
@@ -80,24 +147,9 @@ function workerForJson(): Worker | null {
   };
   jsonWorker.onmessage = (e: MessageEvent<JsonFetchReply>) => {
     const reply = e.data;
-    const w = waiting.get(reply.id);
-    if (!w) return; // aborted meanwhile
-    if (reply.kind === 'failed') {
-      waiting.delete(reply.id);
-      const err = (reply.body as { error?: { code?: string; message?: string; details?: unknown } } | null)?.error;
-      w.reject(new ApiError(reply.status, err?.code ?? 'http_error', err?.message ?? `${reply.status} ${reply.statusText}`, err?.details));
-      return;
-    }
-    // Marked for the open benchmark (the page's resource timing does not see the worker's fetch),
-    // and for tests: 'head' says the answer was parsed in the worker.
-    if (reply.kind === 'head' || reply.kind === 'text') {
-      performance.mark(`orbitab:json-received ${w.path}`, { startTime: Math.max(0, reply.receivedAt - performance.timeOrigin), detail: { parsedIn: reply.kind === 'head' ? 'worker' : 'page' } });
-    }
-    const taken = w.assembly.take(reply);
-    if (taken.done) {
-      waiting.delete(reply.id);
-      w.resolve(taken.data);
-    }
+    // Held replies keep their order, and so do those after them while the held ones go through.
+    if ((holding && waiting.get(reply.id)?.held) || heldReplies.length) heldReplies.push(reply);
+    else takeReply(reply);
   };
   return jsonWorker;
 }
@@ -116,11 +168,11 @@ function largeAnswerLimit(): number {
 }
 
 /** Sends the worker one request (`ask` posts it under the given id) and resolves with the answer it hands back in parts; `signal` aborts it there too. */
-function throughWorker<T>(worker: Worker, path: string, ask: (id: number) => void, signal?: AbortSignal): Promise<T> {
+function throughWorker<T>(worker: Worker, path: string, ask: (id: number) => void, signal?: AbortSignal, held = false): Promise<T> {
   const id = nextRequest++;
   return new Promise<T>((resolve, reject) => {
     if (signal?.aborted) return reject(signal.reason);
-    waiting.set(id, { path, assembly: new JsonAssembly(), resolve: resolve as (v: unknown) => void, reject });
+    waiting.set(id, { path, assembly: new JsonAssembly(), held, resolve: resolve as (v: unknown) => void, reject });
     signal?.addEventListener('abort', () => {
       if (!waiting.delete(id)) return;
       worker.postMessage({ id, kind: 'abort' } satisfies JsonFetchRequest);
@@ -146,14 +198,15 @@ export async function apiLarge<T>(path: string, init: { signal?: AbortSignal } =
     performance.mark(`orbitab:json-received ${path}`, { detail: { parsedIn: 'page' } });
     return data;
   }
+  if (deferReads) await released;
   const worker = workerForJson();
   if (!worker) return api<T>(path, init);
   return readInWorker<T>(worker, path, init.signal);
 }
 
-function readInWorker<T>(worker: Worker, path: string, signal?: AbortSignal): Promise<T> {
+function readInWorker<T>(worker: Worker, path: string, signal?: AbortSignal, held = false): Promise<T> {
   const url = new URL(`/api${path}`, location.href).href;
-  return throughWorker<T>(worker, path, (id) => worker.postMessage({ id, kind: 'fetch', url, largeChars: largeAnswerLimit() } satisfies JsonFetchRequest), signal);
+  return throughWorker<T>(worker, path, (id) => worker.postMessage({ id, kind: 'fetch', url, largeChars: largeAnswerLimit() } satisfies JsonFetchRequest), signal, held);
 }
 
 /**
@@ -161,8 +214,9 @@ function readInWorker<T>(worker: Worker, path: string, signal?: AbortSignal): Pr
  * worker from the start (the page's first script asks; apiLarge takes it), or fetched by the page
  * where workers cannot run.
  */
-export function startEarlyLargeGet(path: string): void {
+export function startEarlyLargeGet(path: string, options: { held?: boolean } = {}): void {
   const worker = workerForJson();
   if (!worker) return startEarlyGet(path);
-  startEarlyRead(path, (signal) => readInWorker(worker, path, signal));
+  if (options.held) holdAnswers();
+  startEarlyRead(path, (signal) => readInWorker(worker, path, signal, options.held));
 }

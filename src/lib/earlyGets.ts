@@ -46,6 +46,12 @@ async function take<T>(from: Map<string, Early<T>>, path: string): Promise<T | n
   return entry.answer;
 }
 
+/** A copy of the early answer for this path, leaving it to be taken; null when there is none. */
+export function peekEarlyGet(path: string): Promise<Response | null> {
+  const entry = early.get(path);
+  return entry ? entry.answer.then((r) => r?.clone() ?? null) : Promise.resolve(null);
+}
+
 /** The early answer for this path (once), or null when there is none to use. */
 export const takeEarlyGet = (path: string): Promise<Response | null> => take(early, path);
 

@@ -9,7 +9,7 @@ import { PreviewGrid } from '../../features/grid/components/PreviewGrid.js';
 
 export function WorkbookPage() {
   const { id = '' } = useParams();
-  const { session, preview, payload, error } = useWorkbookSession(id);
+  const { session, preview, previewFrame, error } = useWorkbookSession(id);
 
   useEffect(() => {
     if (session) document.title = `${session.model.title} · Orbitab`;
@@ -31,9 +31,7 @@ export function WorkbookPage() {
       </div>
     );
   }
-  if (!session && preview && payload) {
-    return <PreviewGrid title={payload.title} preview={preview} settings={payload.sheets.find((s) => s.id === preview.sheetId)?.settings} />;
-  }
+  if (!session && preview && previewFrame) return <PreviewGrid title={previewFrame.title} preview={preview} settings={previewFrame.settings} />;
   if (!session) {
     return (
       <div className="p-4 text-ui text-ink-2" aria-busy="true">

@@ -2,7 +2,7 @@
 // operations. Tab operations go straight to the server (they are rare and must not be lost or
 // reordered with cell patches), then to the engine once the server has accepted them.
 import { queryOptions, type QueryClient } from '@tanstack/react-query';
-import { workbookPath, type PatchInput, type PatchPart, type PatchPartResult, type PatchResult, type SheetMutationResult, type ValuesPayload, type WorkbookPayload } from '@shared/workbooks.js';
+import { workbookPath, type FirstRowsPayload, type PatchInput, type PatchPart, type PatchPartResult, type PatchResult, type SheetMutationResult, type ValuesPayload, type WorkbookPayload } from '@shared/workbooks.js';
 import { removeSheetFromFormula, renameSheetInFormula } from '@shared/formulaText.js';
 import type { StructuresRequest, StructuresResponse } from '@shared/structures.js';
 import type { EhtResult } from '@functions/chem/ehtSummary.js';
@@ -37,6 +37,20 @@ export const storedValuesQueryOptions = (id: string) =>
     retry: false,
   });
 
+/**
+ * The first tab's first rows and the values stored for them (GET …/first-rows): a few kilobytes the
+ * page paints while the workbook and its values are still on their way. Failing to fetch it is no
+ * failure to open: the page then waits for the whole answers as before.
+ */
+export const firstRowsQueryOptions = (id: string) =>
+  queryOptions({
+    queryKey: queryKeys.firstRows(id),
+    queryFn: ({ signal }) => api<FirstRowsPayload>(workbookPath(id, 'first-rows'), { signal }).catch(() => null),
+    staleTime: Infinity,
+    gcTime: 0,
+    retry: false,
+  });
+
 /** How long a load started before the page's code arrived is kept for it (the page's own query keeps none). */
 const earlyLoadKeptMs = 60_000;
 
@@ -47,10 +61,11 @@ const earlyLoadKeptMs = 60_000;
  * first, so every visit still loads afresh.
  */
 export function startWorkbookLoad(client: QueryClient, id: string) {
-  for (const options of [workbookQueryOptions(id), storedValuesQueryOptions(id)] as const) {
+  for (const options of [workbookQueryOptions(id), storedValuesQueryOptions(id), firstRowsQueryOptions(id)] as const) {
     const cached = client.getQueryCache().find({ queryKey: options.queryKey, exact: true });
     if (cached && cached.getObserversCount() === 0) client.removeQueries({ queryKey: options.queryKey, exact: true });
   }
+  void client.prefetchQuery({ ...firstRowsQueryOptions(id), gcTime: earlyLoadKeptMs });
   void client.prefetchQuery({ ...workbookQueryOptions(id), gcTime: earlyLoadKeptMs });
   void client.prefetchQuery({ ...storedValuesQueryOptions(id), gcTime: earlyLoadKeptMs });
 }

@@ -4,7 +4,7 @@
 // a second of a colleague's open. Read-only (PreviewGrid); the workspace replaces it once drawn.
 import { maxColIndex } from '@shared/a1.js';
 import { inTabOrder } from '@functions/workbookEngine.js';
-import type { ComputedValue, ValuesPayload, WorkbookPayload } from '@shared/workbooks.js';
+import type { ComputedValue, SheetPayload, ValuesPayload, WorkbookPayload } from '@shared/workbooks.js';
 import { cellView, type CellView } from './cellView.js';
 import { readDisplaySettings } from './displaySettings.js';
 import type { SheetPreview } from './windowPreview.js';
@@ -20,8 +20,15 @@ function storedView(input: string, value: ComputedValue, precision: number | nul
   return cellView(input, value, precision, spilled)!;
 }
 
-/** The first sheet's first `windowRows` rows from the stored values, or null when they are not the loaded revision's. */
-export function storedPreview(payload: WorkbookPayload, stored: ValuesPayload, windowRows = 60): SheetPreview | null {
+/**
+ * The first sheet's first `windowRows` rows from the stored values, or null when they are not the
+ * loaded revision's. `payload` may hold only the first tab and its first rows (GET …/first-rows).
+ */
+export function storedPreview(
+  payload: Pick<WorkbookPayload, 'revision'> & { sheets: Pick<SheetPayload, 'id' | 'position' | 'settings' | 'cells'>[] },
+  stored: ValuesPayload,
+  windowRows = 60,
+): SheetPreview | null {
   if (stored.revision !== payload.revision) return null;
   const sheet = inTabOrder(payload.sheets)[0];
   if (!sheet) return null;

@@ -2,9 +2,9 @@
 // engine is built from this one load), builds the model and the save queue, and takes over any
 // changes an earlier visit left unsent in local storage.
 import { useQuery } from '@tanstack/react-query';
-import { startTransition, useEffect, useRef, useState, useSyncExternalStore } from 'react';
-import type { ValuesPayload, WorkbookPayload } from '@shared/workbooks.js';
-import { fetchStructures, sendPatch, storedValuesQueryOptions, workbookQueryOptions } from '../api.js';
+import { startTransition, useEffect, useMemo, useRef, useState, useSyncExternalStore } from 'react';
+import { firstRowsShown, type FirstRowsPayload, type SheetSettings, type ValuesPayload, type WorkbookPayload } from '@shared/workbooks.js';
+import { fetchStructures, firstRowsQueryOptions, sendPatch, storedValuesQueryOptions, workbookQueryOptions } from '../api.js';
 import { WorkbookModel } from '../model/workbookModel.js';
 import { PatchQueue, type SaveStatus } from '../save/patchQueue.js';
 import { PendingStore, type KeyValueStorage } from '../save/pendingStore.js';
@@ -17,6 +17,7 @@ import { inSlices, OpenPreparation, type PreparedOpen } from '../model/openPrepa
 import { inTabOrder } from '@functions/workbookEngine.js';
 import { loadOpenchemlib, openchemlibLoaded } from '@functions/chem/openchemlib.js';
 import { enginePrepared, prepareEngine } from './engineSetup.js';
+import { releaseHeldAnswers } from '../../../lib/api.js';
 import { releaseCells, releaseValues, wasReleased } from './releasedAnswers.js';
 
 export interface WorkbookSession {
@@ -92,8 +93,21 @@ export function openSession(
   return { model, queue, store, restored, structures, reevaluation };
 }
 
+/** What the page shows first, from GET …/first-rows: null without stored values or with unsent changes (it would show older values). */
+function glanceOf(first: FirstRowsPayload | null | undefined, storage: KeyValueStorage | null): { preview: SheetPreview; title: string; settings: SheetSettings; revision: number } | null {
+  if (!first?.sheet || !first.values) return null;
+  if (new PendingStore(storage, first.id).load() !== null) return null;
+  const preview = storedPreview({ revision: first.revision, sheets: [first.sheet] }, { revision: first.revision, sheets: [{ id: first.sheet.id, name: first.sheet.name, values: first.values }] }, firstRowsShown);
+  return preview && { preview, title: first.title, settings: first.sheet.settings, revision: first.revision };
+}
+
 export function useWorkbookSession(id: string) {
   const query = useQuery(workbookQueryOptions(id));
+  // A few kilobytes: the first rows and their stored values, painted while the answers that grow with
+  // the workbook are still on their way (only until the first session is on screen).
+  const firstRowsQuery = useQuery(firstRowsQueryOptions(id));
+  const [glanceOver, setGlanceOver] = useState(false);
+  const glance = useMemo(() => (glanceOver ? null : glanceOf(firstRowsQuery.data, browserStorage())), [firstRowsQuery.data, glanceOver]);
   // Asked at the same time as the workbook: the revision's stored values, painted before any formula is computed here.
   const storedQuery = useQuery(storedValuesQueryOptions(id));
   const stored = storedQuery.isFetched ? (storedQuery.data ?? null) : undefined;
@@ -107,12 +121,10 @@ export function useWorkbookSession(id: string) {
   const payload = query.data;
   const { refetch: refetchPayload } = query;
   const { refetch: refetchStored } = storedQuery;
-  // Set-up that runs while the workbook is still on its way (engineSetup.ts); the open waits for it.
   const markedLoad = useRef<WorkbookPayload | null>(null);
-  const [setUp, setSetUp] = useState(() => {
-    void prepareEngine();
-    return 0;
-  });
+  // Set-up that runs while the workbook is still on its way (engineSetup.ts), started once the first
+  // rows are painted (below); the open waits for it.
+  const [setUp, setSetUp] = useState(0);
 
   useEffect(() => {
     if (!payload || stored === undefined) return;
@@ -247,7 +259,39 @@ export function useWorkbookSession(id: string) {
     };
   }, [preview]);
 
-  return { session, preview, payload, error: query.error ?? openError, isLoading: query.isLoading };
+  useEffect(() => {
+    if (session) setGlanceOver(true);
+  }, [session]);
+
+  // The glance stands in until the open's own preview or session is there, and only for the revision loaded.
+  const shownGlance = glance && !session && !preview && (!payload || payload.revision === glance.revision) ? glance : null;
+  // The workbook and its values, read early, wait unread until the first rows are painted (api.ts),
+  // or until it is clear there is no glance to paint; so does the engine's set-up.
+  const glanceShown = shownGlance !== null;
+  const firstRowsIn = firstRowsQuery.isFetched;
+  useEffect(() => {
+    if (!firstRowsIn) return;
+    const go = () => {
+      releaseHeldAnswers();
+      void prepareEngine();
+    };
+    if (!glanceShown) return go();
+    let cancelled = false;
+    void afterNextPaint().then(() => !cancelled && go());
+    return () => {
+      cancelled = true;
+    };
+  }, [firstRowsIn, glanceShown]);
+  const previewSheet = preview && payload?.sheets.find((s) => s.id === preview.sheetId);
+  return {
+    session,
+    preview: preview ?? shownGlance?.preview ?? null,
+    /** The title and sheet settings the preview is shown with. */
+    previewFrame: preview && payload ? { title: payload.title, settings: previewSheet ? previewSheet.settings : undefined } : shownGlance ? { title: shownGlance.title, settings: shownGlance.settings } : null,
+    payload,
+    error: query.error ?? openError,
+    isLoading: query.isLoading,
+  };
 }
 
 /** Resolves after the next frame has been painted (its frame callback, then a task after it). */

@@ -1,0 +1,1 @@
+ALTER TABLE `revision_values` ADD `first_rows` text;
