@@ -12,9 +12,6 @@ import { holdAnswers, startEarlyLargeGet } from '../lib/api.js';
 /** The workbook screen's address (router.tsx: workbooks/:id). */
 const workbookRoute = /^\/workbooks\/([^/]+)\/?$/;
 
-/** Workbooks up to this many non-empty cells have their whole answers asked for after the first rows are painted. */
-export const deferredReadsMaxCells = 250_000;
-
 export function startEarly(pathname: string): void {
   startEarlyGet('/auth/me');
   const match = workbookRoute.exec(pathname);
@@ -30,12 +27,12 @@ export function startEarly(pathname: string): void {
   startEarlyGet(firstRows);
   // The answers that grow with the workbook are read by the JSON worker (fetched by the page, their
   // many megabytes were carried through its thread on their way to the worker). With stored values
-  // for the first rows, and up to `deferredReadsMaxCells`, they are asked for only once those rows are
-  // painted (api.ts holdAnswers): the server building them and the worker reading them slowed the
-  // page's code on its way, by a quarter of a second on a 10,000 × 10 workbook (bench/browser-open.ts),
-  // and the whole workbook was not editable any sooner for them. A larger workbook's answers take the
-  // server a second and more, so they are asked for at once, as is any without stored values; their
-  // replies are held unread until the first rows are painted, or it is clear none will be.
+  // for the first rows, they are asked for only once those rows are painted (api.ts holdAnswers):
+  // the server building them and the worker reading them slowed the page's code on its way, by a
+  // quarter of a second on a 10,000 × 10 workbook, and drew out the first rows' paint into a task of
+  // 250-300 ms on a 100,000 × 8 one (bench/browser-open.ts); neither was editable any sooner for
+  // them. Without, they are asked for at once, their replies held unread until it is clear no first
+  // rows will be painted.
   const startLarge = () => {
     startEarlyLargeGet(workbookPath(id), { held: true });
     startEarlyLargeGet(`${workbookPath(id, 'values')}?stored=only`, { held: true });
@@ -43,7 +40,7 @@ export function startEarly(pathname: string): void {
   void peekEarlyGet(firstRows)
     .then((r) => (r ? (r.json() as Promise<FirstRowsPayload>) : null))
     .then(
-      (first) => (first?.values && first.cells !== null && first.cells <= deferredReadsMaxCells ? holdAnswers({ deferReads: true }) : startLarge()),
+      (first) => (first?.values ? holdAnswers({ deferReads: true }) : startLarge()),
       () => startLarge(),
     );
 }
