@@ -73,9 +73,9 @@ describe('the first rows of a workbook', () => {
 
   it('never serves the values of another revision: after a patch, none until the new ones are stored', async () => {
     await t.ctx.values.idle();
-    // Held back: the keeper is told nothing of the next revision until the test asks.
-    const nudge = t.ctx.values.nudge.bind(t.ctx.values);
-    t.ctx.values.nudge = () => {};
+    // Held back: the keeper hears nothing of the next revision until the test tells it.
+    const noteRevision = t.ctx.values.noteRevision.bind(t.ctx.values);
+    t.ctx.values.noteRevision = () => {};
     try {
       await patch([[0, 0, 'N2']]);
       const stale = await firstRows();
@@ -84,9 +84,9 @@ describe('the first rows of a workbook', () => {
       expect(stale.cells).toBeNull();
       expect(stale.sheet!.cells).toContainEqual([0, 0, 'N2']);
     } finally {
-      t.ctx.values.nudge = nudge;
+      t.ctx.values.noteRevision = noteRevision;
     }
-    t.ctx.values.nudge(workbookId);
+    t.ctx.values.noteRevision(workbookId, revision);
     await t.ctx.values.idle();
     const fresh = await firstRows();
     expect(fresh.values).toContainEqual([0, 1, 3]); // N2: bond order 3
