@@ -7,13 +7,14 @@ import type { SheetPreview } from '../../../core/workbook/model/windowPreview.js
 
 const cellClass = (kind: string | undefined) => `orb-cell ${kind ? `orb-cell-${kind}` : ''}`;
 
-/** The row header's width and a row's height, as drawn below (w-[52px], h-6). */
+/** The row header's width as drawn below (w-[52px]). */
 const rowHeaderPx = 52;
-const rowPx = 24;
 
-/** The window's size (a generous one where there is none). */
-function fittingArea(): { width: number; height: number } {
-  return typeof window === 'undefined' ? { width: 4096, height: 2160 } : { width: window.innerWidth, height: window.innerHeight };
+/** The window's size, and a row's height as drawn below (h-6: 1.5 rem); generous where there is no window. */
+function fittingArea(): { width: number; height: number; rowPx: number } {
+  if (typeof window === 'undefined') return { width: 4096, height: 2160, rowPx: 16 };
+  const rem = parseFloat(getComputedStyle(document.documentElement).fontSize) || 16;
+  return { width: window.innerWidth, height: window.innerHeight, rowPx: 1.5 * rem };
 }
 
 export function PreviewGrid({ title, preview, settings }: { title: string; preview: SheetPreview; settings: SheetSettings | undefined }) {
@@ -27,7 +28,7 @@ export function PreviewGrid({ title, preview, settings }: { title: string; previ
     cols.push({ c, w });
     x += w;
   }
-  const rows = preview.rows.slice(0, Math.ceil(fit.height / rowPx));
+  const rows = preview.rows.slice(0, Math.ceil(fit.height / fit.rowPx));
   const border = 'border-r border-b border-line';
   return (
     <div className="flex h-full min-h-0 flex-col bg-canvas">
