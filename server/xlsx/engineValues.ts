@@ -73,8 +73,6 @@ export function computeSheet(engine: HyperFormula, sheet: number, name: string, 
   const { width, height } = engine.getSheetDimensions(sheet);
   const all = cells.length >= DENSE_READ_THRESHOLD * width * height ? engine.getSheetValues(sheet) : null;
   const valueAt = (row: number, col: number): CellValue => (all ? (all[row]?.[col] ?? null) : engine.getCellValue({ sheet, row, col }));
-  // Numeric keys: a row never has more than the engine's 2,000 columns (functions/engine.ts).
-  const key = (row: number, col: number) => row * 4096 + col;
   const read = (row: number, col: number, input?: string): ComputedCell => {
     let value = valueAt(row, col);
     // A parse error is written in plain words naming the position, as the grid and /values say it.

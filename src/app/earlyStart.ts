@@ -1,9 +1,10 @@
 // What the page asks for before the app's code has arrived. main.tsx is kept small and runs this first,
 // so who is signed in, and on a workbook's address its first rows (and, unless those come with stored
 // values, the workbook and its stored values) are on their way while the app's code downloads and
-// starts (its router, its schemas); the app's first requests for them take these answers (src/lib/earlyGets.ts). The workbook screen's code is not asked for
-// here: fetched alongside the app's own code it slowed that down more than it gained (measured with
-// bench/ehtOpenProfile.ts on the 2-core box).
+// starts (its router, its schemas); the app's first requests for them take these answers
+// (src/lib/earlyGets.ts). The workbook screen's code is not asked for here: fetched alongside the
+// app's own code it slowed that down more than it gained (measured with bench/ehtOpenProfile.ts on
+// the 2-core box).
 import { workbookPath } from '@shared/workbookPath.js';
 import type { FirstRowsPayload } from '@shared/workbooks.js';
 import { peekEarlyGet, startEarlyGet } from '../lib/earlyGets.js';

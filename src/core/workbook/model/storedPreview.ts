@@ -4,7 +4,7 @@
 // a second of a colleague's open. Read-only (PreviewGrid); the workspace replaces it once drawn.
 import { maxColIndex } from '@shared/a1.js';
 import { inTabOrder } from '@functions/workbookEngine.js';
-import type { ComputedValue, SheetPayload, ValuesPayload, WorkbookPayload } from '@shared/workbooks.js';
+import { firstRowsShown, type ComputedValue, type SheetPayload, type ValuesPayload, type WorkbookPayload } from '@shared/workbooks.js';
 import { cellView, type CellView } from './cellView.js';
 import { readDisplaySettings } from './displaySettings.js';
 import type { SheetPreview } from './windowPreview.js';
@@ -27,7 +27,7 @@ function storedView(input: string, value: ComputedValue, precision: number | nul
 export function storedPreview(
   payload: Pick<WorkbookPayload, 'revision'> & { sheets: Pick<SheetPayload, 'id' | 'position' | 'settings' | 'cells'>[] },
   stored: ValuesPayload,
-  windowRows = 60,
+  windowRows = firstRowsShown,
 ): SheetPreview | null {
   if (stored.revision !== payload.revision) return null;
   const sheet = inTabOrder(payload.sheets)[0];

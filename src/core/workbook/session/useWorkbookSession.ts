@@ -3,7 +3,7 @@
 // changes an earlier visit left unsent in local storage.
 import { useQuery } from '@tanstack/react-query';
 import { startTransition, useEffect, useMemo, useRef, useState, useSyncExternalStore } from 'react';
-import { firstRowsShown, type FirstRowsPayload, type SheetSettings, type ValuesPayload, type WorkbookPayload } from '@shared/workbooks.js';
+import type { FirstRowsPayload, SheetSettings, ValuesPayload, WorkbookPayload } from '@shared/workbooks.js';
 import { fetchStructures, firstRowsQueryOptions, sendPatch, storedValuesQueryOptions, workbookQueryOptions } from '../api.js';
 import { WorkbookModel } from '../model/workbookModel.js';
 import { PatchQueue, type SaveStatus } from '../save/patchQueue.js';
@@ -97,7 +97,7 @@ export function openSession(
 function glanceOf(first: FirstRowsPayload | null | undefined, storage: KeyValueStorage | null): { preview: SheetPreview; title: string; settings: SheetSettings; revision: number } | null {
   if (!first?.sheet || !first.values) return null;
   if (new PendingStore(storage, first.id).load() !== null) return null;
-  const preview = storedPreview({ revision: first.revision, sheets: [first.sheet] }, { revision: first.revision, sheets: [{ id: first.sheet.id, name: first.sheet.name, values: first.values }] }, firstRowsShown);
+  const preview = storedPreview({ revision: first.revision, sheets: [first.sheet] }, { revision: first.revision, sheets: [{ id: first.sheet.id, name: first.sheet.name, values: first.values }] });
   return preview && { preview, title: first.title, settings: first.sheet.settings, revision: first.revision };
 }
 
