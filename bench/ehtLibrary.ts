@@ -15,7 +15,7 @@ import '../functions/openchemlibNode.js';
 import { computeEhtResult } from '../functions/chem/ehtSummary.js';
 import { launchBrowser } from '../tests/helpers/browser.js';
 import { startServer } from '../tests/helpers/server.js';
-import { ApiClient, createWorkbook, storedValuesReady } from './browser-open.js';
+import { ApiClient, createWorkbook, firstFrameProbe, frameNoted, storedValuesReady } from './browser-open.js';
 import { benchMolecules } from './ehtMolecules.js';
 
 const COLUMNS = ['EHTHOMO', 'EHTLUMO', 'EHTGAP', 'EHTCHARGE'];
@@ -86,11 +86,12 @@ export async function runEhtLibraryBench(options: { molecules?: number; write?: 
       const context = browser.context;
       await context.addCookies([{ name, value, url: server.url }]);
       await context.addInitScript(stallProbe);
+      await context.addInitScript(firstFrameProbe('__orbFirstValues', '[data-testid="sheet-grid"] .orb-cell-number', 4));
       const page = browser.page;
       page.setDefaultTimeout(0);
       await page.goto(`${server.url}/workbooks/${id}`);
-      const first = await page.waitForFunction(() => (document.querySelectorAll('[data-testid="sheet-grid"] .orb-cell-number').length >= 4 ? performance.now() : false), undefined, { polling: 100 });
-      const firstValuesMs = (await first.jsonValue()) as number;
+      // Noted from inside the page: stored values can be drawn before the load event page.goto waits for.
+      const firstValuesMs = await frameNoted(page, '__orbFirstValues');
       // The first values may be the read-only preview of stored values; when the editable grid shows them too.
       const editable = await page.waitForFunction(() => (document.querySelectorAll('[data-testid="sheet-grid"]:not([data-preview]) .orb-cell-number').length >= 4 ? performance.now() : false), undefined, { polling: 50 });
       const firstEditableValuesMs = (await editable.jsonValue()) as number;

@@ -4,6 +4,7 @@
 // server's /values and exports all build theirs here.
 import { CellType, type ConfigParams, type HyperFormula } from 'hyperformula';
 import { createEngine, type SheetInput } from './engine.js';
+import { inTabOrder } from './tabOrder.js';
 
 /** One non-empty cell: zero-based row and column and the input as typed. */
 export type CellTriple = [row: number, col: number, input: string];
@@ -35,10 +36,7 @@ export function denseSheet(cells: readonly CellTriple[]): SheetInput {
   return rows;
 }
 
-/** Sheets in tab order (a stable sort: equal or missing positions keep their order). */
-export function inTabOrder<T extends { position?: number }>(sheets: readonly T[]): T[] {
-  return sheets.every((s) => s.position !== undefined) ? [...sheets].sort((a, b) => a.position! - b.position!) : [...sheets];
-}
+export { inTabOrder };
 
 export function buildWorkbookEngine(sheets: readonly EngineSheet[], options: Partial<ConfigParams> = {}): HyperFormula {
   return createEngine(Object.fromEntries(inTabOrder(sheets).map((s) => [s.name, s.table ?? denseSheet(s.cells ?? [])])), options);

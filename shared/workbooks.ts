@@ -336,9 +336,7 @@ export interface ValuesPayload {
   sheets: { id: string; name: string; values: ValueEntry[] }[];
 }
 
-/** Rows and columns of a sheet the first screen shows, and so those GET …/first-rows answers with. */
-export const firstRowsShown = 60;
-export const firstColsShown = 64;
+export { firstColsShown, firstRowsShown } from './firstRows.js';
 
 /**
  * GET /api/workbooks/:id/first-rows — what the page paints while the whole workbook and its values are

@@ -160,32 +160,69 @@ describe('opening a workbook on its stored values', () => {
     }
   }, 300_000);
 
-  it('paints the first rows from their own small answer while the workbook answer is held back', async () => {
+  it("draws the first rows from the page's first script, before the app's code and the workbook answer, where the workbook screen draws them", async () => {
     expect(workbookId).not.toBe(''); // made by the tests above
-    await storedValuesOf(workbookId, (await call('GET', `/workbooks/${workbookId}`)).body.revision);
+    // A confirmed address: the notice asking to confirm it would sit above the grid in the app only.
+    const mail = (await call('GET', '/admin/mail')).body.messages.find((m: { to: string; text: string }) => m.to === 'rosa@lab.example' && m.text.includes('/verify-email/'));
+    expect((await call('POST', '/auth/verify', { token: /\/verify-email\/([^\s/]+)/.exec(mail.text)![1] })).status).toBe(200);
+    // Markup typed into a cell of the first rows is drawn as text (the glance is plain DOM).
+    const wb = (await call('GET', `/workbooks/${workbookId}`)).body;
+    const markup = '<img src=x onerror="window.__fromCell=1">';
+    const patched = await call('POST', `/workbooks/${workbookId}/patches`, { baseRevision: wb.revision, changes: [{ sheetId: wb.sheets[0].id, row: 0, col: 5, input: markup }] });
+    expect(patched.status).toBe(200);
+    await storedValuesOf(workbookId, patched.body.revision);
     const heldPage = await browser.context.newPage();
-    // The workbook answer (asked by the JSON worker) waits until let go; the first rows come at once.
-    let letGo = () => {};
-    const gate = new Promise<void>((resolve) => (letGo = resolve));
+    // The app's code (start.tsx's chunk: React, the router, the workbook screen all come after it) and
+    // the workbook answer (asked by the JSON worker) each wait until let go; the first rows come at once.
+    const gate = () => {
+      let open = () => {};
+      const closed = new Promise<void>((resolve) => (open = resolve));
+      return { open: () => open(), closed };
+    };
+    const appCode = gate();
+    const workbookAnswer = gate();
     const asked: string[] = [];
-    await browser.context.route(new RegExp(`/api/workbooks/${workbookId}(\\?.*)?$`), async (route) => {
+    const appCodeAsked: string[] = [];
+    const workbookRoute = new RegExp(`/api/workbooks/${workbookId}(\\?.*)?$`);
+    const startChunk = /\/assets\/start-[^/]*\.js$/;
+    await browser.context.route(workbookRoute, async (route) => {
       asked.push(route.request().url());
-      await gate;
+      await workbookAnswer.closed;
       await route.continue();
     });
+    await heldPage.route(startChunk, async (route) => {
+      appCodeAsked.push(route.request().url());
+      await appCode.closed;
+      await route.continue();
+    });
+    const firstNumberBox = (scope: string) => heldPage.locator(`${scope} .orb-cell-number`).first().boundingBox();
     try {
       heldPage.setDefaultTimeout(60_000);
-      await heldPage.goto(`${server.url}/workbooks/${workbookId}`);
+      await heldPage.goto(`${server.url}/workbooks/${workbookId}`, { waitUntil: 'commit' });
       // The stored first rows, read-only: N2, O2 (set above), C2 and B2 — bond orders 3, 2, 2, 1 and
       // unpaired electrons 0, 2, 0, 2 (MO diagrams of any general chemistry text).
-      const preview = heldPage.locator('[data-testid="sheet-grid"][data-preview]');
-      await preview.waitFor();
-      await expect.poll(() => preview.locator('.orb-cell-number').first().textContent()).toBe('3'); // B1: N2, bond order 3
-      await expect.poll(async () => (await preview.locator('.orb-cell-number').allTextContents()).slice(0, 8)).toEqual(['3', '0', '2', '2', '2', '0', '1', '2']);
+      const glance = heldPage.locator('[data-glance] [data-testid="sheet-grid"][data-preview]');
+      await glance.waitFor();
+      await expect.poll(async () => (await glance.locator('.orb-cell-number').allTextContents()).slice(0, 8)).toEqual(['3', '0', '2', '2', '2', '0', '1', '2']);
+      // Drawn with none of the app's code: React has not rendered into the page's root.
+      expect(appCodeAsked.length).toBeGreaterThan(0);
+      expect(await heldPage.evaluate(() => document.getElementById('root')!.childElementCount)).toBe(0);
+      expect(await glance.getByText(markup, { exact: true }).count()).toBe(1);
+      expect(await heldPage.evaluate(() => ({ images: document.querySelectorAll('[data-glance] img').length, ran: 'fromCell' in window }))).toEqual({ images: 0, ran: false });
+      const glanceBox = await firstNumberBox('[data-glance]');
+      await screenshot(heldPage, 'stored-open-first-rows');
+      // The app's code comes: the workbook screen draws the same rows in the same place and the
+      // first script's glance goes (the workbook answer is still held, so the screen shows its own).
+      appCode.open();
+      await expect.poll(() => heldPage.locator('[data-glance]').count()).toBe(0);
+      const own = heldPage.locator('[data-testid="sheet-grid"][data-preview]');
+      expect(await own.count()).toBe(1);
+      expect(await heldPage.locator('#root [data-testid="sheet-grid"][data-preview]').count()).toBe(1);
+      expect((await own.locator('.orb-cell-number').allTextContents()).slice(0, 8)).toEqual(['3', '0', '2', '2', '2', '0', '1', '2']);
+      expect(await firstNumberBox('#root')).toEqual(glanceBox);
       // All the while the workbook answer has not been given: nothing but the first rows' answer drew them.
       expect(await heldPage.locator('[data-testid="sheet-grid"]:not([data-preview])').count()).toBe(0);
-      await screenshot(heldPage, 'stored-open-first-rows');
-      letGo();
+      workbookAnswer.open();
       // Then the workbook opens as before, and takes an edit.
       const computing = heldPage.getByTestId('computing-state');
       await heldPage.locator('[data-testid="sheet-grid"]:not([data-preview])').waitFor();
@@ -193,8 +230,9 @@ describe('opening a workbook on its stored values', () => {
       await computing.waitFor({ state: 'detached', timeout: 120_000 });
       await expect.poll(async () => (await gridCell(heldPage, 'B2'))?.text).toBe('2');
     } finally {
-      letGo();
-      await browser.context.unroute(new RegExp(`/api/workbooks/${workbookId}(\\?.*)?$`));
+      appCode.open();
+      workbookAnswer.open();
+      await browser.context.unroute(workbookRoute);
       await heldPage.close();
     }
   }, 300_000);

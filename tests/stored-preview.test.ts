@@ -3,11 +3,13 @@
 // computed, cell for cell, and nothing when the values are not the loaded revision's.
 import { describe, expect, it } from 'vitest';
 import { allowedActions } from '../shared/permissions.js';
-import type { WorkbookPayload } from '../shared/workbooks.js';
+import { firstColsShown, firstRowsShown, type FirstRowsPayload, type ValuesPayload, type WorkbookPayload } from '../shared/workbooks.js';
 import { computeValues } from '../server/services/values.js';
 import { WorkbookModel } from '../src/core/workbook/model/workbookModel.js';
 import { storedPreview } from '../src/core/workbook/model/storedPreview.js';
 import type { RowData } from '../src/core/workbook/model/sheetViews.js';
+import { glanceOf } from '../src/core/workbook/session/glance.js';
+import { PendingStore, type KeyValueStorage } from '../src/core/workbook/save/pendingStore.js';
 
 const cells: [number, number, string][] = [
   [0, 0, 'O2'],
@@ -87,5 +89,51 @@ describe('the stored values preview', () => {
     const payload = payloadWith({});
     const stored = computeValues({ revision: payload.revision - 1, sheets: payload.sheets });
     expect(storedPreview(payload, stored)).toBeNull();
+  });
+});
+
+/** An in-memory KeyValueStorage. */
+function memoryStorage(): KeyValueStorage {
+  const m = new Map<string, string>();
+  return { getItem: (k) => m.get(k) ?? null, setItem: (k, v) => void m.set(k, v), removeItem: (k) => void m.delete(k) };
+}
+
+/** The GET …/first-rows answer for a payload and its values, as the server cuts it (server/services/firstRows.ts). */
+function firstRowsOf(payload: WorkbookPayload, values: ValuesPayload | null): FirstRowsPayload {
+  const sheet = payload.sheets.find((s) => s.position === 0)!;
+  return {
+    id: payload.id,
+    title: payload.title,
+    revision: payload.revision,
+    sheet: { ...sheet, cells: sheet.cells.filter(([r, c]) => r < firstRowsShown && c < firstColsShown) },
+    values: values && values.sheets.find((s) => s.id === sheet.id)!.values.filter(([r, c]) => r < firstRowsShown && c < firstColsShown),
+    cells: null,
+  };
+}
+
+// The glance (src/core/workbook/session/glance.ts): what the page's first script and the workbook
+// screen draw from GET …/first-rows before anything else of the workbook is in.
+describe('the glance of the first rows', () => {
+  const payload = payloadWith({ precision: 2 });
+  const stored = computeValues({ revision: payload.revision, sheets: payload.sheets });
+
+  it('shows what the stored preview of the whole workbook shows, with its title and settings', () => {
+    const glance = glanceOf(firstRowsOf(payload, stored), memoryStorage())!;
+    const whole = storedPreview(payload, stored)!;
+    expect(shown(glance.preview.rows, 60)).toEqual(shown(whole.rows, 60));
+    expect(shown(glance.preview.rows, 60)['0,1']).toBe('2.00|number||'); // O2 bond order 2, two decimals
+    expect(glance.title).toBe('Stored preview');
+    expect(glance.settings).toEqual({ precision: 2 });
+    expect(glance.revision).toBe(4);
+  });
+
+  it('is not drawn without stored values, without a tab, or over changes not yet sent', () => {
+    expect(glanceOf(firstRowsOf(payload, null), memoryStorage())).toBeNull();
+    expect(glanceOf({ ...firstRowsOf(payload, stored), sheet: null }, memoryStorage())).toBeNull();
+    const storage = memoryStorage();
+    new PendingStore(storage, 'another workbook').save({ baseRevision: 1, changes: [{ sheetId: 's1', row: 0, col: 0, input: 'N2' }] });
+    expect(glanceOf(firstRowsOf(payload, stored), storage)).not.toBeNull(); // another workbook's changes do not count
+    new PendingStore(storage, payload.id).save({ baseRevision: 4, changes: [{ sheetId: 's1', row: 0, col: 0, input: 'N2' }] });
+    expect(glanceOf(firstRowsOf(payload, stored), storage)).toBeNull(); // O2 in A1 is no longer what the page holds
   });
 });

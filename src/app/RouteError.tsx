@@ -2,10 +2,13 @@ import { isRouteErrorResponse, Link, useRouteError } from 'react-router';
 import { Button } from '../components/ui/Button.js';
 import { Notice } from '../components/ui/Notice.js';
 import { sentence } from '../lib/fieldErrors.js';
+import { useLayoutEffect } from 'react';
+import { endEarlyGlance } from './earlyGlance.js';
 
 /** Shown when a page fails to load or render; says what failed and offers a way on. */
 export function RouteError() {
   const error = useRouteError();
+  useLayoutEffect(endEarlyGlance, []);
   const message = isRouteErrorResponse(error)
     ? `${error.status} ${error.statusText}`
     : error instanceof TypeError && /dynamically imported module|Failed to fetch/i.test(error.message)

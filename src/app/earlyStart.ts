@@ -9,6 +9,7 @@ import { workbookPath } from '@shared/workbookPath.js';
 import type { FirstRowsPayload } from '@shared/workbooks.js';
 import { peekEarlyGet, startEarlyGet } from '../lib/earlyGets.js';
 import { holdAnswers, startEarlyLargeGet } from '../lib/api.js';
+import { showEarlyGlance } from './earlyGlance.js';
 
 /** The workbook screen's address (router.tsx: workbooks/:id). */
 const workbookRoute = /^\/workbooks\/([^/]+)\/?$/;
@@ -38,10 +39,15 @@ export function startEarly(pathname: string): void {
     startEarlyLargeGet(workbookPath(id), { held: true });
     startEarlyLargeGet(`${workbookPath(id, 'values')}?stored=only`, { held: true });
   };
+  // With them, the first rows are drawn at once (earlyGlance.ts).
   void peekEarlyGet(firstRows)
     .then((r) => (r ? (r.json() as Promise<FirstRowsPayload>) : null))
     .then(
-      (first) => (first?.values ? holdAnswers({ deferReads: true }) : startLarge()),
+      (first) => {
+        if (!first?.values) return startLarge();
+        holdAnswers({ deferReads: true });
+        showEarlyGlance(first);
+      },
       () => startLarge(),
     );
 }

@@ -18,6 +18,7 @@ import { meQueryOptions } from '../core/session/me.js';
 import { startWorkbookLoad, storedValuesQueryOptions } from '../core/workbook/api.js';
 import { loadOpenchemlib } from '@functions/chem/openchemlib.js';
 import { NotFoundPage, RouteError } from './RouteError.js';
+import { endEarlyGlance } from './earlyGlance.js';
 
 /** The app's router; made when the app starts (start.tsx), which also starts the first route's loaders. */
 export function createAppRouter() {
@@ -73,6 +74,13 @@ export function createAppRouter() {
       ],
     },
   ]);
+  // The first rows the page's first script drew (earlyGlance.ts) belong to the address it started on.
+  const startedOn = router.state.location.pathname;
+  const stopGlance = router.subscribe((state) => {
+    if (state.location.pathname === startedOn && !state.errors) return;
+    endEarlyGlance();
+    stopGlance();
+  });
   // When the server says the session is gone (401 on any call), go to sign-in and come back after.
   onSessionLost(() => {
     const { pathname, search } = router.state.location;

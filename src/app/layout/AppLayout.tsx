@@ -4,9 +4,9 @@ import { useMe } from '../../core/session/me.js';
 import { ThemeToggle } from '../theme/ThemeToggle.js';
 import { UserMenu } from './UserMenu.js';
 import { ConfirmAddress } from '../../features/auth/AccountPage.js';
+import { appBarClass, appFrameClass, appMainClass, brandClass, navItemClass, navListClass } from './appBar.js';
 
-const navClass = ({ isActive }: { isActive: boolean }) =>
-  `flex h-7 items-center rounded-ctl px-2.5 text-ui font-medium ${isActive ? 'bg-accent-soft text-accent' : 'text-ink-2 hover:bg-hover hover:text-ink'}`;
+const navClass = ({ isActive }: { isActive: boolean }) => navItemClass(isActive);
 
 /** The signed-in frame: a slim top bar, then the page filling the rest of the window. */
 export function AppLayout() {
@@ -15,13 +15,13 @@ export function AppLayout() {
   // An open workbook still belongs under "Workbooks".
   const inWorkbooks = /^\/(workbooks\/|$)/.test(useLocation().pathname);
   return (
-    <div className="flex h-screen flex-col bg-canvas text-ink">
-      <header className="flex h-10 shrink-0 items-center gap-4 border-b border-line bg-surface px-3">
-        <NavLink to="/" className="flex items-center gap-1.5 rounded-ctl pr-1 text-ui font-semibold tracking-tight text-ink">
+    <div className={appFrameClass}>
+      <header className={appBarClass}>
+        <NavLink to="/" className={brandClass}>
           <OrbitabMark />
           Orbitab
         </NavLink>
-        <nav aria-label="Main" className="flex items-center gap-0.5">
+        <nav aria-label="Main" className={navListClass}>
           <NavLink to="/" className={() => navClass({ isActive: inWorkbooks })}>
             Workbooks
           </NavLink>
@@ -49,7 +49,7 @@ export function AppLayout() {
           <ConfirmAddress email={user.email} />
         </div>
       )}
-      <main className="min-h-0 flex-1 overflow-auto">
+      <main className={appMainClass}>
         <Outlet />
       </main>
     </div>

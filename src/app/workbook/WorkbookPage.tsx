@@ -1,15 +1,23 @@
 // The workbook screen (/workbooks/:id): loads the workbook, then hands it to the workspace.
-import { useEffect } from 'react';
+import { useEffect, useLayoutEffect } from 'react';
 import { Link, useParams } from 'react-router';
 import { Notice } from '../../components/ui/Notice.js';
 import { ApiError } from '../../lib/api.js';
 import { useWorkbookSession } from '../../core/workbook/session/useWorkbookSession.js';
 import { Workspace } from './Workspace.js';
 import { PreviewGrid } from '../../features/grid/components/PreviewGrid.js';
+import { endEarlyGlance } from '../earlyGlance.js';
 
 export function WorkbookPage() {
   const { id = '' } = useParams();
   const { session, preview, previewFrame, error } = useWorkbookSession(id);
+
+  // The first rows the page's first script drew stay until this screen draws something of its own
+  // (taken away before that frame is painted, so the two never show at once and nothing flickers).
+  const drawn = Boolean(error || session || (preview && previewFrame));
+  useLayoutEffect(() => {
+    if (drawn) endEarlyGlance();
+  }, [drawn]);
 
   useEffect(() => {
     if (session) document.title = `${session.model.title} · Orbitab`;

@@ -1,5 +1,6 @@
 // A few line icons drawn for Orbitab (16px grid, 1.5 stroke, currentColor).
 import type { SVGProps } from 'react';
+import { orbitabMarkShapes } from './markShapes.js';
 
 function Icon(props: SVGProps<SVGSVGElement>) {
   return <svg viewBox="0 0 16 16" width="16" height="16" fill="none" stroke="currentColor" strokeWidth="1.5" strokeLinecap="round" strokeLinejoin="round" aria-hidden="true" {...props} />;
@@ -47,9 +48,9 @@ export const SheetIcon = () => (
 /** The Orbitab mark: a nucleus with one tilted orbit. */
 export const OrbitabMark = ({ size = 18 }: { size?: number }) => (
   <svg viewBox="0 0 16 16" width={size} height={size} aria-hidden="true">
-    <rect width="16" height="16" rx="3.5" fill="var(--color-accent)" />
-    <ellipse cx="8" cy="8" rx="5.3" ry="2.4" fill="none" stroke="var(--color-on-accent)" strokeWidth="1.3" transform="rotate(-30 8 8)" />
-    <circle cx="8" cy="8" r="1.6" fill="var(--color-on-accent)" />
+    {orbitabMarkShapes.map(({ tag: Shape, attrs }) => (
+      <Shape key={Shape} {...attrs} />
+    ))}
   </svg>
 );
 

@@ -4,7 +4,7 @@
 // `frozenCols` and `merged`, which the export writes back) ride along untouched: the server replaces
 // the whole settings object on every save, so dropping them here would lose them for good.
 import type { SheetSettings } from '@shared/workbooks.js';
-import type { Precision } from './cellView.js';
+import type { Precision } from './valueView.js';
 
 export interface DisplaySettings {
   /** Column index → width in CSS pixels. */

@@ -4,8 +4,9 @@ import { cellView, type CellView } from './cellView.js';
 import type { SheetInputs } from './sheetInputs.js';
 import type { Precision } from './cellView.js';
 
-export type RowData = Readonly<Record<string, CellView | undefined>>;
-export const EMPTY_ROW: RowData = Object.freeze({});
+import { EMPTY_ROW, type RowData } from './valueView.js';
+
+export { EMPTY_ROW, type RowData } from './valueView.js';
 
 interface SheetLike {
   engineId: number;

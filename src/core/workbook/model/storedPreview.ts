@@ -3,12 +3,12 @@
 // the workspace's first render, which on a library of a thousand extended-Hückel rows took most of
 // a second of a colleague's open. Read-only (PreviewGrid); the workspace replaces it once drawn.
 import { maxColIndex } from '@shared/a1.js';
-import { inTabOrder } from '@functions/workbookEngine.js';
-import { firstRowsShown, type ComputedValue, type SheetPayload, type ValuesPayload, type WorkbookPayload } from '@shared/workbooks.js';
-import { cellView, type CellView } from './cellView.js';
+import { inTabOrder } from '@functions/tabOrder.js';
+import { firstRowsShown } from '@shared/firstRows.js';
+import type { ComputedValue, SheetPayload, ValuesPayload, WorkbookPayload } from '@shared/workbooks.js';
+import { EMPTY_ROW, valueView, type CellView, type RowData } from './valueView.js';
 import { readDisplaySettings } from './displaySettings.js';
 import type { SheetPreview } from './windowPreview.js';
-import { EMPTY_ROW, type RowData } from './sheetViews.js';
 
 /** Columns shown at least, as the grid does (workbookModel.ts minColsShown). */
 const minCols = 26;
@@ -17,7 +17,7 @@ const minCols = 26;
 function storedView(input: string, value: ComputedValue, precision: number | null): CellView {
   const spilled = input === '';
   if (typeof value === 'object') return { input, display: value.error, kind: 'error', value: value.error, errorCode: value.error, errorMessage: value.message, spilled };
-  return cellView(input, value, precision, spilled)!;
+  return valueView(input, value, precision, spilled)!;
 }
 
 /**

@@ -3,13 +3,14 @@
 // changes an earlier visit left unsent in local storage.
 import { useQuery } from '@tanstack/react-query';
 import { startTransition, useEffect, useMemo, useRef, useState, useSyncExternalStore } from 'react';
-import type { FirstRowsPayload, SheetSettings, ValuesPayload, WorkbookPayload } from '@shared/workbooks.js';
+import type { ValuesPayload, WorkbookPayload } from '@shared/workbooks.js';
 import { fetchStructures, firstRowsQueryOptions, sendPatch, storedValuesQueryOptions, workbookQueryOptions } from '../api.js';
 import { WorkbookModel } from '../model/workbookModel.js';
 import { PatchQueue, type SaveStatus } from '../save/patchQueue.js';
 import { PendingStore, type KeyValueStorage } from '../save/pendingStore.js';
 import { buildPreview, type SheetPreview } from '../model/windowPreview.js';
 import { storedPreview } from '../model/storedPreview.js';
+import { browserStorage, glanceOf } from './glance.js';
 import { PendingReevaluation } from '../model/pendingCells.js';
 import { installStructureStore, StructureStore } from '../structures/structureStore.js';
 import { StructureInputScan } from '../structures/structureInputs.js';
@@ -31,13 +32,6 @@ export interface WorkbookSession {
   reevaluation: PendingReevaluation;
 }
 
-function browserStorage(): KeyValueStorage | null {
-  try {
-    return window.localStorage;
-  } catch {
-    return null; // storage disabled by the browser's settings
-  }
-}
 
 /** How long one slice of putting formulas back may hold the page (well inside a 250 ms stall). */
 export const computeSliceMs = 25;
@@ -91,14 +85,6 @@ export function openSession(
     restored = known.length;
   }
   return { model, queue, store, restored, structures, reevaluation };
-}
-
-/** What the page shows first, from GET …/first-rows: null without stored values or with unsent changes (it would show older values). */
-function glanceOf(first: FirstRowsPayload | null | undefined, storage: KeyValueStorage | null): { preview: SheetPreview; title: string; settings: SheetSettings; revision: number } | null {
-  if (!first?.sheet || !first.values) return null;
-  if (new PendingStore(storage, first.id).load() !== null) return null;
-  const preview = storedPreview({ revision: first.revision, sheets: [first.sheet] }, { revision: first.revision, sheets: [{ id: first.sheet.id, name: first.sheet.name, values: first.values }] });
-  return preview && { preview, title: first.title, settings: first.sheet.settings, revision: first.revision };
 }
 
 export function useWorkbookSession(id: string) {
