@@ -1,8 +1,8 @@
+import { useLayoutEffect } from 'react';
 import { isRouteErrorResponse, Link, useRouteError } from 'react-router';
 import { Button } from '../components/ui/Button.js';
 import { Notice } from '../components/ui/Notice.js';
 import { sentence } from '../lib/fieldErrors.js';
-import { useLayoutEffect } from 'react';
 import { endEarlyGlance } from './earlyGlance.js';
 
 /** Shown when a page fails to load or render; says what failed and offers a way on. */
