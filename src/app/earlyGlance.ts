@@ -7,19 +7,12 @@
 // stays a few kilobytes.
 import type { FirstRowsPayload } from '@shared/workbooks.js';
 import { browserStorage, glanceOf } from '../core/workbook/session/glance.js';
-import { drawPreview, previewFrameClass } from '../features/grid/previewDom.js';
+import { drawPreview, el, previewFrameClass } from '../features/grid/previewDom.js';
 import { markSvg } from '../components/ui/markShapes.js';
 import { appBarClass, appFrameClass, appMainClass, brandClass, navItemClass, navListClass } from './layout/appBar.js';
 
 let state: 'waiting' | 'shown' | 'ended' = 'waiting';
 let drawn: HTMLElement | null = null;
-
-function el(tag: string, className: string, text?: string): HTMLElement {
-  const e = document.createElement(tag);
-  e.className = className;
-  if (text !== undefined) e.textContent = text;
-  return e;
-}
 
 /**
  * Draws the glance of these first rows over the page, unless one was drawn or taken away already, or
@@ -56,6 +49,3 @@ export function endEarlyGlance(): void {
   drawn?.remove();
   drawn = null;
 }
-
-/** Whether the page's first script's glance is on the page (for tests). */
-export const earlyGlanceShown = (): boolean => drawn !== null;

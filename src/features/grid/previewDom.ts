@@ -18,14 +18,14 @@ const rowHeaderPx = 52;
 /** Columns drawn at most. */
 const maxCols = 30;
 
-/** The window's size, and a row's height as drawn below (h-6: 1.5 rem); generous where there is no window. */
+/** The window's size, and a row's height as drawn below (h-6: 1.5 rem). */
 function fittingArea(): { width: number; height: number; rowPx: number } {
-  if (typeof window === 'undefined') return { width: 4096, height: 2160, rowPx: 16 };
   const rem = parseFloat(getComputedStyle(document.documentElement).fontSize) || 16;
   return { width: window.innerWidth, height: window.innerHeight, rowPx: 1.5 * rem };
 }
 
-function el(tag: string, className: string, text?: string): HTMLElement {
+/** An element with these classes and, if given, this text (as text, never as markup). */
+export function el(tag: string, className: string, text?: string): HTMLElement {
   const e = document.createElement(tag);
   e.className = className;
   if (text !== undefined) e.textContent = text;
